@@ -1,0 +1,7 @@
+//! Glowgap: detailed-balance limits of solar cells and the radiative balance of surfaces.
+//!
+//! Data flows one way: a [`scenario`] (the single source of truth, serialized for links,
+//! files and the command line) is turned into physics inputs, the [`physics`] core computes
+//! results, and front ends (the `glowgap` command line, the browser app) display them.
+
+pub mod physics;

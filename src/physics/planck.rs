@@ -1,0 +1,221 @@
+//! Planck's law: spectral radiance in every common spectral variable, photon forms, the
+//! generalized form with a chemical potential, and exact band integrals.
+//!
+//! Planck, Ann. Phys. 4, 553 (1901). Generalized law with chemical potential mu for the
+//! emission of an excited semiconductor: Wurfel, J. Phys. C 15, 3967 (1982), eq. 11.
+//!
+//! Every function takes SI arguments and returns SI values. Every finite input gives a
+//! finite answer: the Bose factor 1 / (e^x - 1) is evaluated with `exp_m1` for small x
+//! (the Rayleigh-Jeans end) and in logarithms for large x (the Wien end), so neither
+//! overflow nor underflow turns into NaN.
+
+use super::constants::{BOLTZMANN, HC, LIGHT_SPEED, PHOTON_FLUX_PREFACTOR, PLANCK, STEFAN_BOLTZMANN};
+use super::special::{bose_band, bose_complete, bose_upper, scaled_bose2};
+use std::f64::consts::PI;
+
+/// prefactor * x^p / (e^x - 1) computed as exp(ln prefactor + p ln x - x - ln(1 - e^-x)) when
+/// the direct product could overflow or underflow; directly otherwise.
+#[inline]
+fn bose_weighted(prefactor: f64, base: f64, power: i32, x: f64) -> f64 {
+    if !(x > 0.0) || !(base > 0.0) || !(prefactor > 0.0) {
+        return 0.0;
+    }
+    let direct = prefactor * base.powi(power) / x.exp_m1();
+    if direct.is_finite() && direct > 1e-290 {
+        return direct;
+    }
+    let ln = prefactor.ln() + power as f64 * base.ln() - x - (-(-x).exp_m1()).ln();
+    if ln > 709.0 {
+        f64::MAX
+    } else {
+        ln.exp()
+    }
+}
+
+/// Spectral radiance per unit wavelength B_lambda [W m^-2 sr^-1 m^-1].
+/// `lambda_m`: wavelength [m]; `temp_k`: temperature [K].
+/// B_lambda = 2 h c^2 / lambda^5 / (exp(hc / (lambda k T)) - 1).
+pub fn radiance_per_wavelength(lambda_m: f64, temp_k: f64) -> f64 {
+    if !(lambda_m > 0.0) || !(temp_k > 0.0) {
+        return 0.0;
+    }
+    let x = HC / (lambda_m * BOLTZMANN * temp_k);
+    // write 1/lambda^5 as (1/lambda)^5 so huge and tiny lambda stay in range via logs
+    bose_weighted(2.0 * HC * LIGHT_SPEED, 1.0 / lambda_m, 5, x)
+}
+
+/// Spectral radiance per unit frequency B_nu [W m^-2 sr^-1 Hz^-1].
+/// `nu_hz`: frequency [Hz]; `temp_k`: temperature [K].
+/// B_nu = 2 h nu^3 / c^2 / (exp(h nu / kT) - 1).
+pub fn radiance_per_frequency(nu_hz: f64, temp_k: f64) -> f64 {
+    if !(nu_hz > 0.0) || !(temp_k > 0.0) {
+        return 0.0;
+    }
+    let x = PLANCK * nu_hz / (BOLTZMANN * temp_k);
+    bose_weighted(2.0 * PLANCK / (LIGHT_SPEED * LIGHT_SPEED), nu_hz, 3, x)
+}
+
+/// Spectral radiance per unit wavenumber B_nutilde [W m^-2 sr^-1 (m^-1)^-1].
+/// `wavenumber_per_m`: wavenumber [m^-1] (1 cm^-1 = 100 m^-1); `temp_k` [K].
+/// B = 2 h c^2 nutilde^3 / (exp(h c nutilde / kT) - 1).
+pub fn radiance_per_wavenumber(wavenumber_per_m: f64, temp_k: f64) -> f64 {
+    if !(wavenumber_per_m > 0.0) || !(temp_k > 0.0) {
+        return 0.0;
+    }
+    let x = HC * wavenumber_per_m / (BOLTZMANN * temp_k);
+    bose_weighted(2.0 * HC * LIGHT_SPEED, wavenumber_per_m, 3, x)
+}
+
+/// Spectral radiance per unit photon energy B_E [W m^-2 sr^-1 J^-1].
+/// `energy_j`: photon energy [J]; `temp_k` [K].
+/// B_E = 2 E^3 / (h^3 c^2) / (exp(E / kT) - 1).
+pub fn radiance_per_energy(energy_j: f64, temp_k: f64) -> f64 {
+    if !(energy_j > 0.0) || !(temp_k > 0.0) {
+        return 0.0;
+    }
+    let x = energy_j / (BOLTZMANN * temp_k);
+    bose_weighted(2.0 / (PLANCK * PLANCK * PLANCK * LIGHT_SPEED * LIGHT_SPEED), energy_j, 3, x)
+}
+
+/// Spectral photon radiance per unit wavelength [photons s^-1 m^-2 sr^-1 m^-1]:
+/// B_lambda / (hc / lambda).
+pub fn photon_radiance_per_wavelength(lambda_m: f64, temp_k: f64) -> f64 {
+    if !(lambda_m > 0.0) || !(temp_k > 0.0) {
+        return 0.0;
+    }
+    let x = HC / (lambda_m * BOLTZMANN * temp_k);
+    bose_weighted(2.0 * LIGHT_SPEED, 1.0 / lambda_m, 4, x)
+}
+
+/// Spectral photon radiance per unit photon energy [photons s^-1 m^-2 sr^-1 J^-1]:
+/// 2 E^2 / (h^3 c^2) / (exp(E/kT) - 1).
+pub fn photon_radiance_per_energy(energy_j: f64, temp_k: f64) -> f64 {
+    generalized_photon_radiance_per_energy(energy_j, temp_k, 0.0)
+}
+
+/// Generalized Planck law: photon radiance per unit photon energy of a body at temperature
+/// `temp_k` [K] with photon chemical potential `mu_j` [J] (mu = qV for a cell at voltage V),
+/// [photons s^-1 m^-2 sr^-1 J^-1]: 2 E^2 / (h^3 c^2) / (exp((E - mu)/kT) - 1).
+/// Defined for E > mu; returns +inf at or below E = mu (the law has a pole there), never NaN.
+/// Wurfel 1982, eq. 11.
+pub fn generalized_photon_radiance_per_energy(energy_j: f64, temp_k: f64, mu_j: f64) -> f64 {
+    if !(energy_j > 0.0) || !(temp_k > 0.0) {
+        return 0.0;
+    }
+    if energy_j <= mu_j {
+        return f64::INFINITY;
+    }
+    let x = (energy_j - mu_j) / (BOLTZMANN * temp_k);
+    bose_weighted(2.0 / (PLANCK * PLANCK * PLANCK * LIGHT_SPEED * LIGHT_SPEED), energy_j, 2, x)
+}
+
+/// Hemispherical photon flux per unit photon energy leaving a black surface
+/// [photons s^-1 m^-2 J^-1]: pi times the photon radiance (Lambertian emitter).
+pub fn hemispherical_photon_flux_per_energy(energy_j: f64, temp_k: f64, mu_j: f64) -> f64 {
+    PI * generalized_photon_radiance_per_energy(energy_j, temp_k, mu_j)
+}
+
+/// Total hemispherical emissive power of a black surface, sigma T^4 [W m^-2]
+/// (Stefan 1879, Boltzmann 1884). `temp_k` [K].
+pub fn stefan_boltzmann(temp_k: f64) -> f64 {
+    if !(temp_k > 0.0) {
+        return 0.0;
+    }
+    let t2 = temp_k * temp_k;
+    STEFAN_BOLTZMANN * t2 * t2
+}
+
+/// Fraction of sigma T^4 emitted at wavelengths below lambda, F(0 -> lambda T)
+/// (dimensionless), as a function of the product `lambda_t_m_k` = lambda T [m K].
+/// F = (15 / pi^4) integral_{x}^{inf} x^3 / (e^x - 1) dx, x = hc / (lambda k T).
+pub fn band_fraction_below(lambda_t_m_k: f64) -> f64 {
+    if !(lambda_t_m_k > 0.0) {
+        return 0.0;
+    }
+    if lambda_t_m_k == f64::INFINITY {
+        return 1.0;
+    }
+    let x = HC / (lambda_t_m_k * BOLTZMANN);
+    (bose_upper(3, x) / bose_complete(3)).clamp(0.0, 1.0)
+}
+
+/// Hemispherical emissive power of a black surface at `temp_k` [K] between photon energies
+/// `e1_j` and `e2_j` [J] (either order; `f64::INFINITY` allowed) [W m^-2]:
+/// 2 pi (kT)^4 / (h^3 c^2) * integral_{x1}^{x2} x^3 / (e^x - 1) dx.
+pub fn band_power_energy(e1_j: f64, e2_j: f64, temp_k: f64) -> f64 {
+    if !(temp_k > 0.0) {
+        return 0.0;
+    }
+    let kt = BOLTZMANN * temp_k;
+    let scale = PHOTON_FLUX_PREFACTOR * kt * kt * kt * kt;
+    scale * bose_band(3, e1_j.max(0.0) / kt, e2_j.max(0.0) / kt).abs()
+}
+
+/// Hemispherical photon flux of a black surface at `temp_k` [K] between photon energies
+/// `e1_j` and `e2_j` [J] [photons s^-1 m^-2]:
+/// 2 pi (kT)^3 / (h^3 c^2) * integral_{x1}^{x2} x^2 / (e^x - 1) dx.
+pub fn band_photon_flux_energy(e1_j: f64, e2_j: f64, temp_k: f64) -> f64 {
+    if !(temp_k > 0.0) {
+        return 0.0;
+    }
+    let kt = BOLTZMANN * temp_k;
+    let scale = PHOTON_FLUX_PREFACTOR * kt * kt * kt;
+    scale * bose_band(2, e1_j.max(0.0) / kt, e2_j.max(0.0) / kt).abs()
+}
+
+/// Hemispherical emissive power of a black surface between wavelengths `l1_m` and `l2_m`
+/// [m] at `temp_k` [K] [W m^-2].
+pub fn band_power_wavelength(l1_m: f64, l2_m: f64, temp_k: f64) -> f64 {
+    let to_e = |l: f64| if l > 0.0 { HC / l } else { f64::INFINITY };
+    band_power_energy(to_e(l1_m), to_e(l2_m), temp_k)
+}
+
+/// Hemispherical photon flux of a body at `temp_k` [K] with chemical potential `mu_j` [J]
+/// above photon energy `e0_j` [J] (e0 > mu), returned as its natural logarithm
+/// ln(flux / [photons s^-1 m^-2]) together with the first and second derivatives of that
+/// logarithm with respect to m = mu / kT. Working in logarithms keeps the radiative
+/// recombination of wide-gap or cold cells, some e^-1000 in size, in range.
+pub fn ln_photon_flux_above(e0_j: f64, temp_k: f64, mu_j: f64) -> (f64, f64, f64) {
+    let kt = BOLTZMANN * temp_k;
+    let x0 = e0_j / kt;
+    let a = (e0_j - mu_j) / kt;
+    let g = scaled_bose2(x0, a);
+    let ln_scale = (PHOTON_FLUX_PREFACTOR * kt * kt * kt).ln();
+    let rho = g.d1 / g.value;
+    (ln_scale - a + g.value.ln(), rho, g.d2 / g.value - rho * rho)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn forms_agree_through_jacobians() {
+        // B_lambda |d lambda| = B_nu |d nu| = B_E |dE| = B_nutilde |d nutilde| (definitions)
+        let t = 5772.0;
+        for &lambda in &[300e-9, 1e-6, 10e-6] {
+            let nu = LIGHT_SPEED / lambda;
+            let e = HC / lambda;
+            let wn = 1.0 / lambda;
+            let bl = radiance_per_wavelength(lambda, t);
+            let bnu = radiance_per_frequency(nu, t) * nu * nu / LIGHT_SPEED;
+            let be = radiance_per_energy(e, t) * e * e / HC;
+            let bwn = radiance_per_wavenumber(wn, t) * wn * wn;
+            for other in [bnu, be, bwn] {
+                assert!((other / bl - 1.0).abs() < 1e-13);
+            }
+        }
+    }
+
+    #[test]
+    fn extremes_are_finite() {
+        for &l in &[1e-300, 1e-30, 1e-12, 1.0, 1e10, 1e300] {
+            for &t in &[1e-300, 1e-3, 3.0, 300.0, 1e9, 1e300] {
+                let b = radiance_per_wavelength(l, t);
+                assert!(b.is_finite() && b >= 0.0, "l={l} t={t} b={b}");
+                let f = band_fraction_below(l * t);
+                assert!(f.is_finite() && (0.0..=1.0).contains(&f));
+            }
+        }
+    }
+}

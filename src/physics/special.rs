@@ -1,0 +1,415 @@
+//! Special functions behind the closed-form Planck integrals.
+//!
+//! * Polylogarithms Li_s(e^-a) for integer s from -1 to 4, in a scaled form that never
+//!   overflows or underflows: `scaled_polylog(s, a) = e^a Li_s(e^-a)`.
+//! * Bose-Einstein integrals G_n(x0, m) = integral_{x0}^inf x^n / (e^(x - m) - 1) dx, n = 2, 3,
+//!   through the identity
+//!   G_n(x0, m) = sum_{j=0..n} n!/(n-j)! x0^(n-j) Li_{j+1}(e^-(x0 - m)),
+//!   which follows from expanding 1/(e^y - 1) = sum_k e^-ky and integrating term by term
+//!   (see e.g. Abramowitz & Stegun 27.1 and Lewin, "Polylogarithms and associated functions",
+//!   1981, ch. 7). For m = 0 it is the classical series for the blackbody radiation functions.
+//! * The low part integral_0^x x^n / (e^x - 1) dx by its Bernoulli-number series
+//!   (A&S 23.1.1: t / (e^t - 1) = sum B_k t^k / k!, |t| < 2 pi).
+//! * The principal branch of the Lambert W function in the exponential form W(e^y).
+
+use std::f64::consts::PI;
+
+/// Riemann zeta at 2, 3, 4 and 5 (A&S 23.2, tables 23.3).
+pub const ZETA2: f64 = PI * PI / 6.0;
+pub const ZETA3: f64 = 1.202_056_903_159_594_3;
+pub const ZETA4: f64 = PI * PI * PI * PI / 90.0;
+pub const ZETA5: f64 = 1.036_927_755_143_369_9;
+
+/// Bernoulli numbers B_0 .. B_30 (A&S table 23.2); odd ones past B_1 are zero.
+const BERNOULLI: [f64; 31] = [
+    1.0,
+    -0.5,
+    1.0 / 6.0,
+    0.0,
+    -1.0 / 30.0,
+    0.0,
+    1.0 / 42.0,
+    0.0,
+    -1.0 / 30.0,
+    0.0,
+    5.0 / 66.0,
+    0.0,
+    -691.0 / 2730.0,
+    0.0,
+    7.0 / 6.0,
+    0.0,
+    -3617.0 / 510.0,
+    0.0,
+    43867.0 / 798.0,
+    0.0,
+    -174611.0 / 330.0,
+    0.0,
+    854513.0 / 138.0,
+    0.0,
+    -236364091.0 / 2730.0,
+    0.0,
+    8553103.0 / 6.0,
+    0.0,
+    -23749461029.0 / 870.0,
+    0.0,
+    8615841276005.0 / 14322.0,
+];
+
+/// Riemann zeta at an integer argument s <= 5, s != 1. For s <= 0 it uses
+/// zeta(-n) = (-1)^n B_(n+1) / (n + 1) (A&S 23.2.15), valid while B_(n+1) is tabulated.
+fn zeta_int(s: i32) -> f64 {
+    match s {
+        5 => ZETA5,
+        4 => ZETA4,
+        3 => ZETA3,
+        2 => ZETA2,
+        0 => -0.5,
+        s if s < 0 => {
+            let n = (-s) as usize;
+            if n + 1 >= BERNOULLI.len() {
+                return 0.0; // past the table; the series below never reaches here for a < 1
+            }
+            let sign = if n % 2 == 0 { 1.0 } else { -1.0 };
+            sign * BERNOULLI[n + 1] / (n as f64 + 1.0)
+        }
+        _ => f64::NAN, // zeta(1) is the pole; callers never ask for it
+    }
+}
+
+/// Below this the logarithmic expansion of Li_s is used, above it the direct series.
+const LOG_EXPANSION_LIMIT: f64 = 1.0;
+
+/// e^a Li_s(e^-a) for s in {-1, 0, 1, 2, 3, 4} and a >= 0 (a = 0 only for s >= 2).
+///
+/// For large a this tends to 1 (Li_s(z) ~ z), so products with e^-a never overflow.
+/// * s = -1, 0, 1 use the closed forms z/(1-z)^2, z/(1-z), -ln(1-z).
+/// * s >= 2, a >= 1: the defining series sum_k z^(k-1) / k^s (ratio z <= 1/e).
+/// * s >= 2, a < 1: the expansion about z = 1 in mu = ln z = -a (Lewin 1981, eq. 7.51;
+///   also Wood, "The computation of polylogarithms", 1992, eq. 9.4):
+///   Li_s(e^mu) = mu^(s-1)/(s-1)! [H_(s-1) - ln(-mu)] + sum_{k>=0, k != s-1} zeta(s-k) mu^k / k!
+pub fn scaled_polylog(s: i32, a: f64) -> f64 {
+    debug_assert!(a >= 0.0);
+    match s {
+        -1 => {
+            let one_minus_z = -(-a).exp_m1();
+            let z_scaled = 1.0; // e^a * z
+            z_scaled / (one_minus_z * one_minus_z)
+        }
+        0 => 1.0 / (-(-a).exp_m1()),
+        1 => {
+            let z = (-a).exp();
+            if z < 1e-8 {
+                // -ln(1-z)/z = 1 + z/2 + z^2/3 + ...
+                1.0 + z * (0.5 + z / 3.0)
+            } else {
+                -(-(-a).exp_m1()).ln() / z
+            }
+        }
+        _ => {
+            if a >= LOG_EXPANSION_LIMIT {
+                polylog_series_scaled(s, a)
+            } else {
+                polylog_log_expansion(s, -a) * a.exp()
+            }
+        }
+    }
+}
+
+/// sum_{k>=1} z^(k-1) / k^s with z = e^-a, a >= 1.
+fn polylog_series_scaled(s: i32, a: f64) -> f64 {
+    let z = (-a).exp();
+    let mut sum = 1.0;
+    let mut zk = 1.0;
+    let mut k = 1.0_f64;
+    loop {
+        zk *= z;
+        k += 1.0;
+        let term = zk / k.powi(s);
+        sum += term;
+        if term < 1e-17 * sum {
+            return sum;
+        }
+    }
+}
+
+/// Li_s(e^mu) for mu in (-1, 0], s >= 2.
+fn polylog_log_expansion(s: i32, mu: f64) -> f64 {
+    // harmonic number H_(s-1)
+    let mut h = 0.0;
+    for i in 1..s {
+        h += 1.0 / i as f64;
+    }
+    let mut fact = 1.0; // k!
+    let mut mu_k = 1.0; // mu^k
+    let mut sum = 0.0;
+    let mut small_in_a_row = 0;
+    for k in 0..=30 {
+        if k > 0 {
+            fact *= k as f64;
+            mu_k *= mu;
+        }
+        let term = if k == s - 1 {
+            if mu == 0.0 {
+                0.0
+            } else {
+                mu_k / fact * (h - (-mu).ln())
+            }
+        } else {
+            zeta_int(s - k) * mu_k / fact
+        };
+        sum += term;
+        // zeta vanishes at even negative integers, so wait for two small terms in a row
+        if k > s && term.abs() <= 1e-17 * sum.abs() {
+            small_in_a_row += 1;
+            if small_in_a_row == 2 {
+                break;
+            }
+        } else {
+            small_in_a_row = 0;
+        }
+    }
+    sum
+}
+
+/// The scaled pieces of a Bose-Einstein integral with chemical potential:
+/// with a = x0 - m >= 0, G_n(x0, m) = e^-a * `value`, dG/dm = e^-a * `d1`,
+/// d2G/dm2 = e^-a * `d2`.
+#[derive(Debug, Clone, Copy)]
+pub struct ScaledBose {
+    pub value: f64,
+    pub d1: f64,
+    pub d2: f64,
+}
+
+/// G_2 and its first two derivatives in m, scaled by e^a (see [`ScaledBose`]).
+/// x0 >= 0, a = x0 - m > 0.
+pub fn scaled_bose2(x0: f64, a: f64) -> ScaledBose {
+    let l_m1 = scaled_polylog(-1, a);
+    let l0 = scaled_polylog(0, a);
+    let l1 = scaled_polylog(1, a);
+    let (l2, l3) = if a >= LOG_EXPANSION_LIMIT {
+        scaled_series_pair(a)
+    } else {
+        (scaled_polylog(2, a), scaled_polylog(3, a))
+    };
+    let x2 = x0 * x0;
+    ScaledBose {
+        value: x2 * l1 + 2.0 * x0 * l2 + 2.0 * l3,
+        d1: x2 * l0 + 2.0 * x0 * l1 + 2.0 * l2,
+        d2: x2 * l_m1 + 2.0 * x0 * l0 + 2.0 * l1,
+    }
+}
+
+/// (e^a Li_2(e^-a), e^a Li_3(e^-a)) in one pass of the series, a >= 1.
+#[inline]
+fn scaled_series_pair(a: f64) -> (f64, f64) {
+    let z = (-a).exp();
+    let (mut s2, mut s3) = (1.0, 1.0);
+    let mut zk = 1.0;
+    let mut k = 1.0_f64;
+    loop {
+        zk *= z;
+        k += 1.0;
+        let t2 = zk / (k * k);
+        s2 += t2;
+        s3 += t2 / k;
+        if t2 < 1e-17 {
+            return (s2, s3);
+        }
+    }
+}
+
+/// Upper Bose-Einstein integral integral_{x0}^inf x^n / (e^x - 1) dx for n in {1, 2, 3}, x0 >= 0.
+///
+/// Small x0 uses the complement n! zeta(n+1) - [`bose_lower`]; elsewhere the polylog series.
+/// Returns 0 (not NaN) once the answer underflows.
+pub fn bose_upper(n: u32, x0: f64) -> f64 {
+    if x0.is_nan() {
+        return f64::NAN;
+    }
+    if x0 <= 0.0 {
+        return bose_complete(n);
+    }
+    if x0 < 1.0 {
+        return bose_complete(n) - bose_lower(n, x0);
+    }
+    if x0 == f64::INFINITY || x0 > 745.0 + 4.0 * x0.ln() {
+        return 0.0;
+    }
+    // G_n(x0) = e^-x0 sum_j n!/(n-j)! x0^(n-j) Ltilde_{j+1}(x0)
+    let mut sum = 0.0;
+    let mut coef = 1.0; // n!/(n-j)!
+    for j in 0..=n {
+        if j > 0 {
+            coef *= (n - j + 1) as f64;
+        }
+        let xp = x0.powi((n - j) as i32);
+        sum += coef * xp * scaled_polylog(j as i32 + 1, x0);
+    }
+    // multiply by e^-x0 in log space so that x0^n cannot overflow first
+    (sum.ln() - x0).exp()
+}
+
+/// Complete Bose-Einstein integral integral_0^inf x^n / (e^x - 1) dx = n! zeta(n+1).
+pub fn bose_complete(n: u32) -> f64 {
+    match n {
+        1 => ZETA2,
+        2 => 2.0 * ZETA3,
+        3 => 6.0 * ZETA4, // = pi^4 / 15
+        _ => {
+            let mut f = 1.0;
+            for i in 1..=n {
+                f *= i as f64;
+            }
+            f * zeta_sum(n + 1)
+        }
+    }
+}
+
+fn zeta_sum(s: u32) -> f64 {
+    (1..200).map(|k| 1.0 / (k as f64).powi(s as i32)).sum()
+}
+
+/// Lower Bose-Einstein integral integral_0^x x^n / (e^x - 1) dx for n >= 1 and 0 <= x < 2 pi,
+/// by the Bernoulli series sum_k B_k x^(n+k) / (k! (n+k)) (A&S 23.1.1 integrated termwise).
+/// For x >= 2 it switches to the complement of the upper integral.
+pub fn bose_lower(n: u32, x: f64) -> f64 {
+    if x <= 0.0 {
+        return 0.0;
+    }
+    if x >= 2.0 {
+        return bose_complete(n) - bose_upper(n, x);
+    }
+    let mut sum = 0.0;
+    let mut xk = x.powi(n as i32); // x^(n+k), k = 0
+    let mut fact = 1.0;
+    for (k, b) in BERNOULLI.iter().enumerate() {
+        if k > 0 {
+            fact *= k as f64;
+            xk *= x;
+        }
+        if *b == 0.0 {
+            continue;
+        }
+        let term = b * xk / (fact * (n as f64 + k as f64));
+        sum += term;
+        if k > 4 && term.abs() < 1e-18 * sum.abs() {
+            break;
+        }
+    }
+    sum
+}
+
+/// Band integral integral_{x1}^{x2} x^n / (e^x - 1) dx for 0 <= x1 <= x2 (infinite x2 allowed),
+/// choosing the low series or the upper series so that no large numbers cancel.
+pub fn bose_band(n: u32, x1: f64, x2: f64) -> f64 {
+    let (lo, hi) = if x1 <= x2 { (x1, x2) } else { (x2, x1) };
+    let lo = lo.max(0.0);
+    let sign = if x1 <= x2 { 1.0 } else { -1.0 };
+    let value = if hi <= 2.0 {
+        bose_lower(n, hi) - bose_lower(n, lo)
+    } else if lo >= 2.0 {
+        bose_upper(n, lo) - bose_upper(n, hi)
+    } else {
+        (bose_lower(n, 2.0) - bose_lower(n, lo)) + (bose_upper(n, 2.0) - bose_upper(n, hi))
+    };
+    sign * value.max(0.0)
+}
+
+/// Principal Lambert W of e^y, i.e. the w > 0 solving w + ln w = y, for any finite y.
+///
+/// Used for the maximum power point in the Boltzmann approximation,
+/// V_mp = (kT/q) (W(e (1 + Jsc/J0)) - 1), where the argument is passed as its logarithm so
+/// that a huge Jsc/J0 never overflows. Newton on w + ln w - y converges quadratically from
+/// the asymptotic start y - ln y (Corless et al., Adv. Comput. Math. 5, 329, 1996, eq. 4.19).
+pub fn lambert_w_of_exp(y: f64) -> f64 {
+    if y.is_nan() {
+        return f64::NAN;
+    }
+    if y == f64::INFINITY {
+        return f64::INFINITY;
+    }
+    if y < -700.0 {
+        // W(x) ~ x for tiny x
+        return y.exp();
+    }
+    let mut w = if y > 2.0 {
+        y - y.ln()
+    } else {
+        // W(x) for moderate x: a start from the series about x = 0 and about x = e
+        let x = y.exp();
+        if x < 1.0 {
+            x * (1.0 - x + 1.5 * x * x).max(0.2)
+        } else {
+            1.0 + (y - 1.0) * 0.5
+        }
+    };
+    for _ in 0..60 {
+        // Newton on f(w) = w + ln w - y, f' = 1 + 1/w; written multiplicatively to keep w > 0
+        let next = w * (1.0 + y - w.ln()) / (1.0 + w);
+        let next = if next <= 0.0 { w * 0.5 } else { next };
+        if (next - w).abs() <= 1e-15 * next.abs() {
+            return next;
+        }
+        w = next;
+    }
+    w
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn polylog_matches_direct_sum_across_the_switch() {
+        // Li_s(e^-a) by brute-force summation of the defining series (converges for a > 0).
+        for s in 2..=4 {
+            for &a in &[0.05, 0.3, 0.7, 0.99, 1.0, 1.01, 1.5, 3.0, 10.0] {
+                let z: f64 = (-a as f64).exp();
+                let mut direct = 0.0;
+                for k in 1..200_000 {
+                    let t = z.powi(k) / (k as f64).powi(s);
+                    direct += t;
+                    if t < 1e-20 {
+                        break;
+                    }
+                }
+                let ours = scaled_polylog(s, a) * z;
+                assert!(
+                    ((ours - direct) / direct).abs() < 1e-12,
+                    "s={s} a={a}: {ours} vs {direct}"
+                );
+            }
+        }
+    }
+
+    #[test]
+    fn polylog_at_one_is_zeta() {
+        // Li_s(1) = zeta(s) (definition).
+        assert!((scaled_polylog(2, 0.0) - ZETA2).abs() < 1e-15);
+        assert!((scaled_polylog(3, 0.0) - ZETA3).abs() < 1e-15);
+        assert!((scaled_polylog(4, 0.0) - ZETA4).abs() < 1e-15);
+    }
+
+    #[test]
+    fn lambert_w_inverts() {
+        for &y in &[-50.0, -3.0, -0.5, 0.0, 0.5, 1.0, 2.0, 5.0, 40.0, 1e3, 1e8, 1e300] {
+            let w = lambert_w_of_exp(y);
+            assert!(w > 0.0 && w.is_finite());
+            let resid = w + w.ln() - y;
+            assert!(resid.abs() < 1e-12 * y.abs().max(1.0), "y={y} w={w} resid={resid}");
+        }
+        // W(e) = 1 exactly (definition: 1 * e^1 = e)
+        assert!((lambert_w_of_exp(1.0) - 1.0).abs() < 1e-15);
+    }
+
+    #[test]
+    fn lower_and_upper_add_to_complete() {
+        for n in 1..=3 {
+            for &x in &[1e-6, 0.1, 0.9, 1.0, 1.5, 1.99, 2.0, 3.0] {
+                let total = bose_lower(n, x) + bose_upper(n, x);
+                assert!((total / bose_complete(n) - 1.0).abs() < 1e-13, "n={n} x={x}");
+            }
+        }
+    }
+}
