@@ -4,4 +4,10 @@
 //! files and the command line) is turned into physics inputs, the [`physics`] core computes
 //! results, and front ends (the `glowgap` command line, the browser app) display them.
 
+pub mod formats;
 pub mod physics;
+pub mod report;
+pub mod scenario;
+
+#[cfg(not(target_arch = "wasm32"))]
+pub mod cli;

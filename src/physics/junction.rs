@@ -22,10 +22,9 @@
 //! monotone functions of m, started from the Boltzmann closed forms, kept inside a bracket
 //! that always holds the root, and falling back to bisection whenever a step would leave it.
 
-use super::constants::{thermal_energy, CHARGE};
-use super::planck::ln_photon_flux_above;
+use super::constants::{thermal_energy, CHARGE, PHOTON_FLUX_PREFACTOR};
 use super::sources::Source;
-use super::special::lambert_w_of_exp;
+use super::special::{lambert_w_of_exp, lambert_w_of_exp_rough, scaled_bose2};
 use serde::{Deserialize, Serialize};
 
 /// Which faces of the cell emit.
@@ -102,14 +101,38 @@ pub struct CellResult {
     pub efficiency: f64,
 }
 
+/// The temperature-dependent prefactor of the radiative current, shared by every gap of a
+/// sweep: ln of q g 2 pi (kT)^3 / (h^3 c^2) [A m^-2].
+#[derive(Debug, Clone, Copy)]
+pub struct ThermalPrefactor {
+    kt: f64,
+    ln_prefactor: f64,
+}
+
+impl ThermalPrefactor {
+    pub fn new(temp_k: f64, emission: Emission) -> ThermalPrefactor {
+        let kt = thermal_energy(temp_k);
+        let ln_prefactor = (emission.faces() * CHARGE * PHOTON_FLUX_PREFACTOR * kt * kt * kt).ln();
+        ThermalPrefactor { kt, ln_prefactor }
+    }
+}
+
+/// ln R and its first three derivatives with respect to m = qV/kT.
+#[derive(Debug, Clone, Copy)]
+struct LnRad {
+    ln_r: f64,
+    d1: f64,
+    d2: f64,
+    d3: f64,
+}
+
 /// The radiative diode of a cell: everything needed to evaluate J(V) quickly.
 #[derive(Debug, Clone, Copy)]
 pub struct Diode {
     kt: f64,
     x0: f64,
-    /// ln of q g 2 pi (kT)^3 / (h^3 c^2) is folded into the exact call; for the Boltzmann
-    /// model, ln R_B(0)
-    ln_faces_q: f64,
+    ln_prefactor: f64,
+    /// ln R_B(0), the Boltzmann (first series term) radiative current at zero bias
     ln_rb0: f64,
     ere: f64,
     jsc: f64,
@@ -122,32 +145,46 @@ pub struct Diode {
 impl Diode {
     /// `jsc` [A m^-2] is the photocurrent the cell collects.
     pub fn new(cell: &Cell, jsc: f64) -> Diode {
-        let kt = thermal_energy(cell.temp_k);
-        let x0 = cell.gap_j / kt;
-        let ln_faces_q = (cell.emission.faces() * CHARGE).ln();
-        // Boltzmann R_B(0): first series term, e^-x0 (x0^2 + 2 x0 + 2) times the prefactor
-        let (ln_flux0, _, _) = ln_photon_flux_above(cell.gap_j, cell.temp_k, 0.0);
-        let ln_r0_exact = ln_faces_q + ln_flux0;
-        let ln_scale = (super::constants::PHOTON_FLUX_PREFACTOR * kt * kt * kt).ln();
-        let ln_rb0 = ln_faces_q + ln_scale - x0 + (x0 * x0 + 2.0 * x0 + 2.0).ln();
-        let ln_r0 = match cell.model {
-            JvModel::Exact => ln_r0_exact,
-            JvModel::Boltzmann => ln_rb0,
-        };
-        let ere = cell.ere;
-        let ln_target = log_add((ere * jsc).ln(), ln_r0);
-        Diode { kt, x0, ln_faces_q, ln_rb0, ere, jsc, ln_target, ln_r0, model: cell.model }
+        Diode::with_prefactor(&ThermalPrefactor::new(cell.temp_k, cell.emission), cell, jsc)
     }
 
-    /// ln R at reduced voltage m = qV/kT, with d lnR/dm and d^2 lnR/dm^2.
+    /// As [`Diode::new`] with the temperature prefactor computed once for many gaps.
+    pub fn with_prefactor(pre: &ThermalPrefactor, cell: &Cell, jsc: f64) -> Diode {
+        let kt = pre.kt;
+        let x0 = cell.gap_j / kt;
+        let ln_rb0 = pre.ln_prefactor - x0 + (x0 * x0 + 2.0 * x0 + 2.0).ln();
+        let mut d = Diode {
+            kt,
+            x0,
+            ln_prefactor: pre.ln_prefactor,
+            ln_rb0,
+            ere: cell.ere,
+            jsc,
+            ln_target: 0.0,
+            ln_r0: ln_rb0,
+            model: cell.model,
+        };
+        if cell.model == JvModel::Exact {
+            d.ln_r0 = d.ln_r(0.0).ln_r;
+        }
+        d.ln_target = log_add((d.ere * jsc).ln(), d.ln_r0);
+        d
+    }
+
+    /// ln R at reduced voltage m = qV/kT, with its derivatives in m.
     #[inline]
-    fn ln_r(&self, m: f64) -> (f64, f64, f64) {
+    fn ln_r(&self, m: f64) -> LnRad {
         match self.model {
             JvModel::Exact => {
-                let (l, d1, d2) = ln_photon_flux_above(self.x0 * self.kt, self.kt / super::constants::BOLTZMANN, m * self.kt);
-                (self.ln_faces_q + l, d1, d2)
+                let a = self.x0 - m;
+                let g = scaled_bose2(self.x0, a);
+                let inv = 1.0 / g.value;
+                let rho = g.d1 * inv;
+                let d2 = g.d2 * inv - rho * rho;
+                let d3 = g.d3 * inv - 3.0 * rho * d2 - rho * rho * rho;
+                LnRad { ln_r: self.ln_prefactor - a + g.value.ln(), d1: rho, d2, d3 }
             }
-            JvModel::Boltzmann => (self.ln_rb0 + m, 1.0, 0.0),
+            JvModel::Boltzmann => LnRad { ln_r: self.ln_rb0 + m, d1: 1.0, d2: 0.0, d3: 0.0 },
         }
     }
 
@@ -159,10 +196,10 @@ impl Diode {
     /// (where the exact law has its pole) it returns -infinity, never NaN.
     pub fn current(&self, v: f64) -> f64 {
         let m = v * CHARGE / self.kt;
-        if self.model == JvModel::Exact && m >= self.x0 {
+        if self.model == JvModel::Exact && !(m < self.x0) {
             return f64::NEG_INFINITY;
         }
-        let (lr, _, _) = self.ln_r(m);
+        let lr = self.ln_r(m).ln_r;
         // (R - R0)/ERE computed as R0 (e^(lnR - lnR0) - 1)/ERE, accurate near V = 0
         let excess = self.ln_r0.exp() * (lr - self.ln_r0).exp_m1();
         self.jsc - excess / self.ere
@@ -170,42 +207,57 @@ impl Diode {
 
     /// Reduced open-circuit voltage m_oc = qVoc/kT.
     fn open_circuit_m(&self) -> f64 {
-        if !(self.jsc > 0.0) {
-            return 0.0;
-        }
         let boltzmann = self.ln_target - self.ln_rb0;
         match self.model {
             JvModel::Boltzmann => boltzmann.max(0.0),
             JvModel::Exact => {
                 // G(m) = lnR(m) - ln_target is increasing; the root lies in (0, x0)
                 let g = |m: f64| {
-                    let (lr, d1, _) = self.ln_r(m);
-                    (lr - self.ln_target, d1)
+                    let r = self.ln_r(m);
+                    (r.ln_r - self.ln_target, r.d1, r.d2)
                 };
-                safeguarded_newton(g, 0.0, self.x0, boltzmann, 1e-14)
+                safeguarded_newton(g, 0.0, self.x0, boltzmann, 1e-15).0
             }
         }
     }
 
-    /// Reduced maximum-power voltage, given the reduced open-circuit voltage.
-    fn max_power_m(&self, m_oc: f64) -> f64 {
-        if !(self.jsc > 0.0) || !(m_oc > 0.0) {
-            return 0.0;
-        }
+    /// Reduced maximum-power voltage and the current there [A m^-2], given m_oc.
+    fn max_power(&self, m_oc: f64) -> (f64, f64) {
         // Boltzmann closed form: e^m (1 + m) = 1 + Jsc/J0 = target / R_B(0)
         let l = self.ln_target - self.ln_rb0;
-        let boltzmann = (lambert_w_of_exp(1.0 + l) - 1.0).max(0.0);
+        let w = match self.model {
+            JvModel::Boltzmann => lambert_w_of_exp(1.0 + l),
+            JvModel::Exact => lambert_w_of_exp_rough(1.0 + l), // only a start for Newton
+        };
+        let boltzmann = (w - 1.0).clamp(0.0, m_oc);
+        let scale = self.ln_target.exp() / self.ere; // Jsc + R0/ERE
         match self.model {
-            JvModel::Boltzmann => boltzmann.min(m_oc),
+            // Jmp = (Jsc + J0) m / (1 + m), free of cancellation
+            JvModel::Boltzmann => (boltzmann, scale * boltzmann / (1.0 + boltzmann)),
             JvModel::Exact => {
                 // d(V J)/dV = 0  <=>  R(m) (1 + m rho(m)) = ERE Jsc + R(0); in logarithms
                 // F(m) = lnR + ln(1 + m rho) - ln_target, increasing in m.
+                let last = std::cell::Cell::new((f64::NAN, None::<LnRad>));
                 let f = |m: f64| {
-                    let (lr, rho, drho) = self.ln_r(m);
-                    let s = 1.0 + m * rho;
-                    (lr + s.ln() - self.ln_target, rho + (rho + m * drho) / s)
+                    let r = self.ln_r(m);
+                    last.set((m, Some(r)));
+                    let s = 1.0 + m * r.d1;
+                    let s1 = r.d1 + m * r.d2; // ds/dm
+                    let s2 = 2.0 * r.d2 + m * r.d3;
+                    let f1 = r.d1 + s1 / s;
+                    let f2 = r.d2 + (s2 * s - s1 * s1) / (s * s);
+                    (r.ln_r + s.ln() - self.ln_target, f1, f2)
                 };
-                safeguarded_newton(f, 0.0, m_oc, boltzmann, 1e-14)
+                let (m, _) = safeguarded_newton(f, 0.0, m_oc, boltzmann, 1e-15);
+                // At the root R = target/(1 + m rho), so J = (target - R)/ERE
+                //   = (target/ERE) m rho / (1 + m rho), again without cancellation.
+                // rho at the root from the last evaluation by Taylor's rule (the step is
+                // below 1e-2 and rho'' is tiny, so the error is far below 1e-15).
+                let rho = match last.get() {
+                    (x, Some(r)) if (m - x).abs() < 1e-2 => r.d1 + r.d2 * (m - x) + 0.5 * r.d3 * (m - x) * (m - x),
+                    _ => self.ln_r(m).d1,
+                };
+                (m, scale * m * rho / (1.0 + m * rho))
             }
         }
     }
@@ -216,14 +268,13 @@ impl Diode {
             return CellResult { gap_j, input, ..Default::default() };
         }
         let m_oc = self.open_circuit_m();
-        let m_mp = self.max_power_m(m_oc);
+        if !(m_oc > 0.0) {
+            return CellResult { gap_j, input, jsc: self.jsc, ..Default::default() };
+        }
+        let (m_mp, jmp) = self.max_power(m_oc);
         let voc = self.volts(m_oc);
         let vmp = self.volts(m_mp);
-        let jmp = match self.model {
-            // closed form, free of cancellation: Jmp = (Jsc + J0) m / (1 + m)
-            JvModel::Boltzmann => (self.ln_target.exp() / self.ere) * m_mp / (1.0 + m_mp),
-            JvModel::Exact => self.current(vmp).max(0.0),
-        };
+        let jmp = jmp.clamp(0.0, self.jsc);
         let pmax = vmp * jmp;
         let ff = if voc > 0.0 { pmax / (voc * self.jsc) } else { 0.0 };
         let efficiency = if input > 0.0 { pmax / input } else { 0.0 };
@@ -254,29 +305,47 @@ fn log_add(a: f64, b: f64) -> f64 {
 
 /// Root of an increasing function on (lo, hi) by Newton's method from `start`, keeping a
 /// bracket and bisecting whenever a step leaves it or the function is not finite.
-/// `f` returns (value, derivative). `tol` is relative to max(1, |x|).
-fn safeguarded_newton(f: impl Fn(f64) -> (f64, f64), lo: f64, hi: f64, start: f64, tol: f64) -> f64 {
+/// `f` returns (value, first derivative, second derivative). The iteration stops when the
+/// error left after a Newton step, estimated as |f''| s^2 / (2 |f'|) for a step s, is below
+/// `tol` relative to max(1, |x|), or when the bracket has shrunk to that size.
+/// Returns the root and the number of evaluations.
+fn safeguarded_newton(
+    f: impl Fn(f64) -> (f64, f64, f64),
+    lo: f64,
+    hi: f64,
+    start: f64,
+    tol: f64,
+) -> (f64, u32) {
     let (mut lo, mut hi) = (lo, hi);
     let mut x = if start > lo && start < hi { start } else { 0.5 * (lo + hi) };
-    for _ in 0..200 {
-        let (fx, dfx) = f(x);
+    for evals in 1..=200 {
+        let (fx, d1, d2) = f(x);
         if fx.is_nan() || fx > 0.0 {
             hi = x;
         } else if fx < 0.0 {
             lo = x;
         } else {
-            return x;
+            return (x, evals);
         }
-        let mut next = if fx.is_finite() && dfx.is_finite() && dfx > 0.0 { x - fx / dfx } else { f64::NAN };
-        if !(next > lo && next < hi) {
-            next = 0.5 * (lo + hi);
+        let scale = tol * x.abs().max(1.0);
+        if fx.is_finite() && d1.is_finite() && d1 > 0.0 {
+            let step = fx / d1;
+            let newton = x - step;
+            let left = 0.5 * d2.abs() * step * step / d1;
+            if step.abs() < 1e-2 * x.abs().max(1.0) && left <= scale && newton >= lo && newton <= hi {
+                return (newton, evals);
+            }
+            if newton > lo && newton < hi {
+                x = newton;
+                continue;
+            }
         }
-        if (next - x).abs() <= tol * x.abs().max(1.0) || hi - lo <= tol * hi.abs().max(1.0) {
-            return next;
+        if hi - lo <= scale {
+            return (0.5 * (lo + hi), evals);
         }
-        x = next;
+        x = 0.5 * (lo + hi);
     }
-    x
+    (x, 200)
 }
 
 /// Everything the sources and the cell say about one operating condition.
@@ -325,14 +394,17 @@ pub fn jv_curve(light: &Illumination, cell: &Cell, points: usize) -> Vec<(f64, f
 /// Solve the same cell at every band gap in `gaps_j` [J].
 pub fn sweep(light: &Illumination, template: &Cell, gaps_j: &[f64]) -> Vec<CellResult> {
     let input = light.input_power();
+    let valid = template.temp_k > 0.0 && template.ere > 0.0;
+    let template = Cell { ere: template.ere.min(1.0), ..*template };
+    let pre = ThermalPrefactor::new(template.temp_k, template.emission);
     gaps_j
         .iter()
         .map(|&g| {
-            let cell = Cell { gap_j: g, ..*template };
-            if !(g > 0.0) {
+            let cell = Cell { gap_j: g, ..template };
+            if !(g > 0.0) || !g.is_finite() || !valid {
                 return CellResult { gap_j: g, input, ..Default::default() };
             }
-            Diode::new(&cell, light.step_jsc(g)).solve(g, input)
+            Diode::with_prefactor(&pre, &cell, light.step_jsc(g)).solve(g, input)
         })
         .collect()
 }

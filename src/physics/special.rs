@@ -101,7 +101,11 @@ pub fn scaled_polylog(s: i32, a: f64) -> f64 {
             if z < 1e-8 {
                 // -ln(1-z)/z = 1 + z/2 + z^2/3 + ...
                 1.0 + z * (0.5 + z / 3.0)
+            } else if z < 0.5 {
+                // ln_1p keeps full relative precision while 1 - z is near 1
+                -(-z).ln_1p() / z
             } else {
+                // near a = 0, 1 - z = -expm1(-a) is exact where 1 - z would cancel
                 -(-(-a).exp_m1()).ln() / z
             }
         }
@@ -173,37 +177,76 @@ fn polylog_log_expansion(s: i32, mu: f64) -> f64 {
 
 /// The scaled pieces of a Bose-Einstein integral with chemical potential:
 /// with a = x0 - m >= 0, G_n(x0, m) = e^-a * `value`, dG/dm = e^-a * `d1`,
-/// d2G/dm2 = e^-a * `d2`.
+/// d2G/dm2 = e^-a * `d2`, d3G/dm3 = e^-a * `d3`. Differentiating in m lowers the polylog
+/// order by one: d/dm Li_s(e^(m - x0)) = Li_(s-1)(e^(m - x0)).
 #[derive(Debug, Clone, Copy)]
 pub struct ScaledBose {
     pub value: f64,
     pub d1: f64,
     pub d2: f64,
+    pub d3: f64,
 }
 
 /// G_2 and its first two derivatives in m, scaled by e^a (see [`ScaledBose`]).
 /// x0 >= 0, a = x0 - m > 0.
+#[inline]
 pub fn scaled_bose2(x0: f64, a: f64) -> ScaledBose {
-    let l_m1 = scaled_polylog(-1, a);
-    let l0 = scaled_polylog(0, a);
-    let l1 = scaled_polylog(1, a);
-    let (l2, l3) = if a >= LOG_EXPANSION_LIMIT {
-        scaled_series_pair(a)
+    // 1 - z, and e^a Li_1(e^-a) = -ln(1 - z)/z, from one exponential; for a >= 1, z <= 1/e
+    // so 1 - z has no cancellation, below that expm1 keeps 1 - z exact
+    let (z, omz) = if a >= LOG_EXPANSION_LIMIT {
+        let z = (-a).exp();
+        (z, 1.0 - z)
     } else {
-        (scaled_polylog(2, a), scaled_polylog(3, a))
+        let em1 = (-a).exp_m1();
+        (1.0 + em1, -em1)
+    };
+    // closed forms: e^a Li_0 = 1/(1-z), e^a Li_-1 = 1/(1-z)^2, e^a Li_-2 = (1+z)/(1-z)^3
+    let l0 = 1.0 / omz;
+    let l_m1 = l0 * l0;
+    let l_m2 = (1.0 + z) * l_m1 * l0;
+    let (l1, l2, l3) = if z <= SERIES_Z_LIMIT {
+        scaled_series_triple(z)
+    } else if a >= LOG_EXPANSION_LIMIT {
+        let (l2, l3) = scaled_series_pair(z);
+        (-omz.ln() / z, l2, l3)
+    } else {
+        (-omz.ln() / z, scaled_polylog(2, a), scaled_polylog(3, a))
     };
     let x2 = x0 * x0;
     ScaledBose {
         value: x2 * l1 + 2.0 * x0 * l2 + 2.0 * l3,
         d1: x2 * l0 + 2.0 * x0 * l1 + 2.0 * l2,
         d2: x2 * l_m1 + 2.0 * x0 * l0 + 2.0 * l1,
+        d3: x2 * l_m2 + 2.0 * x0 * l_m1 + 2.0 * l0,
     }
 }
 
-/// (e^a Li_2(e^-a), e^a Li_3(e^-a)) in one pass of the series, a >= 1.
+/// Below this z = e^-a the series for Li_1 as well converges in a dozen terms.
+const SERIES_Z_LIMIT: f64 = 0.05;
+
+/// (e^a Li_1, e^a Li_2, e^a Li_3) at z = e^-a <= 0.05 in one pass of the defining series.
 #[inline]
-fn scaled_series_pair(a: f64) -> (f64, f64) {
-    let z = (-a).exp();
+fn scaled_series_triple(z: f64) -> (f64, f64, f64) {
+    let (mut s1, mut s2, mut s3) = (1.0, 1.0, 1.0);
+    let mut zk = 1.0;
+    let mut k = 1.0_f64;
+    loop {
+        zk *= z;
+        k += 1.0;
+        let t1 = zk / k;
+        s1 += t1;
+        let t2 = t1 / k;
+        s2 += t2;
+        s3 += t2 / k;
+        if t1 < 1e-17 {
+            return (s1, s2, s3);
+        }
+    }
+}
+
+/// (e^a Li_2(e^-a), e^a Li_3(e^-a)) in one pass of the series, for z = e^-a <= 1/e.
+#[inline]
+fn scaled_series_pair(z: f64) -> (f64, f64) {
     let (mut s2, mut s3) = (1.0, 1.0);
     let mut zk = 1.0;
     let mut k = 1.0_f64;
@@ -334,26 +377,46 @@ pub fn lambert_w_of_exp(y: f64) -> f64 {
         return y.exp();
     }
     let mut w = if y > 2.0 {
-        y - y.ln()
+        // asymptotic expansion W ~ L1 - L2 + L2/L1 (Corless et al. 1996, eq. 4.19)
+        let l2 = y.ln();
+        y - l2 + l2 / y
     } else {
-        // W(x) for moderate x: a start from the series about x = 0 and about x = e
         let x = y.exp();
         if x < 1.0 {
+            // series about 0: W = x - x^2 + 1.5 x^3
             x * (1.0 - x + 1.5 * x * x).max(0.2)
         } else {
             1.0 + (y - 1.0) * 0.5
         }
     };
     for _ in 0..60 {
-        // Newton on f(w) = w + ln w - y, f' = 1 + 1/w; written multiplicatively to keep w > 0
-        let next = w * (1.0 + y - w.ln()) / (1.0 + w);
-        let next = if next <= 0.0 { w * 0.5 } else { next };
-        if (next - w).abs() <= 1e-15 * next.abs() {
+        // Halley on f(w) = w + ln w - y: f' = 1 + 1/w, f'' = -1/w^2
+        let f = w + w.ln() - y;
+        let d1 = 1.0 + 1.0 / w;
+        let d2 = -1.0 / (w * w);
+        let step = 2.0 * f * d1 / (2.0 * d1 * d1 - f * d2);
+        let next = if w - step <= 0.0 { 0.5 * w } else { w - step };
+        // Halley converges cubically: a step below 1e-6 leaves an error near 1e-18
+        if (next - w).abs() <= 1e-6 * next.abs() {
             return next;
         }
         w = next;
     }
     w
+}
+
+/// W(e^y) to about 1e-7 relative for y > 2 (one Halley step from the asymptotic start), the
+/// full [`lambert_w_of_exp`] elsewhere. A starting point for iterations that refine further.
+pub fn lambert_w_of_exp_rough(y: f64) -> f64 {
+    if !(y > 8.0) || !y.is_finite() {
+        return lambert_w_of_exp(y);
+    }
+    let l2 = y.ln();
+    let w = y - l2 + l2 / y;
+    let f = w + w.ln() - y;
+    let d1 = 1.0 + 1.0 / w;
+    let d2 = -1.0 / (w * w);
+    w - 2.0 * f * d1 / (2.0 * d1 * d1 - f * d2)
 }
 
 #[cfg(test)]

@@ -1,0 +1,135 @@
+//! A small, strict option parser: `--name value` or `--name=value`, flags without values,
+//! and one error line for anything unexpected.
+
+use std::collections::BTreeMap;
+
+/// The options of one command after parsing.
+#[derive(Debug, Default)]
+pub struct Parsed {
+    values: BTreeMap<String, String>,
+    flags: Vec<String>,
+    pub positional: Vec<String>,
+}
+
+/// What a command accepts.
+pub struct Spec {
+    pub command: &'static str,
+    /// options that take a value, without the leading dashes
+    pub valued: &'static [&'static str],
+    /// options that take no value
+    pub flags: &'static [&'static str],
+    /// how many positional arguments at most
+    pub max_positional: usize,
+}
+
+impl Spec {
+    fn accepted(&self) -> String {
+        let mut all: Vec<String> = self.valued.iter().map(|v| format!("--{v}")).collect();
+        all.extend(self.flags.iter().map(|f| format!("--{f}")));
+        all.join(", ")
+    }
+
+    pub fn parse(&self, args: &[String]) -> Result<Parsed, String> {
+        let mut out = Parsed::default();
+        let mut i = 0;
+        while i < args.len() {
+            let a = &args[i];
+            if let Some(body) = a.strip_prefix("--") {
+                let (name, inline) = match body.split_once('=') {
+                    Some((n, v)) => (n, Some(v.to_string())),
+                    None => (body, None),
+                };
+                if self.flags.contains(&name) {
+                    if inline.is_some() {
+                        return Err(format!("'glowgap {}': --{name} takes no value", self.command));
+                    }
+                    out.flags.push(name.to_string());
+                } else if self.valued.contains(&name) {
+                    let v = match inline {
+                        Some(v) => v,
+                        None => {
+                            i += 1;
+                            match args.get(i) {
+                                Some(v) if !v.starts_with("--") => v.clone(),
+                                _ => {
+                                    return Err(format!(
+                                        "'glowgap {}': --{name} needs a value, e.g. --{name} {}",
+                                        self.command,
+                                        example_for(name)
+                                    ))
+                                }
+                            }
+                        }
+                    };
+                    if out.values.insert(name.to_string(), v).is_some() {
+                        return Err(format!("'glowgap {}': --{name} is given twice; give it once", self.command));
+                    }
+                } else {
+                    return Err(format!(
+                        "'glowgap {}': unknown option '--{name}'; accepted: {}",
+                        self.command,
+                        self.accepted()
+                    ));
+                }
+            } else if out.positional.len() < self.max_positional {
+                out.positional.push(a.clone());
+            } else {
+                return Err(format!(
+                    "'glowgap {}': unexpected argument '{a}'; options start with --, accepted: {}",
+                    self.command,
+                    self.accepted()
+                ));
+            }
+            i += 1;
+        }
+        Ok(out)
+    }
+}
+
+fn example_for(name: &str) -> &'static str {
+    match name {
+        "gap" => "1.34",
+        "from" => "0.5",
+        "to" => "3.0",
+        "step" => "0.01",
+        "spectrum" => "am1.5g",
+        "concentration" => "1",
+        "cell-temp" => "300",
+        "ere" => "1",
+        "emission" => "front",
+        "approx" => "exact",
+        _ => "VALUE",
+    }
+}
+
+impl Parsed {
+    pub fn flag(&self, name: &str) -> bool {
+        self.flags.iter().any(|f| f == name)
+    }
+
+    pub fn text(&self, name: &str) -> Option<&str> {
+        self.values.get(name).map(|s| s.as_str())
+    }
+
+    /// A number option; `what` and `unit` make the error message.
+    pub fn number(&self, name: &str, what: &str, unit: &str) -> Result<Option<f64>, String> {
+        match self.values.get(name) {
+            None => Ok(None),
+            Some(s) => {
+                let v: f64 = s.trim().parse().map_err(|_| {
+                    format!("--{name} '{s}' is not a number; give the {what} ({unit}), e.g. --{name} {}", example_for(name))
+                })?;
+                if !v.is_finite() {
+                    return Err(format!("--{name} '{s}' is not a finite number; give the {what} ({unit})"));
+                }
+                Ok(Some(v))
+            }
+        }
+    }
+
+    pub fn required_number(&self, name: &str, what: &str, unit: &str, command: &str) -> Result<f64, String> {
+        self.number(name, what, unit)?.ok_or_else(|| {
+            format!("'glowgap {command}' needs --{name}: the {what} ({unit}), e.g. --{name} {}", example_for(name))
+        })
+    }
+}

@@ -1,0 +1,209 @@
+//! The scenario: everything a user chose, and nothing computed. It is the single source of
+//! truth that the command line builds from its options, the browser app keeps in its
+//! address bar and local storage, and scenario files hold. Everything is in the units a
+//! practitioner types (eV, K, suns); conversion to SI happens in [`CellScenario::to_physics`],
+//! which also checks every value and says what to do about a bad one.
+
+use crate::physics::constants::{ev, MAX_CONCENTRATION};
+use crate::physics::junction::{Cell, Emission, Illumination, JvModel};
+use crate::physics::sources::Source;
+use crate::physics::spectrum::{Axis, Quantity, Spectrum};
+use serde::{Deserialize, Serialize};
+
+/// Where the light comes from.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "type", rename_all = "kebab-case")]
+pub enum SourceSpec {
+    /// ASTM G173-03 global tilt (AM1.5G).
+    #[serde(rename = "am1.5g")]
+    Am15g,
+    /// ASTM G173-03 direct + circumsolar (AM1.5D).
+    #[serde(rename = "am1.5d")]
+    Am15d,
+    /// ASTM G173-03 extraterrestrial column (AM0, cut at 4000 nm).
+    #[serde(rename = "am0")]
+    Am0,
+    /// A blackbody sun of the given temperature seen from 1 au.
+    Blackbody { temp_k: f64 },
+    /// A spectrum file on disk (command line only); read by the front end.
+    File { path: String },
+    /// A user spectrum carried inside the scenario, in SI, on its native axis.
+    Table(TableSpec),
+}
+
+/// A user spectrum stored inside a scenario (SI units, native axis and quantity).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct TableSpec {
+    pub name: String,
+    pub axis: Axis,
+    pub quantity: Quantity,
+    pub x: Vec<f64>,
+    pub y: Vec<f64>,
+}
+
+impl Default for SourceSpec {
+    fn default() -> Self {
+        SourceSpec::Am15g
+    }
+}
+
+impl SourceSpec {
+    /// Parse the short text form used on the command line:
+    /// `am1.5g | am1.5d | am0 | blackbody:K | file:PATH`.
+    pub fn parse(text: &str) -> Result<SourceSpec, String> {
+        let t = text.trim();
+        let lower = t.to_ascii_lowercase();
+        match lower.as_str() {
+            "am1.5g" | "am15g" => return Ok(SourceSpec::Am15g),
+            "am1.5d" | "am15d" => return Ok(SourceSpec::Am15d),
+            "am0" => return Ok(SourceSpec::Am0),
+            _ => {}
+        }
+        if let Some(rest) = lower.strip_prefix("blackbody:") {
+            let k: f64 = rest.trim().trim_end_matches('k').trim().parse().map_err(|_| {
+                format!("'{text}': the blackbody temperature '{rest}' is not a number; write e.g. blackbody:5772")
+            })?;
+            return Ok(SourceSpec::Blackbody { temp_k: k });
+        }
+        if t.len() > 5 && t[..5].eq_ignore_ascii_case("file:") {
+            return Ok(SourceSpec::File { path: t[5..].to_string() });
+        }
+        Err(format!(
+            "unknown spectrum '{text}'; use am1.5g, am1.5d, am0, blackbody:K (e.g. blackbody:5772) or file:PATH"
+        ))
+    }
+
+    /// The short text form (inverse of [`SourceSpec::parse`] for the named sources).
+    pub fn label(&self) -> String {
+        match self {
+            SourceSpec::Am15g => "am1.5g".into(),
+            SourceSpec::Am15d => "am1.5d".into(),
+            SourceSpec::Am0 => "am0".into(),
+            SourceSpec::Blackbody { temp_k } => format!("blackbody:{temp_k}"),
+            SourceSpec::File { path } => format!("file:{path}"),
+            SourceSpec::Table(t) => format!("table:{}", t.name),
+        }
+    }
+
+    /// Build the physics source. `File` must have been replaced by `Table` by the front end.
+    pub fn to_source(&self) -> Result<Source, String> {
+        match self {
+            SourceSpec::Am15g => Ok(Source::am15g()),
+            SourceSpec::Am15d => Ok(Source::am15d()),
+            SourceSpec::Am0 => Ok(Source::am0()),
+            SourceSpec::Blackbody { temp_k } => {
+                check_range("blackbody sun temperature", *temp_k, 1.0, 1.0e5, "K", "e.g. 5772 for the Sun")?;
+                Ok(Source::BlackbodySun { temp_k: *temp_k })
+            }
+            SourceSpec::File { path } => Err(format!("the spectrum file '{path}' has not been read yet")),
+            SourceSpec::Table(t) => {
+                let s = Spectrum::new(t.name.clone(), format!("user table '{}'", t.name), t.axis, t.quantity, t.x.clone(), t.y.clone())
+                    .map_err(|e| format!("the spectrum '{}' is not usable: {e}", t.name))?;
+                Ok(Source::user(s))
+            }
+        }
+    }
+}
+
+/// One single-junction cell under one light source.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct CellScenario {
+    /// band gap [eV]
+    pub gap_ev: f64,
+    pub spectrum: SourceSpec,
+    /// concentration [suns], 1 up to the sun-disc limit
+    pub concentration: f64,
+    /// cell temperature [K]
+    pub cell_temp_k: f64,
+    /// external radiative efficiency, (0, 1]
+    pub ere: f64,
+    pub emission: Emission,
+    pub approx: JvModel,
+}
+
+impl Default for CellScenario {
+    fn default() -> Self {
+        CellScenario {
+            gap_ev: 1.34,
+            spectrum: SourceSpec::Am15g,
+            concentration: 1.0,
+            cell_temp_k: 300.0,
+            ere: 1.0,
+            emission: Emission::Front,
+            approx: JvModel::Exact,
+        }
+    }
+}
+
+/// Physics inputs built from a scenario, with any warnings worth showing.
+#[derive(Debug, Clone)]
+pub struct CellSetup {
+    pub light: Illumination,
+    pub cell: Cell,
+    pub warnings: Vec<String>,
+}
+
+/// Accepted band-gap range [eV].
+pub const GAP_RANGE_EV: (f64, f64) = (0.01, 20.0);
+/// Accepted cell-temperature range [K].
+pub const CELL_TEMP_RANGE_K: (f64, f64) = (1.0, 10_000.0);
+
+fn check_range(what: &str, v: f64, lo: f64, hi: f64, unit: &str, hint: &str) -> Result<(), String> {
+    if v.is_nan() {
+        return Err(format!("the {what} is not a number; give a value from {lo} to {hi} {unit} ({hint})"));
+    }
+    if !(v >= lo && v <= hi) {
+        return Err(format!("the {what} {v} {unit} is out of range; give a value from {lo} to {hi} {unit} ({hint})"));
+    }
+    Ok(())
+}
+
+impl CellScenario {
+    /// Check every value and convert to SI physics inputs.
+    pub fn to_physics(&self) -> Result<CellSetup, String> {
+        check_range("band gap", self.gap_ev, GAP_RANGE_EV.0, GAP_RANGE_EV.1, "eV", "e.g. 1.34")?;
+        check_range("cell temperature", self.cell_temp_k, CELL_TEMP_RANGE_K.0, CELL_TEMP_RANGE_K.1, "K", "e.g. 300")?;
+        if self.ere.is_nan() || !(self.ere > 0.0 && self.ere <= 1.0) {
+            return Err(format!(
+                "the external radiative efficiency {} is out of range; give a fraction above 0 and at most 1 (1 is the radiative limit, e.g. 0.01)",
+                self.ere
+            ));
+        }
+        let source = self.spectrum.to_source()?;
+        let mut warnings = Vec::new();
+        check_concentration(self.concentration, &source, &mut warnings)?;
+        Ok(CellSetup {
+            light: Illumination { source, concentration: self.concentration },
+            cell: Cell {
+                gap_j: ev(self.gap_ev),
+                temp_k: self.cell_temp_k,
+                ere: self.ere,
+                emission: self.emission,
+                model: self.approx,
+            },
+            warnings,
+        })
+    }
+}
+
+/// Concentration rules: at least 1; at most the etendue limit of the sun's disc (about
+/// 46,200) for sunlight; beyond it only a warning for a user spectrum, which need not be
+/// sunlight.
+pub fn check_concentration(x: f64, source: &Source, warnings: &mut Vec<String>) -> Result<(), String> {
+    if x.is_nan() || !(x >= 1.0) || x == f64::INFINITY {
+        return Err(format!("the concentration {x} is out of range; give a number of suns of at least 1 (1 is unconcentrated light)"));
+    }
+    // allow the limit as printed to 6 significant figures
+    if x > MAX_CONCENTRATION * (1.0 + 1e-6) {
+        let msg = format!(
+            "the concentration {x} exceeds the limit for the sun's disc, {:.0} suns (etendue conservation)",
+            MAX_CONCENTRATION
+        );
+        if source.is_solar_disc() {
+            return Err(format!("{msg}; give at most {:.0}", MAX_CONCENTRATION));
+        }
+        warnings.push(format!("{msg}; accepted because a user spectrum need not be sunlight"));
+    }
+    Ok(())
+}
