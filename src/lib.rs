@@ -4,6 +4,9 @@
 //! files and the command line) is turned into physics inputs, the [`physics`] core computes
 //! results, and front ends (the `glowgap` command line, the browser app) display them.
 
+#[cfg(target_arch = "wasm32")]
+pub mod app;
+pub mod codec;
 pub mod formats;
 pub mod physics;
 pub mod report;

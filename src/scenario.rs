@@ -207,3 +207,64 @@ pub fn check_concentration(x: f64, source: &Source, warnings: &mut Vec<String>) 
     }
     Ok(())
 }
+
+/// How the spectrum plot is drawn.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize, Default)]
+#[serde(rename_all = "kebab-case")]
+pub enum PlotAxis {
+    #[default]
+    Wavelength,
+    PhotonEnergy,
+}
+
+/// What the spectrum plot shows.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize, Default)]
+#[serde(rename_all = "kebab-case")]
+pub enum PlotQuantity {
+    #[default]
+    Irradiance,
+    PhotonFlux,
+}
+
+/// View choices that are part of what a link reproduces.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct ViewSettings {
+    pub spectrum_axis: PlotAxis,
+    pub spectrum_quantity: PlotQuantity,
+    /// band-gap range of the efficiency curve [eV]
+    pub curve_from_ev: f64,
+    pub curve_to_ev: f64,
+}
+
+impl Default for ViewSettings {
+    fn default() -> Self {
+        ViewSettings {
+            spectrum_axis: PlotAxis::Wavelength,
+            spectrum_quantity: PlotQuantity::Irradiance,
+            curve_from_ev: 0.5,
+            curve_to_ev: 3.0,
+        }
+    }
+}
+
+impl ViewSettings {
+    pub fn check(&self) -> Result<(), String> {
+        let (a, b) = (self.curve_from_ev, self.curve_to_ev);
+        if !(a.is_finite() && b.is_finite() && a >= GAP_RANGE_EV.0 && b <= GAP_RANGE_EV.1 && a < b) {
+            return Err(format!(
+                "the efficiency-curve range {a}-{b} eV is not usable; give two band gaps from {} to {} eV, the lower first",
+                GAP_RANGE_EV.0, GAP_RANGE_EV.1
+            ));
+        }
+        Ok(())
+    }
+}
+
+/// Everything a share link, a scenario file or the saved state holds.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, Default)]
+#[serde(default)]
+pub struct Scenario {
+    pub cell: CellScenario,
+    pub view: ViewSettings,
+}

@@ -67,6 +67,7 @@ pub fn dispatch(args: &[String], out: Out) -> Result<(), Failure> {
     match cmd.as_str() {
         "cell" => cell(rest, out),
         "sweep" => sweep_cmd(rest, out),
+        "eval" => eval_cmd(rest, out),
         "help" | "--help" | "-h" => {
             write!(out, "{}", super::USAGE)?;
             Ok(())
@@ -76,7 +77,7 @@ pub fn dispatch(args: &[String], out: Out) -> Result<(), Failure> {
             Ok(())
         }
         other => Err(Failure::Usage(format!(
-            "unknown command '{other}'; commands are: cell, sweep, help, version"
+            "unknown command '{other}'; commands are: cell, sweep, eval, help, version"
         ))),
     }
 }
@@ -168,12 +169,18 @@ fn warn(warnings: &[String]) {
 }
 
 fn cell(args: &[String], out: Out) -> Result<(), Failure> {
-    let spec = Spec { command: "cell", valued: CELL_VALUED, flags: &["json"], max_positional: 0 };
+    let spec = Spec { command: "cell", valued: CELL_VALUED, flags: &["json", "link"], max_positional: 0 };
     let p = spec.parse(args)?;
     let mut sc = CellScenario { gap_ev: p.required_number("gap", "band gap", "eV", "cell")?, ..Default::default() };
     apply_common(&p, &mut sc)?;
     let setup = sc.to_physics()?;
     warn(&setup.warnings);
+    if p.flag("link") {
+        // the share-link fragment of this scenario, to append to the app's address
+        let scenario = crate::scenario::Scenario { cell: sc, ..Default::default() };
+        writeln!(out, "{}", crate::codec::encode_fragment(&scenario))?;
+        return Ok(());
+    }
     let r = solve_cell(&setup.light, &setup.cell);
     let report = CellReport::from(&r);
     if p.flag("json") {
@@ -311,4 +318,57 @@ fn write_sweep(out: Out, results: &[CellResult], best: &CellResult, only_best: b
         }
     }
     buf.flush()
+}
+
+/// Read a share link, a scenario file or standard input, and print what the page shows.
+fn eval_cmd(args: &[String], out: Out) -> Result<(), Failure> {
+    let spec = Spec { command: "eval", valued: &[], flags: &["json"], max_positional: 1 };
+    let p = spec.parse(args)?;
+    let Some(what) = p.positional.first() else {
+        return Err(Failure::Usage(
+            "'glowgap eval' needs a share link, a scenario file or - for standard input, e.g. glowgap eval 'http://127.0.0.1:8080/#g1.…'".into(),
+        ));
+    };
+    let scenario = load_scenario(what)?;
+    let setup = scenario.cell.to_physics().map_err(|e| format!("the scenario cannot be computed: {e}"))?;
+    warn(&setup.warnings);
+    let r = solve_cell(&setup.light, &setup.cell);
+    let report = CellReport::from(&r);
+    if p.flag("json") {
+        serde_json::to_writer(&mut *out, &report).map_err(|_| Failure::Output)?;
+        writeln!(out)?;
+    } else {
+        write_cell_table(out, &report, &setup.light.source.name(), &scenario.cell)?;
+    }
+    Ok(())
+}
+
+fn load_scenario(what: &str) -> Result<crate::scenario::Scenario, String> {
+    use crate::codec::{decode_link, from_json};
+    let looks_like_link = |t: &str| {
+        let t = t.trim();
+        let versioned = t.strip_prefix('g').and_then(|r| r.split_once('.')).is_some_and(|(v, _)| !v.is_empty() && v.bytes().all(|b| b.is_ascii_digit()));
+        t.contains('#') || versioned || t.starts_with("http://") || t.starts_with("https://")
+    };
+    let text = if what == "-" {
+        let mut buf = String::new();
+        std::io::Read::read_to_string(&mut std::io::stdin(), &mut buf)
+            .map_err(|e| format!("cannot read standard input: {e}"))?;
+        buf
+    } else if looks_like_link(what) && !std::path::Path::new(what).exists() {
+        return decode_link(what).map_err(|e| e.to_string());
+    } else {
+        let bytes = std::fs::read(what).map_err(|e| {
+            format!("cannot read scenario file '{what}': {}; give a share link, a scenario file or - for standard input", io_reason(&e))
+        })?;
+        String::from_utf8_lossy(&bytes).into_owned()
+    };
+    let t = text.trim_start_matches('\u{feff}').trim();
+    if t.starts_with('{') {
+        from_json(t).map_err(|e| e.to_string())
+    } else if t.is_empty() {
+        Err("the input is empty; give a share link or a scenario file".into())
+    } else {
+        decode_link(t).map_err(|e| e.to_string())
+    }
 }

@@ -12,8 +12,9 @@ pub const USAGE: &str = "\
 glowgap: detailed-balance limits of solar cells
 
 usage:
-  glowgap cell  --gap EV [SOURCE AND CELL OPTIONS] [--json]
+  glowgap cell  --gap EV [SOURCE AND CELL OPTIONS] [--json | --link]
   glowgap sweep --from EV --to EV --step EV [SOURCE AND CELL OPTIONS] [--best] [--json | --csv]
+  glowgap eval  LINK|FILE|- [--json]      figures of a share link or scenario file (- = stdin)
 
 source and cell options:
   --spectrum SPEC        am1.5g (default) | am1.5d | am0 | blackbody:K | file:PATH
@@ -25,6 +26,8 @@ source and cell options:
   --ere F                external radiative efficiency in (0, 1], default 1
   --emission SIDE        front (default, perfect back mirror) | both
   --approx MODEL         exact (default, generalized Planck) | boltzmann
+
+--link prints the scenario's share-link fragment (#g1.…) to append to the app's address.
 
 These are detailed-balance limits, not predictions of a real device.
 ";

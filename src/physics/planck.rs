@@ -115,6 +115,24 @@ pub fn hemispherical_photon_flux_per_energy(energy_j: f64, temp_k: f64, mu_j: f6
     PI * generalized_photon_radiance_per_energy(energy_j, temp_k, mu_j)
 }
 
+/// PHOTON_FLUX_PREFACTOR (kT)^p * band, in logarithms where the product would leave the f64
+/// range: tiny results go to 0, enormous ones saturate at f64::MAX instead of inf or NaN.
+fn scaled_by_power_of_kt(band: f64, kt: f64, p: i32) -> f64 {
+    if !(band > 0.0) {
+        return 0.0;
+    }
+    let direct = PHOTON_FLUX_PREFACTOR * kt.powi(p) * band;
+    if direct.is_finite() && direct > 1e-290 {
+        return direct;
+    }
+    let ln = PHOTON_FLUX_PREFACTOR.ln() + p as f64 * kt.ln() + band.ln();
+    if ln > 709.0 {
+        f64::MAX
+    } else {
+        ln.exp()
+    }
+}
+
 /// Total hemispherical emissive power of a black surface, sigma T^4 [W m^-2]
 /// (Stefan 1879, Boltzmann 1884). `temp_k` [K].
 pub fn stefan_boltzmann(temp_k: f64) -> f64 {
@@ -122,7 +140,7 @@ pub fn stefan_boltzmann(temp_k: f64) -> f64 {
         return 0.0;
     }
     let t2 = temp_k * temp_k;
-    STEFAN_BOLTZMANN * t2 * t2
+    (STEFAN_BOLTZMANN * t2 * t2).min(f64::MAX) // saturate rather than overflow
 }
 
 /// Fraction of sigma T^4 emitted at wavelengths below lambda, F(0 -> lambda T)
@@ -147,8 +165,8 @@ pub fn band_power_energy(e1_j: f64, e2_j: f64, temp_k: f64) -> f64 {
         return 0.0;
     }
     let kt = BOLTZMANN * temp_k;
-    let scale = PHOTON_FLUX_PREFACTOR * kt * kt * kt * kt;
-    scale * bose_band(3, e1_j.max(0.0) / kt, e2_j.max(0.0) / kt).abs()
+    let band = bose_band(3, e1_j.max(0.0) / kt, e2_j.max(0.0) / kt).abs();
+    scaled_by_power_of_kt(band, kt, 4)
 }
 
 /// Hemispherical photon flux of a black surface at `temp_k` [K] between photon energies
@@ -159,8 +177,8 @@ pub fn band_photon_flux_energy(e1_j: f64, e2_j: f64, temp_k: f64) -> f64 {
         return 0.0;
     }
     let kt = BOLTZMANN * temp_k;
-    let scale = PHOTON_FLUX_PREFACTOR * kt * kt * kt;
-    scale * bose_band(2, e1_j.max(0.0) / kt, e2_j.max(0.0) / kt).abs()
+    let band = bose_band(2, e1_j.max(0.0) / kt, e2_j.max(0.0) / kt).abs();
+    scaled_by_power_of_kt(band, kt, 3)
 }
 
 /// Hemispherical emissive power of a black surface between wavelengths `l1_m` and `l2_m`

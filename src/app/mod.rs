@@ -1,0 +1,2 @@
+//! The browser app (stub while building).
+pub fn start() {}

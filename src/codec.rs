@@ -1,0 +1,190 @@
+//! Scenario documents: the saved state, the scenario file and the share link are one
+//! versioned JSON document. The link carries it in the URL fragment as
+//! `#g<version>.<base64url(deflate(json))>`, so nothing is sent to any server.
+//!
+//! Decoding never trusts its input: the compressed size and the decoded size are capped,
+//! the version is checked before the body is read, and every failure says what was wrong
+//! with the link and what the user can do.
+
+use crate::scenario::Scenario;
+use serde::{Deserialize, Serialize};
+
+/// The document version written by this build. Readers accept this and older versions.
+pub const FORMAT_VERSION: u32 = 1;
+/// The `format` field of a scenario file.
+pub const FORMAT_NAME: &str = "glowgap-scenario";
+/// Largest encoded fragment accepted (characters).
+pub const MAX_LINK_CHARS: usize = 1_500_000;
+/// Largest decoded document accepted (bytes), guarding against decompression bombs.
+pub const MAX_DOCUMENT_BYTES: usize = 4_000_000;
+
+/// A scenario with its envelope.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Document {
+    pub format: String,
+    pub version: u32,
+    pub scenario: Scenario,
+}
+
+impl Document {
+    pub fn new(scenario: Scenario) -> Document {
+        Document { format: FORMAT_NAME.to_string(), version: FORMAT_VERSION, scenario }
+    }
+}
+
+/// Why a link or file could not be read. The message is for people.
+#[derive(Debug, Clone, PartialEq)]
+pub struct LinkError(pub String);
+
+impl std::fmt::Display for LinkError {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(&self.0)
+    }
+}
+
+/// The scenario as a pretty JSON file.
+pub fn to_json(scenario: &Scenario) -> String {
+    serde_json::to_string_pretty(&Document::new(scenario.clone())).unwrap_or_default()
+}
+
+/// Read a scenario file (the JSON document). Also accepts a bare scenario object.
+pub fn from_json(text: &str) -> Result<Scenario, LinkError> {
+    if text.len() > MAX_DOCUMENT_BYTES {
+        return Err(LinkError(format!(
+            "the scenario file is {} bytes, more than the {} accepted",
+            text.len(),
+            MAX_DOCUMENT_BYTES
+        )));
+    }
+    let value: serde_json::Value = serde_json::from_str(text)
+        .map_err(|e| LinkError(format!("the scenario file is not valid JSON ({e}); save it again from Glowgap")))?;
+    if let Some(v) = value.get("version") {
+        let v = v.as_u64().unwrap_or(u64::MAX);
+        if v > FORMAT_VERSION as u64 {
+            return Err(LinkError(format!(
+                "the scenario was written by a newer Glowgap (format version {v}; this one reads up to {FORMAT_VERSION}); update Glowgap to open it"
+            )));
+        }
+        if let Some(f) = value.get("format").and_then(|f| f.as_str()) {
+            if f != FORMAT_NAME {
+                return Err(LinkError(format!("this file is a '{f}', not a Glowgap scenario")));
+            }
+        }
+        let doc: Document = serde_json::from_value(value)
+            .map_err(|e| LinkError(format!("the scenario does not fit this version of Glowgap: {e}")))?;
+        Ok(doc.scenario)
+    } else {
+        serde_json::from_value::<Scenario>(value)
+            .map_err(|e| LinkError(format!("the file is not a Glowgap scenario: {e}")))
+    }
+}
+
+/// The URL fragment for a scenario, starting with '#'.
+pub fn encode_fragment(scenario: &Scenario) -> String {
+    let json = serde_json::to_vec(&Document::new(scenario.clone())).unwrap_or_default();
+    let packed = miniz_oxide::deflate::compress_to_vec(&json, 9);
+    format!("#g{FORMAT_VERSION}.{}", base64url_encode(&packed))
+}
+
+/// Read a scenario from a share link: a whole URL, or just its fragment (with or without
+/// the leading '#').
+pub fn decode_link(link: &str) -> Result<Scenario, LinkError> {
+    let text = link.trim();
+    let frag = match text.find('#') {
+        Some(i) => &text[i + 1..],
+        None => text,
+    };
+    if frag.is_empty() {
+        return Err(LinkError("the link has no scenario in it (nothing after '#')".into()));
+    }
+    if frag.len() > MAX_LINK_CHARS {
+        return Err(LinkError(format!("the link is {} characters long, more than the {MAX_LINK_CHARS} accepted", frag.len())));
+    }
+    let Some(rest) = frag.strip_prefix('g') else {
+        return Err(LinkError("this is not a Glowgap scenario link (it should contain '#g1.')".into()));
+    };
+    let Some((ver, body)) = rest.split_once('.') else {
+        return Err(LinkError("the link is cut short: its version mark is incomplete; copy the whole link again".into()));
+    };
+    let version: u32 = ver
+        .parse()
+        .map_err(|_| LinkError(format!("the link's version mark 'g{ver}' is garbled; copy the whole link again")))?;
+    if version > FORMAT_VERSION {
+        return Err(LinkError(format!(
+            "the link was made by a newer Glowgap (format version {version}; this one reads up to {FORMAT_VERSION}); open it with a current Glowgap"
+        )));
+    }
+    if version == 0 {
+        return Err(LinkError("the link's version mark 'g0' is not one Glowgap ever wrote".into()));
+    }
+    let packed = base64url_decode(body).map_err(|e| LinkError(format!("the link is garbled ({e}); copy the whole link again")))?;
+    let json = miniz_oxide::inflate::decompress_to_vec_with_limit(&packed, MAX_DOCUMENT_BYTES).map_err(|e| {
+        match e.status {
+            miniz_oxide::inflate::TINFLStatus::HasMoreOutput => LinkError(format!(
+                "the link unpacks to more than {MAX_DOCUMENT_BYTES} bytes, more than any scenario needs; it was refused"
+            )),
+            _ => LinkError("the link is damaged or cut short (its data does not unpack); copy the whole link again".into()),
+        }
+    })?;
+    let text = std::str::from_utf8(&json).map_err(|_| LinkError("the link's data is not text; copy the whole link again".into()))?;
+    from_json(text)
+}
+
+const B64: &[u8; 64] = b"ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789-_";
+
+/// RFC 4648 section 5 base64url, without padding.
+pub fn base64url_encode(data: &[u8]) -> String {
+    let mut out = String::with_capacity(data.len().div_ceil(3) * 4);
+    for chunk in data.chunks(3) {
+        let b = [chunk[0], *chunk.get(1).unwrap_or(&0), *chunk.get(2).unwrap_or(&0)];
+        let n = (b[0] as u32) << 16 | (b[1] as u32) << 8 | b[2] as u32;
+        let chars = chunk.len() + 1;
+        for i in 0..chars {
+            out.push(B64[((n >> (18 - 6 * i)) & 63) as usize] as char);
+        }
+    }
+    out
+}
+
+/// Inverse of [`base64url_encode`]; also accepts '=' padding and the '+' '/' alphabet.
+pub fn base64url_decode(text: &str) -> Result<Vec<u8>, String> {
+    let text = text.trim_end_matches('=');
+    let mut out = Vec::with_capacity(text.len() * 3 / 4);
+    let mut acc: u32 = 0;
+    let mut bits = 0;
+    for (i, c) in text.bytes().enumerate() {
+        let v = match c {
+            b'A'..=b'Z' => c - b'A',
+            b'a'..=b'z' => c - b'a' + 26,
+            b'0'..=b'9' => c - b'0' + 52,
+            b'-' | b'+' => 62,
+            b'_' | b'/' => 63,
+            _ => return Err(format!("character {} ('{}') cannot appear in a link", i + 1, c as char)),
+        };
+        acc = (acc << 6) | v as u32;
+        bits += 6;
+        if bits >= 8 {
+            bits -= 8;
+            out.push((acc >> bits) as u8);
+            acc &= (1 << bits) - 1;
+        }
+    }
+    if bits >= 6 {
+        return Err("its length is not possible for encoded data".into());
+    }
+    Ok(out)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn base64url_matches_rfc4648_vectors() {
+        // RFC 4648 section 10 test vectors (base64; same alphabet for these inputs), no padding
+        for (plain, enc) in [("", ""), ("f", "Zg"), ("fo", "Zm8"), ("foo", "Zm9v"), ("foob", "Zm9vYg"), ("fooba", "Zm9vYmE"), ("foobar", "Zm9vYmFy")] {
+            assert_eq!(base64url_encode(plain.as_bytes()), enc);
+            assert_eq!(base64url_decode(enc).unwrap(), plain.as_bytes());
+        }
+    }
+}

@@ -1,0 +1,152 @@
+//! The `glowgap` command line contract: outputs, keys, and one-line errors with exit code 2.
+
+use std::process::{Command, Output};
+
+fn glowgap(args: &[&str]) -> Output {
+    Command::new(env!("CARGO_BIN_EXE_glowgap")).args(args).output().expect("the binary runs")
+}
+
+fn json(args: &[&str]) -> serde_json::Value {
+    let out = glowgap(args);
+    assert!(out.status.success(), "{args:?}: {}", String::from_utf8_lossy(&out.stderr));
+    serde_json::from_slice(&out.stdout).expect("valid JSON")
+}
+
+const CELL_KEYS: [&str; 9] =
+    ["gap_ev", "efficiency", "jsc_ma_cm2", "voc_v", "ff", "vmp_v", "jmp_ma_cm2", "pmax_w_m2", "input_w_m2"];
+
+#[test]
+fn cell_json_reproduces_the_published_maximum() {
+    // Ruhle, Solar Energy 130, 139 (2016): 33.7% at 1.34 eV under AM1.5G at 300 K.
+    let v = json(&["cell", "--gap", "1.34", "--json"]);
+    for k in CELL_KEYS {
+        assert!(v[k].is_number(), "missing {k}");
+    }
+    assert!((v["efficiency"].as_f64().unwrap() - 0.337).abs() < 5e-4);
+    assert_eq!(v["gap_ev"].as_f64().unwrap(), 1.34);
+}
+
+#[test]
+fn cell_table_is_readable_with_units() {
+    let out = glowgap(&["cell", "--gap", "1.34"]);
+    let text = String::from_utf8(out.stdout).unwrap();
+    assert!(text.contains("33.68 %"), "{text}");
+    assert!(text.contains("mA/cm²") && text.contains(" V") && text.contains("W/m²"));
+}
+
+#[test]
+fn sweep_counts_endpoints_inclusive_and_finds_best() {
+    let v = json(&["sweep", "--from", "1.0", "--to", "1.5", "--step", "0.1", "--json"]);
+    let pts = v["points"].as_array().unwrap();
+    assert_eq!(pts.len(), 6);
+    assert!((pts[5]["gap_ev"].as_f64().unwrap() - 1.5).abs() < 1e-12);
+    let best = &v["best"];
+    let max = pts.iter().map(|p| p["efficiency"].as_f64().unwrap()).fold(0.0, f64::max);
+    assert_eq!(best["efficiency"].as_f64().unwrap(), max);
+    let only = json(&["sweep", "--from", "1.0", "--to", "1.5", "--step", "0.1", "--json", "--best"]);
+    assert!(only.get("points").is_none());
+    assert_eq!(only["best"], v["best"]);
+}
+
+#[test]
+fn sweep_csv_has_a_header_with_units() {
+    let out = glowgap(&["sweep", "--from", "1", "--to", "2", "--step", "0.5", "--csv"]);
+    let text = String::from_utf8(out.stdout).unwrap();
+    let lines: Vec<&str> = text.lines().collect();
+    assert_eq!(lines[0], "gap_ev,efficiency,jsc_ma_cm2,voc_v,ff,vmp_v,jmp_ma_cm2,pmax_w_m2,input_w_m2");
+    assert_eq!(lines.len(), 4);
+}
+
+#[test]
+fn options_change_results_in_the_expected_direction() {
+    let base = json(&["cell", "--gap", "1.34", "--json"])["efficiency"].as_f64().unwrap();
+    let conc = json(&["cell", "--gap", "1.34", "--concentration", "100", "--spectrum", "am1.5d", "--json"]);
+    let hot = json(&["cell", "--gap", "1.34", "--cell-temp", "350", "--json"])["efficiency"].as_f64().unwrap();
+    let lossy = json(&["cell", "--gap", "1.34", "--ere", "0.01", "--json"])["efficiency"].as_f64().unwrap();
+    let both = json(&["cell", "--gap", "1.34", "--emission", "both", "--json"])["efficiency"].as_f64().unwrap();
+    assert!(conc["input_w_m2"].as_f64().unwrap() > 9e4);
+    assert!(hot < base && lossy < base && both < base);
+    let bb = json(&["cell", "--gap", "1.1", "--spectrum", "blackbody:6000", "--json"]);
+    assert!((bb["input_w_m2"].as_f64().unwrap() - 1589.3).abs() < 0.1);
+}
+
+#[test]
+fn user_spectrum_file_works_and_warns_beyond_sun_limit() {
+    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/tests/data/led_like_spectrum.csv");
+    let spec = format!("file:{path}");
+    let out = glowgap(&["cell", "--gap", "1.5", "--spectrum", &spec, "--json"]);
+    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    // triangle of height 4 W m^-2 nm^-1 over 100 nm: 200 W/m^2 (exact for the trapezoid rule)
+    assert!((v["input_w_m2"].as_f64().unwrap() - 200.0).abs() < 1e-9);
+    let out = glowgap(&["cell", "--gap", "1.5", "--spectrum", &spec, "--concentration", "60000", "--json"]);
+    assert!(out.status.success());
+    assert!(String::from_utf8_lossy(&out.stderr).contains("warning"));
+}
+
+#[test]
+fn share_link_round_trips_through_eval() {
+    let out = glowgap(&["cell", "--gap", "1.2", "--cell-temp", "320", "--ere", "0.1", "--link"]);
+    let link = String::from_utf8(out.stdout).unwrap();
+    assert!(link.starts_with("#g1."));
+    let url = format!("http://127.0.0.1:8080/{}", link.trim());
+    let a = json(&["eval", &url, "--json"]);
+    let b = json(&["cell", "--gap", "1.2", "--cell-temp", "320", "--ere", "0.1", "--json"]);
+    assert_eq!(a, b);
+}
+
+fn expect_usage_error(args: &[&str], needle: &str) {
+    let out = glowgap(args);
+    assert_eq!(out.status.code(), Some(2), "{args:?} should fail with 2");
+    let err = String::from_utf8(out.stderr).unwrap();
+    assert_eq!(err.trim_end().lines().count(), 1, "{args:?}: one line, got {err:?}");
+    assert!(err.starts_with("glowgap: "), "{err}");
+    assert!(!err.contains("panicked") && !err.contains("RUST_BACKTRACE"), "{err}");
+    assert!(err.to_lowercase().contains(&needle.to_lowercase()), "{args:?}: {err} lacks {needle}");
+}
+
+#[test]
+fn every_bad_input_gets_one_line_and_exit_2() {
+    let bad_csv = std::env::temp_dir().join(format!("glowgap-bad-{}.csv", std::process::id()));
+    std::fs::write(&bad_csv, "wavelength_nm,irradiance_W_m2_nm\n400,1\n500,oops\n").unwrap();
+    let bad = format!("file:{}", bad_csv.display());
+    let cases: &[(&[&str], &str)] = &[
+        (&[], "no command"),
+        (&["frobnicate"], "unknown command"),
+        (&["cell"], "needs --gap"),
+        (&["cell", "--gap"], "needs a value"),
+        (&["cell", "--gap", "abc"], "not a number"),
+        (&["cell", "--gap", "NaN"], "not a finite number"),
+        (&["cell", "--gap", "-1"], "out of range"),
+        (&["cell", "--gap", "1.3", "--gap", "1.4"], "twice"),
+        (&["cell", "--gap", "1.3", "--cell-temp", "-5"], "cell temperature"),
+        (&["cell", "--gap", "1.3", "--cell-temp", "0"], "cell temperature"),
+        (&["cell", "--gap", "1.3", "--ere", "0"], "radiative efficiency"),
+        (&["cell", "--gap", "1.3", "--ere", "1.5"], "radiative efficiency"),
+        (&["cell", "--gap", "1.3", "--concentration", "0.5"], "concentration"),
+        (&["cell", "--gap", "1.3", "--concentration", "1e6"], "limit"),
+        (&["cell", "--gap", "1.3", "--spectrum", "sunlight"], "unknown spectrum"),
+        (&["cell", "--gap", "1.3", "--spectrum", "blackbody:hot"], "not a number"),
+        (&["cell", "--gap", "1.3", "--spectrum", "blackbody:-10"], "out of range"),
+        (&["cell", "--gap", "1.3", "--spectrum", "file:/no/such/file.csv"], "no such file"),
+        (&["cell", "--gap", "1.3", "--spectrum", &bad], "line 3"),
+        (&["cell", "--gap", "1.3", "--emission", "back"], "front"),
+        (&["cell", "--gap", "1.3", "--approx", "fast"], "exact or boltzmann"),
+        (&["cell", "--gap", "1.3", "--wat"], "unknown option"),
+        (&["cell", "--gap", "1.3", "--spectrum-axis", "nm"], "file:PATH"),
+        (&["sweep", "--from", "1", "--to", "2"], "needs --step"),
+        (&["sweep", "--from", "2", "--to", "1", "--step", "0.1"], "lower gap first"),
+        (&["sweep", "--from", "1", "--to", "2", "--step", "0"], "positive"),
+        (&["sweep", "--from", "1", "--to", "2", "--step", "1e-9"], "larger --step"),
+        (&["sweep", "--from", "1", "--to", "2", "--step", "0.1", "--json", "--csv"], "one of"),
+        (&["eval"], "needs a share link"),
+        (&["eval", "http://127.0.0.1:8080/#g1.AAAA"], "damaged"),
+        (&["eval", "#g9.abc"], "newer"),
+        (&["eval", "#zzz"], "not a Glowgap"),
+        (&["eval", "/no/such/scenario.json"], "no such file"),
+    ];
+    for (args, needle) in cases {
+        expect_usage_error(args, needle);
+    }
+    let _ = std::fs::remove_file(&bad_csv);
+}
