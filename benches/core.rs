@@ -1,1 +1,120 @@
-fn main() {}
+//! Benchmarks of the physics core. Numbers are printed, never asserted: run
+//! `cargo bench` and read them. Goals (from the project's issues):
+//! * one exact cell evaluation under 5 us,
+//! * the efficiency-vs-gap curve, 0.30-4.00 eV at 1 meV (3,701 gaps) on AM1.5G, under 1 ms,
+//!   and ahead of the vectorized numpy script benches/sweep_numpy.py (import time excluded),
+//! * the command line's peak memory for a 37,001-gap sweep under 30 MB.
+
+use glowgap::physics::constants::ev;
+use glowgap::physics::junction::{best_of, solve_cell, sweep, Cell, Illumination};
+use glowgap::physics::planck::band_power_energy;
+use glowgap::physics::sources::Source;
+use std::hint::black_box;
+use std::process::Command;
+use std::time::Instant;
+
+/// Median wall time of `f` over `rounds` rounds of `inner` calls, per call, in seconds.
+fn median_per_call(rounds: usize, inner: usize, mut f: impl FnMut()) -> f64 {
+    for _ in 0..inner.min(1000) {
+        f(); // warm up caches and the lazily parsed tables
+    }
+    let mut t: Vec<f64> = (0..rounds)
+        .map(|_| {
+            let start = Instant::now();
+            for _ in 0..inner {
+                f();
+            }
+            start.elapsed().as_secs_f64() / inner as f64
+        })
+        .collect();
+    t.sort_by(f64::total_cmp);
+    t[rounds / 2]
+}
+
+fn main() {
+    // `cargo bench -- <filter>` passes arguments; `cargo test --benches` passes --bench. Run
+    // everything in both cases, quickly when not benchmarking for real.
+    let quick = !std::env::args().any(|a| a == "--bench");
+    let rounds = if quick { 3 } else { 31 };
+    let light = Illumination::one_sun(Source::am15g());
+
+    let one = median_per_call(rounds, 20_000, || {
+        black_box(solve_cell(black_box(&light), black_box(&Cell::ideal(ev(1.34)))));
+    });
+    println!("bench one_exact_cell_am15g          {:>10.3} us   (goal < 5 us)", one * 1e6);
+
+    let gaps: Vec<f64> = (0..3701).map(|i| ev(0.3 + 0.001 * i as f64)).collect();
+    let template = Cell::ideal(1.0);
+    let curve = median_per_call(rounds, 20, || {
+        black_box(sweep(black_box(&light), &template, black_box(&gaps)));
+    });
+    let best = best_of(&sweep(&light, &template, &gaps)).unwrap();
+    println!(
+        "bench curve_3701_gaps_am15g         {:>10.3} ms   (goal < 1 ms; best {:.3} eV, {:.4} %)",
+        curve * 1e3,
+        best.gap_j / glowgap::physics::constants::CHARGE,
+        best.efficiency * 100.0
+    );
+
+    let band = median_per_call(rounds, 100_000, || {
+        black_box(band_power_energy(black_box(ev(0.1)), black_box(ev(0.155)), black_box(300.0)));
+    });
+    println!("bench planck_band_integral          {:>10.3} ns", band * 1e9);
+
+    numpy_comparison(curve, quick);
+    cli_peak_memory();
+}
+
+/// Run the vectorized numpy script for the same curve in this same run and print the ratio.
+fn numpy_comparison(ours_s: f64, quick: bool) {
+    let script = concat!(env!("CARGO_MANIFEST_DIR"), "/benches/sweep_numpy.py");
+    let python = std::env::var("PYTHON").unwrap_or_else(|_| "python3".into());
+    let mut cmd = Command::new(&python);
+    cmd.arg(script);
+    if quick {
+        cmd.env("GLOWGAP_BENCH_REPEATS", "3");
+    }
+    let out = match cmd.output() {
+        Ok(o) if o.status.success() => String::from_utf8_lossy(&o.stdout).into_owned(),
+        Ok(o) => {
+            println!("bench numpy_comparison              skipped ({} failed: {})", python, String::from_utf8_lossy(&o.stderr).lines().last().unwrap_or(""));
+            return;
+        }
+        Err(e) => {
+            println!("bench numpy_comparison              skipped ({python} not runnable: {e})");
+            return;
+        }
+    };
+    let field = |key: &str| -> Option<f64> {
+        out.split_whitespace().find_map(|tok| tok.strip_prefix(key).and_then(|v| v.parse().ok()))
+    };
+    match (field("numpy_sweep_seconds="), field("numpy_import_seconds=")) {
+        (Some(np_s), imp) => {
+            println!(
+                "bench numpy_curve_3701_gaps         {:>10.3} ms   (numpy import {:.1} ms, not counted)",
+                np_s * 1e3,
+                imp.unwrap_or(f64::NAN) * 1e3
+            );
+            println!("bench ratio numpy/glowgap           {:>10.1} x    (goal > 1)", np_s / ours_s);
+        }
+        _ => println!("bench numpy_comparison              skipped (no timing line in the script's output)"),
+    }
+}
+
+/// Peak resident memory of `glowgap sweep` over 37,001 gaps with JSON output.
+fn cli_peak_memory() {
+    let exe = env!("CARGO_BIN_EXE_glowgap");
+    let out = Command::new(exe)
+        .args(["sweep", "--from", "0.3", "--to", "4.0", "--step", "0.0001", "--json"])
+        .env("GLOWGAP_REPORT_PEAK_MEMORY", "1")
+        .stdout(std::process::Stdio::null())
+        .output();
+    match out {
+        Ok(o) => {
+            let err = String::from_utf8_lossy(&o.stderr);
+            let peak = err.lines().find_map(|l| l.strip_prefix("glowgap: peak memory ")).unwrap_or("unknown");
+            println!("bench cli_sweep_37001_peak_memory   {:>10}      (goal < 30 MB)", peak);
+        }
+        Err(e) => println!("bench cli_sweep_37001_peak_memory   skipped ({e})"),
+    }
+}

@@ -39,6 +39,7 @@ _t_import1 = time.perf_counter()
 
 import csv  # noqa: E402
 import math  # noqa: E402
+import os  # noqa: E402
 import statistics  # noqa: E402
 from pathlib import Path  # noqa: E402
 
@@ -47,7 +48,7 @@ C = 299792458.0
 KB = 1.380649e-23
 Q = 1.602176634e-19
 
-REPEATS = 20
+REPEATS = int(os.environ.get("GLOWGAP_BENCH_REPEATS", "20"))
 ROOT = Path(__file__).resolve().parents[1]
 G173 = ROOT / "src" / "physics" / "data" / "astm_g173_03.csv"
 FIXTURE = ROOT / "tests" / "fixtures" / "detailed_balance.csv"

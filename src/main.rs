@@ -3,7 +3,16 @@
 #[cfg(not(target_arch = "wasm32"))]
 fn main() {
     let args: Vec<String> = std::env::args_os().skip(1).map(|a| a.to_string_lossy().into_owned()).collect();
-    std::process::exit(glowgap::cli::run(&args));
+    let code = glowgap::cli::run(&args);
+    // Developer knob for the memory benchmark: report the peak resident set size.
+    if std::env::var_os("GLOWGAP_REPORT_PEAK_MEMORY").is_some() {
+        if let Ok(status) = std::fs::read_to_string("/proc/self/status") {
+            if let Some(line) = status.lines().find(|l| l.starts_with("VmHWM:")) {
+                eprintln!("glowgap: peak memory {}", line.trim_start_matches("VmHWM:").trim());
+            }
+        }
+    }
+    std::process::exit(code);
 }
 
 #[cfg(target_arch = "wasm32")]

@@ -1,0 +1,72 @@
+// Browser benchmark (numbers printed, nothing asserted): latency from a gap edit to all
+// plots redrawn, first render after load, and the gzipped transfer size of the app.
+// Run: node tests/browser/bench.mjs (after trunk build --release).
+import fs from 'node:fs';
+import path from 'node:path';
+import zlib from 'node:zlib';
+import { serve, launch, newPage, rendered, DIST } from './harness.mjs';
+
+function pct(sorted, p) {
+  return sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))];
+}
+
+const server = await serve(0);
+const browser = await launch();
+try {
+  // first render after load, over 5 cold loads (fresh contexts, no cache)
+  const loads = [];
+  for (let i = 0; i < 5; i++) {
+    const context = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
+    const page = await newPage(context);
+    await page.goto(server.url);
+    await rendered(page);
+    loads.push(await page.evaluate(() => {
+      const m = performance.getEntriesByName('gg-drawn')[0];
+      return m ? m.startTime : performance.now();
+    }));
+    await context.close();
+  }
+  loads.sort((a, b) => a - b);
+  console.log(`browser first_render_ms median=${pct(loads, 0.5).toFixed(1)} max=${loads[loads.length - 1].toFixed(1)} (goal < 1000)`);
+
+  // gap edits: 60 arrow-key steps, each timed from gg-edit to gg-drawn
+  const context = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
+  const page = await newPage(context);
+  await page.goto(server.url);
+  await rendered(page);
+  await page.locator('[data-control="gap"]').first().focus();
+  const lat = [];
+  for (let i = 0; i < 60; i++) {
+    const n = Number(await page.evaluate(() => document.body.dataset.renders));
+    await page.evaluate(() => performance.clearMarks());
+    await page.keyboard.press(i % 2 ? 'ArrowDown' : 'ArrowUp');
+    await rendered(page, n + 1);
+    const d = await page.evaluate(() => {
+      const a = performance.getEntriesByName('gg-edit').pop();
+      const b = performance.getEntriesByName('gg-drawn').pop();
+      return a && b ? b.startTime - a.startTime : NaN;
+    });
+    if (Number.isFinite(d)) lat.push(d);
+  }
+  lat.sort((a, b) => a - b);
+  if (lat.length) {
+    console.log(`browser gap_edit_to_drawn_ms median=${pct(lat, 0.5).toFixed(2)} p95=${pct(lat, 0.95).toFixed(2)} n=${lat.length} (goals: median < 16, p95 < 33)`);
+  } else {
+    console.log('browser gap_edit_to_drawn_ms unavailable (no gg-edit/gg-drawn marks)');
+  }
+  await context.close();
+} finally {
+  await browser.close();
+  await server.close();
+}
+
+// transfer size: what a first visit downloads (wasm + js + css), gzipped
+let raw = 0, gz = 0, wasm = 0;
+for (const f of fs.readdirSync(DIST)) {
+  if (!/\.(wasm|js|css)$/.test(f)) continue;
+  const b = fs.readFileSync(path.join(DIST, f));
+  raw += b.length;
+  gz += zlib.gzipSync(b, { level: 9 }).length;
+  if (f.endsWith('.wasm')) wasm += b.length;
+}
+console.log(`browser transfer_kb gzipped=${(gz / 1024).toFixed(1)} raw=${(raw / 1024).toFixed(1)} wasm_raw=${(wasm / 1024).toFixed(1)} (goal: gzipped < 600)`);

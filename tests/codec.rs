@@ -1,0 +1,100 @@
+//! Share links and scenario files: random round trips and hostile inputs.
+
+use glowgap::codec::*;
+use glowgap::physics::junction::{Emission, JvModel};
+use glowgap::physics::spectrum::{Axis, Quantity};
+use glowgap::scenario::*;
+use proptest::prelude::*;
+
+fn source_spec() -> impl Strategy<Value = SourceSpec> {
+    prop_oneof![
+        Just(SourceSpec::Am15g),
+        Just(SourceSpec::Am15d),
+        Just(SourceSpec::Am0),
+        (1.0f64..1e5).prop_map(|t| SourceSpec::Blackbody { temp_k: t }),
+        (proptest::collection::vec(0.0f64..1e9, 2..300), "[a-zA-Z0-9 _.-]{1,20}").prop_map(|(y, name)| {
+            let x = (0..y.len()).map(|i| (300.0 + i as f64) * 1e-9).collect();
+            SourceSpec::Table(TableSpec { name, axis: Axis::Wavelength, quantity: Quantity::Irradiance, x, y })
+        }),
+    ]
+}
+
+fn scenario() -> impl Strategy<Value = Scenario> {
+    (
+        0.01f64..20.0,
+        source_spec(),
+        1.0f64..46000.0,
+        1.0f64..1e4,
+        1e-9f64..1.0,
+        prop_oneof![Just(Emission::Front), Just(Emission::Both)],
+        prop_oneof![Just(JvModel::Exact), Just(JvModel::Boltzmann)],
+        prop_oneof![Just(PlotAxis::Wavelength), Just(PlotAxis::PhotonEnergy)],
+        prop_oneof![Just(PlotQuantity::Irradiance), Just(PlotQuantity::PhotonFlux)],
+        (0.01f64..5.0, 5.0f64..20.0),
+    )
+        .prop_map(|(gap, spectrum, x, t, ere, emission, approx, axis, quantity, (from, to))| Scenario {
+            cell: CellScenario { gap_ev: gap, spectrum, concentration: x, cell_temp_k: t, ere, emission, approx },
+            view: ViewSettings { spectrum_axis: axis, spectrum_quantity: quantity, curve_from_ev: from, curve_to_ev: to },
+        })
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(200))]
+
+    #[test]
+    fn links_round_trip_exactly(s in scenario()) {
+        let link = encode_fragment(&s);
+        prop_assert!(link.starts_with("#g1."));
+        // the fragment is URL-safe as it stands
+        prop_assert!(link[1..].bytes().all(|b| b.is_ascii_alphanumeric() || b == b'-' || b == b'_' || b == b'.'));
+        let back = decode_link(&format!("http://127.0.0.1:8080/index.html{link}")).unwrap();
+        prop_assert_eq!(&back, &s);
+        prop_assert_eq!(from_json(&to_json(&s)).unwrap(), s);
+    }
+
+    #[test]
+    fn truncated_links_fail_with_a_message(s in scenario(), cut in 0.0f64..1.0) {
+        let link = encode_fragment(&s);
+        let keep = 1 + ((link.len() - 2) as f64 * cut) as usize;
+        match decode_link(&link[..keep]) {
+            Ok(back) => prop_assert_eq!(back, s), // only possible if nothing was cut
+            Err(e) => prop_assert!(!e.0.is_empty()),
+        }
+    }
+
+    #[test]
+    fn garbage_never_panics(text in ".{0,400}") {
+        let _ = decode_link(&text);
+        let _ = decode_link(&format!("#g1.{text}"));
+        let _ = from_json(&text);
+    }
+}
+
+#[test]
+fn newer_versions_are_refused_with_advice() {
+    let e = decode_link("#g2.AAAA").unwrap_err();
+    assert!(e.0.contains("newer"), "{e}");
+    let doc = r#"{"format":"glowgap-scenario","version":7,"scenario":{}}"#;
+    assert!(from_json(doc).unwrap_err().0.contains("newer"));
+}
+
+#[test]
+fn oversized_links_are_refused() {
+    // a deflate stream of 10 MB of zeros compresses to a few kB: the decoded cap must stop it
+    let bomb = vec![b' '; 10_000_000];
+    let packed = miniz_oxide::deflate::compress_to_vec(&bomb, 9);
+    let link = format!("#g1.{}", base64url_encode(&packed));
+    assert!(link.len() < MAX_LINK_CHARS);
+    let e = decode_link(&link).unwrap_err();
+    assert!(e.0.contains("more than"), "{e}");
+    let long = format!("#g1.{}", "A".repeat(MAX_LINK_CHARS + 10));
+    assert!(decode_link(&long).unwrap_err().0.contains("characters long"));
+}
+
+#[test]
+fn defaults_fill_in_missing_fields() {
+    let s = from_json(r#"{"cell":{"gap_ev":1.1}}"#).unwrap();
+    assert_eq!(s.cell.gap_ev, 1.1);
+    assert_eq!(s.cell.cell_temp_k, 300.0);
+    assert_eq!(s.view, ViewSettings::default());
+}
