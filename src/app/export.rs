@@ -1,0 +1,218 @@
+//! Files the user takes away: plots as SVG and PNG, their data as CSV, the scenario as JSON.
+
+use std::fmt::Write;
+
+use wasm_bindgen::{JsCast, JsValue};
+
+use super::engine::{spectrum_view, Computed, SpectrumDetail};
+use super::fmt::{csv_num, fixed, gap_ev};
+use super::plots::render::{png_data_url, svg_text, PlotKind};
+use crate::codec::to_json;
+use crate::physics::constants::{to_ev, HC};
+use crate::physics::junction::{Emission, JvModel};
+use crate::report::CellReport;
+use crate::scenario::{PlotAxis, PlotQuantity, Scenario, SourceSpec};
+
+/// Short human name of a source.
+pub fn source_label(spec: &SourceSpec) -> String {
+    match spec {
+        SourceSpec::Am15g => "AM1.5G".into(),
+        SourceSpec::Am15d => "AM1.5D".into(),
+        SourceSpec::Am0 => "AM0".into(),
+        SourceSpec::Blackbody { temp_k } => format!("{} K blackbody sun", super::fmt::field(*temp_k, 6)),
+        SourceSpec::File { path } => format!("file {path}"),
+        SourceSpec::Table(t) => format!("spectrum '{}'", t.name),
+    }
+}
+
+/// One line describing the scenario, for exported figures and files.
+pub fn caption(s: &Scenario, c: &Computed) -> String {
+    let cell = &s.cell;
+    let mut parts = vec![
+        source_label(&cell.spectrum),
+        format!("{} sun{}", super::fmt::field(cell.concentration, 6), if cell.concentration == 1.0 { "" } else { "s" }),
+        format!("cell {} K", super::fmt::field(cell.cell_temp_k, 6)),
+    ];
+    if cell.ere != 1.0 {
+        parts.push(format!("ERE {}", super::fmt::field(cell.ere, 4)));
+    }
+    if cell.emission == Emission::Both {
+        parts.push("both faces emit".into());
+    }
+    if cell.approx == JvModel::Boltzmann {
+        parts.push("Boltzmann approximation".into());
+    }
+    parts.push(format!("Eg {} eV: {}", gap_ev(cell.gap_ev), c.report.display("efficiency")));
+    format!("Glowgap · {} · detailed-balance limit", parts.join(" · "))
+}
+
+/// Offer `url` as a download named `name`.
+pub fn download_url(name: &str, url: &str) -> Result<(), String> {
+    let doc = web_sys::window().and_then(|w| w.document()).ok_or("no document")?;
+    let a: web_sys::HtmlAnchorElement =
+        doc.create_element("a").map_err(|_| "could not start the download")?.dyn_into().map_err(|_| "could not start the download")?;
+    a.set_href(url);
+    a.set_download(name);
+    a.set_attribute("hidden", "").ok();
+    let body = doc.body().ok_or("no body")?;
+    body.append_child(&a).map_err(|_| "could not start the download")?;
+    a.click();
+    a.remove();
+    Ok(())
+}
+
+/// Offer `text` as a download.
+pub fn download_text(name: &str, mime: &str, text: &str) -> Result<(), String> {
+    let parts = js_sys::Array::of1(&JsValue::from_str(text));
+    let opts = web_sys::BlobPropertyBag::new();
+    opts.set_type(mime);
+    let blob = web_sys::Blob::new_with_str_sequence_and_options(&parts, &opts).map_err(|_| "the browser could not make the file")?;
+    let url = web_sys::Url::create_object_url_with_blob(&blob).map_err(|_| "the browser could not make the file")?;
+    let r = download_url(name, &url);
+    let u = url.clone();
+    leptos::prelude::set_timeout(
+        move || {
+            let _ = web_sys::Url::revoke_object_url(&u);
+        },
+        std::time::Duration::from_secs(30),
+    );
+    r
+}
+
+pub fn file_name(kind: PlotKind, ext: &str) -> String {
+    format!("glowgap-{}.{ext}", kind.slug())
+}
+
+pub fn save_svg(kind: PlotKind, s: &Scenario, c: &Computed) -> Result<(), String> {
+    let svg = svg_text(kind, c, caption(s, c))?;
+    download_text(&file_name(kind, "svg"), "image/svg+xml", &svg)
+}
+
+pub fn save_png(kind: PlotKind, s: &Scenario, c: &Computed) -> Result<(), String> {
+    let url = png_data_url(kind, c, caption(s, c))?;
+    download_url(&file_name(kind, "png"), &url)
+}
+
+pub fn save_csv(kind: PlotKind, s: &Scenario, c: &Computed) -> Result<(), String> {
+    let text = match kind {
+        PlotKind::Spectrum => spectrum_csv(s, c),
+        PlotKind::Efficiency => efficiency_csv(s, c),
+        PlotKind::Jv => jv_csv(s, c),
+    };
+    download_text(&file_name(kind, "csv"), "text/csv", &text)
+}
+
+pub fn save_scenario(s: &Scenario) -> Result<(), String> {
+    download_text("glowgap-scenario.json", "application/json", &to_json(s))
+}
+
+fn comment_lines(out: &mut String, what: &str, s: &Scenario, c: &Computed) {
+    let _ = writeln!(out, "# Glowgap: {what}");
+    let _ = writeln!(out, "# {}", caption(s, c));
+    let _ = writeln!(out, "# Detailed-balance limits of an ideal cell: upper bounds, not predictions of a device.");
+}
+
+/// The source spectrum at every point of the plotted window: the plot's axis and quantity
+/// first (so the file loads back as a spectrum), then the other axis and quantity.
+pub fn spectrum_csv(s: &Scenario, c: &Computed) -> String {
+    let axis = c.view.spectrum_axis;
+    let quantity = c.view.spectrum_quantity;
+    let other_q = match quantity {
+        PlotQuantity::Irradiance => PlotQuantity::PhotonFlux,
+        PlotQuantity::PhotonFlux => PlotQuantity::Irradiance,
+    };
+    let src = &c.setup.light.source;
+    let full = spectrum_view(src, &s.cell.spectrum, axis, quantity, SpectrumDetail::Export);
+    let other = spectrum_view(src, &s.cell.spectrum, axis, other_q, SpectrumDetail::Export);
+    let per = match axis {
+        PlotAxis::Wavelength => "nm-1",
+        PlotAxis::PhotonEnergy => "eV-1",
+    };
+    let qname = |q: PlotQuantity| match q {
+        PlotQuantity::Irradiance => format!("spectral irradiance (W m-2 {per})"),
+        PlotQuantity::PhotonFlux => format!("spectral photon flux (photons s-1 m-2 {per})"),
+    };
+    let (xname, oname) = match axis {
+        PlotAxis::Wavelength => ("wavelength (nm)", "photon energy (eV)"),
+        PlotAxis::PhotonEnergy => ("photon energy (eV)", "wavelength (nm)"),
+    };
+    let mut out = String::new();
+    comment_lines(&mut out, &format!("source spectrum, one sun ({})", full.name), s, c);
+    let range = match axis {
+        PlotAxis::Wavelength => format!("{}-{} nm", fixed(full.x_lo, 1), fixed(full.x_hi, 1)),
+        PlotAxis::PhotonEnergy => format!("{}-{} eV", fixed(full.x_lo, 4), fixed(full.x_hi, 4)),
+    };
+    let _ = writeln!(out, "# every point of the source over {range}");
+    let _ = writeln!(out, "# absorbed = 1 where the photon energy is at or above the band gap");
+    let _ = writeln!(out, "{xname},{},{oname},{},absorbed", qname(quantity), qname(other_q));
+    for (i, x) in full.x.iter().enumerate() {
+        let e_ev = full.ev_of_x(*x);
+        let o = match axis {
+            PlotAxis::Wavelength => e_ev,
+            PlotAxis::PhotonEnergy => to_ev(HC / 1e-9) / e_ev,
+        };
+        let absorbed = if e_ev >= c.gap_ev { 1 } else { 0 };
+        let (xd, od) = match axis {
+            PlotAxis::Wavelength => (4, 6),
+            PlotAxis::PhotonEnergy => (6, 4),
+        };
+        let _ = writeln!(out, "{:.xd$},{},{:.od$},{},{absorbed}", x, csv_num(full.y[i]), o, csv_num(other.y.get(i).copied().unwrap_or(0.0)));
+    }
+    out
+}
+
+fn report_header(out: &mut String) {
+    let _ = writeln!(out, "band gap (eV),absorption edge (nm),efficiency (%),Jsc (mA/cm2),Voc (V),fill factor,Vmp (V),Jmp (mA/cm2),Pmax (W/m2),incident power (W/m2)");
+}
+
+fn report_row(out: &mut String, r: &CellReport) {
+    let nm = to_ev(HC / 1e-9) / r.gap_ev;
+    let _ = writeln!(
+        out,
+        "{:.6},{:.3},{},{},{},{},{},{},{},{}",
+        r.gap_ev,
+        nm,
+        csv_num(r.efficiency * 100.0),
+        csv_num(r.jsc_ma_cm2),
+        csv_num(r.voc_v),
+        csv_num(r.ff),
+        csv_num(r.vmp_v),
+        csv_num(r.jmp_ma_cm2),
+        csv_num(r.pmax_w_m2),
+        csv_num(r.input_w_m2)
+    );
+}
+
+pub fn efficiency_csv(s: &Scenario, c: &Computed) -> String {
+    let mut out = String::new();
+    comment_lines(&mut out, "limiting efficiency against band gap", s, c);
+    if let Some(b) = c.curve.best {
+        let b = CellReport::from(&b);
+        let _ = writeln!(out, "# best band gap in {}-{} eV: {} eV, {} %", c.curve.from_ev, c.curve.to_ev, fixed(b.gap_ev, 4), fixed(b.efficiency * 100.0, 3));
+    }
+    report_header(&mut out);
+    for r in &c.curve.results {
+        report_row(&mut out, &CellReport::from(r));
+    }
+    out
+}
+
+pub fn jv_csv(s: &Scenario, c: &Computed) -> String {
+    let mut out = String::new();
+    comment_lines(&mut out, "J-V and P-V curves", s, c);
+    let r = &c.report;
+    let _ = writeln!(
+        out,
+        "# Jsc {} · Voc {} · FF {} · Vmp {} · Jmp {}",
+        r.display("jsc"),
+        r.display("voc"),
+        r.display("ff"),
+        r.display("vmp"),
+        r.display("jmp")
+    );
+    let _ = writeln!(out, "voltage (V),current density (mA/cm2),power density (mW/cm2)");
+    for (v, j) in &c.jv {
+        let _ = writeln!(out, "{:.6},{},{}", v, csv_num(*j), csv_num(v * j));
+    }
+    out
+}

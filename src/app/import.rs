@@ -1,0 +1,118 @@
+//! Files the user brings: spectrum tables and scenario files, from a file picker or a drop.
+//! A file that cannot be used changes nothing; the reason is shown next to its control.
+
+use leptos::prelude::*;
+use wasm_bindgen_futures::JsFuture;
+
+use super::share::apply_scenario;
+use super::state::{sentence, validate, Ctx, Notice};
+use crate::codec::from_json;
+use crate::formats::spectrum_csv::{parse_spectrum_csv, ColumnHints};
+use crate::scenario::{SourceSpec, TableSpec};
+
+/// Largest file read [bytes].
+pub const MAX_FILE_BYTES: f64 = 32.0 * 1024.0 * 1024.0;
+
+async fn read_text(file: &web_sys::File) -> Result<String, String> {
+    if file.size() > MAX_FILE_BYTES {
+        return Err(format!(
+            "the file is {:.1} MB, more than the {:.0} MB accepted",
+            file.size() / 1048576.0,
+            MAX_FILE_BYTES / 1048576.0
+        ));
+    }
+    let v = JsFuture::from(file.text()).await.map_err(|_| "the browser could not read the file".to_string())?;
+    v.as_string().ok_or_else(|| "the file is not text".to_string())
+}
+
+/// A spectrum's name from its file name.
+fn stem(name: &str) -> String {
+    let base = name.rsplit(['/', '\\']).next().unwrap_or(name);
+    let s = match base.rsplit_once('.') {
+        Some((a, _)) if !a.is_empty() => a,
+        _ => base,
+    };
+    let s: String = s.chars().filter(|c| !c.is_control()).take(60).collect();
+    if s.is_empty() {
+        "spectrum".into()
+    } else {
+        s
+    }
+}
+
+/// Read a spectrum file and make it the source.
+pub fn open_spectrum(ctx: Ctx, file: web_sys::File) {
+    let name = file.name();
+    leptos::task::spawn_local(async move {
+        match read_text(&file).await {
+            Ok(text) => use_spectrum_text(ctx, &name, &text),
+            Err(e) => ctx.set_error("spectrum", format!("'{name}' was not loaded: {e}. The previous spectrum is still in use.")),
+        }
+    });
+}
+
+pub fn use_spectrum_text(ctx: Ctx, file_name: &str, text: &str) {
+    let name = stem(file_name);
+    match parse_spectrum_csv(text, &ColumnHints::default(), &name) {
+        Ok(sp) => {
+            let table = TableSpec { name: name.clone(), axis: sp.axis(), quantity: sp.quantity(), x: sp.coordinates().to_vec(), y: sp.values().to_vec() };
+            let spec = SourceSpec::Table(table.clone());
+            if ctx.edit("spectrum", move |s| s.cell.spectrum = spec) {
+                ctx.user_table.set(Some(table));
+                ctx.clear_error("spectrum");
+            } else if let Some(msg) = ctx.errors.with_untracked(|e| e.get("spectrum").cloned()) {
+                ctx.set_error("spectrum", format!("'{file_name}' was read but cannot be used: {msg} The previous spectrum is still in use."));
+            }
+        }
+        Err(e) => ctx.set_error(
+            "spectrum",
+            format!("'{file_name}' was not loaded — {e}. Fix the file and load it again; the previous spectrum is still in use."),
+        ),
+    }
+}
+
+/// Read a scenario file and open it.
+pub fn open_scenario(ctx: Ctx, file: web_sys::File) {
+    let name = file.name();
+    leptos::task::spawn_local(async move {
+        let outcome = match read_text(&file).await {
+            Ok(text) => from_json(&text).map_err(|e| e.0).and_then(|s| validate(&s).map(|_| s)),
+            Err(e) => Err(e),
+        };
+        match outcome {
+            Ok(s) => {
+                ctx.dismiss("file");
+                apply_scenario(ctx, s);
+                ctx.status.set(Some(format!("Opened the scenario file '{name}'.")));
+            }
+            Err(e) => ctx.notify(Notice {
+                kind: "file",
+                text: format!("The scenario file '{name}' could not be opened: {} Your current scenario is unchanged.", sentence(&e)),
+                alert: true,
+                action: None,
+            }),
+        }
+    });
+}
+
+/// A file dropped on the page: a scenario if it is JSON, otherwise a spectrum.
+pub fn open_dropped(ctx: Ctx, file: web_sys::File) {
+    let name = file.name().to_ascii_lowercase();
+    if name.ends_with(".json") {
+        open_scenario(ctx, file);
+    } else {
+        open_spectrum(ctx, file);
+    }
+}
+
+/// The first file of a file input, clearing the input so the same file can be chosen again.
+pub fn take_file(input: &web_sys::HtmlInputElement) -> Option<web_sys::File> {
+    let f = input.files().and_then(|l| l.get(0));
+    input.set_value("");
+    f
+}
+
+/// The first file of a drop.
+pub fn dropped_file(ev: &web_sys::DragEvent) -> Option<web_sys::File> {
+    ev.data_transfer().and_then(|d| d.files()).and_then(|l| l.get(0))
+}

@@ -1,0 +1,366 @@
+//! The three plots, drawn with plotters onto any backend: the page's canvases, an
+//! offscreen canvas for PNG files, and an SVG string. Sizes are given in CSS pixels and
+//! multiplied by [`Look::scale`], so one drawing routine serves a crisp on-screen canvas
+//! (scale = device pixel ratio) and a large export with proportionally larger type.
+//!
+//! Tick positions and labels are computed here (not left to plotters) and the label areas
+//! are sized from measured label widths, so no label is ever cut off.
+
+pub mod efficiency;
+pub mod jv;
+pub mod measure;
+pub mod render;
+pub mod spectrum;
+
+use plotters::prelude::*;
+use plotters::style::text_anchor::{HPos, Pos, VPos};
+
+use super::fmt::{axis_exponent, fixed, nice_step, nice_ticks, superscript, ticks_with_step, Ticks};
+
+/// Colours of the plots (RGB).
+pub mod palette {
+    use plotters::style::RGBColor;
+    pub const INK: RGBColor = RGBColor(32, 38, 50);
+    pub const MUTED: RGBColor = RGBColor(92, 101, 116);
+    pub const AXIS: RGBColor = RGBColor(120, 128, 142);
+    pub const GRID: RGBColor = RGBColor(223, 227, 233);
+    pub const GRID_LIGHT: RGBColor = RGBColor(240, 242, 245);
+    /// the spectrum and the J-V curve
+    pub const SPECTRUM: RGBColor = RGBColor(44, 72, 150);
+    /// light the cell absorbs
+    pub const ABSORBED: RGBColor = RGBColor(246, 168, 52);
+    /// the band-gap marker
+    pub const GAP: RGBColor = RGBColor(196, 40, 84);
+    /// the efficiency curve
+    pub const CURVE: RGBColor = RGBColor(14, 122, 120);
+    /// the best gap
+    pub const BEST: RGBColor = RGBColor(150, 96, 0);
+    /// the P-V curve
+    pub const POWER: RGBColor = RGBColor(214, 110, 24);
+}
+
+/// How big to draw: all sizes are CSS pixels times `scale`.
+#[derive(Debug, Clone)]
+pub struct Look {
+    pub scale: f64,
+    /// A line of text above the plot (exports only).
+    pub caption: Option<String>,
+    /// Draw legends inside the plot (exports; the page shows them in HTML).
+    pub legend: bool,
+}
+
+impl Look {
+    pub fn screen(scale: f64) -> Look {
+        Look { scale, caption: None, legend: false }
+    }
+    pub fn px(&self, v: f64) -> i32 {
+        (v * self.scale).round() as i32
+    }
+    pub fn size(&self, v: f64) -> f64 {
+        v * self.scale
+    }
+    /// Tick-label font size [backend px].
+    pub fn tick_font(&self) -> f64 {
+        self.size(12.0)
+    }
+    /// Axis-title font size [backend px].
+    pub fn desc_font(&self) -> f64 {
+        self.size(13.0)
+    }
+    pub fn text(&self, px: f64, color: &RGBColor) -> TextStyle<'static> {
+        (FontFamily::SansSerif, px).into_font().color(color)
+    }
+}
+
+/// A linear axis whose tick positions are given (major and minor), labelled by our own
+/// formatters.
+#[derive(Debug, Clone)]
+pub struct TickRange {
+    pub lo: f64,
+    pub hi: f64,
+    pub major: Vec<f64>,
+    pub minor: Vec<f64>,
+}
+
+impl Ranged for TickRange {
+    type FormatOption = plotters::coord::ranged1d::DefaultFormatting;
+    type ValueType = f64;
+
+    fn map(&self, value: &f64, limit: (i32, i32)) -> i32 {
+        let t = (value - self.lo) / (self.hi - self.lo);
+        let px = limit.0 as f64 + t * (limit.1 - limit.0) as f64;
+        px.clamp(-1e7, 1e7).round() as i32
+    }
+
+    fn key_points<H: plotters::coord::ranged1d::KeyPointHint>(&self, hint: H) -> Vec<f64> {
+        if hint.weight().allow_light_points() {
+            self.minor.clone()
+        } else {
+            self.major.clone()
+        }
+    }
+
+    fn range(&self) -> std::ops::Range<f64> {
+        self.lo..self.hi
+    }
+}
+
+/// Where the plotting area landed, for mapping the pointer back to values.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct Frame {
+    /// plotting-area edges in backend pixels
+    pub left: f64,
+    pub right: f64,
+    pub top: f64,
+    pub bottom: f64,
+    pub x_lo: f64,
+    pub x_hi: f64,
+    pub y_lo: f64,
+    pub y_hi: f64,
+    /// backend pixels per CSS pixel
+    pub scale: f64,
+}
+
+impl Frame {
+    /// Value on the x axis at CSS pixel `x` (from the canvas' left edge), clamped to the axis.
+    pub fn x_at_css(&self, x_css: f64) -> f64 {
+        let px = x_css * self.scale;
+        let t = ((px - self.left) / (self.right - self.left)).clamp(0.0, 1.0);
+        self.x_lo + t * (self.x_hi - self.x_lo)
+    }
+    /// CSS pixel of x value `x`.
+    pub fn css_of_x(&self, x: f64) -> f64 {
+        (self.left + (x - self.x_lo) / (self.x_hi - self.x_lo) * (self.right - self.left)) / self.scale
+    }
+    /// CSS pixel of y value `y`.
+    pub fn css_of_y(&self, y: f64) -> f64 {
+        (self.bottom - (y - self.y_lo) / (self.y_hi - self.y_lo) * (self.bottom - self.top)) / self.scale
+    }
+    /// Whether a CSS point lies over the plotting area (with a little slack).
+    pub fn contains_css(&self, x_css: f64, y_css: f64, slack_css: f64) -> bool {
+        let (x, y, s) = (x_css * self.scale, y_css * self.scale, slack_css * self.scale);
+        x >= self.left - s && x <= self.right + s && y >= self.top - s && y <= self.bottom + s
+    }
+    pub fn is_valid(&self) -> bool {
+        self.right > self.left && self.x_hi > self.x_lo && self.scale > 0.0
+    }
+}
+
+/// One axis: its range, ticks, power-of-ten factor and title.
+#[derive(Debug, Clone)]
+pub struct AxisSpec {
+    pub lo: f64,
+    pub hi: f64,
+    pub ticks: Ticks,
+    /// values are labelled divided by 10^exp
+    pub exp: i32,
+    pub title: String,
+}
+
+impl AxisSpec {
+    /// Ticks over [lo, hi]; with `snap_hi` the top is raised to the next tick.
+    pub fn new(lo: f64, hi: f64, target: usize, name: &str, unit: &str, snap_hi: bool) -> AxisSpec {
+        let (lo, hi) = if hi > lo && hi.is_finite() && lo.is_finite() { (lo, hi) } else { (lo.min(0.0), lo.min(0.0) + 1.0) };
+        let exp = axis_exponent(lo.abs().max(hi.abs()));
+        let f = 10f64.powi(exp);
+        let mut t = nice_ticks(lo / f, hi / f, target);
+        let mut hi = hi;
+        if snap_hi {
+            // raise the top to the next multiple of the same step
+            let (step, sub, decimals) = nice_step((hi - lo) / f, target);
+            let top = (hi / f / step - 1e-9).ceil() * step;
+            if top * f > hi {
+                hi = top * f;
+                t = ticks_with_step(lo / f, top, step, sub, decimals);
+            }
+        }
+        let major = t.major.iter().map(|v| v * f).collect();
+        let minor = t.minor.iter().map(|v| v * f).collect();
+        let title = match (exp, unit.is_empty()) {
+            (0, true) => name.to_string(),
+            (0, false) => format!("{name} ({unit})"),
+            (e, true) => format!("{name} (10{})", superscript(e)),
+            (e, false) => format!("{name} (10{} {unit})", superscript(e)),
+        };
+        AxisSpec { lo, hi, ticks: Ticks { major, minor, decimals: t.decimals }, exp, title }
+    }
+
+    /// The tick label of value `v`.
+    pub fn label(&self, v: f64) -> String {
+        fixed(v / 10f64.powi(self.exp), self.ticks.decimals)
+    }
+
+    /// The axis as a plotters coordinate with our ticks.
+    pub fn coord(&self) -> TickRange {
+        TickRange { lo: self.lo, hi: self.hi, major: self.ticks.major.clone(), minor: self.ticks.minor.clone() }
+    }
+
+    /// The same without minor ticks (for a second axis that must not add grid lines).
+    pub fn coord_major(&self) -> TickRange {
+        TickRange { minor: Vec::new(), ..self.coord() }
+    }
+
+    pub fn labels(&self) -> Vec<String> {
+        self.ticks.major.iter().map(|v| self.label(*v)).collect()
+    }
+}
+
+/// Sizes of the areas around the plotting area [backend px].
+#[derive(Debug, Clone, Copy)]
+pub struct Margins {
+    pub top: i32,
+    pub right: i32,
+    pub left: i32,
+    pub bottom: i32,
+    pub left_area: i32,
+    pub bottom_area: i32,
+    pub right_area: i32,
+}
+
+/// Tick mark length [CSS px].
+const TICK: f64 = 5.0;
+
+/// Room for tick labels and titles, from measured label widths.
+pub fn margins(look: &Look, x: &AxisSpec, y: &AxisSpec, y2: Option<&AxisSpec>) -> Margins {
+    let tf = look.tick_font();
+    let df = look.desc_font();
+    let widest = |a: &AxisSpec| a.labels().iter().map(|l| measure::text_width(l, tf)).fold(0.0f64, f64::max);
+    let label_dist = look.size(2.0 * TICK);
+    let side = |a: &AxisSpec| (look.size(2.0) + df * 1.25 + look.size(8.0) + widest(a) + label_dist).ceil() as i32;
+    let left_area = side(y);
+    let right_area = y2.map(side).unwrap_or(0);
+    let bottom_area = (label_dist + tf * 1.25 + look.size(8.0) + df * 1.25 + look.size(2.0)).ceil() as i32;
+    // the last x label is centred on the axis end: leave half of it free on the right
+    let last_x = x.labels().last().map(|l| measure::text_width(l, tf)).unwrap_or(0.0);
+    let right = if y2.is_some() { look.px(8.0) } else { ((last_x / 2.0).ceil() as i32 + look.px(6.0)).max(look.px(18.0)) };
+    let mut top = look.px(14.0);
+    if look.caption.is_some() {
+        top += (look.size(13.0) * 1.6).ceil() as i32;
+    }
+    Margins { top, right, left: look.px(8.0), bottom: look.px(6.0), left_area, bottom_area, right_area }
+}
+
+/// How many ticks fit along `pixels` backend pixels.
+pub fn tick_target(look: &Look, pixels: u32, spacing_css: f64) -> usize {
+    ((pixels as f64 / look.size(spacing_css)).floor() as usize).clamp(2, 12)
+}
+
+/// Draw the caption line, if any, at the top left.
+pub fn draw_caption<DB: DrawingBackend>(root: &DrawingArea<DB, plotters::coord::Shift>, look: &Look) -> Result<(), String> {
+    if let Some(c) = &look.caption {
+        let style = look.text(look.size(13.0), &palette::MUTED).pos(Pos::new(HPos::Left, VPos::Top));
+        root.draw_text(c, &style, (look.px(10.0), look.px(8.0))).map_err(err)?;
+    }
+    Ok(())
+}
+
+/// A plotters error as text.
+pub fn err<E: std::fmt::Debug>(e: E) -> String {
+    format!("the plot could not be drawn: {e:?}")
+}
+
+/// The frame of a chart's plotting area.
+pub fn frame_of(range: (std::ops::Range<i32>, std::ops::Range<i32>), x: &AxisSpec, y: &AxisSpec, look: &Look) -> Frame {
+    let (xr, yr) = range;
+    Frame {
+        left: xr.start as f64,
+        right: xr.end as f64,
+        top: yr.start as f64,
+        bottom: yr.end as f64,
+        x_lo: x.lo,
+        x_hi: x.hi,
+        y_lo: y.lo,
+        y_hi: y.hi,
+        scale: look.scale,
+    }
+}
+
+/// A small filled tag with text, anchored at backend pixel (x, y) by its top-centre, kept
+/// inside [min_x, max_x].
+#[allow(clippy::too_many_arguments)]
+pub fn draw_tag<DB: DrawingBackend>(
+    root: &DrawingArea<DB, plotters::coord::Shift>,
+    look: &Look,
+    text: &str,
+    x: i32,
+    y: i32,
+    min_x: i32,
+    max_x: i32,
+    fill: &RGBColor,
+) -> Result<(), String> {
+    let fs = look.size(11.5);
+    let w = measure::text_width(text, fs).ceil() as i32 + look.px(10.0);
+    let h = (fs * 1.45).ceil() as i32;
+    let mut x0 = x - w / 2;
+    x0 = x0.max(min_x).min(max_x - w);
+    root.draw(&Rectangle::new([(x0, y), (x0 + w, y + h)], fill.filled())).map_err(err)?;
+    let style = look.text(fs, &WHITE).pos(Pos::new(HPos::Center, VPos::Center));
+    root.draw_text(text, &style, (x0 + w / 2, y + h / 2)).map_err(err)?;
+    Ok(())
+}
+
+/// A text label on a white backing box; `anchor` is where (x, y) sits on the box.
+#[allow(clippy::too_many_arguments)]
+pub fn draw_boxed_text<DB: DrawingBackend>(
+    root: &DrawingArea<DB, plotters::coord::Shift>,
+    look: &Look,
+    text: &str,
+    x: i32,
+    y: i32,
+    h_pos: HPos,
+    v_pos: VPos,
+    color: &RGBColor,
+    bounds: (i32, i32, i32, i32),
+) -> Result<(), String> {
+    let fs = look.size(12.0);
+    let pad = look.px(4.0);
+    let w = measure::text_width(text, fs).ceil() as i32 + 2 * pad;
+    let h = (fs * 1.35).ceil() as i32 + pad;
+    let mut x0 = match h_pos {
+        HPos::Left => x,
+        HPos::Center => x - w / 2,
+        HPos::Right => x - w,
+    };
+    let mut y0 = match v_pos {
+        VPos::Top => y,
+        VPos::Center => y - h / 2,
+        VPos::Bottom => y - h,
+    };
+    let (bl, bt, br, bb) = bounds;
+    x0 = x0.max(bl).min(br - w);
+    y0 = y0.max(bt).min(bb - h);
+    root.draw(&Rectangle::new([(x0, y0), (x0 + w, y0 + h)], WHITE.mix(0.85).filled())).map_err(err)?;
+    let style = look.text(fs, color).pos(Pos::new(HPos::Left, VPos::Center));
+    root.draw_text(text, &style, (x0 + pad, y0 + h / 2)).map_err(err)?;
+    Ok(())
+}
+
+/// One legend row: a short line (or a swatch) and its text, at backend pixel (x, y).
+#[allow(clippy::too_many_arguments)]
+pub fn draw_legend_row<DB: DrawingBackend>(
+    root: &DrawingArea<DB, plotters::coord::Shift>,
+    look: &Look,
+    x: i32,
+    y: i32,
+    color: &RGBColor,
+    swatch: bool,
+    text: &str,
+) -> Result<i32, String> {
+    let fs = look.size(12.0);
+    let len = look.px(22.0);
+    let tw = measure::text_width(text, fs).ceil() as i32;
+    let pad = look.px(4.0);
+    let half = (fs * 0.75).ceil() as i32;
+    root.draw(&Rectangle::new([(x - pad, y - half - pad / 2), (x + len + look.px(6.0) + tw + pad, y + half + pad / 2)], WHITE.mix(0.85).filled()))
+        .map_err(err)?;
+    if swatch {
+        root.draw(&Rectangle::new([(x, y - look.px(5.0)), (x + len, y + look.px(5.0))], color.mix(0.5).filled()))
+            .map_err(err)?;
+    } else {
+        root.draw(&PathElement::new(vec![(x, y), (x + len, y)], color.stroke_width(look.px(2.5).max(1) as u32)))
+            .map_err(err)?;
+    }
+    let style = look.text(fs, &palette::INK).pos(Pos::new(HPos::Left, VPos::Center));
+    root.draw_text(text, &style, (x + len + look.px(6.0), y)).map_err(err)?;
+    Ok(len + look.px(6.0) + tw)
+}

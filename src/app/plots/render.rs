@@ -1,0 +1,110 @@
+//! Where plots are drawn: the page's canvases, PNG files and SVG files.
+
+use plotters::coord::Shift;
+use plotters::prelude::*;
+use plotters_canvas::CanvasBackend;
+use wasm_bindgen::JsCast;
+use web_sys::HtmlCanvasElement;
+
+use super::{efficiency, err, jv, spectrum, Frame, Look};
+use crate::app::engine::Computed;
+
+/// The three plots.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum PlotKind {
+    Spectrum,
+    Efficiency,
+    Jv,
+}
+
+impl PlotKind {
+    pub const ALL: [PlotKind; 3] = [PlotKind::Spectrum, PlotKind::Efficiency, PlotKind::Jv];
+
+    /// The test hook and file-name part.
+    pub fn slug(self) -> &'static str {
+        match self {
+            PlotKind::Spectrum => "spectrum",
+            PlotKind::Efficiency => "efficiency",
+            PlotKind::Jv => "jv",
+        }
+    }
+
+    pub fn index(self) -> usize {
+        match self {
+            PlotKind::Spectrum => 0,
+            PlotKind::Efficiency => 1,
+            PlotKind::Jv => 2,
+        }
+    }
+}
+
+/// Size of exported PNG files [px] and the scale of their type.
+pub const PNG_SIZE: (u32, u32) = (1600, 1000);
+pub const PNG_SCALE: f64 = 2.0;
+/// Size of exported SVG files [user units] and the scale of their type.
+pub const SVG_SIZE: (u32, u32) = (1000, 625);
+pub const SVG_SCALE: f64 = 1.25;
+
+pub fn draw_kind<DB: DrawingBackend>(kind: PlotKind, root: &DrawingArea<DB, Shift>, c: &Computed, look: &Look) -> Result<Frame, String> {
+    match kind {
+        PlotKind::Spectrum => spectrum::draw(root, c, look),
+        PlotKind::Efficiency => efficiency::draw(root, c, look),
+        PlotKind::Jv => jv::draw(root, c, look),
+    }
+}
+
+fn device_pixel_ratio() -> f64 {
+    web_sys::window().map(|w| w.device_pixel_ratio()).filter(|r| r.is_finite() && *r > 0.0).unwrap_or(1.0).clamp(1.0, 4.0)
+}
+
+/// Draw onto a canvas of the page at its CSS size times the device pixel ratio. Returns
+/// `Ok(None)` while the canvas has no size (not laid out yet).
+pub fn draw_on_canvas(canvas: &HtmlCanvasElement, kind: PlotKind, c: &Computed) -> Result<Option<Frame>, String> {
+    let (cw, ch) = (canvas.client_width(), canvas.client_height());
+    if cw <= 0 || ch <= 0 {
+        return Ok(None);
+    }
+    let dpr = device_pixel_ratio();
+    let (pw, ph) = ((cw as f64 * dpr).round() as u32, (ch as f64 * dpr).round() as u32);
+    if canvas.width() != pw {
+        canvas.set_width(pw);
+    }
+    if canvas.height() != ph {
+        canvas.set_height(ph);
+    }
+    let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("this browser gave no 2D drawing context for the plot")?;
+    let root = backend.into_drawing_area();
+    let frame = draw_kind(kind, &root, c, &Look::screen(dpr))?;
+    root.present().map_err(err)?;
+    Ok(Some(frame))
+}
+
+/// A PNG image of a plot as a data URL, drawn on a detached canvas.
+pub fn png_data_url(kind: PlotKind, c: &Computed, caption: String) -> Result<String, String> {
+    let doc = web_sys::window().and_then(|w| w.document()).ok_or("no document")?;
+    let canvas: HtmlCanvasElement = doc
+        .create_element("canvas")
+        .map_err(|_| "could not make a canvas".to_string())?
+        .dyn_into()
+        .map_err(|_| "could not make a canvas".to_string())?;
+    canvas.set_width(PNG_SIZE.0);
+    canvas.set_height(PNG_SIZE.1);
+    {
+        let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("this browser gave no 2D drawing context")?;
+        let root = backend.into_drawing_area();
+        draw_kind(kind, &root, c, &Look { scale: PNG_SCALE, caption: Some(caption), legend: true })?;
+        root.present().map_err(err)?;
+    }
+    canvas.to_data_url().map_err(|_| "the browser refused to encode the PNG image".to_string())
+}
+
+/// An SVG document of a plot.
+pub fn svg_text(kind: PlotKind, c: &Computed, caption: String) -> Result<String, String> {
+    let mut out = String::new();
+    {
+        let root = SVGBackend::with_string(&mut out, SVG_SIZE).into_drawing_area();
+        draw_kind(kind, &root, c, &Look { scale: SVG_SCALE, caption: Some(caption), legend: true })?;
+        root.present().map_err(err)?;
+    }
+    Ok(out)
+}

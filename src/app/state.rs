@@ -1,0 +1,196 @@
+//! The page's state: the scenario (the single source of truth), what was computed from
+//! it, and the messages shown next to controls. Every edit goes through [`Ctx::edit`],
+//! which checks the edited scenario as a whole and either commits it or leaves the current
+//! one in place and says, next to the control, what is wrong.
+
+use std::collections::BTreeMap;
+use std::sync::Arc;
+
+use leptos::prelude::*;
+
+use super::engine::Computed;
+use super::plots::Frame;
+use crate::physics::constants::CHARGE;
+use crate::scenario::{Scenario, TableSpec, GAP_RANGE_EV};
+
+/// A message across the top of the page.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Notice {
+    /// stable hook: "link", "storage", "file", "save", "restore"
+    pub kind: &'static str,
+    pub text: String,
+    /// an alert (something went wrong) or a status line
+    pub alert: bool,
+    /// an action offered with the notice
+    pub action: Option<NoticeAction>,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub enum NoticeAction {
+    /// put this scenario back (e.g. the saved work that a link replaced)
+    Restore(Box<Scenario>, &'static str),
+}
+
+/// Shared handles; all are cheap to copy.
+#[derive(Clone, Copy)]
+pub struct Ctx {
+    pub scenario: RwSignal<Scenario>,
+    pub computed: RwSignal<Option<Arc<Computed>>>,
+    /// why the scenario cannot be computed (should not happen: edits are checked)
+    pub compute_error: RwSignal<Option<String>>,
+    /// messages next to controls, by control hook
+    pub errors: RwSignal<BTreeMap<&'static str, String>>,
+    pub notices: RwSignal<Vec<Notice>>,
+    /// the last spectrum the user loaded, kept while another source is in use
+    pub user_table: RwSignal<Option<TableSpec>>,
+    /// the last blackbody temperature chosen [K]
+    pub bb_temp: RwSignal<f64>,
+    /// bumped when the window size changes, to redraw the plots
+    pub layout: RwSignal<u32>,
+    /// where each plot's axes landed, for the pointer
+    pub frames: RwSignal<[Frame; 3]>,
+    /// a problem drawing a plot, by plot index
+    pub plot_errors: RwSignal<[Option<String>; 3]>,
+    /// a line of status beside the link and file buttons
+    pub status: RwSignal<Option<String>>,
+}
+
+/// Check a whole scenario the way computing it would.
+pub fn validate(s: &Scenario) -> Result<(), String> {
+    s.view.check()?;
+    s.cell.to_physics().map(|_| ())
+}
+
+/// A message for people: first letter upper case, ends with a full stop.
+pub fn sentence(msg: &str) -> String {
+    let mut m = msg.trim().to_string();
+    if let Some(first) = m.chars().next() {
+        let up: String = first.to_uppercase().collect();
+        m.replace_range(..first.len_utf8(), &up);
+    }
+    if !m.ends_with('.') {
+        m.push('.');
+    }
+    m
+}
+
+impl Ctx {
+    pub fn new(initial: Scenario) -> Ctx {
+        let user_table = match &initial.cell.spectrum {
+            crate::scenario::SourceSpec::Table(t) => Some(t.clone()),
+            _ => None,
+        };
+        let bb = match &initial.cell.spectrum {
+            crate::scenario::SourceSpec::Blackbody { temp_k } => *temp_k,
+            _ => 5772.0,
+        };
+        Ctx {
+            scenario: RwSignal::new(initial),
+            computed: RwSignal::new(None),
+            compute_error: RwSignal::new(None),
+            errors: RwSignal::new(BTreeMap::new()),
+            notices: RwSignal::new(Vec::new()),
+            user_table: RwSignal::new(user_table),
+            bb_temp: RwSignal::new(bb),
+            layout: RwSignal::new(0),
+            frames: RwSignal::new([Frame::default(); 3]),
+            plot_errors: RwSignal::new([None, None, None]),
+            status: RwSignal::new(None),
+        }
+    }
+
+    pub fn set_error(&self, hook: &'static str, msg: String) {
+        self.errors.update(|e| {
+            e.insert(hook, msg);
+        });
+    }
+
+    pub fn clear_error(&self, hook: &'static str) {
+        if self.errors.with_untracked(|e| e.contains_key(hook)) {
+            self.errors.update(|e| {
+                e.remove(hook);
+            });
+        }
+    }
+
+    /// The message shown next to control `hook`, if any (reactive).
+    pub fn error_of(&self, hook: &'static str) -> Option<String> {
+        self.errors.with(|e| e.get(hook).cloned())
+    }
+
+    /// Apply `f` to a copy of the scenario; commit it if it checks out, otherwise show the
+    /// reason next to control `hook` and keep the current scenario. Returns whether the
+    /// edit was committed.
+    pub fn edit(&self, hook: &'static str, f: impl FnOnce(&mut Scenario)) -> bool {
+        let mut next = self.scenario.get_untracked();
+        f(&mut next);
+        match validate(&next) {
+            Ok(()) => {
+                self.clear_error(hook);
+                if self.scenario.with_untracked(|s| *s != next) {
+                    self.scenario.set(next);
+                }
+                true
+            }
+            Err(msg) => {
+                self.set_error(hook, sentence(&msg));
+                false
+            }
+        }
+    }
+
+    /// Move the band gap [eV] (from a drag, a key, a typed value or a preset). Only the gap
+    /// changes, so only its range needs checking; the scenario is updated in place.
+    pub fn set_gap(&self, hook: &'static str, gap_ev: f64) -> bool {
+        mark("gg-edit");
+        let (lo, hi) = GAP_RANGE_EV;
+        if gap_ev.is_nan() || !(gap_ev >= lo && gap_ev <= hi) {
+            let mut msg = format!("The band gap {} eV is out of range; give a value from {lo} to {hi} eV (e.g. 1.34)", super::fmt::field(gap_ev, 6));
+            if (100.0..=1e5).contains(&gap_ev) {
+                msg.push_str(&format!(" — for a wavelength, type it with its unit, e.g. '{} nm'", super::fmt::field(gap_ev, 6)));
+            }
+            msg.push('.');
+            self.set_error(hook, msg);
+            return false;
+        }
+        self.clear_error("gap");
+        self.clear_error("gap-nm");
+        if self.scenario.with_untracked(|s| s.cell.gap_ev.to_bits() != gap_ev.to_bits()) {
+            self.scenario.update(|s| s.cell.gap_ev = gap_ev);
+        }
+        true
+    }
+
+    pub fn gap(&self) -> f64 {
+        self.scenario.with_untracked(|s| s.cell.gap_ev)
+    }
+
+    /// Add a notice, replacing any of the same kind.
+    pub fn notify(&self, n: Notice) {
+        self.notices.update(|v| {
+            v.retain(|o| o.kind != n.kind);
+            v.push(n);
+        });
+    }
+
+    pub fn dismiss(&self, kind: &'static str) {
+        self.notices.update(|v| v.retain(|o| o.kind != kind));
+    }
+}
+
+/// Round to 1 µeV so that arithmetic on steps leaves no binary noise in links.
+pub fn tidy(v: f64) -> f64 {
+    (v * 1e6).round() / 1e6
+}
+
+/// Photon energy [eV] of a wavelength [nm].
+pub fn ev_of_nm(nm: f64) -> f64 {
+    crate::physics::constants::HC / (nm * 1e-9) / CHARGE
+}
+
+/// Record a performance mark (for the latency benchmark).
+pub fn mark(name: &str) {
+    if let Some(p) = web_sys::window().and_then(|w| w.performance()) {
+        let _ = p.mark(name);
+    }
+}
