@@ -63,6 +63,66 @@ fn main() {
 
     numpy_comparison(curve, quick);
     cli_peak_memory();
+    radiator_balance(rounds);
+    stack_map(rounds);
+}
+
+/// The 200 x 200 two-junction series map on AM1.5G (goal < 30 ms) and a 3-junction series
+/// optimization. Printed only.
+fn stack_map(rounds: usize) {
+    use glowgap::physics::stack::map::tandem_map;
+    use glowgap::physics::stack::optimize::{optimize, Problem, SEARCH_RANGE_EV};
+    use glowgap::physics::stack::Connection;
+    let light = Illumination::one_sun(Source::am15g());
+    let tops: Vec<f64> = (0..200).map(|i| ev(1.2 + 1.2 * i as f64 / 199.0)).collect();
+    let bottoms: Vec<f64> = (0..200).map(|i| ev(0.5 + 1.0 * i as f64 / 199.0)).collect();
+    let cell = Cell::ideal(1.0);
+    let map = median_per_call(rounds, 3, || {
+        black_box(tandem_map(black_box(&light), &cell, Connection::Series, &tops, &bottoms));
+    });
+    let p = Problem {
+        light: &light,
+        cell,
+        connection: Connection::Series,
+        junctions: 3,
+        fixed: None,
+        range_j: (ev(SEARCH_RANGE_EV.0), ev(SEARCH_RANGE_EV.1)),
+        seeds: vec![],
+    };
+    let best = optimize(&p);
+    let opt = median_per_call(rounds.min(5), 1, || {
+        black_box(optimize(black_box(&p)));
+    });
+    println!("bench stack_map_200x200_series      {:>10.3} ms   (goal < 30 ms)", map * 1e3);
+    println!(
+        "bench stack_optimize_3j_series      {:>10.3} ms   ({} evaluations, {:.3} %)",
+        opt * 1e3,
+        best.evaluations,
+        best.efficiency * 100.0
+    );
+}
+
+/// One radiator evaluation (balance, steady temperature, figures) in closed form (window
+/// emitter, box sky) and on the fine grid (control points, clear sky, sun). Printed only.
+fn radiator_balance(rounds: usize) {
+    use glowgap::physics::radiator::{evaluate, Emitter, Profile, Sky, Sun, Surroundings};
+    let window = Emitter::new(Profile::ideal_window(8e-6, 13e-6));
+    let boxed = Surroundings { sky: Sky::textbook_box(), ambient_k: 300.0, sun: None, h_c: 0.0 };
+    let exact = median_per_call(rounds, 200, || {
+        black_box(evaluate(black_box(&window), &boxed, 300.0));
+    });
+    let points = Emitter::new(Profile::Points { points: vec![(0.3e-6, 0.05), (4e-6, 0.05), (8e-6, 0.95), (13e-6, 0.95), (14e-6, 0.2)] });
+    let clear = Surroundings {
+        sky: Sky::Clear { pwv_m: 0.015 },
+        ambient_k: 300.0,
+        sun: Some(Sun { source: Source::am15g(), zenith_rad: 0.0, scale: 1.0 }),
+        h_c: 5.0,
+    };
+    let grid = median_per_call(rounds, 5, || {
+        black_box(evaluate(black_box(&points), &clear, 300.0));
+    });
+    println!("bench radiator_closed_form          {:>10.3} ms   (window emitter, box sky)", exact * 1e3);
+    println!("bench radiator_grid_clear_sky       {:>10.3} ms   (control points, clear sky, AM1.5G)", grid * 1e3);
 }
 
 /// Run the vectorized numpy script for the same curve in this same run and print the ratio.

@@ -7,6 +7,9 @@ use crate::physics::constants::to_ev;
 use crate::physics::junction::CellResult;
 use serde::{Deserialize, Serialize};
 
+pub mod radiator;
+pub mod stack;
+
 /// 1 mA/cm^2 = 10 A/m^2.
 pub const A_PER_M2_PER_MA_PER_CM2: f64 = 10.0;
 

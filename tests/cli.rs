@@ -1,16 +1,7 @@
 //! The `glowgap` command line contract: outputs, keys, and one-line errors with exit code 2.
 
-use std::process::{Command, Output};
-
-fn glowgap(args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_glowgap")).args(args).output().expect("the binary runs")
-}
-
-fn json(args: &[&str]) -> serde_json::Value {
-    let out = glowgap(args);
-    assert!(out.status.success(), "{args:?}: {}", String::from_utf8_lossy(&out.stderr));
-    serde_json::from_slice(&out.stdout).expect("valid JSON")
-}
+mod common;
+use common::{expect_usage_error, glowgap, json};
 
 const CELL_KEYS: [&str; 9] =
     ["gap_ev", "efficiency", "jsc_ma_cm2", "voc_v", "ff", "vmp_v", "jmp_ma_cm2", "pmax_w_m2", "input_w_m2"];
@@ -93,16 +84,6 @@ fn share_link_round_trips_through_eval() {
     let a = json(&["eval", &url, "--json"]);
     let b = json(&["cell", "--gap", "1.2", "--cell-temp", "320", "--ere", "0.1", "--json"]);
     assert_eq!(a, b);
-}
-
-fn expect_usage_error(args: &[&str], needle: &str) {
-    let out = glowgap(args);
-    assert_eq!(out.status.code(), Some(2), "{args:?} should fail with 2");
-    let err = String::from_utf8(out.stderr).unwrap();
-    assert_eq!(err.trim_end().lines().count(), 1, "{args:?}: one line, got {err:?}");
-    assert!(err.starts_with("glowgap: "), "{err}");
-    assert!(!err.contains("panicked") && !err.contains("RUST_BACKTRACE"), "{err}");
-    assert!(err.to_lowercase().contains(&needle.to_lowercase()), "{args:?}: {err} lacks {needle}");
 }
 
 #[test]

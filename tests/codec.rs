@@ -19,6 +19,65 @@ fn source_spec() -> impl Strategy<Value = SourceSpec> {
     ]
 }
 
+fn radiator() -> impl Strategy<Value = radiator::RadiatorScenario> {
+    use radiator::*;
+    let emitter = prop_oneof![
+        Just(EmitterSpec::Blackbody),
+        (0.0f64..=1.0).prop_map(|e| EmitterSpec::Grey { emissivity: e }),
+        (0.1f64..20.0, 0.0f64..=1.0, 0.0f64..=1.0, 0.0f64..2.0).prop_map(|(a, i, o, e)| EmitterSpec::Window {
+            from_um: a,
+            to_um: a + 5.0,
+            inside: i,
+            outside: o,
+            edge_um: e
+        }),
+        proptest::collection::vec((0.1f64..100.0, 0.0f64..=1.0), 1..6)
+            .prop_map(|v| EmitterSpec::Points { points: v.into_iter().map(|(l, e)| [l, e]).collect() }),
+        proptest::collection::vec(0.0f64..=1.0, 2..50).prop_map(|e| EmitterSpec::Table(EmissivityTable {
+            name: "m.csv".into(),
+            wavelength_m: (0..e.len()).map(|i| (1.0 + i as f64) * 1e-6).collect(),
+            emissivity: e
+        })),
+    ];
+    let sky = prop_oneof![
+        Just(SkySpec::Box),
+        Just(SkySpec::Space),
+        (0.0f64..10.0).prop_map(|w| SkySpec::Clear { pwv_cm: w }),
+        proptest::collection::vec(0.0f64..=1.0, 2..50).prop_map(|t| SkySpec::Table(TransmittanceTable {
+            name: "sky.csv".into(),
+            wavelength_m: (0..t.len()).map(|i| (5.0 + i as f64) * 1e-6).collect(),
+            transmittance: t
+        })),
+    ];
+    let angular = prop_oneof![
+        Just(AngularSpec::Lambertian),
+        (1.0f64..90.0, 0.0f64..=1.0).prop_map(|(a, b)| AngularSpec::CutOff { angle_deg: a, beyond: b }),
+    ];
+    (
+        emitter,
+        proptest::option::of((0.2f64..10.0, 0.0f64..=1.0)),
+        angular,
+        sky,
+        (100.0f64..400.0, proptest::option::of(1.0f64..3000.0)),
+        proptest::option::of(source_spec()),
+        (0.0f64..89.0, 0.0f64..10.0, 0.0f64..100.0),
+    )
+        .prop_map(|(emitter, solar, angular, sky, (ambient_k, surface_k), sun, (zenith, scale, hc))| RadiatorScenario {
+            emitter,
+            solar_band: solar.map(|(b, e)| SolarBandSpec { below_um: b, profile: EmitterSpec::Grey { emissivity: e } }),
+            angular,
+            sky,
+            ambient_k,
+            surface_k,
+            sun,
+            sun_zenith_deg: zenith,
+            sun_scale: scale,
+            h_c_w_m2k: hc,
+            curve_from_k: 200.0,
+            curve_to_k: ambient_k + 50.0,
+        })
+}
+
 fn scenario() -> impl Strategy<Value = Scenario> {
     (
         0.01f64..20.0,
@@ -30,11 +89,13 @@ fn scenario() -> impl Strategy<Value = Scenario> {
         prop_oneof![Just(JvModel::Exact), Just(JvModel::Boltzmann)],
         prop_oneof![Just(PlotAxis::Wavelength), Just(PlotAxis::PhotonEnergy)],
         prop_oneof![Just(PlotQuantity::Irradiance), Just(PlotQuantity::PhotonFlux)],
-        (0.01f64..5.0, 5.0f64..20.0),
+        ((0.01f64..5.0, 5.0f64..20.0), radiator()),
     )
-        .prop_map(|(gap, spectrum, x, t, ere, emission, approx, axis, quantity, (from, to))| Scenario {
+        .prop_map(|(gap, spectrum, x, t, ere, emission, approx, axis, quantity, ((from, to), radiator))| Scenario {
             cell: CellScenario { gap_ev: gap, spectrum, concentration: x, cell_temp_k: t, ere, emission, approx },
             view: ViewSettings { spectrum_axis: axis, spectrum_quantity: quantity, curve_from_ev: from, curve_to_ev: to },
+            radiator,
+            ..Default::default()
         })
 }
 

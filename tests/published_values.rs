@@ -8,6 +8,9 @@ use glowgap::physics::planck::*;
 use glowgap::physics::sources::Source;
 use glowgap::physics::special::bose_band;
 
+mod common;
+use common::{fixture_rows, num};
+
 fn rel(a: f64, b: f64) -> f64 {
     if a == b {
         0.0
@@ -61,22 +64,6 @@ fn band_fractions_match_handbook_table() {
     for (lt_um_k, f) in [(2898.0, 0.2501), (5000.0, 0.6337), (10000.0, 0.9142)] {
         let ours = band_fraction_below(lt_um_k * 1e-6);
         assert!((ours - f).abs() < 0.6e-4, "F({lt_um_k}) = {ours}, table {f}");
-    }
-}
-
-fn fixture_rows(text: &str) -> Vec<Vec<String>> {
-    text.lines()
-        .filter(|l| !l.starts_with('#') && !l.trim().is_empty())
-        .skip(1) // header
-        .map(|l| l.split(',').map(|s| s.trim().to_string()).collect())
-        .collect()
-}
-
-fn num(s: &str) -> f64 {
-    if s == "inf" {
-        f64::INFINITY
-    } else {
-        s.parse().unwrap()
     }
 }
 

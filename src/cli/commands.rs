@@ -41,6 +41,10 @@ const CELL_VALUED: &[&str] = &[
     "ere",
     "emission",
     "approx",
+    // measured or modelled absorptance (stack.rs)
+    "eqe",
+    "urbach",
+    "measured-voc",
 ];
 
 const SWEEP_VALUED: &[&str] = &[
@@ -68,6 +72,12 @@ pub fn dispatch(args: &[String], out: Out) -> Result<(), Failure> {
         "cell" => cell(rest, out),
         "sweep" => sweep_cmd(rest, out),
         "eval" => eval_cmd(rest, out),
+        "cool" => super::cool::cool(rest, out),
+        // multi-junction stacks, measured cells, mismatch and losses (stack.rs)
+        "stack" => super::stack::stack(rest, out),
+        "optimize" => super::stack::optimize(rest, out),
+        "mismatch" => super::stack::mismatch(rest, out),
+        "losses" => super::stack::losses(rest, out),
         "help" | "--help" | "-h" => {
             write!(out, "{}", super::USAGE)?;
             Ok(())
@@ -77,13 +87,13 @@ pub fn dispatch(args: &[String], out: Out) -> Result<(), Failure> {
             Ok(())
         }
         other => Err(Failure::Usage(format!(
-            "unknown command '{other}'; commands are: cell, sweep, eval, help, version"
+            "unknown command '{other}'; commands are: cell, sweep, eval, cool, stack, optimize, mismatch, losses, help, version"
         ))),
     }
 }
 
 /// Options shared by `cell` and `sweep`, applied onto a scenario.
-fn apply_common(p: &Parsed, sc: &mut CellScenario) -> Result<(), String> {
+pub(super) fn apply_common(p: &Parsed, sc: &mut CellScenario) -> Result<(), String> {
     if let Some(s) = p.text("spectrum") {
         sc.spectrum = SourceSpec::parse(s)?;
     }
@@ -154,7 +164,7 @@ pub fn read_spectrum_file(path: &str, p: &Parsed) -> Result<SourceSpec, String> 
     }))
 }
 
-fn io_reason(e: &std::io::Error) -> String {
+pub(super) fn io_reason(e: &std::io::Error) -> String {
     match e.kind() {
         std::io::ErrorKind::NotFound => "no such file; check the path".into(),
         std::io::ErrorKind::PermissionDenied => "permission denied".into(),
@@ -162,7 +172,7 @@ fn io_reason(e: &std::io::Error) -> String {
     }
 }
 
-fn warn(warnings: &[String]) {
+pub(super) fn warn(warnings: &[String]) {
     for w in warnings {
         eprintln!("glowgap: warning: {w}");
     }
@@ -171,8 +181,11 @@ fn warn(warnings: &[String]) {
 fn cell(args: &[String], out: Out) -> Result<(), Failure> {
     let spec = Spec { command: "cell", valued: CELL_VALUED, flags: &["json", "link"], max_positional: 0 };
     let p = spec.parse(args)?;
-    let mut sc = CellScenario { gap_ev: p.required_number("gap", "band gap", "eV", "cell")?, ..Default::default() };
+    let mut sc = CellScenario { gap_ev: super::stack::cell_gap(&p)?, ..Default::default() };
     apply_common(&p, &mut sc)?;
+    if super::stack::wants_absorber(&p) {
+        return super::stack::cell_with_absorber(&p, sc, out); // measured or modelled absorptance
+    }
     let setup = sc.to_physics()?;
     warn(&setup.warnings);
     if p.flag("link") {
@@ -322,14 +335,25 @@ fn write_sweep(out: Out, results: &[CellResult], best: &CellResult, only_best: b
 
 /// Read a share link, a scenario file or standard input, and print what the page shows.
 fn eval_cmd(args: &[String], out: Out) -> Result<(), Failure> {
-    let spec = Spec { command: "eval", valued: &[], flags: &["json"], max_positional: 1 };
+    let spec = Spec { command: "eval", valued: &[], flags: &["json", "radiator", "stack"], max_positional: 1 };
     let p = spec.parse(args)?;
     let Some(what) = p.positional.first() else {
         return Err(Failure::Usage(
             "'glowgap eval' needs a share link, a scenario file or - for standard input, e.g. glowgap eval 'http://127.0.0.1:8080/#g1.…'".into(),
         ));
     };
+    // the radiator part of the scenario instead of the cell (see cool.rs)
+    if p.flag("radiator") {
+        return super::cool::eval_radiator(what, p.flag("json"), out);
+    }
+    // the stack part of the scenario instead of the cell (see stack.rs)
+    if p.flag("stack") {
+        return super::stack::eval_stack(what, p.flag("json"), out);
+    }
     let scenario = load_scenario(what)?;
+    if !scenario.stack.absorber.is_step() {
+        return super::stack::eval_absorber(&scenario, p.flag("json"), out); // see stack.rs
+    }
     let setup = scenario.cell.to_physics().map_err(|e| format!("the scenario cannot be computed: {e}"))?;
     warn(&setup.warnings);
     let r = solve_cell(&setup.light, &setup.cell);
@@ -343,7 +367,7 @@ fn eval_cmd(args: &[String], out: Out) -> Result<(), Failure> {
     Ok(())
 }
 
-fn load_scenario(what: &str) -> Result<crate::scenario::Scenario, String> {
+pub(super) fn load_scenario(what: &str) -> Result<crate::scenario::Scenario, String> {
     use crate::codec::{decode_link, from_json};
     let looks_like_link = |t: &str| {
         let t = t.trim();

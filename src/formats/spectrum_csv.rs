@@ -70,11 +70,7 @@ impl AxisUnit {
     /// Read a unit name: `nm`, `um`, `µm`, `micron(s)`, `eV`, `cm-1`, `cm^-1`, `cm⁻¹`, `1/cm`,
     /// `wavenumber(s)` and spelled-out names. Case and whitespace are ignored.
     pub fn parse(s: &str) -> Option<AxisUnit> {
-        let t: String = normalize_unit_text(s)
-            .chars()
-            .filter(|c| !c.is_whitespace() && !matches!(c, '(' | ')' | '[' | ']' | '{' | '}'))
-            .collect();
-        match t.as_str() {
+        match compact_unit_text(s).as_str() {
             "nm" | "nanometre" | "nanometres" | "nanometer" | "nanometers" => Some(AxisUnit::Nanometre),
             "um" | "micron" | "microns" | "micrometre" | "micrometres" | "micrometer" | "micrometers" => {
                 Some(AxisUnit::Micrometre)
@@ -243,9 +239,15 @@ impl fmt::Display for ValueUnit {
     }
 }
 
+/// A unit name as one lower-case token: [`normalize_unit_text`] without whitespace and
+/// brackets, so that `( nm )`, `[nm]` and `nm` read alike.
+pub(crate) fn compact_unit_text(s: &str) -> String {
+    normalize_unit_text(s).chars().filter(|c| !c.is_whitespace() && !matches!(c, '(' | ')' | '[' | ']' | '{' | '}')).collect()
+}
+
 /// Lower-case, with micro signs as `u`, superscript digits and signs as plain ones, unicode
 /// minus signs and dots as their ASCII counterparts and `**` as `^`.
-fn normalize_unit_text(s: &str) -> String {
+pub(crate) fn normalize_unit_text(s: &str) -> String {
     let mut out = String::with_capacity(s.len());
     for ch in s.chars() {
         match ch {
@@ -484,7 +486,7 @@ fn classify_factors(factors: &[Factor]) -> Option<ValueUnit> {
 // ---------------------------------------------------------------------------------------------
 
 /// Contents of the outermost (...), [...] and {...} groups, last first.
-fn bracket_contents(s: &str) -> Vec<&str> {
+pub(crate) fn bracket_contents(s: &str) -> Vec<&str> {
     let mut out = Vec::new();
     let mut depth = 0usize;
     let mut start = 0usize;
@@ -512,14 +514,14 @@ fn bracket_contents(s: &str) -> Vec<&str> {
 }
 
 /// Words of a column name, split on underscores and whitespace.
-fn name_words(name: &str) -> Vec<&str> {
+pub(crate) fn name_words(name: &str) -> Vec<&str> {
     name.split(|c: char| c == '_' || c.is_whitespace()).filter(|w| !w.is_empty()).collect()
 }
 
 /// The axis unit a column name carries, if any: `wavelength_nm`, `Wavelength (nm)`,
 /// `lambda [um]`, `energy/eV`, `wavenumber (cm-1)`. A bare quantity name such as
 /// `wavenumber` does not count as a unit here.
-fn axis_unit_from_name(name: &str) -> Option<AxisUnit> {
+pub(crate) fn axis_unit_from_name(name: &str) -> Option<AxisUnit> {
     let is_bare_name = |s: &str| {
         let t = s.trim().to_lowercase();
         t == "wavenumber" || t == "wavenumbers"
@@ -583,10 +585,10 @@ pub struct CsvError {
 }
 
 impl CsvError {
-    fn at(line: usize, message: impl Into<String>) -> CsvError {
+    pub(crate) fn at(line: usize, message: impl Into<String>) -> CsvError {
         CsvError { line: Some(line), message: message.into() }
     }
-    fn general(message: impl Into<String>) -> CsvError {
+    pub(crate) fn general(message: impl Into<String>) -> CsvError {
         CsvError { line: None, message: message.into() }
     }
 }
@@ -603,7 +605,7 @@ impl fmt::Display for CsvError {
 impl std::error::Error for CsvError {}
 
 /// User text for a message: at most 40 characters, no control characters, in quotes.
-fn quoted(s: &str) -> String {
+pub(crate) fn quoted(s: &str) -> String {
     const MAX: usize = 40;
     let mut out = String::from("'");
     for (i, c) in s.chars().enumerate() {
@@ -799,17 +801,62 @@ struct Context {
     value_col: usize,
 }
 
-fn parse_with_limit(text: &str, hints: &ColumnHints, name: &str, limit: usize) -> Result<Spectrum, CsvError> {
-    let value_col = hints.column.unwrap_or(1);
+/// The words that differ between the kinds of table read with [`scan_table`] (spectra,
+/// quantum efficiencies), so that every message names the right options.
+pub(crate) struct TableWords {
+    /// how to choose the value column, in parentheses
+    pub column_hint: &'static str,
+    /// the options that give the units, as a phrase
+    pub unit_options: &'static str,
+    /// what the values are, plural, e.g. "spectral values"
+    pub values: &'static str,
+    /// one table, with its article, e.g. "a spectrum"
+    pub table: &'static str,
+}
+
+const SPECTRUM_WORDS: TableWords = TableWords {
+    column_hint: "(choose it with --spectrum-column, counting the axis as 0)",
+    unit_options: "--spectrum-axis and --spectrum-values",
+    values: "spectral values",
+    table: "a spectrum",
+};
+
+/// A table file split into its header and data lines, not yet read as numbers.
+pub(crate) struct TableScan<'a> {
+    /// line of the header, if the file has one
+    pub header_line: Option<usize>,
+    /// column names from the header (empty without one)
+    pub names: Vec<String>,
+    /// fields on the first data line
+    pub ncols: usize,
+    data: Vec<DataLine<'a>>,
+    sep: Separator,
+    first_line: usize,
+}
+
+/// Numbers read from a table, ascending along the axis, in the file's units, with the
+/// file line of each point.
+pub(crate) struct TablePoints {
+    pub xs: Vec<f64>,
+    pub ys: Vec<f64>,
+    pub line_of: Vec<usize>,
+}
+
+/// Refuse column 0 as the value column of a spectrum.
+fn check_value_column(value_col: usize) -> Result<(), CsvError> {
     if value_col == 0 {
         return Err(CsvError::general(format!(
             "column 0 holds the spectral axis and cannot also be the value column; \
              give {COLUMN_OPTION} 1 for the first value column"
         )));
     }
-    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+    Ok(())
+}
 
-    // Pass 1: find the header and the data lines.
+/// Find the header and the data lines of a table (see the module documentation for the
+/// layout); at most `limit` data lines.
+pub(crate) fn scan_table(text: &str, limit: usize) -> Result<TableScan<'_>, CsvError> {
+    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
     let mut header: Option<(usize, &str)> = None;
     let mut seen_content = false;
     let mut data: Vec<DataLine> = Vec::new();
@@ -852,27 +899,168 @@ fn parse_with_limit(text: &str, hints: &ColumnHints, name: &str, limit: usize) -
     };
     let sep = Separator::detect(first.content);
     let ncols = split_fields(first.content, sep, false).len();
-    let ctx = Context { sep, sep_line: first.line, value_col };
-
-    // Units: explicit hints first, then the header.
     let names = header.map(|(_, h)| header_names(h, sep, ncols)).unwrap_or_default();
-    if let Some((h, _)) = header {
-        let needs_header = hints.axis.is_none() || hints.value.is_none();
-        if needs_header && names.len() > ncols {
+    let first_line = first.line;
+    Ok(TableScan { header_line: header.map(|(h, _)| h), names, ncols, data, sep, first_line })
+}
+
+impl TableScan<'_> {
+    /// Refuse a header with more names than the data has columns when units are to be read
+    /// from it (`needs_header`).
+    pub(crate) fn check_header_width(&self, needs_header: bool, words: &TableWords) -> Result<(), CsvError> {
+        if let Some(h) = self.header_line {
+            if needs_header && self.names.len() > self.ncols {
+                return Err(CsvError::at(
+                    h,
+                    format!(
+                        "the header names {} columns but the first data line (line {}) has {}, \
+                         so the units cannot be matched to columns; write one name per column, \
+                         separated by {} like the data, or give the units with {}",
+                        self.names.len(),
+                        self.first_line,
+                        self.ncols,
+                        self.sep.describe(),
+                        words.unit_options
+                    ),
+                ));
+            }
+        }
+        Ok(())
+    }
+
+    /// Read the axis (column 0) and the value column `value_col` of every data line:
+    /// finite numbers, a positive axis, non-negative values, no repeated axis value, one
+    /// direction throughout. Returned ascending along the axis.
+    pub(crate) fn read_points(&self, value_col: usize, words: &TableWords) -> Result<TablePoints, CsvError> {
+        let ctx = Context { sep: self.sep, sep_line: self.first_line, value_col };
+        let mut xs: Vec<f64> = Vec::with_capacity(self.data.len());
+        let mut ys: Vec<f64> = Vec::with_capacity(self.data.len());
+        let mut line_of: Vec<usize> = Vec::with_capacity(self.data.len());
+        let mut direction: Option<(bool, usize)> = None; // (ascending, first line)
+        let mut prev: Option<(f64, usize, &str)> = None;
+        for d in &self.data {
+            let fields = split_fields(d.content, self.sep, false);
+            let x_text = fields.first().copied().unwrap_or("");
+            let x = read_field(x_text, d.line, 0, &ctx)?;
+            let Some(&y_text) = fields.get(value_col) else {
+                return Err(CsvError::at(
+                    d.line,
+                    format!(
+                        "no value in column {value_col}: the line has {} field(s) separated by {}; \
+                         every data line needs the axis value (column 0) and the value column \
+                         {}",
+                        fields.len(),
+                        self.sep.describe(),
+                        words.column_hint
+                    ),
+                ));
+            };
+            let y = read_field(y_text, d.line, value_col, &ctx)?;
+            if x <= 0.0 {
+                return Err(CsvError::at(
+                    d.line,
+                    format!(
+                        "the axis value {} is zero or negative; wavelengths, photon energies and \
+                         wavenumbers must be positive, so correct or remove this line",
+                        quoted(x_text)
+                    ),
+                ));
+            }
+            if y < 0.0 {
+                return Err(CsvError::at(
+                    d.line,
+                    format!(
+                        "the value {} in column {value_col} is negative; {} must be zero \
+                         or positive (replace small negative noise by 0)",
+                        quoted(y_text),
+                        words.values
+                    ),
+                ));
+            }
+            if let Some((px, pline, ptext)) = prev {
+                if x == px {
+                    return Err(CsvError::at(
+                        d.line,
+                        format!(
+                            "the axis value {} repeats line {pline} ({}); each axis value may appear \
+                             only once, so remove or merge the duplicate",
+                            quoted(x_text),
+                            quoted(ptext)
+                        ),
+                    ));
+                }
+                let up = x > px;
+                match direction {
+                    None => direction = Some((up, pline)),
+                    Some((ascending, from)) if ascending != up => {
+                        let (was, now) =
+                            if ascending { ("ascends", "goes down") } else { ("descends", "goes up") };
+                        return Err(CsvError::at(
+                            d.line,
+                            format!(
+                                "the axis {now} here ({} after {} on line {pline}) but the file {was} \
+                                 from line {from}; the axis must run in one direction throughout, so \
+                                 sort the file or fix this line",
+                                quoted(x_text),
+                                quoted(ptext)
+                            ),
+                        ));
+                    }
+                    Some(_) => {}
+                }
+            }
+            prev = Some((x, d.line, x_text));
+            xs.push(x);
+            ys.push(y + 0.0); // -0 becomes +0
+            line_of.push(d.line);
+        }
+        if xs.len() < 2 {
+            let only = line_of.first().copied().unwrap_or(self.first_line);
             return Err(CsvError::at(
-                h,
-                format!(
-                    "the header names {} columns but the first data line (line {}) has {ncols}, \
-                     so the units cannot be matched to columns; write one name per column, \
-                     separated by {} like the data, or give the units with {AXIS_OPTION} and {VALUES_OPTION}",
-                    names.len(),
-                    first.line,
-                    sep.describe()
-                ),
+                only,
+                format!("this is the only data line; {} needs at least two points, so add more lines", words.table),
             ));
         }
+        if direction.is_some_and(|(ascending, _)| !ascending) {
+            xs.reverse();
+            ys.reverse();
+            line_of.reverse();
+        }
+        Ok(TablePoints { xs, ys, line_of })
     }
-    let header_line = header.map(|(h, _)| h);
+}
+
+/// Refuse axis values that coincide once converted to SI.
+pub(crate) fn check_distinct(xs: &[f64], line_of: &[usize]) -> Result<(), CsvError> {
+    for (i, w) in xs.windows(2).enumerate() {
+        if let [a, b] = w {
+            if b <= a {
+                let l1 = line_of.get(i).copied().unwrap_or(0);
+                let l2 = line_of.get(i + 1).copied().unwrap_or(0);
+                return Err(CsvError::at(
+                    l2.max(l1),
+                    format!(
+                        "the axis values on lines {} and {} are too close to tell apart; remove one of them",
+                        l1.min(l2),
+                        l1.max(l2)
+                    ),
+                ));
+            }
+        }
+    }
+    Ok(())
+}
+
+fn parse_with_limit(text: &str, hints: &ColumnHints, name: &str, limit: usize) -> Result<Spectrum, CsvError> {
+    let value_col = hints.column.unwrap_or(1);
+    check_value_column(value_col)?;
+    let scan = scan_table(text, limit)?;
+
+    // Units: explicit hints first, then the header.
+    scan.check_header_width(hints.axis.is_none() || hints.value.is_none(), &SPECTRUM_WORDS)?;
+    let names = &scan.names;
+    let ncols = scan.ncols;
+    let header_line = scan.header_line;
     let value_name = names.get(value_col).map(String::as_str);
     let axis_unit = match hints.axis {
         Some(u) => u,
@@ -908,97 +1096,7 @@ fn parse_with_limit(text: &str, hints: &ColumnHints, name: &str, limit: usize) -
     }
 
     // Pass 2: numbers, in file order.
-    let mut xs: Vec<f64> = Vec::with_capacity(data.len());
-    let mut ys: Vec<f64> = Vec::with_capacity(data.len());
-    let mut line_of: Vec<usize> = Vec::with_capacity(data.len());
-    let mut direction: Option<(bool, usize)> = None; // (ascending, first line)
-    let mut prev: Option<(f64, usize, &str)> = None;
-    for d in &data {
-        let fields = split_fields(d.content, sep, false);
-        let x_text = fields.first().copied().unwrap_or("");
-        let x = read_field(x_text, d.line, 0, &ctx)?;
-        let Some(&y_text) = fields.get(value_col) else {
-            return Err(CsvError::at(
-                d.line,
-                format!(
-                    "no value in column {value_col}: the line has {} field(s) separated by {}; \
-                     every data line needs the axis value (column 0) and the value column \
-                     (choose it with {COLUMN_OPTION}, counting the axis as 0)",
-                    fields.len(),
-                    sep.describe()
-                ),
-            ));
-        };
-        let y = read_field(y_text, d.line, value_col, &ctx)?;
-        if x <= 0.0 {
-            return Err(CsvError::at(
-                d.line,
-                format!(
-                    "the axis value {} is zero or negative; wavelengths, photon energies and \
-                     wavenumbers must be positive, so correct or remove this line",
-                    quoted(x_text)
-                ),
-            ));
-        }
-        if y < 0.0 {
-            return Err(CsvError::at(
-                d.line,
-                format!(
-                    "the value {} in column {value_col} is negative; spectral values must be zero \
-                     or positive (replace small negative noise by 0)",
-                    quoted(y_text)
-                ),
-            ));
-        }
-        if let Some((px, pline, ptext)) = prev {
-            if x == px {
-                return Err(CsvError::at(
-                    d.line,
-                    format!(
-                        "the axis value {} repeats line {pline} ({}); each axis value may appear \
-                         only once, so remove or merge the duplicate",
-                        quoted(x_text),
-                        quoted(ptext)
-                    ),
-                ));
-            }
-            let up = x > px;
-            match direction {
-                None => direction = Some((up, pline)),
-                Some((ascending, from)) if ascending != up => {
-                    let (was, now) =
-                        if ascending { ("ascends", "goes down") } else { ("descends", "goes up") };
-                    return Err(CsvError::at(
-                        d.line,
-                        format!(
-                            "the axis {now} here ({} after {} on line {pline}) but the file {was} \
-                             from line {from}; the axis must run in one direction throughout, so \
-                             sort the file or fix this line",
-                            quoted(x_text),
-                            quoted(ptext)
-                        ),
-                    ));
-                }
-                Some(_) => {}
-            }
-        }
-        prev = Some((x, d.line, x_text));
-        xs.push(x);
-        ys.push(y + 0.0); // -0 becomes +0
-        line_of.push(d.line);
-    }
-    if xs.len() < 2 {
-        let only = line_of.first().copied().unwrap_or(first.line);
-        return Err(CsvError::at(
-            only,
-            "this is the only data line; a spectrum needs at least two points, so add more lines",
-        ));
-    }
-    if direction.is_some_and(|(ascending, _)| !ascending) {
-        xs.reverse();
-        ys.reverse();
-        line_of.reverse();
-    }
+    let TablePoints { mut xs, mut ys, line_of } = scan.read_points(value_col, &SPECTRUM_WORDS)?;
 
     // Into SI.
     for ((x, y), &line) in xs.iter_mut().zip(ys.iter_mut()).zip(&line_of) {
@@ -1024,22 +1122,7 @@ fn parse_with_limit(text: &str, hints: &ColumnHints, name: &str, limit: usize) -
             ));
         }
     }
-    for (i, w) in xs.windows(2).enumerate() {
-        if let [a, b] = w {
-            if b <= a {
-                let l1 = line_of.get(i).copied().unwrap_or(0);
-                let l2 = line_of.get(i + 1).copied().unwrap_or(0);
-                return Err(CsvError::at(
-                    l2.max(l1),
-                    format!(
-                        "the axis values on lines {} and {} are too close to tell apart; remove one of them",
-                        l1.min(l2),
-                        l1.max(l2)
-                    ),
-                ));
-            }
-        }
-    }
+    check_distinct(&xs, &line_of)?;
 
     let n = xs.len();
     let mut provenance =

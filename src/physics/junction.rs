@@ -274,6 +274,11 @@ impl Diode {
         let (m_mp, jmp) = self.max_power(m_oc);
         let voc = self.volts(m_oc);
         let vmp = self.volts(m_mp);
+        if !(jmp.is_finite() && vmp.is_finite() && voc.is_finite()) {
+            // a gap so small (subnormal in J) that the Bose series leaves the f64 range:
+            // such a cell delivers nothing measurable; never NaN
+            return CellResult { gap_j, input, jsc: self.jsc, ..Default::default() };
+        }
         let jmp = jmp.clamp(0.0, self.jsc);
         let pmax = vmp * jmp;
         let ff = if voc > 0.0 { pmax / (voc * self.jsc) } else { 0.0 };
@@ -293,9 +298,125 @@ impl Diode {
     }
 }
 
+/// The reduced voltage of a diode at a given current, with its first two derivatives in the
+/// current: what a series connection needs to add up the subcell voltages at one current.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct VoltageAtCurrent {
+    /// m = qV/kT
+    pub m: f64,
+    /// dm/dJ [per A m^-2]
+    pub dm_dj: f64,
+    /// d2m/dJ2 [per (A m^-2)^2]
+    pub d2m_dj2: f64,
+}
+
+impl Diode {
+    /// kT/q [V]: converts a reduced voltage m into volts.
+    pub fn thermal_voltage(&self) -> f64 {
+        self.kt / CHARGE
+    }
+
+    /// The photocurrent Jsc this diode was built with [A m^-2].
+    pub fn photocurrent(&self) -> f64 {
+        self.jsc
+    }
+
+    /// The same diode (gap, temperature, ERE, model) with another photocurrent `jsc`
+    /// [A m^-2]; reuses R(0), so it costs no Bose integral.
+    pub fn with_photocurrent(&self, jsc: f64) -> Diode {
+        let mut d = *self;
+        d.jsc = jsc;
+        d.ln_target = log_add((d.ere * jsc).ln(), d.ln_r0);
+        d
+    }
+
+    /// The Boltzmann closed form of the reduced open-circuit voltage, ln((ERE Jsc + R(0)) /
+    /// R_B(0)) with R_B the first series term of R: exact for the Boltzmann model, and an
+    /// upper bound for the exact one (whose R is larger at every voltage).
+    pub fn reduced_open_circuit_bound(&self) -> f64 {
+        if self.jsc > 0.0 {
+            (self.ln_target - self.ln_rb0).max(0.0)
+        } else {
+            0.0
+        }
+    }
+
+    /// The reduced open-circuit voltage m_oc = qVoc/kT.
+    pub fn reduced_open_circuit(&self) -> f64 {
+        if self.jsc > 0.0 {
+            self.open_circuit_m()
+        } else {
+            0.0
+        }
+    }
+
+    /// J(m) = Jsc - (R(m) - R(0))/ERE [A m^-2] at reduced voltage m, with dJ/dm and d2J/dm2.
+    /// At or beyond the gap of the exact model all three are -infinity, never NaN.
+    pub fn current_at_reduced(&self, m: f64) -> (f64, f64, f64) {
+        if self.model == JvModel::Exact && !(m < self.x0) {
+            return (f64::NEG_INFINITY, f64::NEG_INFINITY, f64::NEG_INFINITY);
+        }
+        let r = self.ln_r(m);
+        let big_r = r.ln_r.exp();
+        let j = self.jsc - self.ln_r0.exp() * (r.ln_r - self.ln_r0).exp_m1() / self.ere;
+        (j, -big_r * r.d1 / self.ere, -big_r * (r.d1 * r.d1 + r.d2) / self.ere)
+    }
+
+    /// The inverse of J(V): the reduced voltage m = qV/kT at which the cell carries current
+    /// density `j` [A m^-2] (clamped to 0..=Jsc), with dm/dJ and d2m/dJ2. The exact model
+    /// starts Newton's method from the Boltzmann value; see [`Diode::voltage_at_current_near`].
+    pub fn voltage_at_current(&self, j: f64) -> VoltageAtCurrent {
+        self.voltage_at_current_near(j, f64::NAN)
+    }
+
+    /// As [`Diode::voltage_at_current`], Newton started at `start` (a reduced voltage, e.g.
+    /// the answer for a nearby current) when it is a number.
+    ///
+    /// From J = Jsc - (R(m) - R(0))/ERE: ln R(m) = L(J) = ln(ERE (Jsc - J) + R(0)), solved in
+    /// logarithms (closed form for the Boltzmann model, safeguarded Newton for the exact
+    /// one). Differentiating ln R(m(J)) = L(J) twice, with rho = d lnR/dm,
+    /// rho' = d2 lnR/dm2, L' = -ERE/(ERE (Jsc - J) + R(0)) and L'' = -L'^2:
+    /// m' = L'/rho and m'' = (L'' - rho' m'^2)/rho.
+    pub fn voltage_at_current_near(&self, j: f64, start: f64) -> VoltageAtCurrent {
+        let j = if j > 0.0 { j.min(self.jsc) } else { 0.0 };
+        let ln_u = log_add((self.ere * (self.jsc - j)).ln(), self.ln_r0);
+        let dl = -self.ere * (-ln_u).exp();
+        let boltzmann = ln_u - self.ln_rb0;
+        let (m, rho, rho1) = match self.model {
+            JvModel::Boltzmann => (boltzmann, 1.0, 0.0),
+            JvModel::Exact => {
+                let last = std::cell::Cell::new(None::<(f64, LnRad)>);
+                let g = |m: f64| {
+                    let r = self.ln_r(m);
+                    last.set(Some((m, r)));
+                    (r.ln_r - ln_u, r.d1, r.d2)
+                };
+                // exact R >= its first series term, so the root lies at or below the
+                // Boltzmann value; m = -1 is safely below the root for any J <= Jsc
+                let first = if start.is_finite() { start } else { boltzmann };
+                let (m, _) = safeguarded_newton(g, -1.0, self.x0, first.min(self.x0), 1e-15);
+                // rho and rho' at the root by Taylor's rule from the last evaluation (the
+                // final Newton step is below 1e-2, its error far below 1e-15)
+                match last.get() {
+                    Some((x, r)) if (m - x).abs() < 1e-2 => {
+                        let h = m - x;
+                        (m, r.d1 + r.d2 * h + 0.5 * r.d3 * h * h, r.d2 + r.d3 * h)
+                    }
+                    _ => {
+                        let r = self.ln_r(m);
+                        (m, r.d1, r.d2)
+                    }
+                }
+            }
+        };
+        let dm = dl / rho;
+        VoltageAtCurrent { m, dm_dj: dm, d2m_dj2: (-dl * dl - rho1 * dm * dm) / rho }
+    }
+}
+
 /// ln(e^a + e^b) without overflow; -inf arguments allowed.
 #[inline]
-fn log_add(a: f64, b: f64) -> f64 {
+pub(crate) fn log_add(a: f64, b: f64) -> f64 {
     let (hi, lo) = if a >= b { (a, b) } else { (b, a) };
     if hi == f64::NEG_INFINITY {
         return hi;
@@ -309,7 +430,7 @@ fn log_add(a: f64, b: f64) -> f64 {
 /// error left after a Newton step, estimated as |f''| s^2 / (2 |f'|) for a step s, is below
 /// `tol` relative to max(1, |x|), or when the bracket has shrunk to that size.
 /// Returns the root and the number of evaluations.
-fn safeguarded_newton(
+pub(crate) fn safeguarded_newton(
     f: impl Fn(f64) -> (f64, f64, f64),
     lo: f64,
     hi: f64,

@@ -1,9 +1,14 @@
 //! The physics core: pure functions of SI quantities. No I/O, no web types, no allocation
 //! in the hot paths beyond the result vectors.
 
+pub mod absorber;
 pub mod constants;
 pub mod junction;
+pub mod losses;
+pub mod mismatch;
 pub mod planck;
+pub mod radiator;
 pub mod sources;
 pub mod special;
 pub mod spectrum;
+pub mod stack;

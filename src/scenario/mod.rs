@@ -10,6 +10,9 @@ use crate::physics::sources::Source;
 use crate::physics::spectrum::{Axis, Quantity, Spectrum};
 use serde::{Deserialize, Serialize};
 
+pub mod radiator;
+pub mod stack;
+
 /// Where the light comes from.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(tag = "type", rename_all = "kebab-case")]
@@ -65,8 +68,10 @@ impl SourceSpec {
             })?;
             return Ok(SourceSpec::Blackbody { temp_k: k });
         }
-        if t.len() > 5 && t[..5].eq_ignore_ascii_case("file:") {
-            return Ok(SourceSpec::File { path: t[5..].to_string() });
+        if let (Some(prefix), Some(path)) = (t.get(..5), t.get(5..)) {
+            if prefix.eq_ignore_ascii_case("file:") && !path.is_empty() {
+                return Ok(SourceSpec::File { path: path.to_string() });
+            }
         }
         Err(format!(
             "unknown spectrum '{text}'; use am1.5g, am1.5d, am0, blackbody:K (e.g. blackbody:5772) or file:PATH"
@@ -267,4 +272,6 @@ impl ViewSettings {
 pub struct Scenario {
     pub cell: CellScenario,
     pub view: ViewSettings,
+    pub radiator: radiator::RadiatorScenario,
+    pub stack: stack::StackScenario,
 }

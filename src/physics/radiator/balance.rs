@@ -1,0 +1,302 @@
+//! The power balance of a radiator facing the sky (Raman, Anoma, Zhu, Rephaeli & Fan,
+//! Nature 515, 540, 2014, their eq. 1):
+//!
+//!   P_net(T) = P_rad(T) - P_sky(T_a) - P_sun - h_c (T_a - T)                 [W m^-2]
+//!
+//! * P_rad(T) = integral dlambda integral_hemisphere cos(theta) dOmega B_lambda(T) eps(lambda, theta)
+//! * P_sky = the same with B_lambda(T_a) eps(lambda, theta) eps_sky(lambda, theta), plus the
+//!   space background B_lambda(3 K) seen through the transparent part (1 - eps_sky)
+//! * P_sun = integral eps(lambda, theta_sun) I_sun(lambda) dlambda
+//! * h_c (T_a - T): conduction and convection from the air, with a combined coefficient
+//!   h_c [W m^-2 K^-1].
+//!
+//! With cos(theta) dOmega = 2 pi mu dmu, each hemispherical integral is
+//! pi integral dlambda B_lambda * 2 integral_0^1 (...) mu dmu. The angular part is closed form
+//! for the emitter alone ([`AngularModel::hemispherical`]) and for an isotropic sky; against
+//! an anisotropic sky it is the Gauss-Legendre rule in mu, on each piece where the
+//! emitter's angular model is smooth. The spectral part is exact band integrals where
+//! everything is piecewise constant in wavelength, and the fine grid otherwise (see
+//! [`super::spectral`]).
+//!
+//! P_net > 0 means the surface loses heat: it cools below T. P_net is increasing in T
+//! whenever the surface emits at all or h_c > 0, so the steady temperature (P_net = 0) is
+//! unique when it exists and a bracketing search finds it.
+
+use super::angular::AngularModel;
+use super::emissivity::{Emitter, Piece};
+use super::quadrature::angular_rule;
+use super::sky::{Sky, SkyPath, SPACE_TEMPERATURE_K};
+use super::solar::Sun;
+use super::spectral::{Grid, Weights};
+use crate::physics::planck::stefan_boltzmann;
+
+/// What surrounds the radiator.
+#[derive(Debug, Clone)]
+pub struct Surroundings {
+    pub sky: Sky,
+    /// ambient air temperature [K], also the temperature of the radiating atmosphere
+    pub ambient_k: f64,
+    /// `None` at night
+    pub sun: Option<Sun>,
+    /// combined convection and conduction coefficient h_c [W m^-2 K^-1], >= 0
+    pub h_c: f64,
+}
+
+/// The terms of the balance at one surface temperature [W m^-2].
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Parts {
+    /// surface temperature [K]
+    pub temp_k: f64,
+    /// P_rad: emitted by the surface
+    pub emitted: f64,
+    /// P_sky: absorbed from the sky (and the space background)
+    pub sky_absorbed: f64,
+    /// P_sun: absorbed from the sun
+    pub sun_absorbed: f64,
+    /// h_c (T_a - T): gained from the air (negative when the surface is warmer)
+    pub parasitic: f64,
+    /// P_net = emitted - sky_absorbed - sun_absorbed - parasitic
+    pub net: f64,
+}
+
+/// The temperature at which P_net = 0, or why there is none in the search range.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Steady {
+    /// found [K]
+    At(f64),
+    /// P_net is still positive at the lowest temperature searched [K]
+    BelowRange(f64),
+    /// P_net is still negative at the highest temperature searched [K]
+    AboveRange(f64),
+    /// the surface exchanges no heat that depends on its temperature (emissivity 0
+    /// everywhere and h_c = 0), so no temperature is singled out
+    Undefined,
+}
+
+impl Steady {
+    pub fn temperature(&self) -> Option<f64> {
+        match self {
+            Steady::At(t) => Some(*t),
+            _ => None,
+        }
+    }
+}
+
+/// The search range of the steady temperature [K].
+pub const STEADY_SEARCH_K: (f64, f64) = (1.0, 3000.0);
+
+/// How the spectral integrals were done.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Method {
+    /// exact band integrals of Planck's law on piecewise-constant profiles
+    ClosedForm,
+    /// Gauss-Legendre on the fine logarithmic wavelength grid
+    Grid,
+}
+
+/// A prepared balance: everything that does not depend on the surface temperature is
+/// computed once, so P_net(T) costs one spectral sum.
+#[derive(Debug, Clone)]
+pub struct Balance {
+    grid: Grid,
+    emit: Weights,
+    sky_absorbed: f64,
+    sun_absorbed: f64,
+    sky_emissivity: f64,
+    ambient_k: f64,
+    h_c: f64,
+    method: Method,
+}
+
+/// The breaks of pieces, without the ends 0 and infinity.
+fn breaks(pieces: &[Piece]) -> Vec<f64> {
+    pieces.iter().flat_map(|p| [p.0, p.1]).filter(|l| l.is_finite() && *l > 0.0).collect()
+}
+
+/// 2 integral_0^1 eps(mu) s(mu) mu dmu over the emitter's angular pieces, for an emitter of
+/// normal emissivity `eps` under a sky of directional emissivity `sky(mu)`.
+fn angular_product(angular: &AngularModel, eps: f64, sky: impl Fn(f64) -> f64) -> f64 {
+    let rule = angular_rule();
+    angular
+        .mu_pieces()
+        .into_iter()
+        .map(|(a, b)| rule.integrate(a, b, |mu| 2.0 * angular.apply(eps, mu) * sky(mu) * mu))
+        .sum()
+}
+
+/// The grid for a weight that is piecewise constant when both `a` and `b` are, and the
+/// method that it implies.
+pub fn grid_for(a: Option<Vec<Piece>>, b: Option<Vec<Piece>>, knots: &[f64]) -> (Grid, Method) {
+    match (a, b) {
+        (Some(a), Some(b)) => {
+            let mut br = breaks(&a);
+            br.extend(breaks(&b));
+            (Grid::exact(&br), Method::ClosedForm)
+        }
+        _ => (Grid::fine(knots), Method::Grid),
+    }
+}
+
+/// Hemispherical downwelling flux of a sky at ambient `ambient_k` [K], over sigma T_a^4:
+/// the sky's broadband emissivity (the space background included, which is negligible).
+pub fn sky_broadband_emissivity(sky: &Sky, ambient_k: f64) -> f64 {
+    let (grid, _) = grid_for(sky.constant_pieces(), Some(vec![]), &sky.knots());
+    let w = grid.weights(|l| sky_hemispherical(sky, l, ambient_k));
+    let space = w.combine(&w, |v, _| 1.0 - v);
+    let down = grid.against_blackbody(&w, ambient_k) + grid.against_blackbody(&space, SPACE_TEMPERATURE_K);
+    let sigma_t4 = stefan_boltzmann(ambient_k);
+    if sigma_t4 > 0.0 {
+        (down / sigma_t4).clamp(0.0, 1.0)
+    } else {
+        0.0
+    }
+}
+
+/// Hemispherical emissivity of the sky at one wavelength, 2 integral_0^1 eps_sky mu dmu.
+pub fn sky_hemispherical(sky: &Sky, lambda_m: f64, ambient_k: f64) -> f64 {
+    match sky.along(lambda_m, ambient_k) {
+        SkyPath::Isotropic(s) => s,
+        path => angular_product(&AngularModel::Lambertian, 1.0, |mu| path.emissivity(mu)),
+    }
+}
+
+impl Balance {
+    /// Prepare the balance of `emitter` in `surroundings`.
+    pub fn new(emitter: &Emitter, surroundings: &Surroundings) -> Balance {
+        let ta = surroundings.ambient_k;
+        let sky = &surroundings.sky;
+        let mut knots = emitter.knots();
+        knots.extend(sky.knots());
+        let (grid, method) = grid_for(emitter.constant_pieces(), sky.constant_pieces(), &knots);
+        let emit = grid.weights(|l| emitter.hemispherical(l));
+        // absorbed from the atmosphere (at T_a) and from space (at 3 K) through the rest
+        let absorbed_sky = grid.weights(|l| {
+            let eps = emitter.normal(l);
+            match sky.along(l, ta) {
+                SkyPath::Isotropic(s) => emitter.angular.hemispherical(eps) * s,
+                path => angular_product(&emitter.angular, eps, |mu| path.emissivity(mu)),
+            }
+        });
+        let through = emit.combine(&absorbed_sky, |e, s| (e - s).max(0.0));
+        let sky_absorbed = grid.against_blackbody(&absorbed_sky, ta) + grid.against_blackbody(&through, SPACE_TEMPERATURE_K);
+        let sun_absorbed = match &surroundings.sun {
+            Some(sun) => sun.absorbed(|l, mu| emitter.directional(l, mu), &emitter.knots()),
+            None => 0.0,
+        };
+        let h_c = if surroundings.h_c.is_nan() { 0.0 } else { surroundings.h_c.max(0.0) };
+        Balance {
+            grid,
+            emit,
+            sky_absorbed: finite(sky_absorbed),
+            sun_absorbed: finite(sun_absorbed),
+            sky_emissivity: sky_broadband_emissivity(sky, ta),
+            ambient_k: ta,
+            h_c,
+            method,
+        }
+    }
+
+    /// P_rad(T) [W m^-2] at surface temperature `temp_k` [K].
+    pub fn emitted(&self, temp_k: f64) -> f64 {
+        self.grid.against_blackbody(&self.emit, temp_k)
+    }
+
+    /// P_sky [W m^-2].
+    pub fn sky_absorbed(&self) -> f64 {
+        self.sky_absorbed
+    }
+
+    /// P_sun [W m^-2].
+    pub fn sun_absorbed(&self) -> f64 {
+        self.sun_absorbed
+    }
+
+    /// The sky's broadband emissivity, downwelling flux / (sigma T_a^4).
+    pub fn sky_emissivity(&self) -> f64 {
+        self.sky_emissivity
+    }
+
+    pub fn ambient_k(&self) -> f64 {
+        self.ambient_k
+    }
+
+    pub fn method(&self) -> Method {
+        self.method
+    }
+
+    /// All terms at surface temperature `temp_k` [K].
+    pub fn parts(&self, temp_k: f64) -> Parts {
+        let emitted = self.emitted(temp_k);
+        let parasitic = finite(self.h_c * (self.ambient_k - temp_k));
+        let net = finite(emitted - self.sky_absorbed - self.sun_absorbed - parasitic);
+        Parts { temp_k, emitted, sky_absorbed: self.sky_absorbed, sun_absorbed: self.sun_absorbed, parasitic, net }
+    }
+
+    /// P_net(T) [W m^-2].
+    pub fn net(&self, temp_k: f64) -> f64 {
+        self.parts(temp_k).net
+    }
+
+    /// The balance at each temperature of `temps_k` [K]: the P_net(T) curve.
+    pub fn curve(&self, temps_k: &[f64]) -> Vec<Parts> {
+        temps_k.iter().map(|&t| self.parts(t)).collect()
+    }
+
+    /// The steady temperature in [`STEADY_SEARCH_K`].
+    pub fn steady(&self) -> Steady {
+        self.steady_between(STEADY_SEARCH_K.0, STEADY_SEARCH_K.1)
+    }
+
+    /// The temperature in [lo, hi] [K] where P_net = 0, to 1e-9 relative: bisection kept
+    /// inside the bracket, sped up by false-position steps (the Illinois variant, Dowell &
+    /// Jarratt, BIT 11, 168, 1971).
+    pub fn steady_between(&self, lo: f64, hi: f64) -> Steady {
+        let exchanges = self.h_c > 0.0
+            || self.emit.bands.iter().chain(&self.emit.nodes).any(|v| *v > 0.0);
+        if !exchanges {
+            return Steady::Undefined;
+        }
+        let (mut a, mut b) = (lo.min(hi), hi.max(lo));
+        let (mut fa, mut fb) = (self.net(a), self.net(b));
+        if fa >= 0.0 {
+            return if fa == 0.0 { Steady::At(a) } else { Steady::BelowRange(a) };
+        }
+        if fb <= 0.0 {
+            return if fb == 0.0 { Steady::At(b) } else { Steady::AboveRange(b) };
+        }
+        let mut side = 0i8;
+        for i in 0..200 {
+            // alternate false position (Illinois) with plain bisection every fourth step
+            let c = if i % 4 == 3 { 0.5 * (a + b) } else { (a * fb - b * fa) / (fb - fa) };
+            let c = if c > a && c < b { c } else { 0.5 * (a + b) };
+            let fc = self.net(c);
+            if fc == 0.0 || (b - a) < 1e-9 * c {
+                return Steady::At(c);
+            }
+            if fc < 0.0 {
+                a = c;
+                fa = fc;
+                if side == -1 {
+                    fb *= 0.5;
+                }
+                side = -1;
+            } else {
+                b = c;
+                fb = fc;
+                if side == 1 {
+                    fa *= 0.5;
+                }
+                side = 1;
+            }
+        }
+        Steady::At(0.5 * (a + b))
+    }
+}
+
+fn finite(v: f64) -> f64 {
+    if v.is_nan() {
+        0.0
+    } else {
+        v.clamp(-f64::MAX, f64::MAX)
+    }
+}

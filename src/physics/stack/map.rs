@@ -1,0 +1,119 @@
+//! The two-junction efficiency map over (top gap, bottom gap).
+//!
+//! Everything that depends on one gap only is computed once per gap: the photon flux above
+//! each gap, and each gap's diode (its radiative current at zero bias, the one Bose
+//! integral of the set-up). A map point then costs one subtraction for the bottom cell's
+//! photocurrent, a re-targeted diode, and the series maximum (or, for independent
+//! connection, the bottom cell's own maximum: the top cell's does not depend on the bottom
+//! gap and is computed once per row).
+
+use super::{series, Connection};
+use crate::physics::constants::CHARGE;
+use crate::physics::junction::{Cell, Diode, Illumination, ThermalPrefactor};
+
+/// A grid of two-junction efficiencies.
+#[derive(Debug, Clone, PartialEq)]
+pub struct EfficiencyMap {
+    pub connection: Connection,
+    /// top-cell gaps [J], the rows
+    pub top_gaps_j: Vec<f64>,
+    /// bottom-cell gaps [J], the columns
+    pub bottom_gaps_j: Vec<f64>,
+    /// efficiency (fraction) of row i, column k at index i * bottom_gaps_j.len() + k.
+    /// A point whose bottom gap is not below its top gap is not a stack and holds 0.
+    pub efficiency: Vec<f64>,
+}
+
+impl EfficiencyMap {
+    /// Efficiency at row `i` (top gap), column `k` (bottom gap); 0 outside the grid.
+    pub fn at(&self, i: usize, k: usize) -> f64 {
+        if k >= self.bottom_gaps_j.len() {
+            return 0.0;
+        }
+        self.efficiency.get(i * self.bottom_gaps_j.len() + k).copied().unwrap_or(0.0)
+    }
+
+    /// The best point: (top gap [J], bottom gap [J], efficiency); None for an empty map.
+    pub fn best(&self) -> Option<(f64, f64, f64)> {
+        let nb = self.bottom_gaps_j.len();
+        let (idx, eff) = self
+            .efficiency
+            .iter()
+            .enumerate()
+            .fold(None, |best: Option<(usize, f64)>, (i, &e)| match best {
+                Some((_, b)) if b >= e => best,
+                _ => Some((i, e)),
+            })?;
+        Some((self.top_gaps_j[idx / nb], self.bottom_gaps_j[idx % nb], eff))
+    }
+}
+
+/// One gap's precomputed pieces.
+struct GapColumn {
+    gap_j: f64,
+    /// photon flux above the gap times q X [A m^-2]
+    jsc_above: f64,
+    /// the gap's diode (photocurrent to be set per point), None for an unusable gap
+    diode: Option<Diode>,
+}
+
+fn columns(light: &Illumination, cell: &Cell, pre: &ThermalPrefactor, gaps_j: &[f64]) -> Vec<GapColumn> {
+    let q_x = CHARGE * light.concentration;
+    gaps_j
+        .iter()
+        .map(|&g| {
+            let ok = g > 0.0 && g.is_finite();
+            let jsc_above = if ok { q_x * light.source.photon_flux_above(g) } else { 0.0 };
+            let diode = ok.then(|| Diode::with_prefactor(pre, &Cell { gap_j: g, ..*cell }, jsc_above));
+            GapColumn { gap_j: g, jsc_above, diode }
+        })
+        .collect()
+}
+
+/// Efficiencies of every two-junction stack (top gap from `top_gaps_j`, bottom gap from
+/// `bottom_gaps_j`, both [J]) under `light`, with subcells like `template`.
+pub fn tandem_map(
+    light: &Illumination,
+    template: &Cell,
+    connection: Connection,
+    top_gaps_j: &[f64],
+    bottom_gaps_j: &[f64],
+) -> EfficiencyMap {
+    let input = light.input_power();
+    let mut efficiency = vec![0.0; top_gaps_j.len() * bottom_gaps_j.len()];
+    let usable = input > 0.0 && template.temp_k > 0.0 && template.temp_k.is_finite() && template.ere > 0.0;
+    if usable {
+        let cell = Cell { ere: template.ere.min(1.0), ..*template };
+        let pre = ThermalPrefactor::new(cell.temp_k, cell.emission);
+        let tops = columns(light, &cell, &pre, top_gaps_j);
+        let bottoms = columns(light, &cell, &pre, bottom_gaps_j);
+        let nb = bottoms.len();
+        for (i, top) in tops.iter().enumerate() {
+            let Some(top_diode) = top.diode else { continue };
+            let top_p = match connection {
+                Connection::Independent => top_diode.solve(top.gap_j, input).pmax,
+                Connection::Series => 0.0,
+            };
+            let row = &mut efficiency[i * nb..(i + 1) * nb];
+            let mut hint = None;
+            for (out, bottom) in row.iter_mut().zip(&bottoms) {
+                let Some(bottom_diode) = bottom.diode else { continue };
+                if !(bottom.gap_j < top.gap_j) {
+                    continue;
+                }
+                let jsc_b = (bottom.jsc_above - top.jsc_above).max(0.0);
+                let b = bottom_diode.with_photocurrent(jsc_b);
+                let p = match connection {
+                    Connection::Independent => top_p + b.solve(bottom.gap_j, input).pmax,
+                    Connection::Series => {
+                        let (point, next) = series::max_power_near(&[top_diode, b], hint);
+                        hint = next;
+                        point.p
+                    }
+                };
+                *out = p / input;
+            }
+        }
+    }
+    EfficiencyMap { connection, top_gaps_j: top_gaps_j.to_vec(), bottom_gaps_j: bottom_gaps_j.to_vec(), efficiency }
+}

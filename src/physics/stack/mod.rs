@@ -1,0 +1,195 @@
+//! Stacks of junctions (multi-junction, tandem cells) in the detailed-balance limit.
+//!
+//! Model (De Vos, J. Phys. D 13, 839, 1980; Henry, J. Appl. Phys. 51, 4494, 1980): the
+//! subcells are stacked with the widest gap on top. Subcell i (top = 0) has a step
+//! absorptance and absorbs every photon between its own gap Eg_i and the gap above it,
+//! Eg_(i-1) (the top cell: everything above Eg_0), so its photocurrent is
+//!
+//!   Jsc_i = q X integral_{Eg_i}^{Eg_(i-1)} Phi_src(E) dE                        [A m^-2].
+//!
+//! Each subcell emits as a black body from its own gap up, at the cell temperature, with
+//! chemical potential q V_i (the generalized Planck law of `junction`), through the faces
+//! chosen by [`Emission`](super::junction::Emission). Light a subcell emits towards the cells
+//! below is counted as lost: there is no luminescent coupling between subcells. That is the
+//! treatment of De Vos 1980 and Henry 1980 and gives their published limits; coupling would
+//! raise series-connected efficiencies slightly where currents are mismatched (Brown &
+//! Green, Prog. Photovolt. 10, 299, 2002).
+//!
+//! Connections:
+//! * independent (multi-terminal): every subcell at its own maximum power point;
+//!   P = sum_i Pmax_i.
+//! * series (two-terminal): one current J through all subcells, voltages add;
+//!   P = max over 0 < J < min_i Jsc_i of J sum_i V_i(J), with V_i(J) the inverse of the
+//!   subcell's J-V curve ([`Diode::voltage_at_current`]). P(J) is concave there (each V_i is
+//!   a concave decreasing function of J), so its maximum is the one root of dP/dJ = 0,
+//!   found by Newton's method kept inside a bracket ([`series`]).
+
+pub mod map;
+pub mod optimize;
+pub mod series;
+
+use super::junction::{Cell, Diode, Illumination, ThermalPrefactor};
+use serde::{Deserialize, Serialize};
+
+/// The most junctions a stack may have.
+pub const MAX_JUNCTIONS: usize = 6;
+
+/// How the subcells are wired.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize, Default)]
+#[serde(rename_all = "kebab-case")]
+pub enum Connection {
+    /// Two-terminal: one current through every subcell. Default.
+    #[default]
+    Series,
+    /// Multi-terminal: every subcell at its own maximum power point.
+    Independent,
+}
+
+impl Connection {
+    pub fn label(self) -> &'static str {
+        match self {
+            Connection::Series => "series",
+            Connection::Independent => "independent",
+        }
+    }
+}
+
+/// One subcell's figures. SI units.
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize)]
+pub struct SubcellResult {
+    /// band gap [J]
+    pub gap_j: f64,
+    /// upper edge of the band it absorbs [J] (infinity for the top cell)
+    pub upper_j: f64,
+    /// short-circuit current density [A m^-2]
+    pub jsc: f64,
+    /// open-circuit voltage of the subcell alone [V]
+    pub voc: f64,
+    /// current density at the stack's operating point [A m^-2]
+    pub j_op: f64,
+    /// voltage at the stack's operating point [V]
+    pub v_op: f64,
+    /// power delivered at the operating point [W m^-2]
+    pub p_op: f64,
+    /// photocurrent the subcell cannot deliver in series: Jsc_i - min Jsc [A m^-2]
+    /// (0 for independent connection)
+    pub excess_jsc: f64,
+}
+
+/// The figures of a stack. SI units.
+#[derive(Debug, Clone, PartialEq, Default, Serialize)]
+pub struct StackResult {
+    pub connection: Connection,
+    /// subcells, top first
+    pub subcells: Vec<SubcellResult>,
+    /// series: the common current at zero total voltage, equal to the smallest subcell Jsc
+    /// to within that subcell's dark saturation current; independent: the sum of the
+    /// subcell Jsc [A m^-2]
+    pub jsc: f64,
+    /// the sum of the subcell open-circuit voltages [V] (for series, the stack's Voc)
+    pub voc: f64,
+    /// maximum power [W m^-2]
+    pub pmax: f64,
+    /// incident power (concentration included) [W m^-2]
+    pub input: f64,
+    /// Pmax / input
+    pub efficiency: f64,
+    /// series: index of the subcell with the smallest Jsc (0 = top); independent: None
+    pub limiting: Option<usize>,
+}
+
+/// Whether `gaps_j` [J] is a valid stack: 1 to [`MAX_JUNCTIONS`] finite positive gaps,
+/// strictly descending (top first).
+pub fn gaps_are_valid(gaps_j: &[f64]) -> bool {
+    !gaps_j.is_empty()
+        && gaps_j.len() <= MAX_JUNCTIONS
+        && gaps_j.iter().all(|g| g.is_finite() && *g > 0.0)
+        && gaps_j.windows(2).all(|w| w[0] > w[1])
+}
+
+/// Photocurrents [A m^-2] of the subcells of `gaps_j` [J] (descending), top first: each
+/// absorbs between its gap and the gap above.
+pub fn subcell_photocurrents(light: &Illumination, gaps_j: &[f64]) -> Vec<f64> {
+    let q_x = super::constants::CHARGE * light.concentration;
+    let mut above = f64::INFINITY;
+    gaps_j
+        .iter()
+        .map(|&g| {
+            let j = q_x * light.source.photon_flux_between(g, above);
+            above = g;
+            j
+        })
+        .collect()
+}
+
+/// The subcell diodes of a stack, top first. `template` gives temperature, ERE, emission
+/// and J-V model; its gap is ignored.
+pub fn subcell_diodes(light: &Illumination, template: &Cell, gaps_j: &[f64]) -> Vec<Diode> {
+    let pre = ThermalPrefactor::new(template.temp_k, template.emission);
+    let cell = Cell { ere: template.ere.min(1.0), ..*template };
+    subcell_photocurrents(light, gaps_j)
+        .into_iter()
+        .zip(gaps_j)
+        .map(|(jsc, &g)| Diode::with_prefactor(&pre, &Cell { gap_j: g, ..cell }, jsc))
+        .collect()
+}
+
+/// Solve a stack with band gaps `gaps_j` [J], top first (strictly descending), under
+/// `light`, every subcell like `template` (temperature, ERE, emission, J-V model).
+/// An invalid stack (see [`gaps_are_valid`]) or cell gives zero power, never NaN.
+pub fn solve_stack(light: &Illumination, template: &Cell, gaps_j: &[f64], connection: Connection) -> StackResult {
+    let input = light.input_power();
+    let empty = StackResult { connection, input, ..Default::default() };
+    if !gaps_are_valid(gaps_j) || !(template.temp_k > 0.0 && template.temp_k.is_finite()) || !(template.ere > 0.0) {
+        return empty;
+    }
+    let diodes = subcell_diodes(light, template, gaps_j);
+    let singles: Vec<_> = diodes.iter().zip(gaps_j).map(|(d, &g)| d.solve(g, input)).collect();
+    let uppers = std::iter::once(f64::INFINITY).chain(gaps_j.iter().copied());
+    let mut subcells: Vec<SubcellResult> = singles
+        .iter()
+        .zip(uppers)
+        .map(|(r, upper)| SubcellResult { gap_j: r.gap_j, upper_j: upper, jsc: r.jsc, voc: r.voc, ..Default::default() })
+        .collect();
+    let voc = singles.iter().map(|r| r.voc).sum();
+    let (jsc, pmax, limiting) = match connection {
+        Connection::Independent => {
+            for (s, r) in subcells.iter_mut().zip(&singles) {
+                s.j_op = r.jmp;
+                s.v_op = r.vmp;
+                s.p_op = r.pmax;
+            }
+            (singles.iter().map(|r| r.jsc).sum(), singles.iter().map(|r| r.pmax).sum(), None)
+        }
+        Connection::Series => {
+            let (lim, jmin) = singles
+                .iter()
+                .enumerate()
+                .fold((0, f64::INFINITY), |(bi, bj), (i, r)| if r.jsc < bj { (i, r.jsc) } else { (bi, bj) });
+            let point = series::max_power(&diodes);
+            for (s, d) in subcells.iter_mut().zip(&diodes) {
+                s.excess_jsc = s.jsc - jmin;
+                s.j_op = point.j;
+                s.v_op = if point.j > 0.0 { d.voltage_at_current(point.j).m * d.thermal_voltage() } else { 0.0 };
+                s.p_op = s.j_op * s.v_op;
+            }
+            (jmin.max(0.0), point.p, Some(lim))
+        }
+    };
+    let efficiency = if input > 0.0 { pmax / input } else { 0.0 };
+    StackResult { connection, subcells, jsc, voc, pmax, input, efficiency, limiting }
+}
+
+/// The efficiency alone (no per-subcell figures): what the optimizer and the map evaluate.
+pub fn stack_efficiency(light: &Illumination, template: &Cell, gaps_j: &[f64], connection: Connection) -> f64 {
+    let input = light.input_power();
+    if !gaps_are_valid(gaps_j) || !(input > 0.0) || !(template.temp_k > 0.0 && template.temp_k.is_finite()) || !(template.ere > 0.0) {
+        return 0.0;
+    }
+    let diodes = subcell_diodes(light, template, gaps_j);
+    let p = match connection {
+        Connection::Independent => diodes.iter().zip(gaps_j).map(|(d, &g)| d.solve(g, input).pmax).sum(),
+        Connection::Series => series::max_power(&diodes).p,
+    };
+    p / input
+}

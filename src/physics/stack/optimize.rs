@@ -1,0 +1,423 @@
+//! The best band gaps of a stack: a global search that does not stop at the first local
+//! optimum, then a local polish. Deterministic: the same problem always gives the same
+//! answer and the same number of evaluations.
+//!
+//! * One or two free gaps: every point of a grid (two-junction stacks use the fast map of
+//!   [`super::map`]), then the best few grid points that are local maxima are polished with
+//!   the Nelder-Mead simplex (Nelder & Mead, Comput. J. 7, 308, 1965).
+//! * Three or more: differential evolution, strategy rand/1/bin with dithered weight (Storn &
+//!   Price, J. Global Optim. 11, 341, 1997), from a fixed seed, then Nelder-Mead from the
+//!   best few distinct members of the final population. The efficiency of AM1.5G stacks has
+//!   several local optima (absorption bands of the atmosphere), which a population explores
+//!   and a single descent would not.
+//!
+//! A candidate is a set of gaps in any order; it is sorted (top first) before evaluation.
+//! Two equal gaps mean a subcell with no band to absorb: for independent connection it
+//! delivers nothing and the others are unchanged; in series its zero current stops the stack.
+
+use super::{stack_efficiency, Connection, MAX_JUNCTIONS};
+use crate::physics::constants::CHARGE;
+use crate::physics::junction::{Cell, Illumination};
+use serde::{Deserialize, Serialize};
+
+/// Where a fixed gap must sit in the stack.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize, Default)]
+#[serde(rename_all = "kebab-case")]
+pub enum FixAt {
+    /// anywhere: the other gaps may lie above or below it. Default.
+    #[default]
+    Any,
+    /// the fixed gap is the top cell: every other gap is below it
+    Top,
+    /// the fixed gap is the bottom cell: every other gap is above it
+    Bottom,
+}
+
+/// A gap held fixed while the others are optimized ("best partner" searches).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct FixedGap {
+    /// [J]
+    pub gap_j: f64,
+    pub at: FixAt,
+}
+
+/// What to optimize.
+#[derive(Debug, Clone)]
+pub struct Problem<'a> {
+    pub light: &'a Illumination,
+    /// temperature, ERE, emission and J-V model of every subcell (gap ignored)
+    pub cell: Cell,
+    pub connection: Connection,
+    /// number of junctions, 1 to [`MAX_JUNCTIONS`]
+    pub junctions: usize,
+    pub fixed: Option<FixedGap>,
+    /// range of the free gaps [J]
+    pub range_j: (f64, f64),
+    /// extra starting points (free gaps only, any order), e.g. a smaller stack's optimum;
+    /// the result is never worse than the best of them
+    pub seeds: Vec<Vec<f64>>,
+}
+
+/// Default search range of the free gaps [eV].
+pub const SEARCH_RANGE_EV: (f64, f64) = (0.2, 4.5);
+
+/// The optimizer's answer.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct Optimum {
+    /// gaps [J], top first
+    pub gaps_j: Vec<f64>,
+    pub efficiency: f64,
+    /// number of stack evaluations used
+    pub evaluations: u64,
+}
+
+/// Counts evaluations and maps free variables to a stack.
+struct Objective<'a> {
+    p: &'a Problem<'a>,
+    evaluations: u64,
+}
+
+impl Objective<'_> {
+    /// The gaps of a candidate, top first, fixed gap included.
+    fn gaps(&self, free: &[f64]) -> Vec<f64> {
+        let mut g: Vec<f64> = free.to_vec();
+        if let Some(f) = self.p.fixed {
+            g.push(f.gap_j);
+        }
+        g.sort_by(|a, b| b.total_cmp(a));
+        g
+    }
+
+    fn efficiency(&mut self, free: &[f64]) -> f64 {
+        self.evaluations += 1;
+        let mut g = self.gaps(free);
+        let before = g.len();
+        g.dedup();
+        if g.len() < before && self.p.connection == Connection::Series {
+            return 0.0;
+        }
+        let e = stack_efficiency(self.p.light, &self.p.cell, &g, self.p.connection);
+        if e.is_finite() {
+            e
+        } else {
+            0.0
+        }
+    }
+}
+
+/// Bounds of the free variables.
+fn free_bounds(p: &Problem) -> (f64, f64) {
+    let (lo, hi) = p.range_j;
+    match p.fixed {
+        Some(FixedGap { gap_j, at: FixAt::Top }) => (lo, gap_j.min(hi)),
+        Some(FixedGap { gap_j, at: FixAt::Bottom }) => (gap_j.max(lo), hi),
+        _ => (lo, hi),
+    }
+}
+
+/// Find the best gaps. An unusable problem (no junctions, bad range) gives an empty result.
+pub fn optimize(p: &Problem) -> Optimum {
+    let n_free = p.junctions.saturating_sub(usize::from(p.fixed.is_some()));
+    let (lo, hi) = free_bounds(p);
+    let valid = (1..=MAX_JUNCTIONS).contains(&p.junctions)
+        && lo.is_finite()
+        && hi.is_finite()
+        && lo > 0.0
+        && hi > lo
+        && p.fixed.is_none_or(|f| f.gap_j > 0.0 && f.gap_j.is_finite());
+    if !valid {
+        return Optimum::default();
+    }
+    let mut obj = Objective { p, evaluations: 0 };
+    if n_free == 0 {
+        let e = obj.efficiency(&[]);
+        return Optimum { gaps_j: obj.gaps(&[]), efficiency: e, evaluations: obj.evaluations };
+    }
+    let mut starts: Vec<(Vec<f64>, f64)> = match n_free {
+        1 => grid_1d(&mut obj, lo, hi),
+        2 => grid_2d(&mut obj, lo, hi),
+        _ => evolve(&mut obj, n_free, lo, hi),
+    };
+    for s in &p.seeds {
+        if s.len() == n_free && s.iter().all(|x| x.is_finite()) {
+            let x: Vec<f64> = s.iter().map(|v| v.clamp(lo, hi)).collect();
+            let e = obj.efficiency(&x);
+            starts.push((x, e));
+        }
+    }
+    starts.sort_by(|a, b| b.1.total_cmp(&a.1));
+    let mut best = starts.first().cloned().unwrap_or_default();
+    let step = (hi - lo) * 0.01;
+    for (x, e) in starts.iter().take(POLISHED_STARTS) {
+        let (px, pe) = nelder_mead(&mut obj, x, *e, step, lo, hi);
+        if pe > best.1 {
+            best = (px, pe);
+        }
+    }
+    let gaps = obj.gaps(&best.0);
+    Optimum { gaps_j: gaps, efficiency: best.1, evaluations: obj.evaluations }
+}
+
+/// The optimum for every number of junctions from 1 to `max_junctions`, each seeded with
+/// the previous one's gaps plus one more (a copy of its lowest free gap, which for
+/// independent connection reproduces the smaller stack exactly, and one midway between its
+/// top gap and the top of the range). For independent connection the efficiencies are
+/// therefore never lower for more junctions.
+pub fn optimize_each(p: &Problem, max_junctions: usize) -> Vec<Optimum> {
+    let mut out: Vec<Optimum> = Vec::new();
+    let (lo, hi) = free_bounds(p);
+    for n in 1..=max_junctions.min(MAX_JUNCTIONS) {
+        if p.fixed.is_some() && n < 2 {
+            continue;
+        }
+        let mut q = Problem { junctions: n, ..p.clone() };
+        if let Some(prev) = out.last() {
+            let mut free: Vec<f64> = prev.gaps_j.clone();
+            if let Some(f) = p.fixed {
+                if let Some(i) = free.iter().position(|g| *g == f.gap_j) {
+                    free.remove(i);
+                }
+            }
+            let lowest = free.iter().copied().fold(hi, f64::min);
+            let highest = free.iter().copied().fold(lo, f64::max);
+            let mut a = free.clone();
+            a.push(lowest);
+            let mut b = free;
+            b.push(0.5 * (highest + hi));
+            q.seeds.push(a);
+            q.seeds.push(b);
+        }
+        out.push(optimize(&q));
+    }
+    out
+}
+
+/// How many of the best starting points are polished.
+const POLISHED_STARTS: usize = 4;
+
+/// Grid step of one free gap [eV] and of two free gaps [eV].
+const GRID_1D_EV: f64 = 0.002;
+const GRID_2D_EV: f64 = 0.01;
+
+fn grid_points(lo: f64, hi: f64, step_ev: f64) -> Vec<f64> {
+    let step = step_ev * CHARGE;
+    let n = (((hi - lo) / step).ceil() as usize).clamp(1, 100_000);
+    (0..=n).map(|i| lo + (hi - lo) * i as f64 / n as f64).collect()
+}
+
+/// Every grid point of one free gap; returns the local maxima, best first.
+fn grid_1d(obj: &mut Objective, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
+    let xs = grid_points(lo, hi, GRID_1D_EV);
+    let es: Vec<f64> = xs.iter().map(|&x| obj.efficiency(&[x])).collect();
+    let mut maxima: Vec<(Vec<f64>, f64)> = (0..xs.len())
+        .filter(|&i| {
+            let left = if i > 0 { es[i - 1] } else { f64::NEG_INFINITY };
+            let right = es.get(i + 1).copied().unwrap_or(f64::NEG_INFINITY);
+            es[i] >= left && es[i] >= right && es[i] > 0.0
+        })
+        .map(|i| (vec![xs[i]], es[i]))
+        .collect();
+    maxima.sort_by(|a, b| b.1.total_cmp(&a.1));
+    maxima
+}
+
+/// Every point x1 > x2 of a grid of two free gaps; returns the local maxima, best first.
+fn grid_2d(obj: &mut Objective, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
+    let xs = grid_points(lo, hi, GRID_2D_EV);
+    let n = xs.len();
+    let grid: Vec<f64> = if obj.p.fixed.is_none() {
+        // the two-junction map: rows are the top gap, columns the bottom gap
+        let m = super::map::tandem_map(obj.p.light, &obj.p.cell, obj.p.connection, &xs, &xs);
+        obj.evaluations += (n * (n - 1) / 2) as u64;
+        m.efficiency
+    } else {
+        let mut g = vec![0.0; n * n];
+        for i in 0..n {
+            for k in 0..i {
+                g[i * n + k] = obj.efficiency(&[xs[i], xs[k]]);
+            }
+        }
+        g
+    };
+    let at = |i: isize, k: isize| -> f64 {
+        if i < 0 || k < 0 || i as usize >= n || k as usize >= i as usize {
+            f64::NEG_INFINITY
+        } else {
+            grid[i as usize * n + k as usize]
+        }
+    };
+    let mut maxima = Vec::new();
+    for i in 1..n as isize {
+        for k in 0..i {
+            let e = at(i, k);
+            if !(e > 0.0) {
+                continue;
+            }
+            let is_max = (-1..=1).all(|di| (-1..=1).all(|dk| (di == 0 && dk == 0) || at(i + di, k + dk) <= e));
+            if is_max {
+                maxima.push((vec![xs[i as usize], xs[k as usize]], e));
+            }
+        }
+    }
+    maxima.sort_by(|a, b| b.1.total_cmp(&a.1));
+    maxima
+}
+
+/// A small deterministic generator (SplitMix64; Steele, Lea & Flood, OOPSLA 2014).
+struct SplitMix(u64);
+
+impl SplitMix {
+    fn next_u64(&mut self) -> u64 {
+        self.0 = self.0.wrapping_add(0x9E37_79B9_7F4A_7C15);
+        let mut z = self.0;
+        z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
+        z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
+        z ^ (z >> 31)
+    }
+    /// uniform in [0, 1)
+    fn unit(&mut self) -> f64 {
+        (self.next_u64() >> 11) as f64 / (1u64 << 53) as f64
+    }
+    fn below(&mut self, n: usize) -> usize {
+        (self.unit() * n as f64) as usize % n.max(1)
+    }
+}
+
+/// Seed of the evolution; fixed so that results are reproducible.
+const EVOLUTION_SEED: u64 = 0x6c6f_7767_6170_0001;
+/// Generations of the evolution at most.
+const MAX_GENERATIONS: usize = 400;
+/// Stop once the population's efficiencies agree to this (absolute efficiency).
+const SPREAD_TOL: f64 = 1e-10;
+
+/// Differential evolution over `d` free gaps in [lo, hi]; returns the best few distinct
+/// members of the last population, best first.
+fn evolve(obj: &mut Objective, d: usize, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
+    let mut rng = SplitMix(EVOLUTION_SEED ^ (d as u64) << 8 ^ (obj.p.junctions as u64));
+    let np = (12 * d).max(24);
+    let canon = |mut x: Vec<f64>| {
+        x.sort_by(|a, b| b.total_cmp(a));
+        x
+    };
+    // stratified start: member i draws each coordinate from its own slice of the range
+    let mut pop: Vec<Vec<f64>> = (0..np)
+        .map(|i| {
+            canon((0..d).map(|_| lo + (hi - lo) * ((i as f64 + rng.unit()) / np as f64 * 0.5 + rng.unit() * 0.5)).collect())
+        })
+        .collect();
+    let mut fit: Vec<f64> = pop.iter().map(|x| obj.efficiency(x)).collect();
+    for _ in 0..MAX_GENERATIONS {
+        let weight = 0.5 + 0.5 * rng.unit(); // dither (Storn & Price 1997, sec. 5)
+        for i in 0..np {
+            let mut pick = || loop {
+                let r = rng.below(np);
+                if r != i {
+                    break r;
+                }
+            };
+            let (r1, mut r2, mut r3) = (pick(), pick(), pick());
+            while r2 == r1 {
+                r2 = pick();
+            }
+            while r3 == r1 || r3 == r2 {
+                r3 = pick();
+            }
+            let jrand = rng.below(d);
+            let trial: Vec<f64> = (0..d)
+                .map(|k| {
+                    if k == jrand || rng.unit() < 0.9 {
+                        let v = pop[r1][k] + weight * (pop[r2][k] - pop[r3][k]);
+                        // out of bounds: go part of the way from the parent to the bound
+                        if v < lo {
+                            lo + rng.unit() * (pop[i][k] - lo)
+                        } else if v > hi {
+                            hi - rng.unit() * (hi - pop[i][k])
+                        } else {
+                            v
+                        }
+                    } else {
+                        pop[i][k]
+                    }
+                })
+                .collect();
+            let trial = canon(trial);
+            let e = obj.efficiency(&trial);
+            if e >= fit[i] {
+                pop[i] = trial;
+                fit[i] = e;
+            }
+        }
+        let (mn, mx) = fit.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), &e| (a.min(e), b.max(e)));
+        if mx - mn <= SPREAD_TOL {
+            break;
+        }
+    }
+    let mut members: Vec<(Vec<f64>, f64)> = pop.into_iter().zip(fit).collect();
+    members.sort_by(|a, b| b.1.total_cmp(&a.1));
+    // keep members that differ from every better one by at least 0.02 eV in some gap
+    let apart = 0.02 * CHARGE;
+    let mut kept: Vec<(Vec<f64>, f64)> = Vec::new();
+    for m in members {
+        if kept.iter().all(|k| k.0.iter().zip(&m.0).any(|(a, b)| (a - b).abs() > apart)) {
+            kept.push(m);
+        }
+        if kept.len() == POLISHED_STARTS {
+            break;
+        }
+    }
+    kept
+}
+
+/// Simplex polish of a maximum from `x0` (efficiency `e0`), first steps `step` [J], inside
+/// [lo, hi]. Standard coefficients (reflection 1, expansion 2, contraction 1/2, shrink 1/2).
+fn nelder_mead(obj: &mut Objective, x0: &[f64], e0: f64, step: f64, lo: f64, hi: f64) -> (Vec<f64>, f64) {
+    let d = x0.len();
+    let clamp = |x: Vec<f64>| x.into_iter().map(|v| v.clamp(lo, hi)).collect::<Vec<f64>>();
+    let mut simplex: Vec<(Vec<f64>, f64)> = vec![(x0.to_vec(), e0)];
+    for k in 0..d {
+        let mut x = x0.to_vec();
+        x[k] = if x[k] + step <= hi { x[k] + step } else { x[k] - step };
+        let x = clamp(x);
+        let e = obj.efficiency(&x);
+        simplex.push((x, e));
+    }
+    let tol = 1e-7 * CHARGE; // 0.1 ueV: far below any gap that matters
+    for _ in 0..(400 * d) {
+        simplex.sort_by(|a, b| b.1.total_cmp(&a.1));
+        let size = simplex[1..]
+            .iter()
+            .map(|(x, _)| x.iter().zip(&simplex[0].0).map(|(a, b)| (a - b).abs()).fold(0.0, f64::max))
+            .fold(0.0, f64::max);
+        if size < tol {
+            break;
+        }
+        let centroid: Vec<f64> = (0..d).map(|k| simplex[..d].iter().map(|(x, _)| x[k]).sum::<f64>() / d as f64).collect();
+        let worst = simplex[d].clone();
+        let along = |t: f64| clamp(centroid.iter().zip(&worst.0).map(|(c, w)| c + t * (c - w)).collect());
+        let xr = along(1.0);
+        let er = obj.efficiency(&xr);
+        if er > simplex[0].1 {
+            let xe = along(2.0);
+            let ee = obj.efficiency(&xe);
+            simplex[d] = if ee > er { (xe, ee) } else { (xr, er) };
+        } else if er > simplex[d - 1].1 {
+            simplex[d] = (xr, er);
+        } else {
+            let xc = if er > worst.1 { along(0.5) } else { along(-0.5) };
+            let ec = obj.efficiency(&xc);
+            if ec > worst.1.max(er) {
+                simplex[d] = (xc, ec);
+            } else {
+                let best = simplex[0].0.clone();
+                for v in simplex.iter_mut().skip(1) {
+                    let x: Vec<f64> = v.0.iter().zip(&best).map(|(a, b)| b + 0.5 * (a - b)).collect();
+                    let e = obj.efficiency(&x);
+                    *v = (x, e);
+                }
+            }
+        }
+    }
+    simplex.sort_by(|a, b| b.1.total_cmp(&a.1));
+    let (x, e) = simplex.swap_remove(0);
+    (x, e)
+}
