@@ -573,8 +573,10 @@ fn stack_scenarios_round_trip_and_old_links_still_load() {
     use glowgap::scenario::stack::{AbsorberSpec, EqeTableSpec, StackScenario};
     use glowgap::scenario::Scenario;
     let t = eqe_fixture();
-    let mut s = Scenario::default();
-    s.stack = StackScenario { gaps_ev: vec![1.9, 1.37, 0.93], connection: Connection::Independent, ..Default::default() };
+    let mut s = Scenario {
+        stack: StackScenario { gaps_ev: vec![1.9, 1.37, 0.93], connection: Connection::Independent, ..Default::default() },
+        ..Default::default()
+    };
     s.stack.absorber = AbsorberSpec::Measured(EqeTableSpec::from_table(&t));
     s.stack.optimize.fix_ev = Some(1.12);
     s.stack.mismatch.test_eqe = Some(EqeTableSpec::from_table(&t));

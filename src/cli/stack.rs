@@ -168,7 +168,7 @@ pub fn optimize(args: &[String], out: Out) -> Result<(), Failure> {
     let spec = Spec { command: "optimize", valued: OPTIMIZE_VALUED, flags: &["json"], max_positional: 0 };
     let p = spec.parse(args)?;
     let n = p.required_number("junctions", "number of junctions", "1 to 6", "optimize")?;
-    if !(n >= 1.0 && n <= 6.0 && n.fract() == 0.0) {
+    if !((1.0..=6.0).contains(&n) && n.fract() == 0.0) {
         return Err(Failure::Usage(format!("--junctions {n} is not usable; give a whole number from 1 to 6")));
     }
     let mut settings = OptimizeSettings { junctions: n as usize, fix_ev: p.number("fix", "fixed band gap", "eV")?, ..Default::default() };
