@@ -167,7 +167,7 @@ impl Diode {
         if cell.model == JvModel::Exact {
             d.ln_r0 = d.ln_r(0.0).ln_r;
         }
-        d.ln_target = log_add((d.ere * jsc).ln(), d.ln_r0);
+        d.ln_target = ln_target(d.ere * jsc, d.ln_r0);
         d
     }
 
@@ -326,7 +326,7 @@ impl Diode {
     pub fn with_photocurrent(&self, jsc: f64) -> Diode {
         let mut d = *self;
         d.jsc = jsc;
-        d.ln_target = log_add((d.ere * jsc).ln(), d.ln_r0);
+        d.ln_target = ln_target(d.ere * jsc, d.ln_r0);
         d
     }
 
@@ -411,6 +411,17 @@ impl Diode {
         };
         let dm = dl / rho;
         VoltageAtCurrent { m, dm_dj: dm, d2m_dj2: (-dl * dl - rho1 * dm * dm) / rho }
+    }
+}
+
+/// ln(ERE Jsc + R(0)) from ERE Jsc [A m^-2] and ln R(0): directly while R(0) is in range
+/// (one exp, one ln), in logarithms when it is not.
+#[inline]
+fn ln_target(ere_jsc: f64, ln_r0: f64) -> f64 {
+    if ln_r0 > -700.0 && ln_r0 < 700.0 {
+        (ere_jsc + ln_r0.exp()).ln()
+    } else {
+        log_add(ere_jsc.ln(), ln_r0)
     }
 }
 
@@ -518,16 +529,30 @@ pub fn sweep(light: &Illumination, template: &Cell, gaps_j: &[f64]) -> Vec<CellR
     let valid = template.temp_k > 0.0 && template.ere > 0.0;
     let template = Cell { ere: template.ere.min(1.0), ..*template };
     let pre = ThermalPrefactor::new(template.temp_k, template.emission);
+    // photocurrents for all gaps in one pass (a monotone walk over tabulated spectra)
+    let jsc = step_photocurrents(light, gaps_j);
     gaps_j
         .iter()
-        .map(|&g| {
+        .zip(jsc)
+        .map(|(&g, jsc)| {
             let cell = Cell { gap_j: g, ..template };
             if !(g > 0.0) || !g.is_finite() || !valid {
                 return CellResult { gap_j: g, input, ..Default::default() };
             }
-            Diode::with_prefactor(&pre, &cell, light.step_jsc(g)).solve(g, input)
+            Diode::with_prefactor(&pre, &cell, jsc).solve(g, input)
         })
         .collect()
+}
+
+/// Step-absorber photocurrents [A m^-2] for every gap in `gaps_j` [J] (any order).
+pub fn step_photocurrents(light: &Illumination, gaps_j: &[f64]) -> Vec<f64> {
+    let scale = CHARGE * light.concentration;
+    match &light.source {
+        Source::Table { spectrum, .. } => {
+            spectrum.photon_flux_above_many(gaps_j).into_iter().map(|f| scale * f).collect()
+        }
+        _ => gaps_j.iter().map(|&g| light.step_jsc(g)).collect(),
+    }
 }
 
 /// The best point of a sweep (highest efficiency); `None` for an empty sweep.

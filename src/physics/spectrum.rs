@@ -230,6 +230,44 @@ impl Spectrum {
         self.photon_flux_between(e, f64::INFINITY)
     }
 
+    /// Photon flux above each energy in `energies` [J] [s^-1 m^-2]. For sorted energies
+    /// (the usual sweep) the search walks the table once instead of bisecting per query;
+    /// unsorted input falls back to bisection. Same values as [`Spectrum::photon_flux_above`].
+    pub fn photon_flux_above_many(&self, energies: &[f64]) -> Vec<f64> {
+        let total = self.total_photon_flux();
+        let n = self.x.len();
+        let mut hint = 0usize;
+        energies
+            .iter()
+            .map(|&e| {
+                if e.is_nan() {
+                    return 0.0;
+                }
+                let u = self.axis.coordinate_of_energy(e);
+                if !(u > self.x[0]) || u >= self.x[n - 1] {
+                    // "above e" is everything at or below u (wavelength axis) or above it
+                    let below = if u >= self.x[n - 1] { total } else { 0.0 };
+                    return if self.axis.increases_with_energy() { total - below } else { below };
+                }
+                // move the hint to the segment holding u, then interpolate as cumulative_at
+                if self.x[hint] > u || self.x[(hint + 1).min(n - 1)] <= u {
+                    let step_ok = hint + 2 < n && self.x[hint + 1] <= u && self.x[hint + 2] > u;
+                    hint = if step_ok { hint + 1 } else if hint > 0 && self.x[hint - 1] <= u && self.x[hint] > u { hint - 1 } else { self.x.partition_point(|&v| v <= u) - 1 };
+                }
+                let i = hint;
+                let (x0, x1) = (self.x[i], self.x[i + 1]);
+                let t = (u - x0) / (x1 - x0);
+                let d_u = self.photons[i] + t * (self.photons[i + 1] - self.photons[i]);
+                let below = self.cum_photons[i] + 0.5 * (u - x0) * (self.photons[i] + d_u);
+                if self.axis.increases_with_energy() {
+                    (total - below).max(0.0)
+                } else {
+                    below.max(0.0)
+                }
+            })
+            .collect()
+    }
+
     /// Irradiance carried by photons above `e` [J] [W m^-2]. O(log n).
     pub fn power_above(&self, e: f64) -> f64 {
         self.power_between(e, f64::INFINITY)
@@ -360,6 +398,28 @@ mod tests {
         // an edge between points (605 nm) interpolates exactly on a flat table
         let e605 = HC / 605e-9;
         assert!((s.power_above(e605) - 205.0).abs() < 1e-9);
+    }
+
+    #[test]
+    fn many_queries_match_single_queries() {
+        // the walking search must give exactly what bisection gives, sorted or not
+        let x: Vec<f64> = (0..300).map(|i| (300.0 + 2.0 * i as f64 + (i % 7) as f64 * 0.1) * 1e-9).collect();
+        let y: Vec<f64> = (0..300).map(|i| 1e9 * (1.0 + (i as f64 * 0.37).sin().abs())).collect();
+        for axis in [Axis::Wavelength, Axis::PhotonEnergy, Axis::Wavenumber] {
+            let s = Spectrum::new("t", "t", Axis::Wavelength, Quantity::Irradiance, x.clone(), y.clone())
+                .unwrap()
+                .converted(axis, Quantity::Irradiance);
+            let mut e: Vec<f64> = (0..2000).map(|i| (0.2 + 0.002 * i as f64) * crate::physics::constants::CHARGE).collect();
+            let sorted = s.photon_flux_above_many(&e);
+            e.reverse();
+            let reversed = s.photon_flux_above_many(&e);
+            e.reverse();
+            for (i, &ei) in e.iter().enumerate() {
+                let one = s.photon_flux_above(ei);
+                assert!((sorted[i] - one).abs() <= 1e-12 * one.abs().max(1.0), "{axis:?} {i}");
+                assert!((reversed[e.len() - 1 - i] - one).abs() <= 1e-12 * one.abs().max(1.0));
+            }
+        }
     }
 
     #[test]
