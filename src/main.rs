@@ -17,5 +17,9 @@ fn main() {
 
 #[cfg(target_arch = "wasm32")]
 fn main() {
-    glowgap::app::start();
+    // the stack panel's gap search loads this module in a background worker, where there
+    // is no page to mount
+    if web_sys::window().is_some() {
+        glowgap::app::start();
+    }
 }

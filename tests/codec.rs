@@ -89,11 +89,11 @@ fn scenario() -> impl Strategy<Value = Scenario> {
         prop_oneof![Just(JvModel::Exact), Just(JvModel::Boltzmann)],
         prop_oneof![Just(PlotAxis::Wavelength), Just(PlotAxis::PhotonEnergy)],
         prop_oneof![Just(PlotQuantity::Irradiance), Just(PlotQuantity::PhotonFlux)],
-        ((0.01f64..5.0, 5.0f64..20.0), radiator()),
+        ((0.01f64..5.0, 5.0f64..20.0, prop_oneof![Just(Panel::Cell), Just(Panel::Radiator), Just(Panel::Stack)]), radiator()),
     )
-        .prop_map(|(gap, spectrum, x, t, ere, emission, approx, axis, quantity, ((from, to), radiator))| Scenario {
+        .prop_map(|(gap, spectrum, x, t, ere, emission, approx, axis, quantity, ((from, to, panel), radiator))| Scenario {
             cell: CellScenario { gap_ev: gap, spectrum, concentration: x, cell_temp_k: t, ere, emission, approx },
-            view: ViewSettings { spectrum_axis: axis, spectrum_quantity: quantity, curve_from_ev: from, curve_to_ev: to },
+            view: ViewSettings { spectrum_axis: axis, spectrum_quantity: quantity, curve_from_ev: from, curve_to_ev: to, panel },
             radiator,
             ..Default::default()
         })

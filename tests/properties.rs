@@ -48,8 +48,10 @@ proptest! {
         prop_assert!(r.efficiency < 1.0 - tc / ts);
         // the ultimate efficiency (every absorbed photon delivers Eg) bounds the real one
         prop_assert!(r.efficiency < ultimate_efficiency(&light, ev(gap)));
-        // Voc stays below the gap (the generalized Planck law has its pole at qV = Eg)
-        prop_assert!(r.voc < gap);
+        // Voc stays below the gap (the generalized Planck law has its pole at qV = Eg). Near
+        // the sun-disc limit the gap and Voc can differ by less than the resolution of a
+        // double (a = (Eg - qVoc)/kT below 1e-14), so allow rounding of one part in 1e12.
+        prop_assert!(r.voc < gap * (1.0 + 1e-12), "Voc {} vs gap {}", r.voc, gap);
     }
 
     #[test]

@@ -102,6 +102,35 @@ pub fn key_step(ev: &web_sys::KeyboardEvent) -> f64 {
     }
 }
 
+/// Arrow keys on a band-gap field: Up/Down always step the gap, Left/Right only while the
+/// user is not typing in the field (there they move the caret). `step(d)` applies a step of
+/// `d` eV (1 meV, 10 meV with Shift) and says whether it was taken. Returns the handler and
+/// the typing flag, which the field's focus-in should clear.
+pub fn gap_keys(step: Rc<dyn Fn(f64) -> bool>) -> (KeyHandler, Rc<Cell<bool>>) {
+    let typing = Rc::new(Cell::new(false));
+    let t = typing.clone();
+    let handler: KeyHandler = Rc::new(move |ev, _el| {
+        let dir = match ev.key().as_str() {
+            "ArrowUp" => 1.0,
+            "ArrowDown" => -1.0,
+            "ArrowRight" if !t.get() => 1.0,
+            "ArrowLeft" if !t.get() => -1.0,
+            "Enter" | "Escape" => {
+                t.set(false);
+                return false;
+            }
+            k if k.chars().count() == 1 || k == "Backspace" || k == "Delete" => {
+                t.set(true);
+                return false;
+            }
+            _ => return false,
+        };
+        step(dir * key_step(ev));
+        true
+    });
+    (handler, typing)
+}
+
 fn still_using(value: String, unit: &str) -> String {
     let unit = if value == "1" && unit == "suns" { "sun" } else { unit };
     if unit.is_empty() {
@@ -111,20 +140,31 @@ fn still_using(value: String, unit: &str) -> String {
     }
 }
 
-/// A labelled numeric input with its unit, hint and message line.
-/// `commit` returns whether the value was taken; `on_key` may handle a key (returns true
-/// when it did).
-pub fn number_field(
-    ctx: Ctx,
-    f: Field,
-    commit: Rc<dyn Fn(f64) -> bool>,
-    on_key: Option<KeyHandler>,
-) -> impl IntoView {
+/// A bare numeric input: what it edits and how it reads and shows values. Messages go to
+/// the error line of `hook`.
+pub struct NumberInput {
+    pub hook: &'static str,
+    /// its `data-control` hook
+    pub control: String,
+    pub id: Option<String>,
+    /// an accessible name, when no <label> names it
+    pub aria_label: Option<String>,
+    pub describedby: String,
+    pub unit: &'static str,
+    /// an example value for messages
+    pub example: &'static str,
+    pub value: Memo<f64>,
+    pub show: fn(f64) -> String,
+    pub parse: fn(&str) -> Result<f64, String>,
+}
+
+/// A numeric input that follows the scenario, commits as the user types when the text is a
+/// usable value, and otherwise says under `hook` what is wrong while the last good value
+/// stays in use. `commit` returns whether the value was taken; `on_key` may handle a key
+/// (returns true when it did).
+pub fn numeric_input(ctx: Ctx, f: NumberInput, commit: Rc<dyn Fn(f64) -> bool>, on_key: Option<KeyHandler>) -> impl IntoView {
     let input = NodeRef::<html::Input>::new();
-    let Field { label, unit, hook, hint, example, value, show, parse } = f;
-    let id = format!("f-{hook}");
-    let err_id = format!("e-{hook}");
-    let hint_id = format!("h-{hook}");
+    let NumberInput { hook, control, id, aria_label, describedby, unit, example, value, show, parse } = f;
 
     // follow the scenario
     Effect::new(move |_| {
@@ -138,12 +178,11 @@ pub fn number_field(
         }
     });
 
-    let commit_in = commit.clone();
     let on_input = move |ev: ev::Event| {
         let text = event_target_value(&ev);
         match parse(&text) {
             Ok(v) => {
-                if !commit_in(v) {
+                if !commit(v) {
                     let still = still_using(show(value.get_untracked()), unit);
                     ctx.errors.update(|e| {
                         if let Some(m) = e.get_mut(hook) {
@@ -180,32 +219,105 @@ pub fn number_field(
             }
         }
     };
-    let initial = show(value.get_untracked());
-    let has_hint = hint.is_some();
-    let describedby = if has_hint { format!("{hint_id} {err_id}") } else { err_id.clone() };
+    view! {
+        <input
+            id=id
+            type="text"
+            inputmode="decimal"
+            autocomplete="off"
+            spellcheck="false"
+            data-control=control
+            value=show(value.get_untracked())
+            node_ref=input
+            aria-label=aria_label
+            aria-describedby=describedby
+            aria-invalid=move || if ctx.error_of(hook).is_some() { "true" } else { "false" }
+            on:input=on_input
+            on:change=on_change
+            on:keydown=on_keydown
+        />
+    }
+}
+
+/// A labelled numeric input with its unit, hint and message line (see [`numeric_input`]).
+pub fn number_field(
+    ctx: Ctx,
+    f: Field,
+    commit: Rc<dyn Fn(f64) -> bool>,
+    on_key: Option<KeyHandler>,
+) -> impl IntoView {
+    let Field { label, unit, hook, hint, example, value, show, parse } = f;
+    let id = format!("f-{hook}");
+    let err_id = format!("e-{hook}");
+    let hint_id = format!("h-{hook}");
+    let describedby = if hint.is_some() { format!("{hint_id} {err_id}") } else { err_id.clone() };
+    let input = NumberInput {
+        hook,
+        control: hook.to_string(),
+        id: Some(id.clone()),
+        aria_label: None,
+        describedby,
+        unit,
+        example,
+        value,
+        show,
+        parse,
+    };
     view! {
         <div class="field" class:has-error=move || ctx.error_of(hook).is_some()>
-            <label for=id.clone()>{label}</label>
+            <label for=id>{label}</label>
             <div class="input-unit">
-                <input
-                    id=id
-                    type="text"
-                    inputmode="decimal"
-                    autocomplete="off"
-                    spellcheck="false"
-                    data-control=hook
-                    value=initial
-                    node_ref=input
-                    aria-describedby=describedby
-                    aria-invalid=move || if ctx.error_of(hook).is_some() { "true" } else { "false" }
-                    on:input=on_input
-                    on:change=on_change
-                    on:keydown=on_keydown
-                />
+                {numeric_input(ctx, input, commit, on_key)}
                 <span class="unit" aria-hidden="true">{unit}</span>
             </div>
             {hint.map(|h| view! { <p class="hint" id=hint_id>{h}</p> })}
             <p class="field-error" id=err_id data-error=hook aria-live="polite">{move || ctx.error_of(hook)}</p>
+        </div>
+    }
+}
+
+/// A file button that also takes a dropped file: `control` is the input's hook, `hint` the
+/// line under it (which should carry the id named in `describedby`).
+pub fn drop_zone(
+    control: &'static str,
+    accept: &'static str,
+    describedby: &'static str,
+    button: &'static str,
+    hint: AnyView,
+    on_file: Rc<dyn Fn(web_sys::File)>,
+) -> impl IntoView {
+    let file_input = NodeRef::<html::Input>::new();
+    let over = RwSignal::new(false);
+    let take = on_file.clone();
+    let on_change = move |_ev: ev::Event| {
+        if let Some(el) = file_input.get_untracked() {
+            if let Some(f) = import::take_file(&el) {
+                take(f);
+            }
+        }
+    };
+    let on_drop = move |ev: ev::DragEvent| {
+        ev.prevent_default();
+        ev.stop_propagation();
+        over.set(false);
+        if let Some(f) = import::dropped_file(&ev) {
+            on_file(f);
+        }
+    };
+    view! {
+        <div
+            class="drop-zone"
+            class:over=move || over.get()
+            on:dragover=move |ev: ev::DragEvent| { ev.prevent_default(); over.set(true); }
+            on:dragleave=move |_| over.set(false)
+            on:drop=on_drop
+        >
+            <label class="file-button">
+                <input type="file" data-control=control accept=accept node_ref=file_input on:change=on_change aria-describedby=describedby />
+                <span>{button}</span>
+            </label>
+            <span class="drop-note">"or drop it here"</span>
+            {hint}
         </div>
     }
 }
@@ -233,12 +345,7 @@ pub fn source_panel(ctx: Ctx) -> impl IntoView {
             "table" => ctx.user_table.get_untracked().map(SourceSpec::Table),
             _ => None,
         };
-        match spec {
-            Some(spec) => {
-                ctx.edit("spectrum", move |s| s.cell.spectrum = spec);
-            }
-            None => ctx.set_error("spectrum", "Load a spectrum file first (below); the current source is still in use.".into()),
-        }
+        ctx.choose("spectrum", spec, "Load a spectrum file first (below); the current source is still in use.", |s, spec| s.cell.spectrum = spec);
         // if the edit was refused, show the source in use again
         if let Some(t) = ev.target() {
             use wasm_bindgen::JsCast;
@@ -286,23 +393,20 @@ pub fn source_panel(ctx: Ctx) -> impl IntoView {
     });
     let bb_view = number_field(ctx, bb_field, bb_commit, None);
 
-    let file_input = NodeRef::<html::Input>::new();
-    let over = RwSignal::new(false);
-    let on_file = move |_ev: ev::Event| {
-        if let Some(el) = file_input.get_untracked() {
-            if let Some(f) = import::take_file(&el) {
-                import::open_spectrum(ctx, f);
-            }
-        }
+    let spectrum_hint = view! {
+        <p class="hint" id="h-spectrum-file">
+            "A text table: first column wavelength (nm, µm), photon energy (eV) or wavenumber (cm⁻¹); "
+            "units in the header, e.g. " <code>"Wavelength (nm), Irradiance (W m-2 nm-1)"</code> "."
+        </p>
     };
-    let on_drop = move |ev: ev::DragEvent| {
-        ev.prevent_default();
-        ev.stop_propagation();
-        over.set(false);
-        if let Some(f) = import::dropped_file(&ev) {
-            import::open_spectrum(ctx, f);
-        }
-    };
+    let drop = drop_zone(
+        "spectrum-file",
+        ".csv,.tsv,.txt,.dat,text/csv,text/plain",
+        "e-spectrum h-spectrum-file",
+        "Load a spectrum file…",
+        spectrum_hint.into_any(),
+        Rc::new(move |f| import::open_spectrum(ctx, f)),
+    );
     let info = move || {
         ctx.computed.with(|c| {
             c.as_ref().map(|c| {
@@ -333,30 +437,7 @@ pub fn source_panel(ctx: Ctx) -> impl IntoView {
                 <p class="hint">{info}</p>
             </div>
             <div class="sub-field" hidden=move || key.get() != "blackbody">{bb_view}</div>
-            <div
-                class="drop-zone"
-                class:over=move || over.get()
-                on:dragover=move |ev: ev::DragEvent| { ev.prevent_default(); over.set(true); }
-                on:dragleave=move |_| over.set(false)
-                on:drop=on_drop
-            >
-                <label class="file-button">
-                    <input
-                        type="file"
-                        data-control="spectrum-file"
-                        accept=".csv,.tsv,.txt,.dat,text/csv,text/plain"
-                        node_ref=file_input
-                        on:change=on_file
-                        aria-describedby="e-spectrum h-spectrum-file"
-                    />
-                    <span>"Load a spectrum file…"</span>
-                </label>
-                <span class="drop-note">"or drop it here"</span>
-                <p class="hint" id="h-spectrum-file">
-                    "A text table: first column wavelength (nm, µm), photon energy (eV) or wavenumber (cm⁻¹); "
-                    "units in the header, e.g. " <code>"Wavelength (nm), Irradiance (W m-2 nm-1)"</code> "."
-                </p>
-            </div>
+            {drop}
             <p class="field-error" id="e-spectrum" data-error="spectrum" aria-live="polite">{move || ctx.error_of("spectrum")}</p>
         </section>
     }
@@ -367,29 +448,7 @@ pub fn cell_panel(ctx: Ctx) -> impl IntoView {
     let gap_nm = Memo::new(move |_| ctx.scenario.with(|s| ev_of_nm(1.0) / s.cell.gap_ev));
 
     // arrow keys on the gap field: Up/Down always; Left/Right unless the user is typing
-    let typing = Rc::new(Cell::new(false));
-    let t1 = typing.clone();
-    let gap_keys: KeyHandler = Rc::new(move |ev, _el| {
-        let step = key_step(ev);
-        let dir = match ev.key().as_str() {
-            "ArrowUp" => 1.0,
-            "ArrowDown" => -1.0,
-            "ArrowRight" if !t1.get() => 1.0,
-            "ArrowLeft" if !t1.get() => -1.0,
-            "Enter" | "Escape" => {
-                t1.set(false);
-                return false;
-            }
-            k if k.chars().count() == 1 || k == "Backspace" || k == "Delete" => {
-                t1.set(true);
-                return false;
-            }
-            _ => return false,
-        };
-        let g = tidy(ctx.gap() + dir * step);
-        ctx.set_gap("gap", g);
-        true
-    });
+    let (gap_keys, typing) = gap_keys(Rc::new(move |d| ctx.set_gap("gap", tidy(ctx.gap() + d))));
     let gap_field = Field {
         label: "Band gap",
         unit: "eV",
@@ -401,9 +460,8 @@ pub fn cell_panel(ctx: Ctx) -> impl IntoView {
         parse: parse_gap,
     };
     let gap_commit: Rc<dyn Fn(f64) -> bool> = Rc::new(move |g| ctx.set_gap("gap", g));
-    let t2 = typing.clone();
     let gap_view = view! {
-        <div on:focusin=move |_| t2.set(false)>{number_field(ctx, gap_field, gap_commit, Some(gap_keys))}</div>
+        <div on:focusin=move |_| typing.set(false)>{number_field(ctx, gap_field, gap_commit, Some(gap_keys))}</div>
     };
 
     let nm_field = Field {

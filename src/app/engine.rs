@@ -131,7 +131,7 @@ pub struct Engine {
 }
 
 /// Whether two cell scenarios agree in everything but the band gap.
-fn same_but_gap(a: &CellScenario, b: &CellScenario) -> bool {
+pub fn same_but_gap(a: &CellScenario, b: &CellScenario) -> bool {
     a.spectrum == b.spectrum
         && a.concentration.to_bits() == b.concentration.to_bits()
         && a.cell_temp_k.to_bits() == b.cell_temp_k.to_bits()

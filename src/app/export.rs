@@ -6,7 +6,7 @@ use wasm_bindgen::{JsCast, JsValue};
 
 use super::engine::{spectrum_view, Computed, SpectrumDetail};
 use super::fmt::{csv_num, fixed, gap_ev};
-use super::plots::render::{png_data_url, svg_text, PlotKind};
+use super::plots::render::{png_data_url, svg_text, CellPlot, PlotKind};
 use crate::codec::to_json;
 use crate::physics::constants::{to_ev, HC};
 use crate::physics::junction::{Emission, JvModel};
@@ -80,16 +80,16 @@ pub fn download_text(name: &str, mime: &str, text: &str) -> Result<(), String> {
 }
 
 pub fn file_name(kind: PlotKind, ext: &str) -> String {
-    format!("glowgap-{}.{ext}", kind.slug())
+    super::card::file_name(kind.slug(), ext)
 }
 
 pub fn save_svg(kind: PlotKind, s: &Scenario, c: &Computed) -> Result<(), String> {
-    let svg = svg_text(kind, c, caption(s, c))?;
+    let svg = svg_text(&CellPlot { kind, c }, caption(s, c))?;
     download_text(&file_name(kind, "svg"), "image/svg+xml", &svg)
 }
 
 pub fn save_png(kind: PlotKind, s: &Scenario, c: &Computed) -> Result<(), String> {
-    let url = png_data_url(kind, c, caption(s, c))?;
+    let url = png_data_url(&CellPlot { kind, c }, caption(s, c))?;
     download_url(&file_name(kind, "png"), &url)
 }
 

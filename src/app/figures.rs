@@ -90,17 +90,33 @@ pub fn notices(ctx: Ctx) -> impl IntoView {
 }
 
 pub fn cautions() -> impl IntoView {
+    caution_footer(&[
+        (
+            "Limits, not predictions. ",
+            "Every figure here is a detailed-balance limit for an ideal step absorber (every photon above the gap absorbed, only radiative loss scaled by the ERE). Real cells fall short of it.",
+        ),
+        (
+            "Concentrated light is dangerous. ",
+            "Concentrated sunlight can burn skin, start fires and damage eyes within moments. Defer to local codes and licensed practice for any real optics.",
+        ),
+    ])
+}
+
+/// A panel's cautions, each (lead-in, text), and the colophon.
+pub fn caution_footer(items: &[(&'static str, &'static str)]) -> impl IntoView {
+    let items = items
+        .iter()
+        .map(|(lead, text)| view! { <p><strong>{*lead}</strong>{*text}</p> })
+        .collect_view();
     view! {
         <footer class="cautions">
-            <p>
-                <strong>"Limits, not predictions. "</strong>
-                "Every figure here is a detailed-balance limit for an ideal step absorber (every photon above the gap absorbed, only radiative loss scaled by the ERE). Real cells fall short of it."
-            </p>
-            <p>
-                <strong>"Concentrated light is dangerous. "</strong>
-                "Concentrated sunlight can burn skin, start fires and damage eyes within moments. Defer to local codes and licensed practice for any real optics."
-            </p>
-            <p class="colophon">"Glowgap computes everything in this browser; nothing is sent anywhere. It keeps working offline after the first visit."</p>
+            {items}
+            {colophon()}
         </footer>
     }
+}
+
+/// The closing line of every panel's cautions.
+pub fn colophon() -> impl IntoView {
+    view! { <p class="colophon">"Glowgap computes everything in this browser; nothing is sent anywhere. It keeps working offline after the first visit."</p> }
 }

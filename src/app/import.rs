@@ -25,8 +25,17 @@ async fn read_text(file: &web_sys::File) -> Result<String, String> {
     v.as_string().ok_or_else(|| "the file is not text".to_string())
 }
 
-/// A spectrum's name from its file name.
-fn stem(name: &str) -> String {
+/// Read a text file, then hand its name and its text (or why it could not be read) to `then`.
+pub fn read_then(file: web_sys::File, then: impl FnOnce(String, Result<String, String>) + 'static) {
+    let name = file.name();
+    leptos::task::spawn_local(async move {
+        let text = read_text(&file).await;
+        then(name, text);
+    });
+}
+
+/// A table's name from its file name.
+pub fn stem(name: &str) -> String {
     let base = name.rsplit(['/', '\\']).next().unwrap_or(name);
     let s = match base.rsplit_once('.') {
         Some((a, _)) if !a.is_empty() => a,
@@ -42,12 +51,9 @@ fn stem(name: &str) -> String {
 
 /// Read a spectrum file and make it the source.
 pub fn open_spectrum(ctx: Ctx, file: web_sys::File) {
-    let name = file.name();
-    leptos::task::spawn_local(async move {
-        match read_text(&file).await {
-            Ok(text) => use_spectrum_text(ctx, &name, &text),
-            Err(e) => ctx.set_error("spectrum", format!("'{name}' was not loaded: {e}. The previous spectrum is still in use.")),
-        }
+    read_then(file, move |name, text| match text {
+        Ok(text) => use_spectrum_text(ctx, &name, &text),
+        Err(e) => ctx.set_error("spectrum", format!("'{name}' was not loaded: {e}. The previous spectrum is still in use.")),
     });
 }
 
@@ -73,12 +79,8 @@ pub fn use_spectrum_text(ctx: Ctx, file_name: &str, text: &str) {
 
 /// Read a scenario file and open it.
 pub fn open_scenario(ctx: Ctx, file: web_sys::File) {
-    let name = file.name();
-    leptos::task::spawn_local(async move {
-        let outcome = match read_text(&file).await {
-            Ok(text) => from_json(&text).map_err(|e| e.0).and_then(|s| validate(&s).map(|_| s)),
-            Err(e) => Err(e),
-        };
+    read_then(file, move |name, text| {
+        let outcome = text.and_then(|text| from_json(&text).map_err(|e| e.0).and_then(|s| validate(&s).map(|_| s)));
         match outcome {
             Ok(s) => {
                 ctx.dismiss("file");
@@ -95,13 +97,14 @@ pub fn open_scenario(ctx: Ctx, file: web_sys::File) {
     });
 }
 
-/// A file dropped on the page: a scenario if it is JSON, otherwise a spectrum.
-pub fn open_dropped(ctx: Ctx, file: web_sys::File) {
+/// A file dropped on the page: a scenario if it is JSON, otherwise the data table of the
+/// panel in front (`data`).
+pub fn open_dropped(ctx: Ctx, file: web_sys::File, data: impl FnOnce(web_sys::File)) {
     let name = file.name().to_ascii_lowercase();
     if name.ends_with(".json") {
         open_scenario(ctx, file);
     } else {
-        open_spectrum(ctx, file);
+        data(file);
     }
 }
 

@@ -2,9 +2,12 @@
 //! redraws as the user edits, and works offline.
 //!
 //! Flow: controls and plots edit the scenario signal ([`state::Ctx::edit`] checks every
-//! edit); one effect computes ([`engine::Engine`] caches what the gap does not change),
-//! redraws the three canvases, then writes the link and the saved state ([`share`]).
+//! edit); the panel in front (the cell, [`radiator`] or [`stack`], chosen by the tab bar
+//! and kept in the scenario's view settings) has one effect that computes (with caches
+//! such as [`engine::Engine`]) and redraws its canvases; one effect of the page writes the
+//! link and the saved state ([`share`]) after every change.
 
+pub mod card;
 pub mod controls;
 pub mod engine;
 pub mod export;
@@ -13,32 +16,28 @@ pub mod fmt;
 pub mod import;
 pub mod plot_card;
 pub mod plots;
+pub mod radiator;
 pub mod share;
+pub mod stack;
 pub mod state;
 
 use std::cell::{Cell, RefCell};
 use std::rc::Rc;
 use std::sync::Arc;
-use std::time::Duration;
 
 use leptos::ev;
 use leptos::html;
 use leptos::prelude::*;
 
 use engine::Engine;
-use plots::render::{draw_on_canvas, PlotKind};
-use state::{mark, Ctx};
+use plots::render::{draw_on_canvas, CellPlot, PlotKind};
+use crate::scenario::Panel;
+use state::{count_render, mark, Ctx};
 
 /// Start the app (called from `main` on wasm32).
 pub fn start() {
     console_error_panic_hook::set_once();
     leptos::mount::mount_to_body(App);
-}
-
-fn set_body_renders(n: u64) {
-    if let Some(body) = web_sys::window().and_then(|w| w.document()).and_then(|d| d.body()) {
-        let _ = body.dataset().set("renders", &n.to_string());
-    }
 }
 
 /// Whether a canvas' bitmap no longer matches its size on the page.
@@ -48,28 +47,168 @@ fn needs_resize(c: &web_sys::HtmlCanvasElement) -> bool {
     w > 0 && h > 0 && (w != c.width() || h != c.height())
 }
 
-/// Observe the canvases and redraw when one of them is resized.
-fn watch_sizes(ctx: Ctx, canvases: Vec<web_sys::HtmlCanvasElement>) {
+thread_local! {
+    /// the size observers of the mounted panels, by slot
+    static OBSERVERS: RefCell<Vec<Option<web_sys::ResizeObserver>>> = const { RefCell::new(Vec::new()) };
+}
+
+/// Redraw (bump `ctx.layout`, at most once a frame) when one of `canvases` is resized
+/// (layout, notices, scrollbars). Starts once all of them are on the page and stops when
+/// the calling component goes away.
+pub fn watch_sizes(ctx: Ctx, canvases: Vec<NodeRef<html::Canvas>>) {
     use wasm_bindgen::closure::Closure;
     use wasm_bindgen::JsCast;
-    let watched = canvases.clone();
-    let pending = Rc::new(Cell::new(false));
-    let cb = Closure::<dyn FnMut(js_sys::Array, web_sys::ResizeObserver)>::new(move |_entries, _observer| {
-        if watched.iter().any(needs_resize) && !pending.replace(true) {
-            let p = pending.clone();
-            request_animation_frame(move || {
-                p.set(false);
-                ctx.layout.update(|n| *n = n.wrapping_add(1));
+    let slot = StoredValue::new(None::<usize>);
+    Effect::new(move |done: Option<bool>| {
+        if done == Some(true) {
+            return true;
+        }
+        let list: Vec<web_sys::HtmlCanvasElement> = canvases.iter().filter_map(|r| r.get()).collect();
+        if list.len() < canvases.len() {
+            return false;
+        }
+        let watched = list.clone();
+        let pending = Rc::new(Cell::new(false));
+        let cb = Closure::<dyn FnMut(js_sys::Array, web_sys::ResizeObserver)>::new(move |_entries, _observer| {
+            if watched.iter().any(needs_resize) && !pending.replace(true) {
+                let p = pending.clone();
+                request_animation_frame(move || {
+                    p.set(false);
+                    ctx.layout.update(|n| *n = n.wrapping_add(1));
+                });
+            }
+        });
+        if let Ok(observer) = web_sys::ResizeObserver::new(cb.as_ref().unchecked_ref()) {
+            for c in &list {
+                observer.observe(c);
+            }
+            let i = OBSERVERS.with(|o| {
+                let mut o = o.borrow_mut();
+                o.push(Some(observer));
+                o.len() - 1
+            });
+            slot.set_value(Some(i));
+            // the callback lives as long as the page; it does nothing once disconnected
+            cb.forget();
+        }
+        true
+    });
+    on_cleanup(move || {
+        if let Some(i) = slot.try_get_value().flatten() {
+            OBSERVERS.with(|o| {
+                if let Some(obs) = o.borrow_mut().get_mut(i).and_then(|x| x.take()) {
+                    obs.disconnect();
+                }
             });
         }
     });
-    if let Ok(observer) = web_sys::ResizeObserver::new(cb.as_ref().unchecked_ref()) {
-        for c in &canvases {
-            observer.observe(c);
+}
+
+/// The solar-cell panel: its settings, figures and three plots.
+fn cell_panel(ctx: Ctx, engine: StoredValue<Rc<RefCell<Engine>>, LocalStorage>) -> impl IntoView {
+    let canvases: [NodeRef<html::Canvas>; 3] = [NodeRef::new(), NodeRef::new(), NodeRef::new()];
+    Effect::new(move |_| {
+        ctx.layout.track();
+        let targets: Vec<_> = canvases.iter().map(|r| r.get()).collect();
+        let engine = engine.get_value();
+        let outcome = ctx.scenario.with(|s| engine.borrow_mut().compute(s));
+        match outcome {
+            Ok(c) => {
+                let c = Arc::new(c);
+                let mut frames = ctx.frames.get_untracked();
+                let mut errors: [Option<String>; 3] = [None, None, None];
+                for kind in PlotKind::ALL {
+                    if let Some(canvas) = &targets[kind.index()] {
+                        match draw_on_canvas(canvas, &CellPlot { kind, c: &c }) {
+                            Ok(Some(f)) => frames[kind.index()] = f,
+                            Ok(None) => {}
+                            Err(e) => errors[kind.index()] = Some(e),
+                        }
+                    }
+                }
+                mark("gg-drawn");
+                ctx.frames.set(frames);
+                if ctx.plot_errors.with_untracked(|p| *p != errors) {
+                    ctx.plot_errors.set(errors);
+                }
+                ctx.computed.set(Some(c));
+                if ctx.compute_error.with_untracked(|e| e.is_some()) {
+                    ctx.compute_error.set(None);
+                }
+            }
+            Err(e) => ctx.compute_error.set(Some(format!("{} The figures shown are from the last usable scenario.", state::sentence(&e)))),
         }
-        // both live as long as the page
-        std::mem::forget(observer);
-        cb.forget();
+        count_render();
+    });
+    watch_sizes(ctx, canvases.to_vec());
+    view! {
+        <main class="layout">
+            <aside class="panel" aria-label="Settings">
+                {controls::source_panel(ctx)}
+                {controls::cell_panel(ctx)}
+            </aside>
+            <section class="results" aria-label="Results">
+                {figures::figures(ctx)}
+                <div class="plots">
+                    {plot_card::plot_card(ctx, PlotKind::Spectrum, canvases[0])}
+                    {plot_card::plot_card(ctx, PlotKind::Efficiency, canvases[1])}
+                    {plot_card::plot_card(ctx, PlotKind::Jv, canvases[2])}
+                </div>
+            </section>
+        </main>
+        {figures::cautions()}
+    }
+}
+
+/// The panels in tab order: (panel, hook, tab text).
+const PANELS: [(Panel, &str, &str); 3] = [(Panel::Cell, "cell", "Solar cell"), (Panel::Radiator, "radiator", "Radiator"), (Panel::Stack, "stack", "Stack")];
+
+/// The tab bar that brings a panel to the front (arrow keys move between tabs).
+fn panel_tabs(ctx: Ctx, panel: Memo<Panel>) -> impl IntoView {
+    let choose = move |p: Panel| {
+        ctx.edit("panel", |s| s.view.panel = p);
+    };
+    let on_key = move |ev: ev::KeyboardEvent| {
+        let i = PANELS.iter().position(|(p, _, _)| *p == panel.get_untracked()).unwrap_or(0);
+        let n = PANELS.len();
+        let next = match ev.key().as_str() {
+            "ArrowRight" => (i + 1) % n,
+            "ArrowLeft" => (i + n - 1) % n,
+            "Home" => 0,
+            "End" => n - 1,
+            _ => return,
+        };
+        ev.prevent_default();
+        choose(PANELS[next].0);
+        if let Some(el) = document().query_selector(&format!("[data-panel=\"{}\"]", PANELS[next].1)).ok().flatten() {
+            use wasm_bindgen::JsCast;
+            if let Ok(el) = el.dyn_into::<web_sys::HtmlElement>() {
+                let _ = el.focus();
+            }
+        }
+    };
+    let tabs = PANELS
+        .iter()
+        .map(|&(p, hook, text)| {
+            let on = move || panel.get() == p;
+            view! {
+                <button
+                    type="button"
+                    role="tab"
+                    id=format!("tab-{hook}")
+                    data-panel=hook
+                    aria-selected=move || if on() { "true" } else { "false" }
+                    aria-controls="panel-body"
+                    tabindex=move || if on() { "0" } else { "-1" }
+                    on:click=move |_| choose(p)
+                >
+                    {text}
+                </button>
+            }
+        })
+        .collect_view();
+    view! {
+        <nav class="panel-tabs" role="tablist" aria-label="What to design" on:keydown=on_key>{tabs}</nav>
     }
 }
 
@@ -82,64 +221,24 @@ fn App() -> impl IntoView {
         ctx.notify(n);
     }
     provide_context(ctx);
+    let rad = radiator::RadState::new(ctx);
+    provide_context(rad);
     let persist = share::Persist::new(hold);
+    let engine = StoredValue::new_local(Rc::new(RefCell::new(Engine::default())));
+    let panel = Memo::new(move |_| ctx.scenario.with(|s| s.view.panel));
 
-    let canvases: [NodeRef<html::Canvas>; 3] = [NodeRef::new(), NodeRef::new(), NodeRef::new()];
-    let engine = Rc::new(RefCell::new(Engine::default()));
-    let renders = Rc::new(Cell::new(0u64));
-
+    // the link and the saved state follow every change, whichever panel made it: after the
+    // panels have computed and drawn (a microtask queued now runs after the effects already
+    // scheduled), and before anything waits on `body[data-renders]` (a timeout)
     {
         let persist = persist.clone();
         Effect::new(move |_| {
-            ctx.layout.track();
-            let targets: Vec<_> = canvases.iter().map(|r| r.get()).collect();
-            let outcome = ctx.scenario.with(|s| engine.borrow_mut().compute(s));
-            match outcome {
-                Ok(c) => {
-                    let c = Arc::new(c);
-                    let mut frames = ctx.frames.get_untracked();
-                    let mut errors: [Option<String>; 3] = [None, None, None];
-                    for kind in PlotKind::ALL {
-                        if let Some(canvas) = &targets[kind.index()] {
-                            match draw_on_canvas(canvas, kind, &c) {
-                                Ok(Some(f)) => frames[kind.index()] = f,
-                                Ok(None) => {}
-                                Err(e) => errors[kind.index()] = Some(e),
-                            }
-                        }
-                    }
-                    mark("gg-drawn");
-                    ctx.frames.set(frames);
-                    if ctx.plot_errors.with_untracked(|p| *p != errors) {
-                        ctx.plot_errors.set(errors);
-                    }
-                    ctx.computed.set(Some(c));
-                    if ctx.compute_error.with_untracked(|e| e.is_some()) {
-                        ctx.compute_error.set(None);
-                    }
-                }
-                Err(e) => ctx.compute_error.set(Some(format!("{} The figures shown are from the last usable scenario.", state::sentence(&e)))),
-            }
-            share::persist(ctx, &persist);
-            let n = renders.get() + 1;
-            renders.set(n);
-            // after the figures' text has been updated
-            set_timeout(move || set_body_renders(n), Duration::ZERO);
+            ctx.scenario.track();
+            let persist = persist.clone();
+            queue_microtask(move || share::persist(ctx, &persist));
         });
     }
 
-    // redraw when a canvas changes size (layout, notices, scrollbars), at most once a frame
-    Effect::new(move |done: Option<bool>| {
-        if done == Some(true) {
-            return true;
-        }
-        let list: Vec<_> = canvases.iter().filter_map(|r| r.get()).collect();
-        if list.len() < canvases.len() {
-            return false;
-        }
-        watch_sizes(ctx, list);
-        true
-    });
     let pending = Rc::new(Cell::new(false));
     let _resize = window_event_listener(ev::resize, move |_| {
         if !pending.replace(true) {
@@ -159,7 +258,10 @@ fn App() -> impl IntoView {
     let _drop = window_event_listener(ev::drop, move |e| {
         e.prevent_default();
         if let Some(f) = import::dropped_file(&e) {
-            import::open_dropped(ctx, f);
+            import::open_dropped(ctx, f, |f| match panel.get_untracked() {
+                Panel::Radiator => radiator::import::open_emissivity(ctx, rad, f),
+                _ => import::open_spectrum(ctx, f),
+            });
         }
     });
 
@@ -172,7 +274,7 @@ fn App() -> impl IntoView {
                         ctx.status.set(None);
                     }
                 },
-                Duration::from_secs(8),
+                std::time::Duration::from_secs(8),
             );
         }
     });
@@ -200,6 +302,16 @@ fn App() -> impl IntoView {
             }
         }
     });
+    let tagline = move || match panel.get() {
+        Panel::Cell => "Detailed-balance limit of a single-junction solar cell",
+        Panel::Radiator => "Radiative balance of a surface facing the sky",
+        Panel::Stack => "Detailed-balance limits of multi-junction stacks",
+    };
+    let body = move || match panel.get() {
+        Panel::Cell => cell_panel(ctx, engine).into_any(),
+        Panel::Radiator => view! { <radiator::RadiatorPanel /> }.into_any(),
+        Panel::Stack => view! { <stack::StackPanel /> }.into_any(),
+    };
 
     view! {
         <div class="app">
@@ -208,7 +320,7 @@ fn App() -> impl IntoView {
                     <img src="icon.svg" alt="" width="34" height="34" />
                     <div>
                         <h1>"Glowgap"</h1>
-                        <p class="tagline">"Detailed-balance limit of a single-junction solar cell"</p>
+                        <p class="tagline">{tagline}</p>
                     </div>
                 </div>
                 <div class="top-actions">
@@ -227,21 +339,11 @@ fn App() -> impl IntoView {
                 {move || link_fallback.get().map(|l| view! { <input class="link-copy" readonly node_ref=fallback_ref value=l aria-label="Link to this scenario" /> })}
             </div>
             {figures::notices(ctx)}
-            <main class="layout">
-                <aside class="panel" aria-label="Settings">
-                    {controls::source_panel(ctx)}
-                    {controls::cell_panel(ctx)}
-                </aside>
-                <section class="results" aria-label="Results">
-                    {figures::figures(ctx)}
-                    <div class="plots">
-                        {plot_card::plot_card(ctx, PlotKind::Spectrum, canvases[0])}
-                        {plot_card::plot_card(ctx, PlotKind::Efficiency, canvases[1])}
-                        {plot_card::plot_card(ctx, PlotKind::Jv, canvases[2])}
-                    </div>
-                </section>
-            </main>
-            {figures::cautions()}
+            {panel_tabs(ctx, panel)}
+            <p class="field-error tabs-error" data-error="panel" aria-live="polite">{move || ctx.error_of("panel")}</p>
+            <div id="panel-body" role="tabpanel" aria-labelledby=move || format!("tab-{}", PANELS.iter().find(|p| p.0 == panel.get()).map(|p| p.1).unwrap_or("cell"))>
+                {body}
+            </div>
         </div>
     }
 }

@@ -1,11 +1,12 @@
 //! A plot on the page: its header (title, view choices, downloads), its canvas with the
 //! band-gap drag and keys, and the hover read-out.
 
-use leptos::ev;
+use std::rc::Rc;
+
 use leptos::html;
 use leptos::prelude::*;
-use wasm_bindgen::JsCast;
 
+use super::card::{plot_card as card, range_input, Card, Hover, PlotBehaviour};
 use super::engine::{nearest, Computed};
 use super::export;
 use super::fmt::{fixed, gap_ev, sig};
@@ -16,25 +17,8 @@ use crate::physics::constants::to_ev;
 use crate::report::CellReport;
 use crate::scenario::{PlotAxis, PlotQuantity};
 
-/// What the hover read-out shows.
-#[derive(Debug, Clone, PartialEq)]
-struct Hover {
-    /// pointer position and the marked data point [CSS px in the canvas]
-    x: f64,
-    y: f64,
-    dot: Option<(f64, f64)>,
-    lines: Vec<String>,
-    flip: bool,
-}
-
 fn round_mev(v: f64) -> f64 {
     (v * 1000.0).round() / 1000.0
-}
-
-fn pointer_pos(ev: &web_sys::MouseEvent) -> Option<(f64, f64, f64)> {
-    let el: web_sys::Element = ev.current_target()?.dyn_into().ok()?;
-    let r = el.get_bounding_client_rect();
-    Some((ev.client_x() as f64 - r.left(), ev.client_y() as f64 - r.top(), r.width()))
 }
 
 /// The band gap [eV] under CSS x on a draggable plot.
@@ -54,7 +38,6 @@ fn hover_of(kind: PlotKind, frame: &Frame, c: &Computed, x_css: f64, y_css: f64,
         return None;
     }
     let xv = frame.x_at_css(x_css);
-    let flip = x_css > width - 240.0;
     let (dot, lines) = match kind {
         PlotKind::Spectrum => {
             let sv = &c.spectrum;
@@ -100,7 +83,7 @@ fn hover_of(kind: PlotKind, frame: &Frame, c: &Computed, x_css: f64, y_css: f64,
             )
         }
     };
-    Some(Hover { x: x_css, y: y_css, dot, lines, flip })
+    Some(Hover::new(x_css, y_css, width, dot, lines))
 }
 
 fn title(kind: PlotKind) -> &'static str {
@@ -164,48 +147,14 @@ fn header_tools(ctx: Ctx, kind: PlotKind) -> impl IntoView {
 fn range_tools(ctx: Ctx) -> impl IntoView {
     let from = Memo::new(move |_| ctx.scenario.with(|s| s.view.curve_from_ev));
     let to = Memo::new(move |_| ctx.scenario.with(|s| s.view.curve_to_ev));
-    let input = move |hook: &'static str, value: Memo<f64>, label: &'static str| {
-        let r = NodeRef::<html::Input>::new();
-        Effect::new(move |_| {
-            let v = value.get();
-            if let Some(el) = r.get() {
-                let typed = super::controls::parse_number(&el.value());
-                if el.matches(":focus").unwrap_or(false) && typed == Some(v) {
-                    return;
-                }
-                el.set_value(&super::fmt::field(v, 6));
-            }
-        });
-        let on_input = move |ev: ev::Event| {
-            let text = event_target_value(&ev);
-            match super::controls::parse_number(&text) {
-                Some(v) => {
-                    ctx.edit("curve-range", |s| {
-                        if hook == "curve-from" {
-                            s.view.curve_from_ev = v
-                        } else {
-                            s.view.curve_to_ev = v
-                        }
-                    });
-                }
-                None => ctx.set_error("curve-range", format!("'{}' is not a band gap; type a number of eV, e.g. 0.5. The plotted range is unchanged.", text.trim())),
-            }
-        };
-        view! {
-            <label class="range-field">
-                <span>{label}</span>
-                <input type="text" inputmode="decimal" data-control=hook node_ref=r value=super::fmt::field(value.get_untracked(), 6) on:input=on_input aria-describedby="e-curve-range" />
-                <span class="unit">"eV"</span>
-            </label>
-        }
-    };
+    let bad = |text: &str| format!("'{text}' is not a band gap; type a number of eV, e.g. 0.5. The plotted range is unchanged.");
     let best = move || {
         ctx.computed.with(|c| c.as_ref().and_then(|c| c.curve.best.map(|b| to_ev(b.gap_j))))
     };
     view! {
         <div class="plot-tools">
-            {input("curve-from", from, "from")}
-            {input("curve-to", to, "to")}
+            {range_input(ctx, "curve-from", "curve-range", "from", "eV", from, |s, v| s.view.curve_from_ev = v, bad)}
+            {range_input(ctx, "curve-to", "curve-range", "to", "eV", to, |s, v| s.view.curve_to_ev = v, bad)}
             <button
                 type="button"
                 class="small"
@@ -258,145 +207,100 @@ fn legend(ctx: Ctx, kind: PlotKind) -> impl IntoView {
     }
 }
 
-pub fn plot_card(ctx: Ctx, kind: PlotKind, canvas: NodeRef<html::Canvas>) -> impl IntoView {
-    let i = kind.index();
-    let hover = RwSignal::new(None::<Hover>);
-    let dragging = StoredValue::new(false);
-    let draggable = kind != PlotKind::Jv;
+/// What the cell's plots do with the pointer and keys: drag or step the band gap.
+struct CellCard {
+    ctx: Ctx,
+    kind: PlotKind,
+}
 
-    let frame = move || ctx.frames.with_untracked(|f| f[i]);
-    let move_to = move |x_css: f64| {
-        let f = frame();
-        let g = ctx.computed.with_untracked(|c| c.as_ref().and_then(|c| gap_at(kind, &f, c, x_css)));
+impl CellCard {
+    fn frame(&self) -> Frame {
+        self.ctx.frames.with_untracked(|f| f[self.kind.index()])
+    }
+    fn draggable(&self) -> bool {
+        self.kind != PlotKind::Jv
+    }
+    fn move_to(&self, x_css: f64) {
+        let f = self.frame();
+        let g = self.ctx.computed.with_untracked(|c| c.as_ref().and_then(|c| gap_at(self.kind, &f, c, x_css)));
         if let Some(g) = g {
-            ctx.set_gap("gap", g);
+            self.ctx.set_gap("gap", g);
         }
-    };
-    let update_hover = move |x: f64, y: f64, w: f64| {
-        let f = frame();
-        let h = ctx.computed.with_untracked(|c| c.as_ref().and_then(|c| hover_of(kind, &f, c, x, y, w)));
-        hover.set(h);
-    };
+    }
+}
 
-    let on_down = move |ev: ev::PointerEvent| {
-        if !draggable || ev.button() != 0 {
-            return;
+impl PlotBehaviour for CellCard {
+    fn hover(&self, x: f64, y: f64, width: f64) -> Option<Hover> {
+        let f = self.frame();
+        self.ctx.computed.with_untracked(|c| c.as_ref().and_then(|c| hover_of(self.kind, &f, c, x, y, width)))
+    }
+
+    fn press(&self, x: f64, y: f64) -> bool {
+        if !self.draggable() || !self.frame().contains_css(x, y, 12.0) {
+            return false;
         }
-        let Some((x, y, _)) = pointer_pos(&ev) else { return };
-        if !frame().contains_css(x, y, 12.0) {
-            return;
+        self.move_to(x);
+        true
+    }
+
+    fn drag(&self, x: f64, _y: f64) {
+        self.move_to(x);
+    }
+
+    fn key_down(&self, ev: &web_sys::KeyboardEvent) -> bool {
+        if !self.draggable() {
+            return false;
         }
-        ev.prevent_default();
-        if let Some(c) = canvas.get_untracked() {
-            let _ = c.set_pointer_capture(ev.pointer_id());
-            let _ = c.focus();
-        }
-        dragging.set_value(true);
-        move_to(x);
-    };
-    let on_move = move |ev: ev::PointerEvent| {
-        let Some((x, y, w)) = pointer_pos(&ev) else { return };
-        if dragging.get_value() {
-            move_to(x);
-        }
-        update_hover(x, y, w);
-    };
-    let end = move |ev: ev::PointerEvent| {
-        if dragging.get_value() {
-            dragging.set_value(false);
-            if let Some(c) = canvas.get_untracked() {
-                let _ = c.release_pointer_capture(ev.pointer_id());
-            }
-        }
-    };
-    let on_leave = move |_ev: ev::PointerEvent| {
-        if !dragging.get_value() {
-            hover.set(None);
-        }
-    };
-    let on_key = move |ev: ev::KeyboardEvent| {
-        if !draggable {
-            return;
-        }
-        let step = super::controls::key_step(&ev);
+        let ctx = self.ctx;
+        let step = super::controls::key_step(ev);
         // on a wavelength axis, right means longer wavelengths: a smaller gap
-        let right = ctx.scenario.with_untracked(|s| if kind == PlotKind::Spectrum && s.view.spectrum_axis == PlotAxis::Wavelength { -1.0 } else { 1.0 });
+        let right = ctx.scenario.with_untracked(|s| if self.kind == PlotKind::Spectrum && s.view.spectrum_axis == PlotAxis::Wavelength { -1.0 } else { 1.0 });
         let dir = match ev.key().as_str() {
             "ArrowUp" => 1.0,
             "ArrowDown" => -1.0,
             "ArrowRight" => right,
             "ArrowLeft" => -right,
-            _ => return,
+            _ => return false,
         };
-        ev.prevent_default();
         ctx.set_gap("gap", tidy(ctx.gap() + dir * step));
-    };
+        true
+    }
 
-    let download = move |what: &'static str| {
-        let s = ctx.scenario.get_untracked();
-        let r = ctx.computed.with_untracked(|c| match c.as_ref() {
+    fn save(&self, what: &'static str) -> Result<(), String> {
+        let s = self.ctx.scenario.get_untracked();
+        self.ctx.computed.with_untracked(|c| match c.as_ref() {
             Some(c) => match what {
-                "svg" => export::save_svg(kind, &s, c),
-                "png" => export::save_png(kind, &s, c),
-                _ => export::save_csv(kind, &s, c),
+                "svg" => export::save_svg(self.kind, &s, c),
+                "png" => export::save_png(self.kind, &s, c),
+                _ => export::save_csv(self.kind, &s, c),
             },
             None => Err("nothing has been computed yet".into()),
-        });
-        match r {
-            Ok(()) => ctx.status.set(Some(format!("Saved {}.", export::file_name(kind, what)))),
-            Err(e) => ctx.status.set(Some(format!("Could not save the {} file: {e}.", what.to_uppercase()))),
-        }
-    };
-    let slug = kind.slug();
-    let tip = move || {
-        hover.get().map(|h| {
-            let style = if h.flip {
-                format!("right:calc(100% - {:.0}px);top:{:.0}px", h.x - 14.0, h.y + 14.0)
-            } else {
-                format!("left:{:.0}px;top:{:.0}px", h.x + 14.0, h.y + 14.0)
-            };
-            let dot = h.dot.map(|(x, y)| view! { <span class="hover-dot" style=format!("left:{x:.1}px;top:{y:.1}px")></span> });
-            let lines = h.lines.into_iter().map(|l| view! { <span>{l}</span> }).collect_view();
-            view! {
-                {dot}
-                <div class="tooltip" style=style>{lines}</div>
-            }
         })
-    };
-    let plot_error = move || ctx.plot_errors.with(|e| e[i].clone());
-
-    view! {
-        <article class="plot-card" data-card=slug>
-            <header class="plot-head">
-                <h3>{title(kind)}</h3>
-                {header_tools(ctx, kind)}
-                <div class="downloads" role="group" aria-label=format!("Download the {} plot", slug)>
-                    <button type="button" data-action=format!("download-{slug}-svg") title="Download the plot as SVG (vector)" on:click=move |_| download("svg")>"SVG"</button>
-                    <button type="button" data-action=format!("download-{slug}-png") title="Download the plot as PNG, 1600×1000" on:click=move |_| download("png")>"PNG"</button>
-                    <button type="button" data-action=format!("download-{slug}-csv") title="Download the plotted data as CSV" on:click=move |_| download("csv")>"CSV"</button>
-                </div>
-            </header>
-            <div class="legend">{legend(ctx, kind)}</div>
-            {(kind == PlotKind::Efficiency).then(|| view! {
-                <p class="field-error" id="e-curve-range" data-error="curve-range" aria-live="polite">{move || ctx.error_of("curve-range")}</p>
-            })}
-            <div class="plot-wrap" class:draggable=draggable>
-                <canvas
-                    data-plot=slug
-                    node_ref=canvas
-                    role="img"
-                    aria-label=aria(kind)
-                    tabindex=if draggable { "0" } else { "-1" }
-                    on:pointerdown=on_down
-                    on:pointermove=on_move
-                    on:pointerup=end
-                    on:pointercancel=end
-                    on:pointerleave=on_leave
-                    on:keydown=on_key
-                ></canvas>
-                {tip}
-                <p class="plot-error" hidden=move || plot_error().is_none()>{plot_error}</p>
-            </div>
-        </article>
     }
+}
+
+pub fn plot_card(ctx: Ctx, kind: PlotKind, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+    let i = kind.index();
+    let draggable = kind != PlotKind::Jv;
+    let note = (kind == PlotKind::Efficiency).then(|| view! {
+        <p class="field-error" id="e-curve-range" data-error="curve-range" aria-live="polite">{move || ctx.error_of("curve-range")}</p>
+    });
+    card(
+        ctx,
+        Card {
+            slug: kind.slug(),
+            title: title(kind),
+            aria: aria(kind).to_string(),
+            interactive: draggable,
+            wrap_class: if draggable { "draggable" } else { "" },
+            control: None,
+            tools: header_tools(ctx, kind).into_any(),
+            legend: legend(ctx, kind).into_any(),
+            note: note.into_any(),
+            footer: ().into_any(),
+            canvas,
+            plot_error: Signal::derive(move || ctx.plot_errors.with(|e| e[i].clone())),
+        },
+        Rc::new(CellCard { ctx, kind }),
+    )
 }

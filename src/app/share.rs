@@ -116,11 +116,23 @@ impl Persist {
     }
 }
 
+/// Points of the tables the scenario carries (user spectrum, measured emissivity, sky).
 fn table_points(s: &Scenario) -> usize {
-    match &s.cell.spectrum {
+    use crate::scenario::radiator::{EmitterSpec, SkySpec};
+    let cell = match &s.cell.spectrum {
         SourceSpec::Table(t) => t.x.len(),
         _ => 0,
-    }
+    };
+    let r = &s.radiator;
+    let emitter = match &r.emitter {
+        EmitterSpec::Table(t) => t.wavelength_m.len(),
+        _ => 0,
+    };
+    let sky = match &r.sky {
+        SkySpec::Table(t) => t.wavelength_m.len(),
+        _ => 0,
+    };
+    cell + emitter + sky
 }
 
 /// Write the current scenario out: now for ordinary scenarios, shortly after the last edit

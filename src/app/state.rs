@@ -55,10 +55,12 @@ pub struct Ctx {
     pub status: RwSignal<Option<String>>,
 }
 
-/// Check a whole scenario the way computing it would.
+/// Check a whole scenario the way computing it would: every panel's part, so that a link
+/// or file that one panel could not compute is refused as a whole.
 pub fn validate(s: &Scenario) -> Result<(), String> {
     s.view.check()?;
-    s.cell.to_physics().map(|_| ())
+    s.cell.to_physics()?;
+    s.radiator.to_physics().map(|_| ())
 }
 
 /// A message for people: first letter upper case, ends with a full stop.
@@ -139,6 +141,19 @@ impl Ctx {
         }
     }
 
+    /// Apply a choice that may be missing (e.g. "your table" before one was loaded): with
+    /// `Some(value)`, edit under `hook` as [`Ctx::edit`] does; with `None`, show `missing`
+    /// next to the control and keep the scenario.
+    pub fn choose<T>(&self, hook: &'static str, value: Option<T>, missing: &str, apply: impl FnOnce(&mut Scenario, T)) -> bool {
+        match value {
+            Some(v) => self.edit(hook, move |s| apply(s, v)),
+            None => {
+                self.set_error(hook, missing.to_string());
+                false
+            }
+        }
+    }
+
     /// Move the band gap [eV] (from a drag, a key, a typed value or a preset). Only the gap
     /// changes, so only its range needs checking; the scenario is updated in place.
     pub fn set_gap(&self, hook: &'static str, gap_ev: f64) -> bool {
@@ -186,6 +201,27 @@ pub fn tidy(v: f64) -> f64 {
 /// Photon energy [eV] of a wavelength [nm].
 pub fn ev_of_nm(nm: f64) -> f64 {
     crate::physics::constants::HC / (nm * 1e-9) / CHARGE
+}
+
+thread_local! {
+    static RENDERS: std::cell::Cell<u64> = const { std::cell::Cell::new(0) };
+}
+
+/// Count one finished render in `body[data-renders]` (tests wait on it), once the figures'
+/// text has been updated.
+pub fn count_render() {
+    let n = RENDERS.with(|r| {
+        r.set(r.get() + 1);
+        r.get()
+    });
+    set_timeout(
+        move || {
+            if let Some(body) = web_sys::window().and_then(|w| w.document()).and_then(|d| d.body()) {
+                let _ = body.dataset().set("renders", &n.to_string());
+            }
+        },
+        std::time::Duration::ZERO,
+    );
 }
 
 /// Record a performance mark (for the latency benchmark).

@@ -108,15 +108,12 @@ fn write_stack_table(out: Out, r: &StackReport, source: &str, sc: &CellScenario)
     writeln!(out, "{:<28} {} junctions, {}", "Stack", r.subcells.len(), connection_words(r.connection))?;
     writeln!(out, "{:<28} {} at {}", "Source", source, suns(sc.concentration))?;
     writeln!(out, "{:<28} {}", "Cells", cell_line(sc))?;
-    writeln!(out, "{:<28} {:.2} %", "Efficiency", r.efficiency * 100.0)?;
-    writeln!(out, "{:<28} {:.4} V", "Open-circuit voltage Voc", r.voc_v)?;
-    let jsc_label = match r.connection {
-        Connection::Series => "Short-circuit current Jsc",
-        Connection::Independent => "Sum of subcell Jsc",
-    };
-    writeln!(out, "{:<28} {:.3} mA/cm²", jsc_label, r.jsc_ma_cm2)?;
-    writeln!(out, "{:<28} {:.2} W/m²", "Maximum power", r.pmax_w_m2)?;
-    writeln!(out, "{:<28} {:.1} W/m²", "Incident power", r.input_w_m2)?;
+    // the headline figures as the stack panel shows them (report::stack::STACK_METRICS)
+    writeln!(out, "{:<28} {}", "Efficiency", r.display("stack-efficiency"))?;
+    writeln!(out, "{:<28} {}", "Open-circuit voltage Voc", r.display("stack-voc"))?;
+    writeln!(out, "{:<28} {}", r.label("stack-jsc"), r.display("stack-jsc"))?;
+    writeln!(out, "{:<28} {}", "Maximum power", r.display("stack-pmax"))?;
+    writeln!(out, "{:<28} {}", "Incident power", r.display("stack-input"))?;
     writeln!(out)?;
     writeln!(
         out,

@@ -62,41 +62,156 @@ impl From<&Evaluation> for RadiatorReport {
     }
 }
 
+/// The radiator's headline figures, in display order: (hook name, label). The page shows
+/// them under these `data-metric` hooks; [`RadiatorReport::display`] formats each.
+pub const RADIATOR_METRICS: [(&str, &str); 6] = [
+    ("net-power", "Net cooling power"),
+    ("steady-temp", "Steady temperature"),
+    ("solar-reflectance", "Solar reflectance (AM1.5G)"),
+    ("thermal-emittance", "Thermal emittance"),
+    ("window-emissivity", "8-13 um emissivity"),
+    ("sky-emissivity", "Sky broadband emissivity"),
+];
+
+/// The terms of the balance, in the order they add up to the net power: (hook, label).
+pub const RADIATOR_PARTS: [(&str, &str); 4] = [
+    ("emitted", "Emitted"),
+    ("sky-absorbed", "Absorbed from the sky"),
+    ("sun-absorbed", "Absorbed from the sun"),
+    ("parasitic", "Gained from the air"),
+];
+
 impl RadiatorReport {
-    /// The steady temperature as people read it, e.g. "285.31 K (14.69 K below ambient)" or
-    /// the reason there is none.
-    pub fn steady_text(&self) -> String {
+    /// The value of a figure in its display unit (W/m², K or a fraction); NaN for an unknown
+    /// hook or a steady temperature that does not exist.
+    pub fn metric(&self, hook: &str) -> f64 {
+        match hook {
+            "net-power" => self.net_w_m2,
+            "emitted" => self.emitted_w_m2,
+            "sky-absorbed" => self.sky_absorbed_w_m2,
+            "sun-absorbed" => self.sun_absorbed_w_m2,
+            "parasitic" => self.parasitic_w_m2,
+            "steady-temp" => self.steady_temp_k.unwrap_or(f64::NAN),
+            "surface-temp" => self.surface_temp_k,
+            "ambient-temp" => self.ambient_temp_k,
+            "sky-emissivity" => self.sky_emissivity,
+            "solar-reflectance" => self.solar_reflectance,
+            "thermal-emittance" => self.thermal_emittance,
+            "hemispherical-emittance" => self.hemispherical_emittance,
+            "window-emissivity" => self.window_emissivity,
+            _ => f64::NAN,
+        }
+    }
+
+    /// A figure as displayed, number and unit: powers "140.57 W/m²", temperatures
+    /// "262.36 K", fractions "0.9500"; a missing steady temperature reads "none" or
+    /// "none in range" (see [`RadiatorReport::steady_note`] for why).
+    pub fn display(&self, hook: &str) -> String {
+        match hook {
+            "net-power" | "emitted" | "sky-absorbed" | "sun-absorbed" | "parasitic" => format!("{:.2} W/m²", self.metric(hook)),
+            "steady-temp" => match self.steady_temp_k {
+                Some(t) => format!("{t:.2} K"),
+                None if self.steady_status == "undefined" => "none".into(),
+                None => "none in range".into(),
+            },
+            "surface-temp" | "ambient-temp" => format!("{:.2} K", self.metric(hook)),
+            _ => format!("{:.4}", self.metric(hook)),
+        }
+    }
+
+    /// What qualifies the steady temperature: how far it lies from ambient, e.g. "14.69 K
+    /// below ambient", or why there is none.
+    pub fn steady_note(&self) -> String {
         match self.steady_temp_k {
             Some(t) => {
                 let d = t - self.ambient_temp_k;
                 let side = if d < 0.0 { "below" } else { "above" };
-                format!("{t:.2} K ({:.2} K {side} ambient)", d.abs())
+                format!("{:.2} K {side} ambient", d.abs())
             }
             None => match self.steady_status.as_str() {
-                "below-range" => format!("none in range: still cooling at {} K", STEADY_SEARCH_K.0),
-                "above-range" => format!("none in range: still heating at {} K", STEADY_SEARCH_K.1),
-                _ => "none: the surface exchanges no heat (emissivity 0, h_c 0)".into(),
+                "below-range" => format!("still cooling at {} K", STEADY_SEARCH_K.0),
+                "above-range" => format!("still heating at {} K", STEADY_SEARCH_K.1),
+                _ => "the surface exchanges no heat (emissivity 0, h_c 0)".into(),
             },
+        }
+    }
+
+    /// The steady temperature as people read it, e.g. "285.31 K (14.69 K below ambient)" or
+    /// the reason there is none.
+    pub fn steady_text(&self) -> String {
+        match self.steady_temp_k {
+            Some(_) => format!("{} ({})", self.display("steady-temp"), self.steady_note()),
+            None => format!("{}: {}", self.display("steady-temp"), self.steady_note()),
         }
     }
 
     /// The rows of the readable table: (label, value with unit).
     pub fn rows(&self) -> Vec<(String, String)> {
         let t = self.surface_temp_k;
-        let w = |v: f64| format!("{v:.2} W/m²");
         vec![
-            ("Ambient / surface".into(), format!("{:.2} K / {:.2} K", self.ambient_temp_k, t)),
-            ("Sky broadband emissivity".into(), format!("{:.4}", self.sky_emissivity)),
-            ("Emitted".into(), w(self.emitted_w_m2)),
-            ("Absorbed from the sky".into(), w(self.sky_absorbed_w_m2)),
-            ("Absorbed from the sun".into(), w(self.sun_absorbed_w_m2)),
-            ("Gained from the air".into(), w(self.parasitic_w_m2)),
-            ("Net cooling power".into(), w(self.net_w_m2)),
+            ("Ambient / surface".into(), format!("{} / {}", self.display("ambient-temp"), self.display("surface-temp"))),
+            ("Sky broadband emissivity".into(), self.display("sky-emissivity")),
+            ("Emitted".into(), self.display("emitted")),
+            ("Absorbed from the sky".into(), self.display("sky-absorbed")),
+            ("Absorbed from the sun".into(), self.display("sun-absorbed")),
+            ("Gained from the air".into(), self.display("parasitic")),
+            ("Net cooling power".into(), self.display("net-power")),
             ("Steady temperature".into(), self.steady_text()),
-            ("Solar reflectance (AM1.5G)".into(), format!("{:.4}", self.solar_reflectance)),
-            (format!("Thermal emittance ({t:.0} K)"), format!("{:.4}", self.thermal_emittance)),
-            (format!("Hemispherical emittance ({t:.0} K)"), format!("{:.4}", self.hemispherical_emittance)),
-            (format!("8-13 um emissivity ({t:.0} K)"), format!("{:.4}", self.window_emissivity)),
+            ("Solar reflectance (AM1.5G)".into(), self.display("solar-reflectance")),
+            (format!("Thermal emittance ({t:.0} K)"), self.display("thermal-emittance")),
+            (format!("Hemispherical emittance ({t:.0} K)"), self.display("hemispherical-emittance")),
+            (format!("8-13 um emissivity ({t:.0} K)"), self.display("window-emissivity")),
         ]
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn report(steady: Option<f64>, status: &str) -> RadiatorReport {
+        RadiatorReport {
+            net_w_m2: 140.567,
+            emitted_w_m2: 459.3,
+            sky_absorbed_w_m2: 318.733,
+            sun_absorbed_w_m2: 0.0,
+            parasitic_w_m2: -0.004,
+            steady_temp_k: steady,
+            steady_status: status.into(),
+            surface_temp_k: 300.0,
+            ambient_temp_k: 300.0,
+            sky_emissivity: 0.67781,
+            solar_reflectance: 0.0,
+            thermal_emittance: 1.0,
+            hemispherical_emittance: 1.0,
+            window_emissivity: 0.99995,
+        }
+    }
+
+    #[test]
+    fn the_page_figures_are_the_table_rows() {
+        let r = report(Some(262.3604), "found");
+        assert_eq!(r.display("net-power"), "140.57 W/m²");
+        assert_eq!(r.display("steady-temp"), "262.36 K");
+        assert_eq!(r.display("solar-reflectance"), "0.0000");
+        assert_eq!(r.display("window-emissivity"), "1.0000");
+        assert_eq!(r.steady_text(), "262.36 K (37.64 K below ambient)");
+        let rows = r.rows();
+        let row = |label: &str| rows.iter().find(|(l, _)| l == label).map(|(_, v)| v.clone()).unwrap();
+        assert_eq!(row("Net cooling power"), r.display("net-power"));
+        assert_eq!(row("Thermal emittance (300 K)"), r.display("thermal-emittance"));
+        assert_eq!(row("Ambient / surface"), "300.00 K / 300.00 K");
+        for (hook, _) in RADIATOR_METRICS.iter().chain(RADIATOR_PARTS.iter()) {
+            assert!(!r.display(hook).contains("NaN"), "{hook}");
+        }
+    }
+
+    #[test]
+    fn a_missing_steady_temperature_says_why() {
+        let r = report(None, "below-range");
+        assert_eq!(r.display("steady-temp"), "none in range");
+        assert_eq!(r.steady_text(), format!("none in range: still cooling at {} K", STEADY_SEARCH_K.0));
+        let r = report(None, "undefined");
+        assert_eq!(r.steady_text(), "none: the surface exchanges no heat (emissivity 0, h_c 0)");
     }
 }

@@ -76,6 +76,54 @@ impl From<&StackResult> for StackReport {
     }
 }
 
+/// The stack's headline figures in display order: (hook, label, unit). The labels are the
+/// command line's table labels for series connection; [`StackReport::label`] gives the one
+/// that fits the connection.
+pub const STACK_METRICS: [(&str, &str, &str); 5] = [
+    ("stack-efficiency", "Efficiency", "%"),
+    ("stack-voc", "Open-circuit voltage Voc", "V"),
+    ("stack-jsc", "Short-circuit current Jsc", "mA/cm²"),
+    ("stack-pmax", "Maximum power", "W/m²"),
+    ("stack-input", "Incident power", "W/m²"),
+];
+
+impl StackReport {
+    /// The value of a headline figure in its display unit (efficiency in %).
+    pub fn metric(&self, hook: &str) -> f64 {
+        match hook {
+            "stack-efficiency" => self.efficiency * 100.0,
+            "stack-voc" => self.voc_v,
+            "stack-jsc" => self.jsc_ma_cm2,
+            "stack-pmax" => self.pmax_w_m2,
+            "stack-input" => self.input_w_m2,
+            _ => f64::NAN,
+        }
+    }
+
+    /// A headline figure as displayed, number and unit, e.g. "45.12 %": what the stack
+    /// panel shows and `glowgap stack` / `glowgap eval --stack` print.
+    pub fn display(&self, hook: &str) -> String {
+        let v = self.metric(hook);
+        let unit = STACK_METRICS.iter().find(|m| m.0 == hook).map(|m| m.2).unwrap_or("");
+        let digits = match hook {
+            "stack-efficiency" | "stack-pmax" => 2,
+            "stack-voc" => 4,
+            "stack-jsc" => 3,
+            _ => 1,
+        };
+        format!("{v:.digits$} {unit}")
+    }
+
+    /// The label of a headline figure for this stack's connection.
+    pub fn label(&self, hook: &str) -> &'static str {
+        match (hook, self.connection) {
+            ("stack-jsc", Connection::Independent) => "Sum of subcell Jsc",
+            ("stack-voc", Connection::Independent) => "Sum of subcell Voc",
+            _ => STACK_METRICS.iter().find(|m| m.0 == hook).map(|m| m.1).unwrap_or(""),
+        }
+    }
+}
+
 /// The optimizer's answer, with the full stack at the optimum.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct OptimumReport {

@@ -231,10 +231,25 @@ pub enum PlotQuantity {
     PhotonFlux,
 }
 
+/// Which panel of the browser app is in front.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize, Default)]
+#[serde(rename_all = "kebab-case")]
+pub enum Panel {
+    /// the single-junction solar cell
+    #[default]
+    Cell,
+    /// the radiator facing the sky
+    Radiator,
+    /// the multi-junction stack
+    Stack,
+}
+
 /// View choices that are part of what a link reproduces.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(default)]
 pub struct ViewSettings {
+    /// the app's panel in front
+    pub panel: Panel,
     pub spectrum_axis: PlotAxis,
     pub spectrum_quantity: PlotQuantity,
     /// band-gap range of the efficiency curve [eV]
@@ -245,6 +260,7 @@ pub struct ViewSettings {
 impl Default for ViewSettings {
     fn default() -> Self {
         ViewSettings {
+            panel: Panel::Cell,
             spectrum_axis: PlotAxis::Wavelength,
             spectrum_quantity: PlotQuantity::Irradiance,
             curve_from_ev: 0.5,

@@ -4,7 +4,7 @@ use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
-use super::{draw_boxed_text, draw_caption, draw_legend_row, draw_tag, err, frame_of, margins, palette::*, tick_target, AxisSpec, Frame, Look};
+use super::{draw_boxed_text, draw_caption, draw_legend_row, draw_tag, err, palette::*, tick_target, AxisSpec, Frame, Look};
 use crate::app::engine::Computed;
 use crate::app::fmt::{fixed, gap_ev};
 use crate::physics::constants::to_ev;
@@ -20,37 +20,7 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, loo
     let emax = if emax > 0.0 { emax } else { 1.0 };
     let x = AxisSpec::new(curve.from_ev, curve.to_ev, tick_target(look, w, 90.0), "Band gap", "eV", false);
     let y = AxisSpec::new(0.0, emax * 1.22, tick_target(look, h, 55.0), "Limiting efficiency", "%", true);
-    let m = margins(look, &x, &y, None);
-
-    let mut chart = ChartBuilder::on(root)
-        .margin_top(m.top)
-        .margin_right(m.right)
-        .margin_left(m.left)
-        .margin_bottom(m.bottom)
-        .x_label_area_size(m.bottom_area)
-        .y_label_area_size(m.left_area)
-        .build_cartesian_2d(
-            x.coord(),
-            y.coord(),
-        )
-        .map_err(err)?;
-    let xf = |v: &f64| x.label(*v);
-    let yf = |v: &f64| y.label(*v);
-    chart
-        .configure_mesh()
-        .bold_line_style(GRID)
-        .light_line_style(GRID_LIGHT)
-        .axis_style(AXIS)
-        .label_style(look.text(look.tick_font(), &INK))
-        .axis_desc_style(look.text(look.desc_font(), &INK))
-        .x_label_formatter(&xf)
-        .y_label_formatter(&yf)
-        .x_desc(x.title.clone())
-        .y_desc(y.title.clone())
-        .set_all_tick_mark_size(look.px(5.0))
-        .draw()
-        .map_err(err)?;
-    let frame = frame_of(chart.plotting_area().get_pixel_range(), &x, &y, look);
+    let (mut chart, frame) = super::chart(root, look, &x, &y, true)?;
 
     chart
         .draw_series(LineSeries::new(

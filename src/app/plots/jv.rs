@@ -24,13 +24,7 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, loo
     let m = margins(look, &x, &y, Some(&y2));
     let tick = look.px(5.0);
 
-    let mut chart = ChartBuilder::on(root)
-        .margin_top(m.top)
-        .margin_right(m.right)
-        .margin_left(m.left)
-        .margin_bottom(m.bottom)
-        .x_label_area_size(m.bottom_area)
-        .y_label_area_size(m.left_area)
+    let mut chart = super::builder(root, &m)
         .right_y_label_area_size(m.right_area)
         .build_cartesian_2d(
             x.coord(),

@@ -12,10 +12,17 @@ pub mod measure;
 pub mod render;
 pub mod spectrum;
 
+use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
-use super::fmt::{axis_exponent, fixed, nice_step, nice_ticks, superscript, ticks_with_step, Ticks};
+use super::fmt::{axis_exponent, field, fixed, nice_step, nice_ticks, superscript, ticks_with_step, Ticks};
+
+/// Something that draws itself as a plot on any backend (the page's canvas, a PNG, an
+/// SVG) and says where its axes landed.
+pub trait Drawing {
+    fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String>;
+}
 
 /// Colours of the plots (RGB).
 pub mod palette {
@@ -37,6 +44,17 @@ pub mod palette {
     pub const BEST: RGBColor = RGBColor(150, 96, 0);
     /// the P-V curve
     pub const POWER: RGBColor = RGBColor(214, 110, 24);
+    /// a radiator's emissivity profile and its control points
+    pub const EMISSIVITY: RGBColor = RGBColor(36, 48, 112);
+    /// the sky's transmittance, and text on it
+    pub const SKY: RGBColor = RGBColor(70, 150, 210);
+    pub const SKY_INK: RGBColor = RGBColor(24, 92, 150);
+    /// the blackbody at a radiator's surface temperature
+    pub const BLACKBODY: RGBColor = RGBColor(170, 48, 120);
+    /// power a radiator sends out
+    pub const EMITTED: RGBColor = RGBColor(196, 86, 40);
+    /// heat from the air
+    pub const AIR: RGBColor = RGBColor(120, 128, 142);
 }
 
 /// How big to draw: all sizes are CSS pixels times `scale`.
@@ -128,6 +146,12 @@ impl Frame {
         let t = ((px - self.left) / (self.right - self.left)).clamp(0.0, 1.0);
         self.x_lo + t * (self.x_hi - self.x_lo)
     }
+    /// Value on the y axis at CSS pixel `y` (from the canvas' top edge), clamped to the axis.
+    pub fn y_at_css(&self, y_css: f64) -> f64 {
+        let px = y_css * self.scale;
+        let t = ((self.bottom - px) / (self.bottom - self.top)).clamp(0.0, 1.0);
+        self.y_lo + t * (self.y_hi - self.y_lo)
+    }
     /// CSS pixel of x value `x`.
     pub fn css_of_x(&self, x: f64) -> f64 {
         (self.left + (x - self.x_lo) / (self.x_hi - self.x_lo) * (self.right - self.left)) / self.scale
@@ -146,6 +170,16 @@ impl Frame {
     }
 }
 
+/// How an axis maps values to positions and labels its ticks.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Scale {
+    Linear,
+    /// the axis runs in log10 of the value; ticks are labelled with the value itself
+    Log10,
+    /// categories centred at 0.5, 1.5, ... with these names
+    Named(Vec<String>),
+}
+
 /// One axis: its range, ticks, power-of-ten factor and title.
 #[derive(Debug, Clone)]
 pub struct AxisSpec {
@@ -155,7 +189,20 @@ pub struct AxisSpec {
     /// values are labelled divided by 10^exp
     pub exp: i32,
     pub title: String,
+    pub scale: Scale,
 }
+
+/// Title of an axis with its unit.
+fn titled(name: &str, unit: &str) -> String {
+    if unit.is_empty() {
+        name.to_string()
+    } else {
+        format!("{name} ({unit})")
+    }
+}
+
+/// Tick mantissas per decade of a logarithmic axis, densest first.
+const LOG_MANTISSAS: [&[f64]; 4] = [&[1.0, 2.0, 3.0, 5.0], &[1.0, 2.0, 5.0], &[1.0, 3.0], &[1.0]];
 
 impl AxisSpec {
     /// Ticks over [lo, hi]; with `snap_hi` the top is raised to the next tick.
@@ -182,12 +229,49 @@ impl AxisSpec {
             (e, true) => format!("{name} (10{})", superscript(e)),
             (e, false) => format!("{name} (10{} {unit})", superscript(e)),
         };
-        AxisSpec { lo, hi, ticks: Ticks { major, minor, decimals: t.decimals }, exp, title }
+        AxisSpec { lo, hi, ticks: Ticks { major, minor, decimals: t.decimals }, exp, title, scale: Scale::Linear }
+    }
+
+    /// A logarithmic axis over [lo, hi] (values > 0, e.g. wavelengths in um), labelled at
+    /// 1-2-3-5 (or sparser) multiples of each decade, at most about `target` labels.
+    pub fn log10(lo: f64, hi: f64, target: usize, name: &str, unit: &str) -> AxisSpec {
+        let (lo, hi) = if lo > 0.0 && hi > lo && hi.is_finite() { (lo.log10(), hi.log10()) } else { (0.0, 1.0) };
+        let in_range = |v: f64| v >= lo - 1e-9 && v <= hi + 1e-9;
+        let decades = (lo.floor() as i32)..=(hi.ceil() as i32);
+        let at = |mantissas: &[f64]| -> Vec<f64> {
+            decades.clone().flat_map(|d| mantissas.iter().map(move |m| (m * 10f64.powi(d)).log10())).filter(|v| in_range(*v)).collect()
+        };
+        let major = LOG_MANTISSAS
+            .iter()
+            .map(|m| at(m))
+            .find(|t| t.len() <= target.max(2))
+            .unwrap_or_else(|| at(&[1.0]));
+        let all: Vec<f64> = (1..10).map(|k| k as f64).collect();
+        let minor = at(&all);
+        AxisSpec { lo, hi, ticks: Ticks { major, minor, decimals: 0 }, exp: 0, title: titled(name, unit), scale: Scale::Log10 }
+    }
+
+    /// A category axis: one slot per name, ticks at the slot centres.
+    pub fn named(names: &[&str], name: &str) -> AxisSpec {
+        let n = names.len().max(1);
+        let major = (0..n).map(|i| i as f64 + 0.5).collect();
+        AxisSpec {
+            lo: 0.0,
+            hi: n as f64,
+            ticks: Ticks { major, minor: Vec::new(), decimals: 0 },
+            exp: 0,
+            title: name.to_string(),
+            scale: Scale::Named(names.iter().map(|s| s.to_string()).collect()),
+        }
     }
 
     /// The tick label of value `v`.
     pub fn label(&self, v: f64) -> String {
-        fixed(v / 10f64.powi(self.exp), self.ticks.decimals)
+        match &self.scale {
+            Scale::Linear => fixed(v / 10f64.powi(self.exp), self.ticks.decimals),
+            Scale::Log10 => field(10f64.powf(v), 3),
+            Scale::Named(names) => names.get(v.max(0.0).floor() as usize).cloned().unwrap_or_default(),
+        }
     }
 
     /// The axis as a plotters coordinate with our ticks.
@@ -240,6 +324,54 @@ pub fn margins(look: &Look, x: &AxisSpec, y: &AxisSpec, y2: Option<&AxisSpec>) -
     Margins { top, right, left: look.px(8.0), bottom: look.px(6.0), left_area, bottom_area, right_area }
 }
 
+/// A chart builder with the margins and label areas of `m` (the right label area is the
+/// caller's, for charts with a second axis).
+pub fn builder<'a, 'b, DB: DrawingBackend>(root: &'a DrawingArea<DB, Shift>, m: &Margins) -> ChartBuilder<'a, 'b, DB> {
+    let mut b = ChartBuilder::on(root);
+    b.margin_top(m.top)
+        .margin_right(m.right)
+        .margin_left(m.left)
+        .margin_bottom(m.bottom)
+        .x_label_area_size(m.bottom_area)
+        .y_label_area_size(m.left_area);
+    b
+}
+
+/// A chart with our tick ranges on both axes.
+pub type Chart<'a, DB> = ChartContext<'a, DB, Cartesian2d<TickRange, TickRange>>;
+
+/// A chart on `root` with one x and one y axis, its mesh, ticks and titles drawn (grid lines
+/// across x only with `x_grid`), and the frame of its plotting area.
+pub fn chart<'a, DB: DrawingBackend>(
+    root: &'a DrawingArea<DB, Shift>,
+    look: &Look,
+    x: &AxisSpec,
+    y: &AxisSpec,
+    x_grid: bool,
+) -> Result<(Chart<'a, DB>, Frame), String> {
+    let m = margins(look, x, y, None);
+    let mut chart = builder(root, &m).build_cartesian_2d(x.coord(), y.coord()).map_err(err)?;
+    let xf = |v: &f64| x.label(*v);
+    let yf = |v: &f64| y.label(*v);
+    let mut mesh = chart.configure_mesh();
+    mesh.bold_line_style(palette::GRID)
+        .light_line_style(palette::GRID_LIGHT)
+        .axis_style(palette::AXIS)
+        .label_style(look.text(look.tick_font(), &palette::INK))
+        .axis_desc_style(look.text(look.desc_font(), &palette::INK))
+        .x_label_formatter(&xf)
+        .y_label_formatter(&yf)
+        .x_desc(x.title.clone())
+        .y_desc(y.title.clone())
+        .set_all_tick_mark_size(look.px(TICK));
+    if !x_grid {
+        mesh.disable_x_mesh();
+    }
+    mesh.draw().map_err(err)?;
+    let frame = frame_of(chart.plotting_area().get_pixel_range(), x, y, look);
+    Ok((chart, frame))
+}
+
 /// How many ticks fit along `pixels` backend pixels.
 pub fn tick_target(look: &Look, pixels: u32, spacing_css: f64) -> usize {
     ((pixels as f64 / look.size(spacing_css)).floor() as usize).clamp(2, 12)
@@ -248,10 +380,32 @@ pub fn tick_target(look: &Look, pixels: u32, spacing_css: f64) -> usize {
 /// Draw the caption line, if any, at the top left.
 pub fn draw_caption<DB: DrawingBackend>(root: &DrawingArea<DB, plotters::coord::Shift>, look: &Look) -> Result<(), String> {
     if let Some(c) = &look.caption {
-        let style = look.text(look.size(13.0), &palette::MUTED).pos(Pos::new(HPos::Left, VPos::Top));
-        root.draw_text(c, &style, (look.px(10.0), look.px(8.0))).map_err(err)?;
+        let fs = look.size(13.0);
+        let style = look.text(fs, &palette::MUTED).pos(Pos::new(HPos::Left, VPos::Top));
+        let room = root.dim_in_pixel().0 as f64 - 2.0 * look.size(10.0);
+        root.draw_text(&fit(c, fs, room), &style, (look.px(10.0), look.px(8.0))).map_err(err)?;
     }
     Ok(())
+}
+
+/// `text` cut short with an ellipsis where it would be wider than `room` px at `size_px`.
+pub fn fit(text: &str, size_px: f64, room: f64) -> String {
+    if measure::text_width(text, size_px) <= room {
+        return text.to_string();
+    }
+    let chars: Vec<char> = text.chars().collect();
+    // the longest prefix that fits with the ellipsis (bisection on the character count)
+    let (mut lo, mut hi) = (0usize, chars.len());
+    while hi - lo > 1 {
+        let mid = (lo + hi) / 2;
+        let t: String = chars[..mid].iter().chain(std::iter::once(&'…')).collect();
+        if measure::text_width(&t, size_px) <= room {
+            lo = mid;
+        } else {
+            hi = mid;
+        }
+    }
+    chars[..lo].iter().collect::<String>().trim_end().to_string() + "…"
 }
 
 /// A plotters error as text.

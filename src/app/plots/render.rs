@@ -6,7 +6,7 @@ use plotters_canvas::CanvasBackend;
 use wasm_bindgen::JsCast;
 use web_sys::HtmlCanvasElement;
 
-use super::{efficiency, err, jv, spectrum, Frame, Look};
+use super::{efficiency, err, jv, spectrum, Drawing, Frame, Look};
 use crate::app::engine::Computed;
 
 /// The three plots.
@@ -45,11 +45,19 @@ pub const PNG_SCALE: f64 = 2.0;
 pub const SVG_SIZE: (u32, u32) = (1000, 625);
 pub const SVG_SCALE: f64 = 1.25;
 
-pub fn draw_kind<DB: DrawingBackend>(kind: PlotKind, root: &DrawingArea<DB, Shift>, c: &Computed, look: &Look) -> Result<Frame, String> {
-    match kind {
-        PlotKind::Spectrum => spectrum::draw(root, c, look),
-        PlotKind::Efficiency => efficiency::draw(root, c, look),
-        PlotKind::Jv => jv::draw(root, c, look),
+/// One of the cell panel's plots of one result.
+pub struct CellPlot<'a> {
+    pub kind: PlotKind,
+    pub c: &'a Computed,
+}
+
+impl Drawing for CellPlot<'_> {
+    fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String> {
+        match self.kind {
+            PlotKind::Spectrum => spectrum::draw(root, self.c, look),
+            PlotKind::Efficiency => efficiency::draw(root, self.c, look),
+            PlotKind::Jv => jv::draw(root, self.c, look),
+        }
     }
 }
 
@@ -59,7 +67,7 @@ fn device_pixel_ratio() -> f64 {
 
 /// Draw onto a canvas of the page at its CSS size times the device pixel ratio. Returns
 /// `Ok(None)` while the canvas has no size (not laid out yet).
-pub fn draw_on_canvas(canvas: &HtmlCanvasElement, kind: PlotKind, c: &Computed) -> Result<Option<Frame>, String> {
+pub fn draw_on_canvas(canvas: &HtmlCanvasElement, plot: &impl Drawing) -> Result<Option<Frame>, String> {
     let (cw, ch) = (canvas.client_width(), canvas.client_height());
     if cw <= 0 || ch <= 0 {
         return Ok(None);
@@ -74,13 +82,13 @@ pub fn draw_on_canvas(canvas: &HtmlCanvasElement, kind: PlotKind, c: &Computed) 
     }
     let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("this browser gave no 2D drawing context for the plot")?;
     let root = backend.into_drawing_area();
-    let frame = draw_kind(kind, &root, c, &Look::screen(dpr))?;
+    let frame = plot.draw(&root, &Look::screen(dpr))?;
     root.present().map_err(err)?;
     Ok(Some(frame))
 }
 
 /// A PNG image of a plot as a data URL, drawn on a detached canvas.
-pub fn png_data_url(kind: PlotKind, c: &Computed, caption: String) -> Result<String, String> {
+pub fn png_data_url(plot: &impl Drawing, caption: String) -> Result<String, String> {
     let doc = web_sys::window().and_then(|w| w.document()).ok_or("no document")?;
     let canvas: HtmlCanvasElement = doc
         .create_element("canvas")
@@ -92,18 +100,18 @@ pub fn png_data_url(kind: PlotKind, c: &Computed, caption: String) -> Result<Str
     {
         let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("this browser gave no 2D drawing context")?;
         let root = backend.into_drawing_area();
-        draw_kind(kind, &root, c, &Look { scale: PNG_SCALE, caption: Some(caption), legend: true })?;
+        plot.draw(&root, &Look { scale: PNG_SCALE, caption: Some(caption), legend: true })?;
         root.present().map_err(err)?;
     }
     canvas.to_data_url().map_err(|_| "the browser refused to encode the PNG image".to_string())
 }
 
 /// An SVG document of a plot.
-pub fn svg_text(kind: PlotKind, c: &Computed, caption: String) -> Result<String, String> {
+pub fn svg_text(plot: &impl Drawing, caption: String) -> Result<String, String> {
     let mut out = String::new();
     {
         let root = SVGBackend::with_string(&mut out, SVG_SIZE).into_drawing_area();
-        draw_kind(kind, &root, c, &Look { scale: SVG_SCALE, caption: Some(caption), legend: true })?;
+        plot.draw(&root, &Look { scale: SVG_SCALE, caption: Some(caption), legend: true })?;
         root.present().map_err(err)?;
     }
     Ok(out)

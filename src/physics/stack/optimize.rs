@@ -71,13 +71,30 @@ pub struct Optimum {
     pub evaluations: u64,
 }
 
+/// How often [`optimize_observed`] reports the evaluations made so far.
+pub const PROGRESS_EVERY: u64 = 1000;
+
 /// Counts evaluations and maps free variables to a stack.
-struct Objective<'a> {
+struct Objective<'a, 'o> {
     p: &'a Problem<'a>,
     evaluations: u64,
+    /// told the evaluation count every [`PROGRESS_EVERY`] evaluations
+    observer: Option<&'o mut dyn FnMut(u64)>,
 }
 
-impl Objective<'_> {
+impl Objective<'_, '_> {
+    /// Count `n` evaluations, telling the observer when a multiple of [`PROGRESS_EVERY`]
+    /// is passed.
+    fn count(&mut self, n: u64) {
+        let before = self.evaluations / PROGRESS_EVERY;
+        self.evaluations += n;
+        if self.evaluations / PROGRESS_EVERY != before {
+            if let Some(o) = self.observer.as_mut() {
+                o(self.evaluations);
+            }
+        }
+    }
+
     /// The gaps of a candidate, top first, fixed gap included.
     fn gaps(&self, free: &[f64]) -> Vec<f64> {
         let mut g: Vec<f64> = free.to_vec();
@@ -89,7 +106,7 @@ impl Objective<'_> {
     }
 
     fn efficiency(&mut self, free: &[f64]) -> f64 {
-        self.evaluations += 1;
+        self.count(1);
         let mut g = self.gaps(free);
         let before = g.len();
         g.dedup();
@@ -117,6 +134,16 @@ fn free_bounds(p: &Problem) -> (f64, f64) {
 
 /// Find the best gaps. An unusable problem (no junctions, bad range) gives an empty result.
 pub fn optimize(p: &Problem) -> Optimum {
+    search(p, None)
+}
+
+/// As [`optimize`] (the same answer), telling `observer` the number of stacks evaluated so
+/// far every [`PROGRESS_EVERY`] evaluations, for a progress display.
+pub fn optimize_observed(p: &Problem, observer: &mut dyn FnMut(u64)) -> Optimum {
+    search(p, Some(observer))
+}
+
+fn search(p: &Problem, observer: Option<&mut dyn FnMut(u64)>) -> Optimum {
     let n_free = p.junctions.saturating_sub(usize::from(p.fixed.is_some()));
     let (lo, hi) = free_bounds(p);
     let valid = (1..=MAX_JUNCTIONS).contains(&p.junctions)
@@ -128,7 +155,7 @@ pub fn optimize(p: &Problem) -> Optimum {
     if !valid {
         return Optimum::default();
     }
-    let mut obj = Objective { p, evaluations: 0 };
+    let mut obj = Objective { p, evaluations: 0, observer };
     if n_free == 0 {
         let e = obj.efficiency(&[]);
         return Optimum { gaps_j: obj.gaps(&[]), efficiency: e, evaluations: obj.evaluations };
@@ -228,7 +255,7 @@ fn grid_2d(obj: &mut Objective, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
     let grid: Vec<f64> = if obj.p.fixed.is_none() {
         // the two-junction map: rows are the top gap, columns the bottom gap
         let m = super::map::tandem_map(obj.p.light, &obj.p.cell, obj.p.connection, &xs, &xs);
-        obj.evaluations += (n * (n - 1) / 2) as u64;
+        obj.count((n * (n - 1) / 2) as u64);
         m.efficiency
     } else {
         let mut g = vec![0.0; n * n];

@@ -1,0 +1,83 @@
+//! The radiator's headline figures (formatted by [`crate::report::radiator`], as the
+//! command line prints them), the parts of the balance, warnings, and the cautions.
+
+use leptos::prelude::*;
+
+use super::state::RadState;
+use crate::app::figures::caution_footer;
+use crate::report::radiator::{RADIATOR_METRICS, RADIATOR_PARTS};
+
+pub fn figures(rad: RadState) -> impl IntoView {
+    let text = move |hook: &'static str| move || rad.computed.with(|c| c.as_ref().map(|c| c.report.display(hook)).unwrap_or_else(|| "—".into()));
+    let label = move |hook: &'static str, base: &'static str| {
+        move || {
+            let t = rad.computed.with(|c| c.as_ref().map(|c| c.report.surface_temp_k));
+            match (hook, t) {
+                ("thermal-emittance" | "window-emissivity", Some(t)) => format!("{} ({t:.0}\u{a0}K)", base.replace("8-13 um", "8–13 µm")),
+                _ => base.to_string(),
+            }
+        }
+    };
+    let cards = RADIATOR_METRICS
+        .iter()
+        .map(|(hook, base)| {
+            let hook = *hook;
+            let note = (hook == "steady-temp").then(|| {
+                view! { <span class="fig-note" data-note="steady-temp">{move || rad.computed.with(|c| c.as_ref().map(|c| c.report.steady_note()))}</span> }
+            });
+            view! {
+                <div class="figure" class:lead=hook == "net-power">
+                    <span class="fig-label">{label(hook, base)}</span>
+                    <span class="fig-value" data-metric=hook>{text(hook)}</span>
+                    {note}
+                </div>
+            }
+        })
+        .collect_view();
+    let parts = RADIATOR_PARTS
+        .iter()
+        .map(|(hook, label)| {
+            let hook = *hook;
+            view! {
+                <span class="part"><span class="part-label">{*label}</span> <span class="part-value" data-metric=hook>{text(hook)}</span></span>
+            }
+        })
+        .collect_view();
+    let warnings = move || rad.computed.with(|c| c.as_ref().map(|c| c.warnings.iter().map(|w| crate::app::state::sentence(w)).collect::<Vec<_>>().join(" ")).unwrap_or_default());
+    let error = move || rad.compute_error.get();
+    let at = move || {
+        rad.computed.with(|c| {
+            c.as_ref().map(|c| {
+                let r = &c.report;
+                let sun = if c.scenario.sun.is_some() { "in sunlight" } else { "at night" };
+                format!("Balance at a surface temperature of {} under ambient air at {}, {sun}; P_net > 0 means the surface loses heat.", r.display("surface-temp"), r.display("ambient-temp"))
+            })
+        })
+    };
+    view! {
+        <section class="figures-block rad-figures" aria-labelledby="rad-fig-h">
+            <h2 id="rad-fig-h" class="visually-hidden">"Radiator figures"</h2>
+            <div class="figures">{cards}</div>
+            <p class="parts" aria-label="Parts of the balance">{parts}</p>
+            <p class="summary">{at}</p>
+            <p class="warning" hidden=move || warnings().is_empty()>{warnings}</p>
+            <p class="compute-error" role="alert" hidden=move || error().is_none()>{error}</p>
+            <p class="caution-inline">
+                "An idealized radiative balance of an opaque surface: a limit for this profile and sky, not a prediction of how a real coating will perform."
+            </p>
+        </section>
+    }
+}
+
+pub fn cautions() -> impl IntoView {
+    caution_footer(&[
+        (
+            "Idealized balance, not a product rating. ",
+            "The figures assume an opaque surface with exactly this emissivity, a uniform sky and a single convection coefficient. Real coatings age, soil and differ from their data sheets; test before relying on them.",
+        ),
+        (
+            "Hot surfaces and roof work. ",
+            "Surfaces in sunlight, dark ones above all, can get hot enough to burn skin. Working on roofs risks falls: use fall protection, and defer to local codes and licensed practice for anything installed.",
+        ),
+    ])
+}

@@ -1,0 +1,837 @@
+//! The two-junction efficiency map: a heat map over (bottom gap, top gap) with contour
+//! lines, the line where the two photocurrents match, the best point of the grid and the
+//! current design. Clicking or dragging on it moves the design; arrow keys step it.
+//!
+//! The map is computed in slices of rows between turns of the browser's event loop (each
+//! slice a few milliseconds), so the page stays responsive; a newer request drops an older
+//! one. It is recomputed only when the light, the cell settings, the connection or the
+//! map's axes change, not when a gap moves.
+
+use std::cell::RefCell;
+use std::fmt::Write;
+use std::rc::Rc;
+use std::sync::Arc;
+use std::time::Duration;
+
+use leptos::html;
+use leptos::prelude::*;
+use plotters::coord::Shift;
+use plotters::prelude::*;
+use plotters::style::text_anchor::{HPos, Pos, VPos};
+
+use super::{colours, edit_stack, save_plot, set_gaps, StackCtx, MAP};
+use crate::app::card::{plot_card, Card, Hover, PlotBehaviour};
+use crate::app::engine::same_but_gap;
+use crate::app::fmt::{fixed, gap_ev, nice_step};
+use crate::app::plots::{chart, draw_boxed_text, draw_caption, draw_legend_row, err, palette, tick_target, AxisSpec, Drawing, Frame, Look};
+use crate::app::state::tidy;
+use crate::physics::constants::{ev, to_ev};
+use crate::physics::stack::map::tandem_map;
+use crate::physics::stack::Connection;
+use crate::scenario::stack::{MapSettings, StackScenario};
+use crate::scenario::{CellScenario, CellSetup, Scenario};
+
+/// Time one slice of the map may take before the page gets a turn [ms].
+const SLICE_MS: f64 = 10.0;
+
+/// Where the map's computation stands.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub enum MapStatus {
+    #[default]
+    Idle,
+    /// fraction of the rows done
+    Computing(f64),
+    Ready,
+    Failed(String),
+}
+
+/// A computed map in display units.
+#[derive(Debug, Clone)]
+pub struct MapData {
+    /// which computation made it (the page's drawing of it is cached by this)
+    pub id: u64,
+    pub connection: Connection,
+    /// top-cell gaps [eV] (rows, the y axis), ascending
+    pub tops_ev: Vec<f64>,
+    /// bottom-cell gaps [eV] (columns, the x axis), ascending
+    pub bottoms_ev: Vec<f64>,
+    /// efficiency [%] of row i, column k at i * bottoms_ev.len() + k; NaN where the bottom
+    /// gap is not below the top gap
+    pub eff: Vec<f64>,
+    /// the best grid point: (top gap [eV], bottom gap [eV], efficiency [%])
+    pub best: Option<(f64, f64, f64)>,
+    /// (bottom gap, top gap) [eV] where the two subcells' photocurrents are equal
+    pub matched: Vec<(f64, f64)>,
+    /// time spent computing and from request to result [ms]
+    pub compute_ms: f64,
+    pub elapsed_ms: f64,
+    pub source: String,
+}
+
+impl MapData {
+    pub fn at(&self, i: usize, k: usize) -> f64 {
+        self.eff.get(i * self.bottoms_ev.len() + k).copied().unwrap_or(f64::NAN)
+    }
+    /// (smallest, largest) efficiency of the stacks on the map [%].
+    pub fn range(&self) -> (f64, f64) {
+        self.eff.iter().filter(|e| e.is_finite()).fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), &e| (a.min(e), b.max(e)))
+    }
+    /// The grid point nearest to (bottom, top) [eV].
+    pub fn nearest(&self, bottom: f64, top: f64) -> Option<(usize, usize)> {
+        let idx = |xs: &[f64], v: f64| -> Option<usize> {
+            let n = xs.len();
+            if n < 2 {
+                return None;
+            }
+            let t = (v - xs[0]) / (xs[n - 1] - xs[0]) * (n - 1) as f64;
+            (t >= -0.5 && t <= n as f64 - 0.5).then(|| (t.round().max(0.0) as usize).min(n - 1))
+        };
+        Some((idx(&self.tops_ev, top)?, idx(&self.bottoms_ev, bottom)?))
+    }
+}
+
+/// What the map was computed for.
+struct MapKey {
+    cell: CellScenario,
+    connection: Connection,
+    settings: MapSettings,
+}
+
+impl MapKey {
+    fn matches(&self, s: &Scenario) -> bool {
+        same_but_gap(&self.cell, &s.cell) && self.connection == s.stack.connection && self.settings == s.stack.map
+    }
+}
+
+/// A map being computed.
+struct Job {
+    id: u64,
+    key: MapKey,
+    setup: Arc<CellSetup>,
+    tops_j: Vec<f64>,
+    bottoms_j: Vec<f64>,
+    eff: Vec<f64>,
+    /// next row to compute
+    next: usize,
+    /// rows per call of the map routine (adapted to keep a call near 3 ms)
+    rows: usize,
+    started: f64,
+    busy: f64,
+}
+
+#[derive(Default)]
+struct Maps {
+    done: Option<(MapKey, Arc<MapData>)>,
+    job: Option<Job>,
+    last_id: u64,
+}
+
+thread_local! {
+    static MAPS: RefCell<Maps> = RefCell::new(Maps::default());
+}
+
+fn now() -> f64 {
+    web_sys::window().and_then(|w| w.performance()).map(|p| p.now()).unwrap_or(0.0)
+}
+
+/// Make sure the map of `s` is shown or being computed.
+pub fn ensure(sc: StackCtx, s: &Scenario) {
+    let start = MAPS.with(|m| {
+        let m = m.borrow();
+        if let Some((k, d)) = &m.done {
+            if k.matches(s) {
+                return Some(Err(d.clone()));
+            }
+        }
+        if m.job.as_ref().is_some_and(|j| j.key.matches(s)) {
+            return None;
+        }
+        Some(Ok(()))
+    });
+    match start {
+        None => {}
+        Some(Err(done)) => {
+            if !sc.map.with_untracked(|m| m.as_ref().is_some_and(|m| Arc::ptr_eq(m, &done))) {
+                sc.map.set(Some(done));
+            }
+            if sc.map_status.with_untracked(|st| *st != MapStatus::Ready) {
+                sc.map_status.set(MapStatus::Ready);
+            }
+        }
+        Some(Ok(())) => begin(sc, s),
+    }
+}
+
+fn begin(sc: StackCtx, s: &Scenario) {
+    let setup = super::compute::setup_of(&s.cell);
+    let grid = s.stack.map.grid();
+    let (setup, (tops_j, bottoms_j)) = match (setup, grid) {
+        (Ok(a), Ok(b)) => (a, b),
+        (Err(e), _) | (_, Err(e)) => {
+            stop();
+            sc.map_status.set(MapStatus::Failed(crate::app::state::sentence(&e)));
+            return;
+        }
+    };
+    let id = MAPS.with(|m| {
+        let mut m = m.borrow_mut();
+        m.last_id += 1;
+        let id = m.last_id;
+        let n = tops_j.len() * bottoms_j.len();
+        m.job = Some(Job {
+            id,
+            key: MapKey { cell: s.cell.clone(), connection: s.stack.connection, settings: s.stack.map.clone() },
+            setup,
+            tops_j,
+            bottoms_j,
+            eff: vec![0.0; n],
+            next: 0,
+            rows: 4,
+            started: now(),
+            busy: 0.0,
+        });
+        id
+    });
+    sc.map_status.set(MapStatus::Computing(0.0));
+    // the first slice after the current render
+    set_timeout(move || pump(sc, id), Duration::ZERO);
+}
+
+/// Drop any computation in progress (the panel is going away).
+pub fn stop() {
+    MAPS.with(|m| m.borrow_mut().job = None);
+}
+
+/// Compute rows for one slice; then yield to the page, or finish.
+fn pump(sc: StackCtx, id: u64) {
+    let t0 = now();
+    let finished = MAPS.with(|m| {
+        let mut m = m.borrow_mut();
+        let job = m.job.as_mut().filter(|j| j.id == id)?;
+        let nb = job.bottoms_j.len();
+        while job.next < job.tops_j.len() && now() - t0 < SLICE_MS {
+            let end = (job.next + job.rows).min(job.tops_j.len());
+            let c0 = now();
+            let part = tandem_map(&job.setup.light, &job.setup.cell, job.key.connection, &job.tops_j[job.next..end], &job.bottoms_j);
+            let took = now() - c0;
+            job.eff[job.next * nb..end * nb].copy_from_slice(&part.efficiency);
+            job.next = end;
+            job.busy += took;
+            // aim for about 3 ms a call
+            let per_row = took / part.top_gaps_j.len().max(1) as f64;
+            job.rows = if per_row > 0.0 { ((3.0 / per_row) as usize).clamp(1, 64) } else { 64 };
+        }
+        if job.next < job.tops_j.len() {
+            return Some(Err(job.next as f64 / job.tops_j.len() as f64));
+        }
+        let job = m.job.take()?;
+        let data = Arc::new(finish(&job));
+        m.done = Some((job.key, data.clone()));
+        Some(Ok(data))
+    });
+    match finished {
+        None => {}
+        Some(Err(frac)) => {
+            sc.map_status.try_set(MapStatus::Computing(frac));
+            set_timeout(move || pump(sc, id), Duration::ZERO);
+        }
+        Some(Ok(data)) => {
+            crate::app::state::mark("gg-map-done");
+            sc.map.try_set(Some(data));
+            sc.map_status.try_set(MapStatus::Ready);
+        }
+    }
+}
+
+fn finish(job: &Job) -> MapData {
+    let tops_ev: Vec<f64> = job.tops_j.iter().map(|g| to_ev(*g)).collect();
+    let bottoms_ev: Vec<f64> = job.bottoms_j.iter().map(|g| to_ev(*g)).collect();
+    let nb = bottoms_ev.len();
+    let eff: Vec<f64> =
+        job.eff.iter().enumerate().map(|(idx, e)| if job.bottoms_j[idx % nb] < job.tops_j[idx / nb] { e * 100.0 } else { f64::NAN }).collect();
+    let best = eff
+        .iter()
+        .enumerate()
+        .filter(|(_, e)| e.is_finite())
+        .max_by(|a, b| a.1.total_cmp(b.1))
+        .map(|(idx, e)| (tops_ev[idx / nb], bottoms_ev[idx % nb], *e));
+    let matched = matched_line(&job.setup, &tops_ev, &bottoms_ev);
+    MapData {
+        id: job.id,
+        connection: job.key.connection,
+        tops_ev,
+        bottoms_ev,
+        eff,
+        best,
+        matched,
+        compute_ms: job.busy,
+        elapsed_ms: now() - job.started,
+        source: job.setup.light.source.name(),
+    }
+}
+
+/// Where the bottom cell's photocurrent equals the top cell's: flux above the bottom gap is
+/// twice the flux above the top gap. Found by bisection for each top gap of the map.
+fn matched_line(setup: &CellSetup, tops_ev: &[f64], bottoms_ev: &[f64]) -> Vec<(f64, f64)> {
+    let src = &setup.light.source;
+    let (lo, hi) = (bottoms_ev[0], bottoms_ev[bottoms_ev.len() - 1]);
+    tops_ev
+        .iter()
+        .filter_map(|&t| {
+            let target = 2.0 * src.photon_flux_above(ev(t));
+            let (mut a, mut b) = (lo, hi.min(t));
+            // flux above decreases with the gap: at a it must be above the target
+            if !(src.photon_flux_above(ev(a)) >= target && src.photon_flux_above(ev(b)) <= target) {
+                return None;
+            }
+            for _ in 0..50 {
+                let m = 0.5 * (a + b);
+                if src.photon_flux_above(ev(m)) >= target {
+                    a = m;
+                } else {
+                    b = m;
+                }
+            }
+            Some((0.5 * (a + b), t))
+        })
+        .collect()
+}
+
+/// The design as the map shows it: the top and bottom gaps of a two-junction stack.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Design {
+    /// (top, bottom) [eV] for a two-junction stack
+    pub pair: Option<(f64, f64)>,
+    pub junctions: usize,
+}
+
+impl Design {
+    pub fn of(st: &StackScenario) -> Design {
+        let pair = (st.gaps_ev.len() == 2).then(|| (st.gaps_ev[0], st.gaps_ev[1]));
+        Design { pair, junctions: st.gaps_ev.len() }
+    }
+}
+
+/// Contour levels [%] for a map spanning efficiencies up to `hi`.
+pub fn levels(lo: f64, hi: f64) -> Vec<f64> {
+    if !(hi > lo) {
+        return Vec::new();
+    }
+    let (step, _, _) = nice_step(hi - lo, 7);
+    let first = (lo / step).floor() as i64 + 1;
+    (first..).map(|k| k as f64 * step).take_while(|v| *v < hi).collect()
+}
+
+/// Line segments where the grid crosses `level` (marching squares), in (x = bottom gap,
+/// y = top gap) [eV]. Squares with a corner that is not a stack are skipped.
+pub fn contour(m: &MapData, level: f64) -> Vec<[(f64, f64); 2]> {
+    let (nt, nb) = (m.tops_ev.len(), m.bottoms_ev.len());
+    let mut out = Vec::new();
+    for i in 0..nt.saturating_sub(1) {
+        for k in 0..nb.saturating_sub(1) {
+            // corners counter-clockwise from (k, i)
+            let c = [(k, i), (k + 1, i), (k + 1, i + 1), (k, i + 1)];
+            let v: Vec<f64> = c.iter().map(|&(kk, ii)| m.at(ii, kk)).collect();
+            if v.iter().any(|x| !x.is_finite()) {
+                continue;
+            }
+            let p = |j: usize| (m.bottoms_ev[c[j].0], m.tops_ev[c[j].1]);
+            // crossing on the edge from corner a to corner b
+            let cross = |a: usize, b: usize| {
+                let t = (level - v[a]) / (v[b] - v[a]);
+                let (pa, pb) = (p(a), p(b));
+                (pa.0 + t * (pb.0 - pa.0), pa.1 + t * (pb.1 - pa.1))
+            };
+            let edges: Vec<(f64, f64)> = (0..4).filter(|&j| (v[j] >= level) != (v[(j + 1) % 4] >= level)).map(|j| cross(j, (j + 1) % 4)).collect();
+            match edges.len() {
+                2 => out.push([edges[0], edges[1]]),
+                4 => {
+                    // a saddle: the centre value decides how the crossings pair up
+                    let centre = v.iter().sum::<f64>() / 4.0;
+                    if (centre >= level) == (v[0] >= level) {
+                        out.push([edges[0], edges[3]]);
+                        out.push([edges[1], edges[2]]);
+                    } else {
+                        out.push([edges[0], edges[1]]);
+                        out.push([edges[2], edges[3]]);
+                    }
+                }
+                _ => {}
+            }
+        }
+    }
+    out
+}
+
+/// The line of matched currents.
+const MATCHED: RGBColor = RGBColor(246, 168, 52);
+
+/// A polyline [backend px] cut into dashes `on` long with gaps `off` long.
+fn dashes(points: &[(f64, f64)], on: f64, off: f64) -> Vec<Vec<(i32, i32)>> {
+    let mut out = Vec::new();
+    let mut cur: Vec<(i32, i32)> = Vec::new();
+    let (mut drawing, mut phase) = (true, 0.0);
+    let at = |a: (f64, f64), b: (f64, f64), t: f64| ((a.0 + t * (b.0 - a.0)).round() as i32, (a.1 + t * (b.1 - a.1)).round() as i32);
+    for w in points.windows(2) {
+        let (a, b) = (w[0], w[1]);
+        let len = ((b.0 - a.0).powi(2) + (b.1 - a.1).powi(2)).sqrt();
+        if !(len > 0.0) {
+            continue;
+        }
+        let mut done = 0.0;
+        while done < len {
+            let part = if drawing { on } else { off };
+            let step = (part - phase).min(len - done);
+            if drawing {
+                if cur.is_empty() {
+                    cur.push(at(a, b, done / len));
+                }
+                cur.push(at(a, b, (done + step) / len));
+            }
+            done += step;
+            phase += step;
+            if phase >= part - 1e-9 {
+                phase = 0.0;
+                if drawing && cur.len() >= 2 {
+                    out.push(std::mem::take(&mut cur));
+                }
+                cur.clear();
+                drawing = !drawing;
+            }
+        }
+    }
+    if cur.len() >= 2 {
+        out.push(cur);
+    }
+    out
+}
+
+pub struct MapPlot<'a> {
+    pub map: &'a MapData,
+    pub design: Design,
+}
+
+impl Drawing for MapPlot<'_> {
+    fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String> {
+        let frame = self.draw_base(root, look)?;
+        self.draw_design(root, look, &frame)?;
+        Ok(frame)
+    }
+}
+
+/// Everything of the map but the design: what a gap edit leaves unchanged.
+struct MapBase<'a>(&'a MapPlot<'a>);
+
+impl Drawing for MapBase<'_> {
+    fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String> {
+        self.0.draw_base(root, look)
+    }
+}
+
+impl MapPlot<'_> {
+    fn draw_base<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String> {
+        root.fill(&WHITE).map_err(err)?;
+        draw_caption(root, look)?;
+        let m = self.map;
+        let (w, h) = root.dim_in_pixel();
+        let bar_room = look.px(78.0) as u32;
+        let (main, _) = root.split_horizontally(w.saturating_sub(bar_room));
+        let (mw, _) = main.dim_in_pixel();
+        let (b0, b1) = (m.bottoms_ev[0], m.bottoms_ev[m.bottoms_ev.len() - 1]);
+        let (t0, t1) = (m.tops_ev[0], m.tops_ev[m.tops_ev.len() - 1]);
+        let x = AxisSpec::new(b0, b1, tick_target(look, mw, 80.0), "Bottom-cell band gap", "eV", false);
+        let y = AxisSpec::new(t0, t1, tick_target(look, h, 50.0), "Top-cell band gap", "eV", false);
+        let (mut chart, frame) = chart(&main, look, &x, &y, true)?;
+        let (lo, hi) = m.range();
+        let (lo, hi) = if lo.is_finite() && hi > lo { (lo, hi) } else { (0.0, 1.0) };
+        let shade = |e: f64| if e.is_finite() { colours::ramp((e - lo) / (hi - lo)) } else { colours::NOT_A_STACK };
+
+        // heat map: one rectangle per grid point, half a step either side
+        let (nt, nb) = (m.tops_ev.len(), m.bottoms_ev.len());
+        let edge = |xs: &[f64], j: usize| -> (f64, f64) {
+            let a = if j == 0 { xs[0] } else { 0.5 * (xs[j - 1] + xs[j]) };
+            let b = if j + 1 == xs.len() { xs[j] } else { 0.5 * (xs[j] + xs[j + 1]) };
+            (a, b)
+        };
+        let mut cells = Vec::with_capacity(nt * nb);
+        for i in 0..nt {
+            let (ya, yb) = edge(&m.tops_ev, i);
+            for k in 0..nb {
+                let (xa, xb) = edge(&m.bottoms_ev, k);
+                cells.push(Rectangle::new([(xa, yb), (xb, ya)], shade(m.at(i, k)).filled()));
+            }
+        }
+        chart.draw_series(cells).map_err(err)?;
+
+        // contours, light over the dark end of the ramp
+        let levels = levels(lo, hi);
+        for level in &levels {
+            let c = colours::ramp((level - lo) / (hi - lo));
+            let line = if colours::is_dark(c) { WHITE.mix(0.75) } else { palette::INK.mix(0.5) };
+            let segs = contour(m, *level);
+            chart.draw_series(segs.into_iter().map(|s| PathElement::new(s.to_vec(), line.stroke_width(look.px(1.1).max(1) as u32)))).map_err(err)?;
+        }
+        // where the two photocurrents match (series maxima lie close to it)
+        if m.connection == Connection::Series && m.matched.len() >= 2 {
+            let px: Vec<(f64, f64)> = m.matched.iter().map(|p| (frame.css_of_x(p.0) * look.scale, frame.css_of_y(p.1) * look.scale)).collect();
+            let style = MATCHED.stroke_width(look.px(2.0).max(1) as u32);
+            for dash in dashes(&px, look.size(7.0), look.size(5.0)) {
+                root.draw(&PathElement::new(dash, style)).map_err(err)?;
+            }
+        }
+
+        let (left, right, top, bottom) = (frame.left as i32, frame.right as i32, frame.top as i32, frame.bottom as i32);
+        let bounds = (left, top, right, bottom);
+        let bx = |v: f64| (frame.css_of_x(v) * look.scale).round() as i32;
+        let by = |v: f64| (frame.css_of_y(v) * look.scale).round() as i32;
+        // the best grid point
+        if let Some((t, b, e)) = m.best {
+            let (px, py) = (bx(b), by(t));
+            let r = look.px(6.0);
+            root.draw(&Polygon::new(vec![(px, py - r), (px + r, py), (px, py + r), (px - r, py)], palette::BEST.filled())).map_err(err)?;
+            root.draw(&PathElement::new(
+                vec![(px, py - r), (px + r, py), (px, py + r), (px - r, py), (px, py - r)],
+                WHITE.stroke_width(look.px(1.2).max(1) as u32),
+            ))
+            .map_err(err)?;
+            let text = format!("best {} / {} eV · {} %", fixed(t, 2), fixed(b, 2), fixed(e, 2));
+            // below right; the design's label keeps clear of it
+            draw_boxed_text(root, look, &text, px + look.px(9.0), py + look.px(7.0), HPos::Left, VPos::Top, &palette::BEST, bounds)?;
+        }
+
+        // the colour bar with the contour levels
+        let bar_x = right + look.px(18.0);
+        let bar_w = look.px(14.0);
+        let steps = 64;
+        for s in 0..steps {
+            let (ya, yb) = (bottom - (bottom - top) * s / steps, bottom - (bottom - top) * (s + 1) / steps);
+            let c = colours::ramp((s as f64 + 0.5) / steps as f64);
+            root.draw(&Rectangle::new([(bar_x, yb), (bar_x + bar_w, ya)], c.filled())).map_err(err)?;
+        }
+        root.draw(&Rectangle::new([(bar_x, top), (bar_x + bar_w, bottom)], palette::AXIS.stroke_width(1))).map_err(err)?;
+        let fs = look.tick_font();
+        let label_style = look.text(fs, &palette::INK).pos(Pos::new(HPos::Left, VPos::Center));
+        let decimals = crate::app::fmt::decimals_of(levels.get(1).map(|b| b - levels[0]).unwrap_or(1.0));
+        let mut last_y = i32::MAX;
+        for level in &levels {
+            let py = bottom - ((level - lo) / (hi - lo) * (bottom - top) as f64).round() as i32;
+            root.draw(&PathElement::new(vec![(bar_x, py), (bar_x + bar_w + look.px(4.0), py)], palette::INK.stroke_width(1))).map_err(err)?;
+            if (last_y - py).abs() as f64 >= fs * 1.1 {
+                root.draw_text(&fixed(*level, decimals), &label_style, (bar_x + bar_w + look.px(6.0), py)).map_err(err)?;
+                last_y = py;
+            }
+        }
+        let unit_style = look.text(fs, &palette::MUTED).pos(Pos::new(HPos::Left, VPos::Bottom));
+        root.draw_text("%", &unit_style, (bar_x, top - look.px(4.0))).map_err(err)?;
+
+        if look.legend {
+            let lx = left + look.px(12.0);
+            let ly = top + look.px(16.0);
+            draw_legend_row(root, look, lx, ly, &palette::BEST, false, "best point of the grid")?;
+            draw_legend_row(root, look, lx, ly + look.px(20.0), &palette::GAP, false, "this design")?;
+        }
+        Ok(frame)
+    }
+
+    /// The design's marker and label over the map drawn in `frame`.
+    fn draw_design<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look, frame: &Frame) -> Result<(), String> {
+        let m = self.map;
+        let (left, right, top, bottom) = (frame.left as i32, frame.right as i32, frame.top as i32, frame.bottom as i32);
+        let bounds = (left, top, right, bottom);
+        let bx = |v: f64| (frame.css_of_x(v) * look.scale).round() as i32;
+        let by = |v: f64| (frame.css_of_y(v) * look.scale).round() as i32;
+        let inside = |b: f64, t: f64| b >= frame.x_lo && b <= frame.x_hi && t >= frame.y_lo && t <= frame.y_hi;
+        // the design
+        match self.design.pair {
+            Some((t, b)) if inside(b, t) => {
+                let (px, py) = (bx(b), by(t));
+                let r = look.px(7.0);
+                root.draw(&Circle::new((px, py), r, WHITE.stroke_width(look.px(4.0).max(1) as u32))).map_err(err)?;
+                root.draw(&Circle::new((px, py), r, palette::GAP.stroke_width(look.px(2.2).max(1) as u32))).map_err(err)?;
+                root.draw(&Circle::new((px, py), look.px(1.8), palette::GAP.filled())).map_err(err)?;
+                let e = m.nearest(b, t).map(|(i, k)| m.at(i, k)).filter(|e| e.is_finite());
+                let text = match e {
+                    Some(e) => format!("design {} / {} eV · ≈{} %", gap_ev(t), gap_ev(b), fixed(e, 1)),
+                    None => format!("design {} / {} eV", gap_ev(t), gap_ev(b)),
+                };
+                let left_of_best = m.best.is_some_and(|(_, bb, _)| b < bb);
+                let (hp, dx) = if left_of_best { (HPos::Right, -look.px(11.0)) } else { (HPos::Left, look.px(11.0)) };
+                draw_boxed_text(root, look, &text, px + dx, py - look.px(8.0), hp, VPos::Bottom, &palette::GAP, bounds)?;
+            }
+            Some(_) => {
+                draw_boxed_text(
+                    root,
+                    look,
+                    "design off the map",
+                    right - look.px(4.0),
+                    bottom - look.px(4.0),
+                    HPos::Right,
+                    VPos::Bottom,
+                    &palette::GAP,
+                    bounds,
+                )?;
+            }
+            // the legend says why there is no design on the map
+            None => {}
+        }
+
+        Ok(())
+    }
+}
+
+/// The map's base layer as last drawn on the page: (map id, bitmap size, a copy of the
+/// bitmap, its frame).
+struct BaseCache {
+    id: u64,
+    size: (u32, u32),
+    image: web_sys::HtmlCanvasElement,
+    frame: Frame,
+}
+
+thread_local! {
+    static BASE: RefCell<Option<BaseCache>> = const { RefCell::new(None) };
+}
+
+fn context_2d(c: &web_sys::HtmlCanvasElement) -> Option<web_sys::CanvasRenderingContext2d> {
+    use wasm_bindgen::JsCast;
+    c.get_context("2d").ok()??.dyn_into().ok()
+}
+
+/// Draw the map on the page's canvas. The base layer (heat map, contours, axes) is drawn once
+/// per map and canvas size and then copied, so moving the design redraws only its marker.
+pub fn draw_on_page(canvas: &web_sys::HtmlCanvasElement, plot: &MapPlot) -> Result<Option<Frame>, String> {
+    let dpr = web_sys::window().map(|w| w.device_pixel_ratio()).filter(|r| r.is_finite() && *r > 0.0).unwrap_or(1.0).clamp(1.0, 4.0);
+    let size = ((canvas.client_width() as f64 * dpr).round() as u32, (canvas.client_height() as f64 * dpr).round() as u32);
+    if size.0 == 0 || size.1 == 0 {
+        return Ok(None);
+    }
+    let fits = (canvas.width(), canvas.height()) == size;
+    let cached = BASE.with(|b| b.borrow().as_ref().filter(|c| fits && c.id == plot.map.id && c.size == size).map(|c| (c.image.clone(), c.frame)));
+    let frame = match cached {
+        Some((image, frame)) => {
+            let ctx = context_2d(canvas).ok_or("this browser gave no 2D drawing context for the map")?;
+            ctx.draw_image_with_html_canvas_element(&image, 0.0, 0.0).map_err(|_| "the map could not be copied".to_string())?;
+            frame
+        }
+        None => {
+            let Some(frame) = crate::app::plots::render::draw_on_canvas(canvas, &MapBase(plot))? else { return Ok(None) };
+            // keep a copy of the base for the next redraw
+            let copy = web_sys::window()
+                .and_then(|w| w.document())
+                .and_then(|d| d.create_element("canvas").ok())
+                .and_then(|e| wasm_bindgen::JsCast::dyn_into::<web_sys::HtmlCanvasElement>(e).ok());
+            if let Some(image) = copy {
+                image.set_width(size.0);
+                image.set_height(size.1);
+                if let Some(ctx) = context_2d(&image) {
+                    if ctx.draw_image_with_html_canvas_element(canvas, 0.0, 0.0).is_ok() {
+                        BASE.with(|b| *b.borrow_mut() = Some(BaseCache { id: plot.map.id, size, image, frame }));
+                    }
+                }
+            }
+            frame
+        }
+    };
+    let backend = plotters_canvas::CanvasBackend::with_canvas_object(canvas.clone()).ok_or("this browser gave no 2D drawing context for the map")?;
+    let root = backend.into_drawing_area();
+    plot.draw_design(&root, &Look::screen(dpr), &frame)?;
+    root.present().map_err(err)?;
+    Ok(Some(frame))
+}
+
+fn map_csv(m: &MapData, what: &str) -> String {
+    let mut out = String::new();
+    let _ = writeln!(out, "# Glowgap: {what}");
+    let _ = writeln!(out, "# efficiency of every two-junction stack of the grid; empty where the bottom gap is not below the top gap");
+    let _ = writeln!(out, "# Detailed-balance limits of an ideal stack: upper bounds, not predictions of a device.");
+    let _ = writeln!(out, "top gap (eV),bottom gap (eV),efficiency (%)");
+    for (i, t) in m.tops_ev.iter().enumerate() {
+        for (k, b) in m.bottoms_ev.iter().enumerate() {
+            let e = m.at(i, k);
+            let e = if e.is_finite() { format!("{e:.4}") } else { String::new() };
+            let _ = writeln!(out, "{t:.6},{b:.6},{e}");
+        }
+    }
+    out
+}
+
+/// What the map does with the pointer and keys.
+struct MapCard {
+    sc: StackCtx,
+}
+
+impl MapCard {
+    /// Put the design at (top, bottom) [eV], rounded to 1 meV.
+    fn place(&self, top: f64, bottom: f64) -> bool {
+        let ctx = self.sc.ctx;
+        let n = ctx.scenario.with_untracked(|s| s.stack.gaps_ev.len());
+        if n != 2 {
+            ctx.set_error(
+                "tandem-map",
+                format!("The map is for two-junction stacks and this design has {n}; set Junctions to 2 to place it on the map."),
+            );
+            return false;
+        }
+        let r = |v: f64| (v * 1000.0).round() / 1000.0;
+        set_gaps(ctx, "tandem-map", vec![r(top), r(bottom)])
+    }
+
+    fn point_at(&self, x: f64, y: f64) -> Option<(f64, f64)> {
+        let f = self.sc.frame(MAP);
+        (f.is_valid() && f.contains_css(x, y, 4.0)).then(|| (f.y_at_css(y), f.x_at_css(x)))
+    }
+}
+
+impl PlotBehaviour for MapCard {
+    fn hover(&self, x: f64, y: f64, width: f64) -> Option<Hover> {
+        let m = self.sc.map.get_untracked()?;
+        let (t, b) = self.point_at(x, y)?;
+        let f = self.sc.frame(MAP);
+        if !f.contains_css(x, y, 0.0) {
+            return None;
+        }
+        let (i, k) = m.nearest(b, t)?;
+        let e = m.at(i, k);
+        let mut lines = vec![format!("top {} eV · bottom {} eV", fixed(m.tops_ev[i], 3), fixed(m.bottoms_ev[k], 3))];
+        if e.is_finite() {
+            lines.push(format!("{} % ({})", fixed(e, 2), m.connection.label()));
+            lines.push("click to move the design here".into());
+        } else {
+            lines.push("not a stack: the bottom gap must be below the top gap".into());
+        }
+        Some(Hover::new(x, y, width, Some((f.css_of_x(m.bottoms_ev[k]), f.css_of_y(m.tops_ev[i]))), lines))
+    }
+
+    fn press(&self, x: f64, y: f64) -> bool {
+        if self.sc.map.with_untracked(|m| m.is_none()) {
+            return false;
+        }
+        match self.point_at(x, y) {
+            Some((t, b)) => {
+                self.place(t, b);
+                true
+            }
+            None => false,
+        }
+    }
+
+    fn drag(&self, x: f64, y: f64) {
+        if let Some((t, b)) = self.point_at(x, y) {
+            self.place(t, b);
+        }
+    }
+
+    fn key_down(&self, ev: &web_sys::KeyboardEvent) -> bool {
+        let step = crate::app::controls::key_step(ev);
+        let (dt, db) = match ev.key().as_str() {
+            "ArrowUp" => (step, 0.0),
+            "ArrowDown" => (-step, 0.0),
+            "ArrowRight" => (0.0, step),
+            "ArrowLeft" => (0.0, -step),
+            _ => return false,
+        };
+        let g = self.sc.gaps();
+        if g.len() == 2 {
+            self.place(tidy(g[0] + dt), tidy(g[1] + db));
+        } else {
+            self.place(0.0, 0.0);
+        }
+        true
+    }
+
+    fn save(&self, what: &'static str) -> Result<(), String> {
+        let m = self.sc.map.get_untracked().ok_or("the map has not been computed yet")?;
+        let design = self.sc.ctx.scenario.with_untracked(|s| Design::of(&s.stack));
+        let describe = format!("two-junction {} map", m.connection.label());
+        save_plot(self.sc, "tandem-map", what, &describe, &MapPlot { map: &m, design }, |cap| map_csv(&m, cap))
+    }
+}
+
+fn legend(sc: StackCtx) -> impl IntoView {
+    move || {
+        let status = sc.map_status.get();
+        let m = sc.map.get();
+        let best = m
+            .as_ref()
+            .and_then(|m| m.best)
+            .map(|(t, b, e)| format!("best on the grid: top {} eV, bottom {} eV, {} %", fixed(t, 3), fixed(b, 3), fixed(e, 2)));
+        let series = m.as_ref().is_some_and(|m| m.connection == Connection::Series);
+        let n = sc.ctx.scenario.with(|s| s.stack.gaps_ev.len());
+        let design = if n == 2 {
+            "this design — click or drag to move it".to_string()
+        } else {
+            format!("the design has {n} junctions; set Junctions to 2 to place it on the map")
+        };
+        let timing = match (&status, &m) {
+            (MapStatus::Computing(f), _) => format!("computing the map… {} %", fixed(f * 100.0, 0)),
+            (MapStatus::Failed(e), _) => e.clone(),
+            (_, Some(m)) => format!("{}×{} stacks in {} ms", m.tops_ev.len(), m.bottoms_ev.len(), fixed(m.compute_ms, 0)),
+            _ => String::new(),
+        };
+        view! {
+            <span class="key"><i class="k-diamond"></i>{best}</span>
+            <span class="key"><i class="k-ring"></i>{design}</span>
+            {series.then(|| view! { <span class="key"><i class="k-line k-matched"></i>"currents matched"</span> })}
+            <span class="key"><i class="k-fill k-not-stack"></i>"not a stack"</span>
+            <span class="key map-timing" data-info="map-timing">{timing}</span>
+        }
+    }
+}
+
+/// Grid sizes offered for the map (points along each axis).
+const RESOLUTIONS: [usize; 4] = [61, 121, 201, 301];
+
+fn resolution_tool(sc: StackCtx) -> impl IntoView {
+    let ctx = sc.ctx;
+    let points = Memo::new(move |_| ctx.scenario.with(|s| s.stack.map.points));
+    let on_change = move |ev: leptos::ev::Event| {
+        if let Ok(n) = event_target_value(&ev).parse::<usize>() {
+            edit_stack(ctx, "tandem-map", move |st| st.map.points = n);
+        }
+    };
+    let options = move || {
+        let now = points.get();
+        let mut list: Vec<usize> = RESOLUTIONS.to_vec();
+        if !list.contains(&now) {
+            list.push(now);
+            list.sort_unstable();
+        }
+        list.into_iter().map(|n| view! { <option value=n.to_string() prop:selected=n == now>{format!("{n} × {n}")}</option> }).collect_view()
+    };
+    view! {
+        <label class="range-field">
+            <span>"grid"</span>
+            <select data-control="map-points" class="small-select" on:change=on_change aria-label="Points along each axis of the map">{options}</select>
+        </label>
+    }
+}
+
+pub fn map_card(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+    let ctx = sc.ctx;
+    let progress = move || match sc.map_status.get() {
+        MapStatus::Computing(f) => Some(view! { <progress class="map-progress" data-progress="map" max="1" value=f.to_string()></progress> }),
+        _ => None,
+    };
+    let note = view! {
+        <p class="field-error" data-error="tandem-map" aria-live="polite">{move || ctx.error_of("tandem-map")}</p>
+        {progress}
+    };
+    plot_card(
+        ctx,
+        Card {
+            slug: "tandem-map",
+            title: "Two-junction efficiency map",
+            aria: "Heat map of the limiting efficiency of two-junction stacks against the bottom-cell gap (across) and the top-cell gap (up), with contour lines, the best point of the grid and the current design. Click or drag to move a two-junction design; arrow keys step its gaps by 1 meV (Shift: 10 meV): left and right the bottom gap, up and down the top gap.".into(),
+            interactive: true,
+            wrap_class: "map-wrap",
+            control: None,
+            tools: view! { <div class="plot-tools">{resolution_tool(sc)}</div> }.into_any(),
+            legend: legend(sc).into_any(),
+            note: note.into_any(),
+            footer: ().into_any(),
+            canvas,
+            plot_error: Signal::derive(move || sc.plot_errors.with(|e| e[MAP].clone())),
+        },
+        Rc::new(MapCard { sc }),
+    )
+}

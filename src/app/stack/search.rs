@@ -1,0 +1,350 @@
+//! The gap search ("optimize"): it runs in a background worker that loads this same module,
+//! so the page never waits for it; the worker reports how many stacks it has evaluated, and
+//! "Cancel" ends it at once. The answer becomes the design (never worse than the design,
+//! which the search starts from as well), unless the light, the cells or the stack changed
+//! meanwhile.
+
+use std::cell::RefCell;
+
+use leptos::prelude::*;
+use serde::Deserialize;
+use wasm_bindgen::closure::Closure;
+use wasm_bindgen::{JsCast, JsValue};
+
+use super::worker::SearchReply;
+use super::{set_gaps, StackCtx};
+use crate::app::card::range_input;
+use crate::app::controls::thousands;
+use crate::app::engine::same_but_gap;
+use crate::app::fmt::{fixed, gap_ev};
+use crate::app::state::{mark, sentence};
+use crate::physics::stack::Connection;
+use crate::scenario::stack::check_gaps;
+use crate::scenario::{CellScenario, Scenario};
+
+/// Where the search stands.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub enum SearchState {
+    #[default]
+    Idle,
+    Running {
+        evaluations: u64,
+        /// performance.now() at the start [ms]
+        started: f64,
+        /// [ms] since the start at the last report
+        elapsed: f64,
+    },
+    /// what the search found
+    Done(String),
+    Failed(String),
+    Cancelled,
+}
+
+impl SearchState {
+    pub fn running(&self) -> bool {
+        matches!(self, SearchState::Running { .. })
+    }
+}
+
+/// The worker's script: it loads the app's module (the page's own, from the cache) and runs
+/// one search per message.
+const WORKER_SCRIPT: &str = r#"'use strict';
+// Glowgap's gap search, off the page: load the app's module once, then search per message.
+let ready = null;
+self.onmessage = async (e) => {
+  const msg = JSON.parse(e.data);
+  try {
+    if (!ready) ready = import(msg.module).then(async (m) => { await m.default({ module_or_path: msg.wasm }); return m; });
+    const m = await ready;
+    const reply = m.glowgap_stack_search(msg.job, (n) => self.postMessage(JSON.stringify({ id: msg.id, progress: n })));
+    self.postMessage(JSON.stringify({ id: msg.id, reply }));
+  } catch (err) {
+    self.postMessage(JSON.stringify({ id: msg.id, failed: String((err && err.message) || err) }));
+  }
+};
+"#;
+
+#[derive(Deserialize)]
+struct Message {
+    id: u64,
+    progress: Option<f64>,
+    reply: Option<String>,
+    failed: Option<String>,
+}
+
+/// What a search was started for: its answer is used only if these still hold.
+struct Started {
+    id: u64,
+    cell: CellScenario,
+    connection: Connection,
+    junctions: usize,
+    /// the design's efficiency at the start (display text)
+    before: String,
+}
+
+struct Runner {
+    worker: web_sys::Worker,
+    _on_message: Closure<dyn FnMut(web_sys::MessageEvent)>,
+    _on_error: Closure<dyn FnMut(web_sys::Event)>,
+    job: Option<Started>,
+}
+
+thread_local! {
+    static RUNNER: RefCell<Option<Runner>> = const { RefCell::new(None) };
+    static LAST_ID: std::cell::Cell<u64> = const { std::cell::Cell::new(0) };
+}
+
+fn now() -> f64 {
+    web_sys::window().and_then(|w| w.performance()).map(|p| p.now()).unwrap_or(0.0)
+}
+
+/// The absolute URLs of the app's JavaScript module and of its WebAssembly (the ones the
+/// page itself loads; the build gives them hashed names).
+fn module_urls() -> Option<(String, String)> {
+    let window = web_sys::window()?;
+    let doc = window.document()?;
+    let base = window.location().href().ok()?;
+    let attr = |sel: &str| doc.query_selector(sel).ok().flatten().and_then(|l| l.get_attribute("href"));
+    let js = attr("link[rel=\"modulepreload\"][href$=\".js\"]").or_else(|| {
+        // the page's loader script: import init, * as bindings from './glowgap-….js'
+        let script = doc.query_selector("script[type=\"module\"]").ok().flatten()?.inner_html();
+        let start = script.find("from '")? + 6;
+        let end = script[start..].find('\'')? + start;
+        Some(script[start..end].to_string())
+    })?;
+    let wasm = attr("link[rel=\"preload\"][href$=\".wasm\"]").unwrap_or_else(|| js.trim_end_matches(".js").to_string() + "_bg.wasm");
+    let abs = |u: &str| web_sys::Url::new_with_base(u, &base).ok().map(|u| u.href());
+    Some((abs(&js)?, abs(&wasm)?))
+}
+
+fn new_worker(sc: StackCtx) -> Result<Runner, String> {
+    let parts = js_sys::Array::of1(&JsValue::from_str(WORKER_SCRIPT));
+    let opts = web_sys::BlobPropertyBag::new();
+    opts.set_type("text/javascript");
+    let blob = web_sys::Blob::new_with_str_sequence_and_options(&parts, &opts).map_err(|_| "the browser could not make the worker's script")?;
+    let url = web_sys::Url::create_object_url_with_blob(&blob).map_err(|_| "the browser could not make the worker's script")?;
+    let wo = web_sys::WorkerOptions::new();
+    wo.set_type(web_sys::WorkerType::Module);
+    let worker = web_sys::Worker::new_with_options(&url, &wo).map_err(|_| "this browser cannot start a background worker for the search")?;
+    let _ = web_sys::Url::revoke_object_url(&url);
+    let on_message = Closure::<dyn FnMut(web_sys::MessageEvent)>::new(move |e: web_sys::MessageEvent| {
+        if let Some(text) = e.data().as_string() {
+            if let Ok(m) = serde_json::from_str::<Message>(&text) {
+                on_message(sc, m);
+            }
+        }
+    });
+    let on_error = Closure::<dyn FnMut(web_sys::Event)>::new(move |e: web_sys::Event| {
+        e.prevent_default();
+        let msg = js_sys::Reflect::get(&e, &JsValue::from_str("message")).ok().and_then(|m| m.as_string()).unwrap_or_default();
+        fail(sc, format!("The search stopped: the background worker failed{}.", if msg.is_empty() { String::new() } else { format!(" ({msg})") }));
+    });
+    worker.set_onmessage(Some(on_message.as_ref().unchecked_ref()));
+    worker.set_onerror(Some(on_error.as_ref().unchecked_ref()));
+    Ok(Runner { worker, _on_message: on_message, _on_error: on_error, job: None })
+}
+
+fn fail(sc: StackCtx, text: String) {
+    stop();
+    sc.search.try_set(SearchState::Failed(text));
+}
+
+/// End the worker, if any (cancel, or the panel going away).
+pub fn stop() {
+    if let Some(r) = RUNNER.with(|r| r.borrow_mut().take()) {
+        r.worker.terminate();
+    }
+}
+
+fn on_message(sc: StackCtx, m: Message) {
+    let current = RUNNER.with(|r| r.borrow().as_ref().and_then(|r| r.job.as_ref().map(|j| j.id)));
+    if current != Some(m.id) {
+        return;
+    }
+    if let Some(n) = m.progress {
+        if let Some(SearchState::Running { started, .. }) = sc.search.try_get_untracked() {
+            sc.search.try_set(SearchState::Running { evaluations: n as u64, started, elapsed: now() - started });
+        }
+        return;
+    }
+    let job = RUNNER.with(|r| r.borrow_mut().as_mut().and_then(|r| r.job.take()));
+    let Some(job) = job else { return };
+    let elapsed = match sc.search.try_get_untracked() {
+        Some(SearchState::Running { started, .. }) => now() - started,
+        _ => 0.0,
+    };
+    if let Some(f) = m.failed {
+        fail(sc, format!("The search stopped: {}", sentence(&f)));
+        return;
+    }
+    let reply: Result<SearchReply, String> = match m.reply.as_deref().map(serde_json::from_str) {
+        Some(Ok(r)) => r,
+        _ => Err("the background worker gave no readable answer".into()),
+    };
+    match reply {
+        Err(e) => sc.search.try_set(SearchState::Failed(sentence(&e))),
+        Ok(r) => apply(sc, job, r, elapsed),
+    };
+}
+
+/// Make the answer the design, if the search still fits the scenario.
+fn apply(sc: StackCtx, job: Started, r: SearchReply, elapsed: f64) -> Option<SearchState> {
+    let ctx = sc.ctx;
+    let still = ctx
+        .scenario
+        .try_with_untracked(|s| same_but_gap(&s.cell, &job.cell) && s.stack.connection == job.connection && s.stack.gaps_ev.len() == job.junctions)?;
+    if !still {
+        return sc.search.try_set(SearchState::Failed(
+            "The light, the cells or the stack changed during the search, so its answer was not used; run it again.".into(),
+        ));
+    }
+    // 0.1 meV is far below any gap that matters, and reads better than 1 µeV
+    let gaps: Vec<f64> = r.gaps_ev.iter().map(|g| (g * 1e4).round() / 1e4).collect();
+    if !set_gaps(ctx, "optimize", gaps.clone()) {
+        // the reason is under the button
+        return sc.search.try_set(SearchState::Idle);
+    }
+    mark("gg-search-done");
+    let shown: Vec<String> = gaps.iter().map(|g| gap_ev(*g)).collect();
+    let text = format!(
+        "Best {}-junction {} stack with gaps from {} to {} eV: {} eV, {} % (the design had {}). {} stacks evaluated in {} s.",
+        job.junctions,
+        job.connection.label(),
+        crate::app::fmt::field(r.from_ev, 4),
+        crate::app::fmt::field(r.to_ev, 4),
+        shown.join(" / "),
+        fixed(r.efficiency * 100.0, 2),
+        job.before,
+        thousands(r.evaluations as f64),
+        fixed(elapsed / 1000.0, 1)
+    );
+    sc.search.try_set(SearchState::Done(text))
+}
+
+/// Start a search for the current stack.
+pub fn start(sc: StackCtx) {
+    let ctx = sc.ctx;
+    if sc.search.with_untracked(|s| s.running()) {
+        return;
+    }
+    ctx.clear_error("optimize");
+    let s: Scenario = ctx.scenario.get_untracked();
+    // say what is wrong here rather than from the worker
+    let checked = check_gaps(&s.stack.gaps_ev).and_then(|_| {
+        let setup = super::compute::setup_of(&s.cell)?;
+        let settings = crate::scenario::stack::OptimizeSettings { junctions: s.stack.gaps_ev.len(), ..s.stack.optimize.clone() };
+        settings.to_problem(&setup.light, &setup.cell, s.stack.connection).map(|_| ())
+    });
+    if let Err(e) = checked {
+        ctx.set_error("optimize", sentence(&e));
+        return;
+    }
+    let Some((module, wasm)) = module_urls() else {
+        sc.search.set(SearchState::Failed("The search could not find the app's module to run in the background.".into()));
+        return;
+    };
+    let have = RUNNER.with(|r| r.borrow().is_some());
+    if !have {
+        match new_worker(sc) {
+            Ok(r) => RUNNER.with(|x| *x.borrow_mut() = Some(r)),
+            Err(e) => {
+                sc.search.set(SearchState::Failed(format!("{}.", sentence(&e).trim_end_matches('.'))));
+                return;
+            }
+        }
+    }
+    let id = LAST_ID.with(|c| {
+        c.set(c.get() + 1);
+        c.get()
+    });
+    let before = sc.view.with_untracked(|v| v.as_ref().map(|v| v.report.display("stack-efficiency")).unwrap_or_else(|| "—".into()));
+    let msg = serde_json::json!({ "id": id, "module": module, "wasm": wasm, "job": crate::codec::to_json(&s) }).to_string();
+    let posted = RUNNER.with(|r| {
+        let mut r = r.borrow_mut();
+        let r = r.as_mut()?;
+        r.job = Some(Started { id, cell: s.cell.clone(), connection: s.stack.connection, junctions: s.stack.gaps_ev.len(), before });
+        Some(r.worker.post_message(&JsValue::from_str(&msg)).is_ok())
+    });
+    if posted != Some(true) {
+        fail(sc, "The search could not be handed to the background worker.".into());
+        return;
+    }
+    mark("gg-search-start");
+    sc.search.set(SearchState::Running { evaluations: 0, started: now(), elapsed: 0.0 });
+}
+
+/// Cancel a running search.
+pub fn cancel(sc: StackCtx) {
+    if sc.search.with_untracked(|s| s.running()) {
+        stop();
+        sc.search.set(SearchState::Cancelled);
+    }
+}
+
+pub fn search_section(sc: StackCtx) -> impl IntoView {
+    let ctx = sc.ctx;
+    let running = move || sc.search.with(|s| s.running());
+    let from = Memo::new(move |_| ctx.scenario.with(|s| s.stack.optimize.from_ev));
+    let to = Memo::new(move |_| ctx.scenario.with(|s| s.stack.optimize.to_ev));
+    let bad = |text: &str| format!("'{text}' is not a band gap; type a number of eV, e.g. 0.5. The search range is unchanged.");
+    let what = move || {
+        ctx.scenario.with(|s| {
+            format!(
+                "Finds the {}-junction {} stack with the highest limit: every gap from {} to {} eV, the current design included, so the answer is never worse than it.",
+                s.stack.gaps_ev.len(),
+                s.stack.connection.label(),
+                crate::app::fmt::field(s.stack.optimize.from_ev, 4),
+                crate::app::fmt::field(s.stack.optimize.to_ev, 4)
+            )
+        })
+    };
+    let progress = move || match sc.search.get() {
+        SearchState::Running { evaluations, elapsed, .. } => {
+            if evaluations == 0 {
+                "Starting the search…".to_string()
+            } else {
+                format!("Searching… {} stacks evaluated ({} s)", thousands(evaluations as f64), fixed(elapsed / 1000.0, 1))
+            }
+        }
+        _ => String::new(),
+    };
+    let outcome = move || match sc.search.get() {
+        SearchState::Done(t) => Some(t),
+        SearchState::Cancelled => Some("Search cancelled; the design is unchanged.".into()),
+        _ => None,
+    };
+    // a range that cannot be searched is said at once, not when the button is pressed
+    let range_problem = Memo::new(move |_| {
+        let (a, b) = (from.get(), to.get());
+        let (lo, hi) = crate::scenario::GAP_RANGE_EV;
+        (!(a.is_finite() && b.is_finite() && a >= lo && b <= hi && a < b)).then(|| {
+            format!("The search range {a}–{b} eV cannot be searched; give two band gaps from {lo} to {hi} eV, the lower first (e.g. 0.2 to 4.5).")
+        })
+    });
+    let failed = move || match sc.search.get() {
+        SearchState::Failed(t) => Some(t),
+        _ => range_problem.get().or_else(|| ctx.error_of("optimize")),
+    };
+    view! {
+        <section class="panel-section search-section" aria-labelledby="search-h">
+            <h2 id="search-h">"Best gaps"</h2>
+            <p class="hint">{what}</p>
+            <div class="plot-tools search-range">
+                {range_input(ctx, "search-from", "optimize", "from", "eV", from, |s, v| s.stack.optimize.from_ev = v, bad)}
+                {range_input(ctx, "search-to", "optimize", "to", "eV", to, |s, v| s.stack.optimize.to_ev = v, bad)}
+            </div>
+            <div class="search-row">
+                <button type="button" class="action" data-action="optimize" disabled=move || running() || range_problem.get().is_some() on:click=move |_| start(sc)>
+                    {move || if running() { "Optimizing…" } else { "Optimize the gaps" }}
+                </button>
+                <button type="button" class="small" data-action="cancel-optimize" hidden=move || !running() on:click=move |_| cancel(sc)>"Cancel"</button>
+            </div>
+            <div class="search-progress" data-progress="optimize" role="status" aria-live="polite" hidden=move || !running()>
+                <div class="search-bar" aria-hidden="true"><span></span></div>
+                <span class="search-count">{progress}</span>
+            </div>
+            <p class="search-result" data-info="optimize" role="status" aria-live="polite" hidden=move || outcome().is_none()>{outcome}</p>
+            <p class="field-error" id="e-optimize" data-error="optimize" aria-live="polite">{failed}</p>
+        </section>
+    }
+}

@@ -1,0 +1,64 @@
+//! The gap search as it runs inside a background worker: the worker loads this same module,
+//! calls [`glowgap_stack_search`] with the scenario, and posts the progress and the answer
+//! back to the page. The search is the one `glowgap optimize` runs, started from the
+//! current design as well, so its answer is never worse than the design.
+
+use serde::{Deserialize, Serialize};
+use wasm_bindgen::prelude::*;
+
+use crate::physics::constants::{ev, to_ev};
+use crate::physics::stack::optimize::optimize_observed;
+use crate::scenario::stack::OptimizeSettings;
+
+/// The search's answer.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct SearchReply {
+    /// the best gaps [eV], top first
+    pub gaps_ev: Vec<f64>,
+    /// fraction
+    pub efficiency: f64,
+    pub evaluations: u64,
+    /// the searched range [eV]
+    pub from_ev: f64,
+    pub to_ev: f64,
+}
+
+/// Search the best gaps for the stack of the scenario document `job` (its number of
+/// junctions and connection, the optimizer's range and fixed gap), telling `progress` the
+/// number of stacks evaluated so far.
+pub fn run(job: &str, progress: &mut dyn FnMut(u64)) -> Result<SearchReply, String> {
+    let s = crate::codec::from_json(job).map_err(|e| e.0)?;
+    let setup = s.cell.to_physics()?;
+    let n = s.stack.gaps_ev.len();
+    let settings = OptimizeSettings { junctions: n, ..s.stack.optimize.clone() };
+    let mut problem = settings.to_problem(&setup.light, &setup.cell, s.stack.connection)?;
+    let mut seed: Vec<f64> = s.stack.gaps_ev.iter().map(|g| ev(*g)).collect();
+    if let Some(f) = problem.fixed {
+        // the fixed gap is not a free variable: drop the design's gap nearest to it
+        if let Some(i) = (0..seed.len()).min_by(|&a, &b| (seed[a] - f.gap_j).abs().total_cmp(&(seed[b] - f.gap_j).abs())) {
+            seed.remove(i);
+        }
+    }
+    problem.seeds.push(seed);
+    let best = optimize_observed(&problem, progress);
+    if best.gaps_j.len() != n {
+        return Err("the search found no usable stack; widen the search range".into());
+    }
+    Ok(SearchReply {
+        gaps_ev: best.gaps_j.iter().map(|g| to_ev(*g)).collect(),
+        efficiency: best.efficiency,
+        evaluations: best.evaluations,
+        from_ev: settings.from_ev,
+        to_ev: settings.to_ev,
+    })
+}
+
+/// Entry point for the worker: `job` is a scenario document; `progress(n)` is called with
+/// the number of stacks evaluated so far. Returns JSON, `{"Ok": reply}` or `{"Err": text}`.
+#[wasm_bindgen]
+pub fn glowgap_stack_search(job: &str, progress: &js_sys::Function) -> String {
+    let mut tell = |n: u64| {
+        let _ = progress.call1(&JsValue::NULL, &JsValue::from_f64(n as f64));
+    };
+    serde_json::to_string(&run(job, &mut tell)).unwrap_or_else(|_| "{\"Err\":\"the answer could not be written\"}".into())
+}

@@ -1,0 +1,231 @@
+// Real-browser tests of the Stack panel: headless Chromium against the release build served
+// on 127.0.0.1, its figures checked against `glowgap eval LINK --stack`. Run by .ci/test.
+import { test } from 'node:test';
+import assert from 'node:assert/strict';
+import { useBrowser, rendered, artifact, stackFigures, cliStackFigures, cliFigures, plotFrame } from './harness.mjs';
+
+const env = useBrowser();
+const fresh = (url) => env.fresh(url);
+
+const renders = (page) => page.evaluate(() => Number(document.body.dataset.renders || 0));
+
+/** Wait until the stack's figures are on the page. */
+async function stackShown(page) {
+  await page.waitForFunction(() => /%$/.test(document.querySelector('[data-metric="stack-efficiency"]')?.textContent || ''), null, { timeout: 20000 });
+}
+
+/** Wait until the two-junction map has been computed. */
+async function mapReady(page) {
+  await page.waitForFunction(() => /stacks in/.test(document.querySelector('[data-info="map-timing"]')?.textContent || ''), null, { timeout: 20000 });
+}
+
+/** Open the Stack tab from the tab bar. */
+async function openStack(page) {
+  const n0 = await renders(page);
+  await page.locator('[data-panel="stack"]').click();
+  await rendered(page, n0 + 1);
+  await stackShown(page);
+}
+
+/** Open `link` in a new context (no saved state): the same figures, then `check(page)`. */
+async function reopened(link, figures, check) {
+  const { context, page } = await fresh(link);
+  await stackShown(page);
+  assert.deepEqual(await stackFigures(page), figures);
+  await check(page);
+  assert.deepEqual(page.errors, []);
+  await context.close();
+}
+
+/** Do `action`, then wait for the page to render and the link to change. */
+async function edit(page, action) {
+  const url0 = page.url();
+  const n0 = await renders(page);
+  await action();
+  await rendered(page, n0 + 1);
+  await page.waitForFunction((u) => location.href !== u, url0, { timeout: 10000 });
+}
+
+test('the Stack tab shows the figures of glowgap eval --stack, from the tab bar and from a link', async () => {
+  const { context, page } = await fresh();
+  await openStack(page);
+  const shown = await stackFigures(page);
+  const link = page.url();
+  assert.deepEqual(shown, cliStackFigures(link));
+  // the default design: a 1.7/1.1 eV series tandem under AM1.5G (glowgap stack --gaps 1.7,1.1)
+  assert.equal(shown['stack-efficiency'], '44.36 %');
+  await mapReady(page);
+  await page.screenshot({ path: artifact('stack-default.png'), fullPage: true });
+  assert.deepEqual(page.errors, []);
+
+  // the link holds the panel: a new page opens straight on the stack
+  await reopened(link, shown, async (p) => {
+    assert.equal(await p.locator('[data-panel="stack"]').getAttribute('aria-selected'), 'true');
+  });
+  await context.close();
+});
+
+test('the editor: add a junction, change the connection, step gap 1 with the keys; the link reopens identically', async () => {
+  const { context, page } = await fresh();
+  await openStack(page);
+  const start = await stackFigures(page);
+
+  await edit(page, () => page.locator('[data-control="junctions"]').selectOption('3'));
+  await page.locator('[data-control="gap-3"]').waitFor();
+  const three = await stackFigures(page);
+  assert.notDeepEqual(three, start, 'a third junction changes the figures');
+  assert.deepEqual(three, cliStackFigures(page.url()));
+
+  await edit(page, () => page.locator('[data-control="connection"]').selectOption('independent'));
+  const independent = await stackFigures(page);
+  assert.notDeepEqual(independent, three);
+  assert.deepEqual(independent, cliStackFigures(page.url()));
+  // independent subcells at their own maximum power points do at least as well as in series
+  assert.ok(parseFloat(independent['stack-efficiency']) >= parseFloat(three['stack-efficiency']));
+
+  const gap1 = page.locator('[data-control="gap-1"]');
+  const g0 = parseFloat(await gap1.inputValue());
+  await gap1.focus();
+  await edit(page, () => page.keyboard.press('ArrowUp'));
+  assert.ok(Math.abs(parseFloat(await gap1.inputValue()) - (g0 + 0.001)) < 1e-9, 'ArrowUp: +1 meV');
+  await edit(page, () => page.keyboard.press('Shift+ArrowUp'));
+  assert.ok(Math.abs(parseFloat(await gap1.inputValue()) - (g0 + 0.011)) < 1e-9, 'Shift+ArrowUp: +10 meV');
+  const stepped = await stackFigures(page);
+  assert.notDeepEqual(stepped, independent);
+  const link = page.url();
+  assert.deepEqual(stepped, cliStackFigures(link));
+
+  // a gap that breaks the order is refused next to its field; the design stays
+  await gap1.fill('0.7');
+  const err = page.locator('[data-error="gap-1"]');
+  await err.waitFor({ state: 'visible' });
+  assert.match(await err.innerText(), /band gap 1 .* not above band gap 2/i);
+  assert.deepEqual(await stackFigures(page), stepped);
+  assert.equal(page.url(), link);
+
+  // a new context (no saved state) on that link shows the same design and figures
+  await reopened(link, stepped, async (p) => {
+    assert.equal(await p.locator('[data-control="junctions"]').inputValue(), '3');
+    assert.equal(await p.locator('[data-control="connection"]').inputValue(), 'independent');
+    assert.ok(Math.abs(parseFloat(await p.locator('[data-control="gap-1"]').inputValue()) - (g0 + 0.011)) < 1e-9);
+  });
+  assert.deepEqual(page.errors, []);
+  await context.close();
+});
+
+test('a click on the map moves the design to the clicked gaps', async () => {
+  const { context, page } = await fresh();
+  await openStack(page);
+  await mapReady(page);
+  const map = page.locator('[data-plot="tandem-map"]');
+  await map.scrollIntoViewIfNeeded();
+  const f = await plotFrame(page, 'tandem-map');
+  const box = await map.boundingBox();
+  const [bottom, top] = [1.0, 1.8];
+  const x = f.left + ((bottom - f.x[0]) / (f.x[1] - f.x[0])) * (f.right - f.left);
+  const y = f.bottom - ((top - f.y[0]) / (f.y[1] - f.y[0])) * (f.bottom - f.top);
+  const before = await stackFigures(page);
+  await edit(page, () => page.mouse.click(box.x + x, box.y + y));
+  const g1 = parseFloat(await page.locator('[data-control="gap-1"]').inputValue());
+  const g2 = parseFloat(await page.locator('[data-control="gap-2"]').inputValue());
+  // one CSS pixel is about 2 meV on this map
+  assert.ok(Math.abs(g1 - top) <= 0.004, `top gap ${g1}`);
+  assert.ok(Math.abs(g2 - bottom) <= 0.004, `bottom gap ${g2}`);
+  const after = await stackFigures(page);
+  assert.notDeepEqual(after, before);
+  assert.deepEqual(after, cliStackFigures(page.url()));
+  await page.locator('[data-card="tandem-map"]').screenshot({ path: artifact('stack-map.png') });
+  assert.deepEqual(page.errors, []);
+  await context.close();
+});
+
+/** Record what the search's progress line shows while it runs. */
+async function watchProgress(page) {
+  await page.evaluate(() => {
+    window.__seen = [];
+    const el = document.querySelector('[data-progress="optimize"]');
+    new MutationObserver(() => {
+      if (!el.hidden) window.__seen.push(el.textContent);
+    }).observe(el, { subtree: true, childList: true, characterData: true, attributes: true });
+  });
+}
+
+test('optimize runs in the background with progress, ends no worse than the design, and can be cancelled', async () => {
+  const { context, page } = await fresh();
+  await openStack(page);
+  const before = parseFloat((await stackFigures(page))['stack-efficiency']);
+  await watchProgress(page);
+  await page.locator('[data-action="optimize"]').click();
+  const result = page.locator('[data-info="optimize"]');
+  await result.waitFor({ state: 'visible', timeout: 30000 });
+  assert.match(await result.innerText(), /Best 2-junction series stack/);
+  await page.waitForFunction((b) => parseFloat(document.querySelector('[data-metric="stack-efficiency"]').textContent) >= b, before);
+  const best = await stackFigures(page);
+  assert.ok(parseFloat(best['stack-efficiency']) >= before, `${best['stack-efficiency']} vs ${before}`);
+  // glowgap optimize --junctions 2: 45.73 % at 1.633 / 0.960 eV
+  assert.equal(best['stack-efficiency'], '45.73 %');
+  assert.deepEqual(best, cliStackFigures(page.url()));
+  assert.ok((await page.evaluate(() => window.__seen)).length > 0, 'the progress line was shown');
+
+  // six junctions take long enough to watch the count and to cancel
+  await edit(page, () => page.locator('[data-control="junctions"]').selectOption('6'));
+  const six = await stackFigures(page);
+  const link = page.url();
+  await watchProgress(page);
+  await page.locator('[data-action="optimize"]').click();
+  await page.waitForFunction(() => window.__seen.some((t) => /stacks evaluated/.test(t)), null, { timeout: 30000 });
+  await page.locator('[data-action="cancel-optimize"]').click();
+  await result.waitFor({ state: 'visible' });
+  assert.match(await result.innerText(), /cancelled/i);
+  assert.equal(await page.locator('[data-progress="optimize"]').isVisible(), false);
+  await page.waitForTimeout(1500);
+  assert.deepEqual(await stackFigures(page), six, 'a cancelled search leaves the design alone');
+  assert.equal(page.url(), link);
+
+  // and run to the end it beats the design
+  await page.locator('[data-action="optimize"]').click();
+  await page.waitForFunction(() => /Best 6-junction/.test(document.querySelector('[data-info="optimize"]')?.textContent || ''), null, { timeout: 60000 });
+  await page.waitForFunction((u) => location.href !== u, link);
+  const best6 = await stackFigures(page);
+  assert.ok(parseFloat(best6['stack-efficiency']) >= parseFloat(six['stack-efficiency']));
+  assert.deepEqual(best6, cliStackFigures(page.url()));
+
+  // a range that cannot be searched is said under the button, which waits for a good one
+  await page.locator('[data-control="search-to"]').fill('0.1');
+  await page.locator('[data-error="optimize"]').waitFor({ state: 'visible' });
+  assert.match(await page.locator('[data-error="optimize"]').innerText(), /search range .* lower first/);
+  assert.equal(await page.locator('[data-action="optimize"]').isDisabled(), true);
+  await page.locator('[data-control="search-to"]').fill('4.5');
+  await page.waitForFunction(() => !document.querySelector('[data-action="optimize"]').disabled);
+  assert.deepEqual(page.errors, []);
+  await context.close();
+});
+
+test('an EQE file gives its Jsc and Voc limits next to the ideal step; a bad file is refused beside its button', async () => {
+  const { context, page } = await fresh();
+  await openStack(page);
+  const input = page.locator('[data-control="eqe-file"]');
+  await input.setInputFiles({ name: 'broken.csv', mimeType: 'text/csv', buffer: Buffer.from('wavelength_nm,eqe_percent\n400,50\n500,abc\n') });
+  const err = page.locator('[data-error="eqe-file"]');
+  await err.waitFor({ state: 'visible' });
+  assert.match(await err.innerText(), /line 3/i);
+
+  // a flat 90 % EQE from 300 to 800 nm, falling to 0 at 850 nm
+  const rows = ['wavelength_nm,eqe_percent'];
+  for (let nm = 300; nm <= 800; nm += 10) rows.push(`${nm},90`);
+  rows.push('825,45', '850,0');
+  await edit(page, () => input.setInputFiles({ name: 'flat.csv', mimeType: 'text/csv', buffer: Buffer.from(rows.join('\n') + '\n') }));
+  const cell = page.locator('[data-metric="eqe-jsc"]');
+  await cell.waitFor();
+  assert.equal(await err.isVisible(), false);
+  // glowgap eval LINK shows the cell with this absorptance: the same Jsc, Voc and efficiency
+  const cli = cliFigures(page.url());
+  assert.equal(await cell.innerText(), cli.jsc);
+  assert.equal(await page.locator('[data-metric="eqe-voc"]').innerText(), cli.voc);
+  assert.equal(await page.locator('[data-metric="eqe-efficiency"]').innerText(), cli.efficiency);
+  // 90 % of the light collected: less current than the ideal step at the same edge
+  assert.ok(parseFloat(await cell.innerText()) < parseFloat(await page.locator('[data-metric="eqe-jsc-step"]').innerText()));
+  await page.locator('[data-plot="eqe"]').waitFor({ state: 'visible' });
+  assert.deepEqual(page.errors, []);
+  await context.close();
+});
