@@ -106,12 +106,22 @@ proptest! {
             prop_assert!((back.coordinates()[i] - x[i]).abs() <= 1e-15 * x[i]);
             prop_assert!((back.values()[i] - y[i]).abs() <= 1e-12 * y[i].max(1e-300) + 1e-300);
         }
-        // and a change of variable keeps the integral to the trapezoid discretization error:
-        // on this 7 nm grid the two trapezoid rules differ by O(h^2 f''), below 2% here
-        let e = s.converted(Axis::PhotonEnergy, Quantity::Irradiance);
-        let total = s.total_power();
-        if total > 1e-3 {
-            prop_assert!((e.total_power() - total).abs() <= 0.02 * total + 1e-9, "{} vs {}", e.total_power(), total);
-        }
+    }
+}
+
+#[test]
+fn change_of_axis_keeps_the_integral_of_a_smooth_spectrum() {
+    // A 5772 K Planck curve tabulated every 7 nm from 300 to 2000 nm: the trapezoid rules on
+    // the wavelength and on the energy grid differ by O(h^2 f'') (about 1e-5 here), so the
+    // integral must survive the change of variable to 1e-3 relative. (Random tables are
+    // not used here: for spiky data the two trapezoid rules can differ by any amount.)
+    let x: Vec<f64> = (0..=242).map(|i| (300.0 + 7.0 * i as f64) * 1e-9).collect();
+    let y: Vec<f64> = x.iter().map(|&l| radiance_per_wavelength(l, 5772.0)).collect();
+    let s = Spectrum::new("bb", "test", Axis::Wavelength, Quantity::Irradiance, x, y).unwrap();
+    for axis in [Axis::PhotonEnergy, Axis::Wavenumber] {
+        let c = s.converted(axis, Quantity::Irradiance);
+        assert!((c.total_power() / s.total_power() - 1.0).abs() < 1e-3, "{axis:?}");
+        let p = s.converted(axis, Quantity::PhotonFlux);
+        assert!((p.total_photon_flux() / s.total_photon_flux() - 1.0).abs() < 1e-3, "{axis:?}");
     }
 }
