@@ -30,37 +30,19 @@ impl From<std::io::Error> for Failure {
 
 type Out<'a> = &'a mut dyn Write;
 
-const CELL_VALUED: &[&str] = &[
-    "gap",
-    "spectrum",
-    "spectrum-axis",
-    "spectrum-values",
-    "spectrum-column",
-    "concentration",
-    "cell-temp",
-    "ere",
-    "emission",
-    "approx",
-    // measured or modelled absorptance (stack.rs)
-    "eqe",
-    "urbach",
-    "measured-voc",
-];
+/// The valued options of a command followed by the light-source and cell options that
+/// [`apply_common`] reads, so that every command accepts exactly the options it applies.
+macro_rules! with_light_and_cell_options {
+    ($($own:expr),* $(,)?) => {
+        &[$($own,)* "spectrum", "spectrum-axis", "spectrum-values", "spectrum-column",
+          "concentration", "cell-temp", "ere", "emission", "approx"]
+    };
+}
+pub(super) use with_light_and_cell_options;
 
-const SWEEP_VALUED: &[&str] = &[
-    "from",
-    "to",
-    "step",
-    "spectrum",
-    "spectrum-axis",
-    "spectrum-values",
-    "spectrum-column",
-    "concentration",
-    "cell-temp",
-    "ere",
-    "emission",
-    "approx",
-];
+// measured or modelled absorptance options (eqe, urbach, measured-voc) are read in stack.rs
+const CELL_VALUED: &[&str] = with_light_and_cell_options!("gap", "eqe", "urbach", "measured-voc");
+const SWEEP_VALUED: &[&str] = with_light_and_cell_options!("from", "to", "step");
 
 pub fn dispatch(args: &[String], out: Out) -> Result<(), Failure> {
     let Some(cmd) = args.first() else {

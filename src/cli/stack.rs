@@ -21,9 +21,9 @@ use std::io::Write;
 type Out<'a> = &'a mut dyn Write;
 
 /// Options of each command: its own, then the source and cell options of `cell` and `sweep`.
-const STACK_VALUED: &[&str] = &["gaps", "connection", "spectrum", "spectrum-axis", "spectrum-values", "spectrum-column", "concentration", "cell-temp", "ere", "emission", "approx"];
-const OPTIMIZE_VALUED: &[&str] = &["junctions", "connection", "fix", "fix-at", "from", "to", "spectrum", "spectrum-axis", "spectrum-values", "spectrum-column", "concentration", "cell-temp", "ere", "emission", "approx"];
-const LOSSES_VALUED: &[&str] = &["gap", "from", "to", "step", "spectrum", "spectrum-axis", "spectrum-values", "spectrum-column", "concentration", "cell-temp", "ere", "emission", "approx"];
+const STACK_VALUED: &[&str] = super::commands::with_light_and_cell_options!("gaps", "connection");
+const OPTIMIZE_VALUED: &[&str] = super::commands::with_light_and_cell_options!("junctions", "connection", "fix", "fix-at", "from", "to");
+const LOSSES_VALUED: &[&str] = super::commands::with_light_and_cell_options!("gap", "from", "to", "step");
 
 fn print_json<T: serde::Serialize>(out: Out, v: &T) -> Result<(), Failure> {
     serde_json::to_writer(&mut *out, v).map_err(|_| Failure::Output)?;
