@@ -102,27 +102,50 @@ fn stack_map(rounds: usize) {
     );
 }
 
-/// One radiator evaluation (balance, steady temperature, figures) in closed form (window
-/// emitter, box sky) and on the fine grid (control points, clear sky, sun). Printed only.
+/// The radiator balance (issue goals: one full balance with an angle-dependent profile and
+/// the clear sky on the default grid under 2 ms; the steady temperature under 5 ms). The
+/// closed-form case (window emitter, box sky) for scale. Printed only.
 fn radiator_balance(rounds: usize) {
-    use glowgap::physics::radiator::{evaluate, Emitter, Profile, Sky, Sun, Surroundings};
+    use glowgap::physics::radiator::{evaluate, AngularModel, Balance, Emitter, Profile, Sky, Sun, Surroundings};
     let window = Emitter::new(Profile::ideal_window(8e-6, 13e-6));
     let boxed = Surroundings { sky: Sky::textbook_box(), ambient_k: 300.0, sun: None, h_c: 0.0 };
     let exact = median_per_call(rounds, 200, || {
         black_box(evaluate(black_box(&window), &boxed, 300.0));
     });
-    let points = Emitter::new(Profile::Points { points: vec![(0.3e-6, 0.05), (4e-6, 0.05), (8e-6, 0.95), (13e-6, 0.95), (14e-6, 0.2)] });
+    // control points on the log axis, an angular cut-off at 70 deg (0.1 beyond), under the
+    // clear sky with 1.5 cm of water and the AM1.5G sun, h_c = 5 W/m2K
+    let mut points = Emitter::new(Profile::Points { points: vec![(0.3e-6, 0.05), (4e-6, 0.05), (8e-6, 0.95), (13e-6, 0.95), (14e-6, 0.2)] });
+    points.angular = AngularModel::CutOff { angle_rad: 70f64.to_radians(), beyond: 0.1 };
     let clear = Surroundings {
         sky: Sky::Clear { pwv_m: 0.015 },
         ambient_k: 300.0,
         sun: Some(Sun { source: Source::am15g(), zenith_rad: 0.0, scale: 1.0 }),
         h_c: 5.0,
     };
-    let grid = median_per_call(rounds, 5, || {
+    let balance = median_per_call(rounds, 20, || {
+        black_box(Balance::new(black_box(&points), &clear).parts(300.0));
+    });
+    let prepared = Balance::new(&points, &clear);
+    let steady = median_per_call(rounds, 20, || {
+        black_box(black_box(&prepared).steady());
+    });
+    let from_scratch = median_per_call(rounds, 20, || {
+        black_box(Balance::new(black_box(&points), &clear).steady());
+    });
+    let full = median_per_call(rounds, 20, || {
         black_box(evaluate(black_box(&points), &clear, 300.0));
     });
-    println!("bench radiator_closed_form          {:>10.3} ms   (window emitter, box sky)", exact * 1e3);
-    println!("bench radiator_grid_clear_sky       {:>10.3} ms   (control points, clear sky, AM1.5G)", grid * 1e3);
+    let nodes = glowgap::physics::radiator::spectral::Grid::fine(&{
+        let mut k = points.knots();
+        k.extend(clear.sky.knots());
+        k
+    })
+    .nodes
+    .len();
+    println!("bench radiator_closed_form          {:>10.3} ms   (window emitter, box sky: balance, steady T, figures)", exact * 1e3);
+    println!("bench radiator_balance_clear_sky    {:>10.3} ms   (goal < 2 ms; cut-off points emitter, clear sky, AM1.5G, {nodes} grid nodes)", balance * 1e3);
+    println!("bench radiator_steady_temperature   {:>10.3} ms   (goal < 5 ms; {:.3} ms with the balance prepared)", from_scratch * 1e3, steady * 1e3);
+    println!("bench radiator_evaluate_clear_sky   {:>10.3} ms   (balance, steady T and figures of merit)", full * 1e3);
 }
 
 /// Run the vectorized numpy script for the same curve in this same run and print the ratio.

@@ -5,7 +5,7 @@
 //! tolerance says why it is what it is.
 
 use glowgap::physics::planck::{band_power_wavelength, stefan_boltzmann};
-use glowgap::physics::radiator::balance::{sky_broadband_emissivity, sky_hemispherical};
+use glowgap::physics::radiator::balance::{sky_and_share, sky_broadband_emissivity, sky_hemispherical};
 use glowgap::physics::radiator::clear_sky::zenith_optical_depth;
 use glowgap::physics::radiator::merit::{solar_reflectance, thermal_emittance, window_emissivity};
 use glowgap::physics::radiator::solar::weighted_irradiance;
@@ -162,9 +162,12 @@ fn smooth_profiles_match_scipy_quadrature() {
 fn sky_angular_integral_matches_the_exponential_integral() {
     // tests/fixtures/radiator_sky_angles.csv: 2 int_0^1 (1 - e^(-tau/mu)) mu dmu =
     // 1 - 2 E_3(tau) (scipy.special.expn), the hemispherical emissivity of a layer with the
-    // Granqvist & Hjortsberg 1981 angular law. Our side: 32-point Gauss-Legendre in mu.
-    // Tolerance 5e-7 absolute: the rule's worst error over all tau is 3.4e-7 (at tau near
-    // 1e-2, where e^(-tau/mu) changes fastest near the horizon), i.e. 2e-4 W/m² at 300 K.
+    // Granqvist & Hjortsberg 1981 angular law. Our side: the same closed form with our own
+    // E_3 (series and continued fraction, A&S 5.1.12 and 5.1.22), and the cut-off emitter's
+    // share by the same formula on each angular piece against 64-point Gauss-Legendre in mu.
+    // Tolerance 1e-13 absolute: both sides are good to a few 1e-16 relative (scipy's expn
+    // and our E_3, checked against 30-digit values to 5e-15 relative), and the difference
+    // 1 - 2 E_3 loses at most two digits to cancellation at tau = 1e-4.
     let rows = fixture_rows(include_str!("fixtures/radiator_sky_angles.csv"));
     assert!(rows.len() > 30);
     for r in rows {
@@ -172,7 +175,25 @@ fn sky_angular_integral_matches_the_exponential_integral() {
         let t = (-tau).exp();
         let sky = Sky::Table(Transmittance { wavelength_m: vec![1e-6, 100e-6], transmittance: vec![t, t] });
         let ours = sky_hemispherical(&sky, 10e-6, 300.0);
-        assert!((ours - num(&r[1])).abs() < 5e-7, "tau {tau}: {ours} vs {}", r[1]);
+        assert!((ours - num(&r[1])).abs() < 1e-13, "tau {tau}: {ours} vs {}", r[1]);
+    }
+}
+
+#[test]
+fn cut_off_emitter_share_of_a_sky_layer_matches_scipy() {
+    // tests/fixtures/radiator_cutoff_share.csv: 2 int_0^1 eps(mu) (1 - e^(-tau/mu)) mu dmu
+    // for an emitter with an angular cut-off, by scipy quad split at the cut-off (epsabs
+    // 1e-12 per piece). Our side: the closed form with E_3 on each angular piece.
+    // Tolerance 1e-11 absolute: the two quad pieces' error allowance plus rounding.
+    let rows = fixture_rows(include_str!("fixtures/radiator_cutoff_share.csv"));
+    assert_eq!(rows.len(), 20);
+    for r in rows {
+        let (tau, angle, eps, beyond) = (num(&r[0]), num(&r[1]).to_radians(), num(&r[2]), num(&r[3]));
+        let model = AngularModel::CutOff { angle_rad: angle, beyond };
+        let (alone, share) = sky_and_share(&model, eps, SkyPath::Depth(tau));
+        assert!((share - num(&r[4])).abs() < 1e-11, "{r:?}: {share}");
+        // and the sky alone is the Lambertian layer, 1 - 2 E_3(tau) <= 1
+        assert!(alone >= share && alone <= 1.0);
     }
 }
 

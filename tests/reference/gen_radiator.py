@@ -25,6 +25,10 @@ Quantities
   depth tau with eps(theta) = 1 - t^(1/cos theta) (Granqvist & Hjortsberg, J. Appl. Phys.
   52, 4205, 1981): 2 int_0^1 (1 - e^(-tau/mu)) mu dmu = 1 - 2 E_3(tau), from
   scipy.special.expn, cross-checked by scipy quad.
+* radiator_cutoff_share.csv: the share of that sky absorbed by an emitter with an angular
+  cut-off (normal emissivity eps up to the cut-off angle theta_c, `beyond` from there to
+  grazing): 2 int_0^1 eps(mu) (1 - e^(-tau/mu)) mu dmu by scipy quad split at
+  mu_c = cos theta_c.
 * radiator_solar.csv: AM1.5G power absorbed by profiles, int eps(lambda) I(lambda)
   dlambda over ASTM G173-03 (global tilt column), with I interpolated linearly between the
   table's points, by scipy quad on every table interval.
@@ -237,6 +241,23 @@ def write_sky_angles():
     )
 
 
+def write_cutoff_share():
+    rows = []
+    for tau in (1e-3, 0.05, 0.7, 3.0, 20.0):
+        for angle_deg, eps, beyond in ((30.0, 0.9, 0.0), (60.0, 0.95, 0.2), (80.0, 0.5, 1.0), (89.0, 1.0, 0.05)):
+            mu_c = math.cos(math.radians(angle_deg))
+            layer = lambda mu: 2 * (-math.expm1(-tau / mu)) * mu  # noqa: E731
+            share = beyond * quad(layer, 0.0, mu_c) + eps * quad(layer, mu_c, 1.0)
+            rows.append((sq.fmt(tau), sq.fmt(angle_deg), sq.fmt(eps), sq.fmt(beyond), share))
+    write_fixture(
+        "radiator_cutoff_share.csv",
+        ["share of a sky layer absorbed by a cut-off emitter: 2 int_0^1 eps(mu) (1 - exp(-tau/mu)) mu dmu,",
+         "eps(mu) = eps for mu >= cos(angle), beyond below; scipy quad split at cos(angle)"],
+        "tau,cutoff_deg,eps,beyond,share",
+        rows,
+    )
+
+
 # ------------------------------------------------------------ sunlight
 SOLAR = [
     # (case, eps(lambda), corners [m])
@@ -275,6 +296,7 @@ def main():
     write_balance()
     write_profiles()
     write_sky_angles()
+    write_cutoff_share()
     write_solar()
 
 

@@ -92,7 +92,7 @@ pub fn clamp_fraction(v: f64) -> f64 {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::physics::radiator::quadrature::angular_rule;
+    use crate::physics::radiator::quadrature::GaussRule;
 
     #[test]
     fn hemispherical_closed_form_matches_quadrature() {
@@ -100,7 +100,7 @@ mod tests {
         let q: f64 = m
             .mu_pieces()
             .into_iter()
-            .map(|(a, b)| angular_rule().integrate(a, b, |mu| 2.0 * m.apply(0.9, mu) * mu))
+            .map(|(a, b)| GaussRule::new(32).integrate(a, b, |mu| 2.0 * m.apply(0.9, mu) * mu))
             .sum();
         assert!((q - m.hemispherical(0.9)).abs() < 1e-14);
         // 60 deg cut-off, nothing beyond: sin^2(60 deg) = 3/4 of the normal value

@@ -12,9 +12,9 @@
 //!
 //! With cos(theta) dOmega = 2 pi mu dmu, each hemispherical integral is
 //! pi integral dlambda B_lambda * 2 integral_0^1 (...) mu dmu. The angular part is closed form
-//! for the emitter alone ([`AngularModel::hemispherical`]) and for an isotropic sky; against
-//! an anisotropic sky it is the Gauss-Legendre rule in mu, on each piece where the
-//! emitter's angular model is smooth. The spectral part is exact band integrals where
+//! for the emitter alone ([`AngularModel::hemispherical`]), for an isotropic sky, and against
+//! a sky layer of optical depth tau through the exponential integral E_3 on each piece where
+//! the emitter's angular model is constant. The spectral part is exact band integrals where
 //! everything is piecewise constant in wavelength, and the fine grid otherwise (see
 //! [`super::spectral`]).
 //!
@@ -22,13 +22,13 @@
 //! whenever the surface emits at all or h_c > 0, so the steady temperature (P_net = 0) is
 //! unique when it exists and a bracketing search finds it.
 
-use super::angular::AngularModel;
+use super::angular::{clamp_fraction, AngularModel};
 use super::emissivity::{Emitter, Piece};
-use super::quadrature::angular_rule;
 use super::sky::{Sky, SkyPath, SPACE_TEMPERATURE_K};
 use super::solar::Sun;
 use super::spectral::{Grid, Weights};
 use crate::physics::planck::stefan_boltzmann;
+use crate::physics::special::exp_integral_3;
 
 /// What surrounds the radiator.
 #[derive(Debug, Clone)]
@@ -113,15 +113,36 @@ fn breaks(pieces: &[Piece]) -> Vec<f64> {
     pieces.iter().flat_map(|p| [p.0, p.1]).filter(|l| l.is_finite() && *l > 0.0).collect()
 }
 
-/// 2 integral_0^1 eps(mu) s(mu) mu dmu over the emitter's angular pieces, for an emitter of
-/// normal emissivity `eps` under a sky of directional emissivity `sky(mu)`.
-fn angular_product(angular: &AngularModel, eps: f64, sky: impl Fn(f64) -> f64) -> f64 {
-    let rule = angular_rule();
-    angular
-        .mu_pieces()
-        .into_iter()
-        .map(|(a, b)| rule.integrate(a, b, |mu| 2.0 * angular.apply(eps, mu) * sky(mu) * mu))
-        .sum()
+/// The sky's hemispherical emissivity 2 integral_0^1 eps_sky(mu) mu dmu and the emitter's
+/// share of it, 2 integral_0^1 eps(mu) eps_sky(mu) mu dmu, for an emitter of normal
+/// emissivity `eps` under the sky `path`, both in closed form. The emitter's angular model
+/// is constant on each of its pieces [a, b] in mu, and for a layer of zenith optical depth
+/// tau
+///   2 integral_a^b (1 - e^(-tau/mu)) mu dmu = (b^2 - a^2) - 2 (b^2 E_3(tau/b) - a^2 E_3(tau/a)),
+/// since integral_a^b e^(-tau/mu) mu dmu = integral_{1/b}^{1/a} e^(-tau t) t^-3 dt and
+/// integral_c^inf e^(-tau t) t^-3 dt = c^-2 E_3(tau c) (A&S 5.1.4). Over the whole
+/// hemisphere this is the familiar 1 - 2 E_3(tau) of a plane layer (e.g. Modest, Radiative
+/// Heat Transfer, 3rd ed., 2013, ch. 14).
+pub fn sky_and_share(angular: &AngularModel, eps: f64, path: SkyPath) -> (f64, f64) {
+    match path {
+        SkyPath::Isotropic(s) => {
+            let s = clamp_fraction(s);
+            (s, angular.hemispherical(eps) * s)
+        }
+        SkyPath::Depth(tau) => {
+            let tau = if tau.is_nan() { 0.0 } else { tau.max(0.0) };
+            // mu^2 E_3(tau/mu), which tends to 0 as mu -> 0 for every tau >= 0
+            let slant = |mu: f64| if mu > 0.0 { mu * mu * exp_integral_3(tau / mu) } else { 0.0 };
+            let at_zenith = slant(1.0);
+            let edge = |mu: f64| if mu == 1.0 { at_zenith } else { slant(mu) };
+            let share: f64 = angular
+                .mu_pieces()
+                .into_iter()
+                .map(|(a, b)| angular.apply(eps, 0.5 * (a + b)) * ((b * b - a * a) - 2.0 * (edge(b) - edge(a))))
+                .sum();
+            (clamp_fraction(1.0 - 2.0 * at_zenith), clamp_fraction(share))
+        }
+    }
 }
 
 /// The grid for a weight that is piecewise constant when both `a` and `b` are, and the
@@ -142,8 +163,13 @@ pub fn grid_for(a: Option<Vec<Piece>>, b: Option<Vec<Piece>>, knots: &[f64]) -> 
 pub fn sky_broadband_emissivity(sky: &Sky, ambient_k: f64) -> f64 {
     let (grid, _) = grid_for(sky.constant_pieces(), Some(vec![]), &sky.knots());
     let w = grid.weights(|l| sky_hemispherical(sky, l, ambient_k));
-    let space = w.combine(&w, |v, _| 1.0 - v);
-    let down = grid.against_blackbody(&w, ambient_k) + grid.against_blackbody(&space, SPACE_TEMPERATURE_K);
+    broadband(&grid, &w, ambient_k)
+}
+
+/// Downwelling flux over sigma T_a^4 for the sky's hemispherical emissivity `w` on `grid`.
+fn broadband(grid: &Grid, w: &Weights, ambient_k: f64) -> f64 {
+    let space = w.combine(w, |v, _| 1.0 - v);
+    let down = grid.against_blackbody(w, ambient_k) + grid.against_blackbody(&space, SPACE_TEMPERATURE_K);
     let sigma_t4 = stefan_boltzmann(ambient_k);
     if sigma_t4 > 0.0 {
         (down / sigma_t4).clamp(0.0, 1.0)
@@ -154,10 +180,7 @@ pub fn sky_broadband_emissivity(sky: &Sky, ambient_k: f64) -> f64 {
 
 /// Hemispherical emissivity of the sky at one wavelength, 2 integral_0^1 eps_sky mu dmu.
 pub fn sky_hemispherical(sky: &Sky, lambda_m: f64, ambient_k: f64) -> f64 {
-    match sky.along(lambda_m, ambient_k) {
-        SkyPath::Isotropic(s) => s,
-        path => angular_product(&AngularModel::Lambertian, 1.0, |mu| path.emissivity(mu)),
-    }
+    sky_and_share(&AngularModel::Lambertian, 1.0, sky.along(lambda_m, ambient_k)).0
 }
 
 impl Balance {
@@ -170,13 +193,15 @@ impl Balance {
         let (grid, method) = grid_for(emitter.constant_pieces(), sky.constant_pieces(), &knots);
         let emit = grid.weights(|l| emitter.hemispherical(l));
         // absorbed from the atmosphere (at T_a) and from space (at 3 K) through the rest
+        // (the sky is read once per wavelength; its own hemispherical emissivity comes along
+        // for the broadband figure)
+        let mut sky_alone = Vec::with_capacity(grid.bands.len() + grid.nodes.len());
         let absorbed_sky = grid.weights(|l| {
-            let eps = emitter.normal(l);
-            match sky.along(l, ta) {
-                SkyPath::Isotropic(s) => emitter.angular.hemispherical(eps) * s,
-                path => angular_product(&emitter.angular, eps, |mu| path.emissivity(mu)),
-            }
+            let (alone, share) = sky_and_share(&emitter.angular, emitter.normal(l), sky.along(l, ta));
+            sky_alone.push(alone);
+            share
         });
+        let sky_alone = Weights::from_samples(sky_alone, grid.bands.len());
         let through = emit.combine(&absorbed_sky, |e, s| (e - s).max(0.0));
         let sky_absorbed = grid.against_blackbody(&absorbed_sky, ta) + grid.against_blackbody(&through, SPACE_TEMPERATURE_K);
         let sun_absorbed = match &surroundings.sun {
@@ -184,12 +209,13 @@ impl Balance {
             None => 0.0,
         };
         let h_c = if surroundings.h_c.is_nan() { 0.0 } else { surroundings.h_c.max(0.0) };
+        let sky_emissivity = broadband(&grid, &sky_alone, ta);
         Balance {
             grid,
             emit,
             sky_absorbed: finite(sky_absorbed),
             sun_absorbed: finite(sun_absorbed),
-            sky_emissivity: sky_broadband_emissivity(sky, ta),
+            sky_emissivity,
             ambient_k: ta,
             h_c,
             method,

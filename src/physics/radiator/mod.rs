@@ -29,7 +29,7 @@ pub use angular::AngularModel;
 pub use balance::{Balance, Method, Parts, Steady, Surroundings, STEADY_SEARCH_K};
 pub use emissivity::{Emitter, Profile, SolarBand};
 pub use merit::Figures;
-pub use sky::{Sky, Transmittance};
+pub use sky::{Sky, SkyPath, Transmittance};
 pub use solar::Sun;
 
 /// Everything the balance says about one emitter in one setting.

@@ -1,5 +1,5 @@
-//! Gauss-Legendre quadrature, the rule behind every hemispherical and spectral integral of
-//! the radiator balance that has no closed form.
+//! Gauss-Legendre quadrature, the rule behind every spectral integral of the radiator
+//! balance that has no closed form (the angular ones all have one).
 //!
 //! The n nodes are the zeros of the Legendre polynomial P_n, found by Newton's method on the
 //! three-term recurrence (n+1) P_{n+1} = (2n+1) x P_n - n P_{n-1} (Abramowitz & Stegun,
@@ -82,19 +82,8 @@ fn legendre_and_derivative(n: usize, x: f64) -> (f64, f64) {
     (p1, d)
 }
 
-/// Points per angular piece of the hemispherical integrals in cos(theta). With 32 points the
-/// hemispherical emissivity of a sky layer, 2 integral_0^1 (1 - e^(-tau/mu)) mu dmu, is
-/// within 4e-7 of its closed form 1 - 2 E_3(tau) for every optical depth (tested).
-pub const ANGULAR_POINTS: usize = 32;
-
 /// Points per wavelength cell of the spectral grid (exact for polynomials of degree 5).
 pub const SPECTRAL_POINTS: usize = 3;
-
-/// The shared angular rule.
-pub fn angular_rule() -> &'static GaussRule {
-    static RULE: OnceLock<GaussRule> = OnceLock::new();
-    RULE.get_or_init(|| GaussRule::new(ANGULAR_POINTS))
-}
 
 /// The shared per-cell spectral rule.
 pub fn spectral_rule() -> &'static GaussRule {

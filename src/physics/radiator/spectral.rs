@@ -47,6 +47,12 @@ pub struct Weights {
 }
 
 impl Weights {
+    /// Weights from values in the grid's order (its `bands` first, then its nodes).
+    pub fn from_samples(mut values: Vec<f64>, bands: usize) -> Weights {
+        let nodes = values.split_off(bands.min(values.len()));
+        Weights { bands: values, nodes }
+    }
+
     /// Element by element f(self, other) of two weights on the same grid.
     pub fn combine(&self, other: &Weights, f: impl Fn(f64, f64) -> f64) -> Weights {
         let pair = |a: &[f64], b: &[f64]| a.iter().zip(b).map(|(x, y)| f(*x, *y)).collect();
