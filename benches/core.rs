@@ -67,8 +67,10 @@ fn main() {
     stack_map(rounds);
 }
 
-/// The 200 x 200 two-junction series map on AM1.5G (goal < 30 ms) and a 3-junction series
-/// optimization. Printed only.
+/// The 200 x 200 two-junction series map on AM1.5G (goal < 30 ms), the same map at
+/// 500 x 500 next to the vectorized numpy script benches/map_numpy.py for it (goal: numpy
+/// at least 10x slower; both best points printed), and a 3-junction series optimization.
+/// Printed only.
 fn stack_map(rounds: usize) {
     use glowgap::physics::stack::map::tandem_map;
     use glowgap::physics::stack::optimize::{optimize, Problem, SEARCH_RANGE_EV};
@@ -100,6 +102,84 @@ fn stack_map(rounds: usize) {
         best.evaluations,
         best.efficiency * 100.0
     );
+
+    // 500 x 500 on the same axes (start + width * i / 499, both ends), as map_numpy.py builds them
+    let tops: Vec<f64> = (0..500).map(|i| ev(1.2 + 1.2 * i as f64 / 499.0)).collect();
+    let bottoms: Vec<f64> = (0..500).map(|i| ev(0.5 + 1.0 * i as f64 / 499.0)).collect();
+    let big = median_per_call(rounds, 1, || {
+        black_box(tandem_map(black_box(&light), &cell, Connection::Series, &tops, &bottoms));
+    });
+    let q = glowgap::physics::constants::CHARGE;
+    let ours = tandem_map(&light, &cell, Connection::Series, &tops, &bottoms).best().map(|(t, b, e)| (t / q, b / q, e));
+    match ours {
+        Some((t, b, e)) => println!(
+            "bench stack_map_500x500_series      {:>10.3} ms   (best {t:.6} / {b:.6} eV, {:.9} %)",
+            big * 1e3,
+            e * 100.0
+        ),
+        None => println!("bench stack_map_500x500_series      {:>10.3} ms   (empty map)", big * 1e3),
+    }
+    numpy_map_comparison(big, ours);
+}
+
+/// Run benches/map_numpy.py (the same 500 x 500 series map, vectorized numpy) in this same
+/// run; print its time, the ratio numpy/glowgap and both best points. A missing python or
+/// numpy prints "skipped". When not benchmarking for real it times one repeat only.
+fn numpy_map_comparison(ours_s: f64, ours_best: Option<(f64, f64, f64)>) {
+    let quick = !std::env::args().any(|a| a == "--bench");
+    let script = concat!(env!("CARGO_MANIFEST_DIR"), "/benches/map_numpy.py");
+    let python = std::env::var("PYTHON").unwrap_or_else(|_| "python3".into());
+    let mut cmd = Command::new(&python);
+    cmd.arg(script);
+    if quick {
+        cmd.env("GLOWGAP_BENCH_REPEATS", "1");
+    }
+    let out = match cmd.output() {
+        Ok(o) if o.status.success() => String::from_utf8_lossy(&o.stdout).into_owned(),
+        Ok(o) => {
+            println!("bench numpy_map_comparison          skipped ({} failed: {})", python, String::from_utf8_lossy(&o.stderr).lines().last().unwrap_or(""));
+            return;
+        }
+        Err(e) => {
+            println!("bench numpy_map_comparison          skipped ({python} not runnable: {e})");
+            return;
+        }
+    };
+    let field = |key: &str| -> Option<f64> {
+        out.split_whitespace().find_map(|tok| tok.strip_prefix(key).and_then(|v| v.parse().ok()))
+    };
+    let Some(np_s) = field("numpy_map_seconds=") else {
+        println!("bench numpy_map_comparison          skipped (no timing line in the script's output)");
+        return;
+    };
+    let check = match (field("selfcheck_rows="), field("max_abs_efficiency_diff=")) {
+        (Some(n), Some(d)) => format!("; self-check against the scipy fixture: {n} rows, max |diff| {d:.1e}"),
+        _ => String::new(),
+    };
+    println!(
+        "bench numpy_map_500x500_series      {:>10.3} ms   (numpy import {:.1} ms, not counted{check})",
+        np_s * 1e3,
+        field("numpy_import_seconds=").unwrap_or(f64::NAN) * 1e3
+    );
+    println!("bench ratio numpy/glowgap map       {:>10.1} x    (goal >= 10x)", np_s / ours_s);
+    let theirs = match (field("best_top_ev="), field("best_bottom_ev="), field("best_efficiency=")) {
+        (Some(t), Some(b), Some(e)) => Some((t, b, e)),
+        _ => None,
+    };
+    match (ours_best, theirs) {
+        (Some((t, b, e)), Some((nt, nb, ne))) => {
+            // the grid steps are 2.4 and 2.0 meV; the script prints gaps to 1 ueV
+            let same = (t - nt).abs() < 1e-5 && (b - nb).abs() < 1e-5;
+            println!(
+                "bench map_best_points               {}  (glowgap {t:.6} / {b:.6} eV {:.9} %; numpy {nt:.6} / {nb:.6} eV {:.9} %; efficiency diff {:.1e})",
+                if same { "agree " } else { "DIFFER" },
+                e * 100.0,
+                ne * 100.0,
+                (e - ne).abs()
+            );
+        }
+        _ => println!("bench map_best_points               not compared (a best point is missing)"),
+    }
 }
 
 /// The radiator balance (issue goals: one full balance with an angle-dependent profile and
