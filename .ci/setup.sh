@@ -1,6 +1,7 @@
 # Installs what Glowgap's build and tests need, only where it is missing. Sourced by
 # .ci/serve and .ci/test; safe to run again. Every step says what it does.
-#   glowgap_setup_build    wasm32 target, wasm-bindgen-cli matching Cargo.lock, trunk 0.21
+#   glowgap_setup_build    wasm32 target, wasm-bindgen-cli matching Cargo.lock, trunk 0.21,
+#                          binaryen's wasm-opt from the npm registry (on PATH for trunk)
 #   glowgap_setup_browser  Debian chromium + chromedriver, npm packages of tests/browser
 
 set -euo pipefail
@@ -24,6 +25,15 @@ glowgap_setup_build() {
         say "installing wasm-bindgen-cli $want (about 2 minutes)"
         cargo install wasm-bindgen-cli --version "$want"
     fi
+    # wasm-opt: binaryen compiled to WebAssembly, from the npm registry, pinned in
+    # .ci/wasm-opt/package.json and Trunk.toml (Debian's binaryen 108 writes modules that
+    # Chromium refuses, so ours goes first on PATH)
+    command -v node >/dev/null || { say "node is missing: install Node.js 20 (Debian package nodejs)"; exit 1; }
+    if [ ! -x "$GLOWGAP_ROOT/.ci/wasm-opt/node_modules/.bin/wasm-opt" ]; then
+        say "installing binaryen's wasm-opt from the npm registry"
+        (cd "$GLOWGAP_ROOT/.ci/wasm-opt" && npm ci --no-audit --no-fund --loglevel=error)
+    fi
+    export PATH="$GLOWGAP_ROOT/.ci/wasm-opt/node_modules/.bin:$PATH"
     # trunk 0.22 needs a newer rustc than this toolchain; the 0.21 line builds here
     if ! trunk --version 2>/dev/null | grep -q '^trunk 0\.21\.'; then
         say "installing trunk 0.21 (about 6-8 minutes on 2 cores)"
