@@ -127,6 +127,22 @@ fn table_is_readable_with_units_and_curve() {
 }
 
 #[test]
+fn a_dew_point_sky_is_the_clear_sky_of_its_precipitable_water() {
+    // Reitan (J. Appl. Meteor. 2, 776, 1963; coefficients from memory):
+    // ln(w / cm) = 0.1102 + 0.0614 Tdp, so a 15 deg C dew point is 2.8045 cm of water.
+    let pwv = (0.1102f64 + 0.0614 * 15.0).exp();
+    assert!((pwv - 2.8045).abs() < 1e-4);
+    let by_dew = json(&["cool", "--sky", "clear:dew=15", "--json"]);
+    let by_pwv = json(&["cool", "--sky", &format!("clear:pwv={pwv}"), "--json"]);
+    for key in ["sky_emissivity", "net_w_m2", "steady_temp_k"] {
+        assert!((f(&by_dew, key) - f(&by_pwv, key)).abs() <= 1e-12 * f(&by_pwv, key).abs(), "{key}");
+    }
+    // a wetter sky is warmer (monotonic in water vapour, as every clear-sky correlation is)
+    let wetter = json(&["cool", "--sky", "clear:dew=20", "--json"]);
+    assert!(f(&wetter, "sky_emissivity") > f(&by_dew, "sky_emissivity"));
+}
+
+#[test]
 fn data_files_give_the_same_answers_as_the_equivalent_built_ins() {
     // an opaque sample reflecting 10 % everywhere is a grey 0.9 emitter (Kirchhoff); the
     // table is integrated on the fine grid, the grey profile in closed form: 1e-9
@@ -211,6 +227,8 @@ fn every_bad_input_gets_one_line_and_exit_2() {
         (&["cool", "--sky", "clear"], "unknown sky"),
         (&["cool", "--sky", "clear:1.5"], "pwv=CM"),
         (&["cool", "--sky", "clear:pwv=-1"], "precipitable water"),
+        (&["cool", "--sky", "clear:dew=warm"], "dew point"),
+        (&["cool", "--sky", "clear:dew=288"], "not in K"),
         (&["cool", "--sky", "clear:pwv=20"], "precipitable water"),
         (&["cool", "--sky", "clear:pwv=1", "--ambient", "150"], "clear-sky"),
         (&["cool", "--sky", &bad], "sky transmittance file"),

@@ -52,7 +52,7 @@ radiator options (glowgap cool):
                          (wavelengths in um; files: emissivity, absorptance or reflectance)
   --solar EPS|EMIT       a separate profile for the solar band, below --solar-below UM (default 4)
   --cutoff DEG[:EPS]     angular cut-off: EPS (default 0) beyond DEG from the normal
-  --sky SKY              box (default, open 8-13 um) | space (3 K) | clear:pwv=CM | file:PATH
+  --sky SKY              box (default, open 8-13 um) | space (3 K) | clear:pwv=CM | clear:dew=C | file:PATH
                          (file: zenith transmittance; slant paths follow t^(1/cos theta))
   --ambient K            ambient air temperature, default 300
   --surface K            surface temperature, default ambient

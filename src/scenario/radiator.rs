@@ -31,6 +31,16 @@ pub const DEW_POINT_DEPRESSION_WARN_K: (f64, f64) = (-5.0, 25.0);
 pub fn reitan_dew_point_c(pwv_cm: f64) -> f64 {
     (pwv_cm.ln() - 0.1102) / 0.0614
 }
+
+/// The precipitable water [cm] that Reitan's relation gives for a dew point `dew_c`
+/// [deg C] (the inverse of [`reitan_dew_point_c`]).
+pub fn reitan_pwv_cm(dew_c: f64) -> f64 {
+    (0.1102 + 0.0614 * dew_c).exp()
+}
+
+/// Dew points accepted by `clear:dew=C` [deg C]: the upper end gives the largest accepted
+/// precipitable water, 10 cm; the lower end is far below any surface dew point.
+pub const DEW_POINT_RANGE_C: (f64, f64) = (-60.0, 35.7);
 /// Accepted combined convection/conduction coefficients [W m^-2 K^-1].
 pub const HC_RANGE: (f64, f64) = (0.0, 1000.0);
 /// Accepted irradiance scale factors.
@@ -359,7 +369,8 @@ impl EmitterSpec {
 }
 
 impl SkySpec {
-    /// Parse the command-line form: `box | space | clear:pwv=CM | file:PATH`.
+    /// Parse the command-line form: `box | space | clear:pwv=CM | clear:dew=C | file:PATH`.
+    /// A dew point becomes precipitable water by Reitan's relation ([`reitan_pwv_cm`]).
     pub fn parse(text: &str) -> Result<SkySpec, String> {
         let t = text.trim();
         let lower = t.to_ascii_lowercase();
@@ -369,8 +380,22 @@ impl SkySpec {
             _ => {}
         }
         if let Some(rest) = lower.strip_prefix("clear:") {
-            let v = rest.trim().strip_prefix("pwv=").ok_or_else(|| {
-                format!("'{text}': give the precipitable water as clear:pwv=CM, e.g. clear:pwv=1.5")
+            let rest = rest.trim();
+            if let Some(v) = rest.strip_prefix("dew=") {
+                let number = v.trim().trim_end_matches('c').trim_end_matches('°').trim();
+                let dew: f64 = number.parse().ok().filter(|d: &f64| d.is_finite()).ok_or_else(|| {
+                    format!("'{text}': the dew point '{v}' is not a number; write e.g. clear:dew=12 (deg C)")
+                })?;
+                if !(DEW_POINT_RANGE_C.0..=DEW_POINT_RANGE_C.1).contains(&dew) {
+                    return Err(format!(
+                        "'{text}': a dew point of {dew} deg C is outside {} to {} deg C; give a dew point in deg C (e.g. clear:dew=12), not in K",
+                        DEW_POINT_RANGE_C.0, DEW_POINT_RANGE_C.1
+                    ));
+                }
+                return Ok(SkySpec::Clear { pwv_cm: reitan_pwv_cm(dew) });
+            }
+            let v = rest.strip_prefix("pwv=").ok_or_else(|| {
+                format!("'{text}': give the precipitable water as clear:pwv=CM (e.g. clear:pwv=1.5) or the dew point as clear:dew=C (e.g. clear:dew=12)")
             })?;
             let pwv: f64 = v.trim().trim_end_matches("cm").trim().parse().map_err(|_| {
                 format!("'{text}': the precipitable water '{v}' is not a number; write e.g. clear:pwv=1.5 (cm)")
@@ -380,7 +405,7 @@ impl SkySpec {
         if let Some(path) = file_path(t) {
             return Ok(SkySpec::File { path });
         }
-        Err(format!("unknown sky '{text}'; use box, space, clear:pwv=CM (e.g. clear:pwv=1.5) or file:PATH"))
+        Err(format!("unknown sky '{text}'; use box, space, clear:pwv=CM (e.g. clear:pwv=1.5), clear:dew=C (e.g. clear:dew=12) or file:PATH"))
     }
 
     /// A short description for tables.
