@@ -5,7 +5,8 @@
 //! integral of the set-up). A map point then costs one subtraction for the bottom cell's
 //! photocurrent, a re-targeted diode, and the series maximum (or, for independent
 //! connection, the bottom cell's own maximum: the top cell's does not depend on the bottom
-//! gap and is computed once per row).
+//! gap and is computed once per row). Along a row each series search starts from the
+//! extrapolation of the two before it.
 
 use super::{series, Connection};
 use crate::physics::constants::CHARGE;
@@ -95,7 +96,10 @@ pub fn tandem_map(
                 Connection::Series => 0.0,
             };
             let row = &mut efficiency[i * nb..(i + 1) * nb];
-            let mut hint = None;
+            // the last two series maxima of the row: their linear extrapolation starts the
+            // next point's search (the maximum moves smoothly along a row, so the first
+            // Newton step from there is usually already within tolerance)
+            let (mut hint, mut before) = (None::<series::SeriesHint>, None::<series::SeriesHint>);
             for (out, bottom) in row.iter_mut().zip(&bottoms) {
                 let Some(bottom_diode) = bottom.diode else { continue };
                 if !(bottom.gap_j < top.gap_j) {
@@ -106,7 +110,14 @@ pub fn tandem_map(
                 let p = match connection {
                     Connection::Independent => top_p + b.solve(bottom.gap_j, input).pmax,
                     Connection::Series => {
-                        let (point, next) = series::max_power_near(&[top_diode, b], hint);
+                        let start = match (before, hint) {
+                            (Some(a), Some(h)) if a.limiting == h.limiting => {
+                                Some(series::SeriesHint { limiting: h.limiting, m: 2.0 * h.m - a.m })
+                            }
+                            _ => hint,
+                        };
+                        let (point, next) = series::max_power_near(&[top_diode, b], start);
+                        before = hint;
                         hint = next;
                         point.p
                     }
