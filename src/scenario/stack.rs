@@ -237,6 +237,21 @@ impl OptimizeSettings {
     /// Check the settings and build the optimizer's problem under `light`, subcells like
     /// `cell` (its gap unused).
     pub fn to_problem<'a>(&self, light: &'a Illumination, cell: &Cell, connection: Connection) -> Result<Problem<'a>, String> {
+        let fixed = self.check()?;
+        Ok(Problem {
+            light,
+            cell: *cell,
+            connection,
+            junctions: self.junctions,
+            fixed,
+            range_j: (ev(self.from_ev), ev(self.to_ev)),
+            seeds: Vec::new(),
+        })
+    }
+
+    /// Check the number of junctions, the search range and the fixed gap (what does not
+    /// depend on the light or the cells); returns the fixed gap, if any.
+    pub fn check(&self) -> Result<Option<FixedGap>, String> {
         if !(1..=MAX_JUNCTIONS).contains(&self.junctions) {
             return Err(format!(
                 "the number of junctions {} is out of range; give 1 to {MAX_JUNCTIONS}",
@@ -277,15 +292,7 @@ impl OptimizeSettings {
                 Some(FixedGap { gap_j: ev(f), at: self.fix_at })
             }
         };
-        Ok(Problem {
-            light,
-            cell: *cell,
-            connection,
-            junctions: self.junctions,
-            fixed,
-            range_j: (ev(a), ev(b)),
-            seeds: Vec::new(),
-        })
+        Ok(fixed)
     }
 }
 

@@ -1,5 +1,6 @@
 // Browser benchmark (numbers printed, nothing asserted): latency from a gap edit to all
-// plots redrawn, first render after load, and the gzipped transfer size of the app.
+// plots redrawn, first render after load, the 3-junction gap search in the Stack tab, and
+// the gzipped transfer size of the app.
 // Run: node tests/browser/bench.mjs (after trunk build --release).
 import fs from 'node:fs';
 import path from 'node:path';
@@ -55,6 +56,66 @@ try {
     console.log('browser gap_edit_to_drawn_ms unavailable (no gg-edit/gg-drawn marks)');
   }
   await context.close();
+
+  // the 3-junction series gap search on AM1.5G in the Stack tab: from the click on the
+  // search button to its result shown, each run on a newly opened page (the first search
+  // also starts the background worker), then repeated on one page
+  const searchOnce = async (page) => {
+    await page.evaluate(() => {
+      window.__searchClick = null;
+      window.__searchShown = null;
+      const button = document.querySelector('[data-action="optimize"]');
+      button.addEventListener('click', () => { window.__searchClick = performance.now(); }, { capture: true, once: true });
+      const out = document.querySelector('[data-info="optimize"]');
+      const seen = new MutationObserver(() => {
+        if (!out.hidden && /^Best 3-junction/.test(out.textContent)) {
+          window.__searchShown = performance.now();
+          seen.disconnect();
+        }
+      });
+      seen.observe(out, { subtree: true, childList: true, characterData: true, attributes: true });
+    });
+    await page.locator('[data-action="optimize"]').click();
+    await page.waitForFunction(() => window.__searchShown !== null, null, { timeout: 120000 });
+    return page.evaluate(() => window.__searchShown - window.__searchClick);
+  };
+  const openThree = async () => {
+    const context = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
+    const page = await newPage(context);
+    await page.goto(server.url);
+    await rendered(page);
+    const n = Number(await page.evaluate(() => document.body.dataset.renders));
+    await page.locator('[data-panel="stack"]').click();
+    await rendered(page, n + 1);
+    await page.locator('[data-control="junctions"]').selectOption('3');
+    await page.locator('[data-control="gap-3"]').waitFor();
+    return { context, page };
+  };
+  const cold = [];
+  for (let i = 0; i < 5; i++) {
+    const { context, page } = await openThree();
+    cold.push(await searchOnce(page));
+    await context.close();
+  }
+  const warm = [];
+  {
+    const { context, page } = await openThree();
+    await searchOnce(page);
+    for (let i = 0; i < 5; i++) {
+      // from the same design each time: back to three junctions at the default gaps
+      await page.locator('[data-control="junctions"]').selectOption('2');
+      await page.locator('[data-control="gap-3"]').waitFor({ state: 'detached' });
+      await page.locator('[data-control="gap-1"]').fill('1.7');
+      await page.locator('[data-control="gap-2"]').fill('1.1');
+      await page.locator('[data-control="junctions"]').selectOption('3');
+      await page.locator('[data-control="gap-3"]').waitFor();
+      warm.push(await searchOnce(page));
+    }
+    await context.close();
+  }
+  cold.sort((a, b) => a - b);
+  warm.sort((a, b) => a - b);
+  console.log(`browser search_3j_series_ms median=${pct(cold, 0.5).toFixed(0)} max=${cold[cold.length - 1].toFixed(0)} (new page, worker started) warm_median=${pct(warm, 0.5).toFixed(0)} n=${cold.length}+${warm.length} (goal < 1000)`);
 } finally {
   await browser.close();
   await server.close();

@@ -2,7 +2,10 @@
 // on 127.0.0.1, its figures checked against `glowgap eval LINK --stack`. Run by .ci/test.
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
-import { useBrowser, rendered, artifact, stackFigures, cliStackFigures, cliFigures, plotFrame } from './harness.mjs';
+import fs from 'node:fs';
+import path from 'node:path';
+import { execFileSync } from 'node:child_process';
+import { useBrowser, rendered, artifact, stackFigures, cliStackFigures, cliFigures, plotFrame, CLI } from './harness.mjs';
 
 const env = useBrowser();
 const fresh = (url) => env.fresh(url);
@@ -226,6 +229,202 @@ test('an EQE file gives its Jsc and Voc limits next to the ideal step; a bad fil
   // 90 % of the light collected: less current than the ideal step at the same edge
   assert.ok(parseFloat(await cell.innerText()) < parseFloat(await page.locator('[data-metric="eqe-jsc-step"]').innerText()));
   await page.locator('[data-plot="eqe"]').waitFor({ state: 'visible' });
+  assert.deepEqual(page.errors, []);
+  await context.close();
+});
+
+/** The CSS-px position on the page of (bottom, top) gaps [eV] on the map. */
+async function mapPoint(page, bottom, top) {
+  const map = page.locator('[data-plot="tandem-map"]');
+  await map.scrollIntoViewIfNeeded();
+  const f = await plotFrame(page, 'tandem-map');
+  const box = await map.boundingBox();
+  return {
+    x: box.x + f.left + ((bottom - f.x[0]) / (f.x[1] - f.x[0])) * (f.right - f.left),
+    y: box.y + f.bottom - ((top - f.y[0]) / (f.y[1] - f.y[0])) * (f.bottom - f.top),
+  };
+}
+
+test('holding one gap fixed: checked with a message that says how to fix it, kept by the search, carried by the link', async () => {
+  const { context, page } = await fresh();
+  await openStack(page);
+  const choice = page.locator('[data-control="fix-at"]');
+  const field = page.locator('[data-control="fix-gap"]');
+  const err = page.locator('[data-error="fix-gap"]');
+  assert.equal(await choice.inputValue(), 'off');
+  assert.equal(await field.isVisible(), false);
+
+  // keyboard: focus the choice and step to "the bottom cell" with an arrow key
+  await choice.focus();
+  await edit(page, () => page.keyboard.press('ArrowDown'));
+  assert.equal(await choice.inputValue(), 'bottom');
+  await field.waitFor({ state: 'visible' });
+  assert.equal(parseFloat(await field.inputValue()), 1.12);
+  assert.match(await page.locator('.search-section .hint').first().innerText(), /bottom cell held at 1\.12 eV/);
+
+  // bad input: said under the field, how to fix it, and the last good value stays
+  const link = page.url();
+  await field.fill('abc');
+  await err.waitFor({ state: 'visible' });
+  assert.match(await err.innerText(), /not a band gap; type e\.g\. 1\.34.*Still using 1\.120 eV/);
+  await field.fill('30');
+  await page.waitForFunction(() => /out of range/.test(document.querySelector('[data-error="fix-gap"]').textContent));
+  assert.match(await err.innerText(), /fixed gap 30 eV is out of range; give a band gap from .* eV .*Still using 1\.120 eV/);
+  await field.fill('4.7');
+  await page.waitForFunction(() => /no room/.test(document.querySelector('[data-error="fix-gap"]').textContent));
+  assert.match(await err.innerText(), /widen the range or move the fixed gap/);
+  assert.equal(page.url(), link, 'refused values do not reach the link');
+  await field.fill('1.12');
+  await page.waitForFunction(() => !document.querySelector('[data-error="fix-gap"]').textContent);
+  await page.locator('[data-card="tandem-map"]').scrollIntoViewIfNeeded();
+  await page.locator('.search-section').screenshot({ path: artifact('stack-fixed-gap.png') });
+
+  // the search holds the bottom cell at 1.12 eV and finds its best partner
+  await page.locator('[data-action="optimize"]').click();
+  const result = page.locator('[data-info="optimize"]');
+  await result.waitFor({ state: 'visible', timeout: 30000 });
+  assert.match(await result.innerText(), /Best 2-junction series stack with the bottom cell held at 1\.12 eV/);
+  await page.waitForFunction(() => parseFloat(document.querySelector('[data-control="gap-2"]').value) === 1.12
+    && parseFloat(document.querySelector('[data-control="gap-1"]').value) !== 1.7);
+  const top = parseFloat(await page.locator('[data-control="gap-1"]').inputValue());
+  // commonly cited for perovskite-on-silicon two-terminal tandems (AM1.5G, radiative limit):
+  // best top gap about 1.73 eV with a 1.12 eV bottom cell (tolerance 0.03 eV, 3 digits quoted)
+  assert.ok(Math.abs(top - 1.73) < 0.03, `top gap ${top}`);
+  const shown = await stackFigures(page);
+  assert.deepEqual(shown, cliStackFigures(page.url()));
+  // glowgap optimize holds the same gap and finds the same limit (the page also starts from
+  // the design, so it can only be as good or better, to the 2 decimals shown)
+  const cli = JSON.parse(execFileSync(CLI, ['optimize', '--junctions', '2', '--fix', '1.12', '--fix-at', 'bottom', '--json'], { encoding: 'utf8' }));
+  assert.equal(cli.gaps_ev[1], 1.12);
+  assert.ok(parseFloat(shown['stack-efficiency']) >= Math.round(cli.efficiency * 1e4) / 100 - 0.005, `${shown['stack-efficiency']} vs ${cli.efficiency}`);
+  await page.locator('.search-section').screenshot({ path: artifact('stack-fixed-result.png') });
+
+  // the link holds the fixed gap; a new page shows the same choice
+  await reopened(page.url(), shown, async (p) => {
+    assert.equal(await p.locator('[data-control="fix-at"]').inputValue(), 'bottom');
+    assert.equal(parseFloat(await p.locator('[data-control="fix-gap"]').inputValue()), 1.12);
+  });
+  // and turning it off frees every gap again
+  await edit(page, () => choice.selectOption('off'));
+  assert.equal(await field.isVisible(), false);
+  assert.doesNotMatch(await page.locator('.search-section .hint').first().innerText(), /held at/);
+  assert.deepEqual(page.errors, []);
+  await context.close();
+});
+
+test('an Urbach tail: its Jsc and Voc limits next to the ideal step, checked range, carried by the link', async () => {
+  const { context, page } = await fresh();
+  await openStack(page);
+  await edit(page, () => page.locator('[data-control="absorber-urbach"]').check());
+  const field = page.locator('[data-control="urbach"]');
+  await field.waitFor({ state: 'visible' });
+  assert.equal(await field.inputValue(), '15');
+  const jsc = page.locator('[data-metric="eqe-jsc"]');
+  await jsc.waitFor();
+  assert.match(await page.locator('[data-info="eqe-name"]').innerText(), /Urbach tail of 15 meV below the 1\.340 eV gap/);
+  // glowgap eval LINK shows the cell with this absorptance: the same Jsc, Voc and efficiency
+  let cli = cliFigures(page.url());
+  assert.equal(await jsc.innerText(), cli.jsc);
+  assert.equal(await page.locator('[data-metric="eqe-voc"]').innerText(), cli.voc);
+  assert.equal(await page.locator('[data-metric="eqe-efficiency"]').innerText(), cli.efficiency);
+  // Urbach, Phys. Rev. 92, 1324 (1953): a(E) = exp((E - Eg)/Eu) below the gap, full above, so
+  // the tail absorbs everything the step does and more (Jsc above the step's); by reciprocity
+  // (Rau, Phys. Rev. B 76, 085303, 2007) it also emits more, so its radiative Voc is lower
+  const num = async (hook) => parseFloat(await page.locator(`[data-metric="${hook}"]`).innerText());
+  assert.ok((await num('eqe-jsc')) > (await num('eqe-jsc-step')), 'tail Jsc above the step');
+  assert.ok((await num('eqe-voc-rad')) < (await num('eqe-voc-rad-step')), 'tail Voc below the step');
+  const at15 = await jsc.innerText();
+
+  // bad input: the scenario's range and units, how to fix it; the tail in use stays
+  const err = page.locator('[data-error="urbach"]');
+  await field.fill('500');
+  await err.waitFor({ state: 'visible' });
+  assert.match(await err.innerText(), /Urbach energy 500 meV is out of range; give a value from 0\.1 to 200 meV.*Still using 15 meV/);
+  await field.fill('wide');
+  await page.waitForFunction(() => /not an Urbach energy/.test(document.querySelector('[data-error="urbach"]').textContent));
+  assert.equal(await jsc.innerText(), at15);
+
+  // a wider tail absorbs more still
+  await edit(page, () => field.fill('25'));
+  await page.waitForFunction((j) => document.querySelector('[data-metric="eqe-jsc"]').textContent !== j, at15);
+  assert.ok(parseFloat(await jsc.innerText()) > parseFloat(at15));
+  cli = cliFigures(page.url());
+  assert.equal(await jsc.innerText(), cli.jsc);
+  await page.locator('[data-plot="eqe"]').waitFor({ state: 'visible' });
+  await page.locator('.eqe-section').scrollIntoViewIfNeeded();
+  await page.locator('.eqe-section').screenshot({ path: artifact('stack-urbach.png') });
+
+  const link = page.url();
+  const figs = await stackFigures(page);
+  await reopened(link, figs, async (p) => {
+    assert.equal(await p.locator('[data-control="absorber-urbach"]').isChecked(), true);
+    assert.equal(await p.locator('[data-control="urbach"]').inputValue(), '25');
+    assert.equal(await p.locator('[data-metric="eqe-jsc"]').innerText(), cli.jsc);
+  });
+
+  // back to the ideal step: no comparison; the tail's width is offered again
+  await edit(page, () => page.locator('[data-control="absorber-step"]').check());
+  await page.waitForFunction(() => !document.querySelector('[data-metric="eqe-jsc"]'));
+  await edit(page, () => page.locator('[data-control="absorber-urbach"]').check());
+  assert.equal(await field.inputValue(), '25');
+  // a measured EQE needs a file first
+  await page.locator('[data-control="absorber-measured"]').click();
+  await page.locator('[data-error="absorber"]').waitFor({ state: 'visible' });
+  assert.match(await page.locator('[data-error="absorber"]').innerText(), /Load an EQE file first/);
+  assert.equal(await page.locator('[data-control="absorber-urbach"]').isChecked(), true);
+  assert.deepEqual(page.errors, []);
+  await context.close();
+});
+
+test('the map refines its best grid points to the optimum, labels both, and a click or a key on the optimum takes it', async () => {
+  const { context, page } = await fresh();
+  await openStack(page);
+  await mapReady(page);
+  const optimum = page.locator('[data-info="map-optimum"]');
+  await page.waitForFunction(() => /refined from the grid: top/.test(document.querySelector('[data-info="map-optimum"]')?.textContent || ''), null, { timeout: 20000 });
+  const text = await optimum.innerText();
+  const m = text.match(/top ([\d.]+) eV, bottom ([\d.]+) eV, ([\d.]+) %/);
+  assert.ok(m, text);
+  const [top, bottom, eff] = m.slice(1).map(Number);
+  // tests/fixtures/stack_optimum.csv: scipy Nelder-Mead on the same model, AM1.5G series.
+  // Gaps to 1e-3 eV (the AM1.5G surface has kinks at table points), efficiency to the last
+  // digit shown (0.001 %).
+  const row = fs.readFileSync(path.resolve(import.meta.dirname, '../fixtures/stack_optimum.csv'), 'utf8')
+    .split('\n').find((l) => l.startsWith('am1.5g,series,')).split(',').map(Number);
+  assert.ok(Math.abs(top - row[2]) < 1e-3 && Math.abs(bottom - row[3]) < 1e-3, text);
+  assert.ok(Math.abs(eff - row[4] * 100) <= 0.0006, text);
+  // the grid's best is listed beside it, no better than the refined optimum
+  const best = (await page.locator('[data-info="map-best"]').innerText()).match(/([\d.]+) %/);
+  assert.ok(parseFloat(best[1]) <= eff + 0.005, `${best[1]} vs ${eff}`);
+
+  // hovering the optimum's star says which marker it is
+  const at = await mapPoint(page, bottom, top);
+  await page.mouse.move(at.x, at.y);
+  const tip = page.locator('[data-card="tandem-map"] .tooltip');
+  await tip.waitFor({ state: 'visible' });
+  assert.match(await tip.innerText(), /optimum: top [\d.]+ eV · bottom [\d.]+ eV[\s\S]*refined from the grid's best points/);
+  await page.locator('[data-card="tandem-map"]').screenshot({ path: artifact('stack-map-optimum.png') });
+  // away from the markers it reads the grid
+  const away = await mapPoint(page, 0.7, 2.2);
+  await page.mouse.move(away.x, away.y);
+  await page.waitForFunction(() => !/optimum/.test(document.querySelector('[data-card="tandem-map"] .tooltip')?.textContent || 'optimum'));
+
+  // a click on the star puts the design on the optimum (to 0.1 meV)
+  await edit(page, () => page.mouse.click(at.x, at.y));
+  const g1 = parseFloat(await page.locator('[data-control="gap-1"]').inputValue());
+  const g2 = parseFloat(await page.locator('[data-control="gap-2"]').inputValue());
+  assert.ok(Math.abs(g1 - top) <= 1e-4 && Math.abs(g2 - bottom) <= 1e-4, `${g1} / ${g2}`);
+  assert.deepEqual(await stackFigures(page), cliStackFigures(page.url()));
+  // a gap edit leaves the map (and its refined optimum) as it was
+  assert.equal(await optimum.innerText(), text);
+  await page.mouse.move(away.x, away.y);
+  await page.locator('[data-card="tandem-map"]').screenshot({ path: artifact('stack-map-design-on-optimum.png') });
+  // and from the keyboard: the legend's button does the same
+  await edit(page, () => page.locator('[data-control="gap-1"]').fill('1.75'));
+  await page.locator('[data-action="use-optimum"]').focus();
+  await edit(page, () => page.keyboard.press('Enter'));
+  assert.equal(parseFloat(await page.locator('[data-control="gap-1"]').inputValue()), g1);
+  assert.equal(parseFloat(await page.locator('[data-control="gap-2"]').inputValue()), g2);
   assert.deepEqual(page.errors, []);
   await context.close();
 });

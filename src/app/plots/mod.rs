@@ -466,6 +466,15 @@ pub fn draw_boxed_text<DB: DrawingBackend>(
     color: &RGBColor,
     bounds: (i32, i32, i32, i32),
 ) -> Result<(), String> {
+    let (x0, y0, x1, y1) = boxed_text_rect(look, text, x, y, h_pos, v_pos, bounds);
+    root.draw(&Rectangle::new([(x0, y0), (x1, y1)], WHITE.mix(0.85).filled())).map_err(err)?;
+    let style = look.text(look.size(12.0), color).pos(Pos::new(HPos::Left, VPos::Center));
+    root.draw_text(text, &style, (x0 + look.px(4.0), (y0 + y1) / 2)).map_err(err)?;
+    Ok(())
+}
+
+/// Where [`draw_boxed_text`] puts its box: (left, top, right, bottom) [backend px].
+pub fn boxed_text_rect(look: &Look, text: &str, x: i32, y: i32, h_pos: HPos, v_pos: VPos, bounds: (i32, i32, i32, i32)) -> (i32, i32, i32, i32) {
     let fs = look.size(12.0);
     let pad = look.px(4.0);
     let w = measure::text_width(text, fs).ceil() as i32 + 2 * pad;
@@ -483,10 +492,7 @@ pub fn draw_boxed_text<DB: DrawingBackend>(
     let (bl, bt, br, bb) = bounds;
     x0 = x0.max(bl).min(br - w);
     y0 = y0.max(bt).min(bb - h);
-    root.draw(&Rectangle::new([(x0, y0), (x0 + w, y0 + h)], WHITE.mix(0.85).filled())).map_err(err)?;
-    let style = look.text(fs, color).pos(Pos::new(HPos::Left, VPos::Center));
-    root.draw_text(text, &style, (x0 + pad, y0 + h / 2)).map_err(err)?;
-    Ok(())
+    (x0, y0, x0 + w, y0 + h)
 }
 
 /// One legend row: a short line (or a swatch) and its text, at backend pixel (x, y).

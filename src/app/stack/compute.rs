@@ -8,7 +8,7 @@ use std::sync::Arc;
 
 use crate::app::engine::{same_but_gap, spectrum_view, SpectrumDetail, SpectrumView};
 use crate::physics::absorber::{solve_absorber, Absorptance};
-use crate::physics::constants::ev;
+use crate::physics::constants::{ev, to_ev};
 use crate::physics::junction::Cell;
 use crate::physics::losses::{loss_breakdown, loss_sweep};
 use crate::physics::stack::{solve_stack, StackResult};
@@ -49,7 +49,7 @@ pub struct AbsorberView {
     pub name: String,
     pub measured: AbsorberReport,
     pub step: AbsorberReport,
-    /// (photon energy [eV], EQE) of the table, ascending, for the plot of the EQE
+    /// (photon energy [eV], EQE or absorptance) of the table or the tail, ascending, for the plot
     pub points: Vec<(f64, f64)>,
     pub warnings: Vec<String>,
 }
@@ -142,11 +142,27 @@ pub fn loss_view(s: &Scenario) -> Result<LossView, String> {
     Ok(LossView { cell: bar, curve, from_ev: range.0, to_ev: range.1 })
 }
 
+/// Points of a plotted Urbach tail.
+const URBACH_POINTS: usize = 241;
+
+/// (photon energy [eV], absorptance) of an Urbach tail, ascending: from 12 Urbach energies
+/// below the gap (a = e^-12, nothing on a plot in %) or half the gap, to a fifth above it.
+fn urbach_curve(a: &Absorptance, gap_j: f64, urbach_j: f64) -> Vec<(f64, f64)> {
+    let lo = (gap_j - 12.0 * urbach_j).max(0.5 * gap_j);
+    let hi = 1.2 * gap_j;
+    (0..URBACH_POINTS)
+        .map(|i| {
+            let e = lo + (hi - lo) * i as f64 / (URBACH_POINTS - 1) as f64;
+            (to_ev(e), a.at(e))
+        })
+        .collect()
+}
+
 /// The measured cell of `s` next to the ideal step, or None for a step absorber.
 pub fn absorber_view(s: &Scenario) -> Result<Option<AbsorberView>, String> {
     let (kind, name) = match &s.stack.absorber {
         AbsorberSpec::Step => return Ok(None),
-        AbsorberSpec::Urbach { urbach_mev } => ("urbach", format!("Urbach tail of {urbach_mev} meV")),
+        AbsorberSpec::Urbach { urbach_mev } => ("urbach", format!("Urbach tail of {} meV", crate::app::fmt::field(*urbach_mev, 6))),
         AbsorberSpec::Measured(t) => ("measured", t.name.clone()),
     };
     let setup = setup_of(&s.cell)?;
@@ -157,8 +173,9 @@ pub fn absorber_view(s: &Scenario) -> Result<Option<AbsorberView>, String> {
     let edge = a.edge_j();
     let step = AbsorberReport::new(&solve_absorber(&setup.light, &Absorptance::Step { gap_j: edge }, &cell), "step");
     let points = match &a {
-        Absorptance::Table(t) => t.energies_j().into_iter().map(|e| (crate::physics::constants::to_ev(e), t.at_energy(e))).collect(),
-        _ => Vec::new(),
+        Absorptance::Table(t) => t.energies_j().into_iter().map(|e| (to_ev(e), t.at_energy(e))).collect(),
+        Absorptance::Urbach { gap_j, urbach_j } => urbach_curve(&a, *gap_j, *urbach_j),
+        Absorptance::Step { .. } => Vec::new(),
     };
     Ok(Some(AbsorberView { kind, name, measured, step, points, warnings }))
 }

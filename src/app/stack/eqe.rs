@@ -1,6 +1,7 @@
-//! A measured quantum efficiency: load a file, see the Jsc and Voc limits it implies by
-//! reciprocity (radiative, and with the cell's ERE) next to those of an ideal step at the
-//! same absorption edge, and the EQE itself against the step.
+//! The single cell's absorptance: an ideal step, an Urbach tail of a chosen width, or a
+//! measured EQE loaded from a file. For the last two, the Jsc and Voc limits they imply by
+//! reciprocity (radiative, and with the cell's ERE) are shown next to those of an ideal step
+//! at the same absorption edge, with the absorptance itself against the step.
 
 use std::rc::Rc;
 
@@ -11,8 +12,8 @@ use plotters::prelude::*;
 
 use super::compute::AbsorberView;
 use super::{edit_stack, StackCtx, EQE};
-use crate::app::controls::drop_zone;
-use crate::app::fmt::fixed;
+use crate::app::controls::{drop_zone, number_field, parse_number, Field};
+use crate::app::fmt::{self, fixed};
 use crate::app::import::{read_then, stem};
 use crate::app::plots::{chart, err, palette, tick_target, AxisSpec, Drawing, Frame, Look};
 use crate::app::state::{ev_of_nm, sentence, Ctx};
@@ -20,14 +21,28 @@ use crate::formats::eqe_csv::parse_eqe_csv;
 use crate::report::stack::AbsorberReport;
 use crate::scenario::stack::{AbsorberSpec, EqeTableSpec};
 
-/// Read an EQE file and make it the measured cell.
-pub fn open_eqe(ctx: Ctx, file: web_sys::File) {
+/// Make `spec` the single cell's absorptance, if the scenario accepts it for the cell's gap
+/// and temperature; otherwise say why under `hook`.
+pub fn set_absorber(ctx: Ctx, hook: &'static str, spec: AbsorberSpec) -> bool {
+    let (gap, temp) = ctx.scenario.with_untracked(|s| (s.cell.gap_ev, s.cell.cell_temp_k));
+    if let Err(e) = spec.to_physics(gap, temp, &mut Vec::new()) {
+        ctx.set_error(hook, sentence(&e));
+        return false;
+    }
+    edit_stack(ctx, hook, move |st| st.absorber = spec)
+}
+
+/// Read an EQE file and make it the measured cell; `kept` remembers it while another
+/// absorptance is chosen.
+pub fn open_eqe(ctx: Ctx, kept: RwSignal<Option<EqeTableSpec>>, file: web_sys::File) {
     read_then(file, move |name, text| {
         let outcome = text.and_then(|t| parse_eqe_csv(&t, &stem(&name)).map_err(|e| e.to_string()));
         match outcome {
             Ok(table) => {
-                let spec = AbsorberSpec::Measured(EqeTableSpec::from_table(&table));
-                if edit_stack(ctx, "eqe-file", move |st| st.absorber = spec) {
+                let spec = EqeTableSpec::from_table(&table);
+                if set_absorber(ctx, "eqe-file", AbsorberSpec::Measured(spec.clone())) {
+                    kept.set(Some(spec));
+                    ctx.clear_error("absorber");
                     ctx.status.set(Some(format!("Loaded the quantum efficiency '{name}' ({} points).", table.coordinates().len())));
                 }
             }
@@ -51,7 +66,8 @@ impl Drawing for EqePlot<'_> {
         let (lo, hi) = pts.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), p| (a.min(p.0), b.max(p.0)));
         let (lo, hi) = if hi > lo { (lo, hi) } else { (300.0, 1200.0) };
         let x = AxisSpec::new(lo, hi, tick_target(look, w, 70.0), "Wavelength", "nm", false);
-        let y = AxisSpec::new(0.0, 105.0, tick_target(look, h, 40.0), "EQE", "%", false);
+        let what = if self.a.kind == "urbach" { "Absorptance" } else { "EQE" };
+        let y = AxisSpec::new(0.0, 105.0, tick_target(look, h, 40.0), what, "%", false);
         let (mut c, frame) = chart(root, look, &x, &y, true)?;
         // the ideal step at the same edge
         let edge_nm = ev_of_nm(1.0) / self.a.step.cell.gap_ev;
@@ -81,8 +97,100 @@ fn rows(a: &AbsorberView, ere: f64) -> Vec<(String, &'static str, String, String
     ]
 }
 
+/// The absorptance choices: (value, `data-control` hook, label).
+const CHOICES: [(&str, &str, &str); 3] = [
+    ("step", "absorber-step", "Ideal step at the band gap"),
+    ("urbach", "absorber-urbach", "Step with an Urbach tail below the gap"),
+    ("measured", "absorber-measured", "Measured EQE"),
+];
+
+/// The Urbach energy offered when the tail is first chosen [meV] (the scenario's example).
+const FIRST_URBACH_MEV: f64 = 15.0;
+
+fn kind_of(a: &AbsorberSpec) -> &'static str {
+    match a {
+        AbsorberSpec::Step => "step",
+        AbsorberSpec::Urbach { .. } => "urbach",
+        AbsorberSpec::Measured(_) => "measured",
+    }
+}
+
 pub fn eqe_section(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView {
     let ctx = sc.ctx;
+    let kind = Memo::new(move |_| ctx.scenario.with(|s| kind_of(&s.stack.absorber)));
+    // what the other choices were, offered again when chosen again
+    let kept_table = RwSignal::new(ctx.scenario.with_untracked(|s| match &s.stack.absorber {
+        AbsorberSpec::Measured(t) => Some(t.clone()),
+        _ => None,
+    }));
+    let urbach = Memo::new(move |_| ctx.scenario.with(|s| match s.stack.absorber {
+        AbsorberSpec::Urbach { urbach_mev } => Some(urbach_mev),
+        _ => None,
+    }));
+    let last_urbach = RwSignal::new(urbach.get_untracked().unwrap_or(FIRST_URBACH_MEV));
+    // bumped when a choice is refused, so the radios show the one in use again
+    let refresh = RwSignal::new(0u32);
+
+    let choose = move |value: &str| {
+        let ok = match value {
+            "urbach" => set_absorber(ctx, "absorber", AbsorberSpec::Urbach { urbach_mev: last_urbach.get_untracked() }),
+            "measured" => match kept_table.get_untracked() {
+                Some(t) => set_absorber(ctx, "absorber", AbsorberSpec::Measured(t)),
+                None => {
+                    ctx.set_error("absorber", "Load an EQE file first (below); the current absorptance is still in use.".into());
+                    false
+                }
+            },
+            _ => set_absorber(ctx, "absorber", AbsorberSpec::Step),
+        };
+        if ok {
+            ctx.clear_error("urbach");
+        } else {
+            refresh.update(|n| *n += 1);
+        }
+    };
+    let radios = CHOICES
+        .iter()
+        .map(|&(value, hook, label)| {
+            let label = move || {
+                if value == "measured" {
+                    kept_table.with(|t| match t {
+                        Some(t) => format!("Measured EQE: {}", t.name),
+                        None => "Measured EQE (load a file below)".to_string(),
+                    })
+                } else {
+                    label.to_string()
+                }
+            };
+            view! {
+                <label>
+                    <input type="radio" name="absorber" value=value data-control=hook aria-describedby="e-absorber"
+                        prop:checked=move || { refresh.track(); kind.get() == value }
+                        on:change=move |_| choose(value) />
+                    {label}
+                </label>
+            }
+        })
+        .collect_view();
+
+    let urbach_field = Field {
+        label: "Urbach energy",
+        unit: "meV",
+        hook: "urbach",
+        hint: Some("The width of the exponential absorption tail below the gap, e.g. 15 meV; absorption falls e-fold per Urbach energy.".into()),
+        example: "15",
+        value: Memo::new(move |_| urbach.get().unwrap_or_else(|| last_urbach.get())),
+        show: |v| fmt::field(v, 6),
+        parse: |t| parse_number(t.trim().trim_end_matches("meV").trim_end_matches("mev")).ok_or_else(|| format!("'{}' is not an Urbach energy; type a number of meV, e.g. 15", t.trim())),
+    };
+    let urbach_commit: Rc<dyn Fn(f64) -> bool> = Rc::new(move |u| {
+        let ok = set_absorber(ctx, "urbach", AbsorberSpec::Urbach { urbach_mev: u });
+        if ok {
+            last_urbach.set(u);
+        }
+        ok
+    });
+
     let hint = view! {
         <p class="hint" id="h-eqe-file">
             "A text table: wavelength (nm, µm), photon energy (eV) or wavenumber (cm⁻¹), then EQE as a fraction or % (or a response in A/W); "
@@ -95,7 +203,7 @@ pub fn eqe_section(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView
         "e-eqe-file h-eqe-file",
         "Load an EQE file…",
         hint.into_any(),
-        Rc::new(move |f| open_eqe(ctx, f)),
+        Rc::new(move |f| open_eqe(ctx, kept_table, f)),
     );
     let has = move || sc.absorber.with(|a| a.is_some());
     let table = move || {
@@ -115,31 +223,48 @@ pub fn eqe_section(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView
                 })
                 .collect_view();
             let warnings = a.warnings.iter().map(|w| sentence(w)).collect::<Vec<_>>().join(" ");
+            let (name, column) = if a.kind == "urbach" {
+                (format!("{} below the {} eV gap", a.name, fixed(a.step.cell.gap_ev, 3)), "Urbach tail")
+            } else {
+                (format!("{} · edge (half maximum) {} eV", a.name, fixed(a.step.cell.gap_ev, 3)), "This EQE")
+            };
             Some(view! {
-                <p class="eqe-name" data-info="eqe-name">{format!("{} · edge (half maximum) {} eV", a.name, fixed(a.step.cell.gap_ev, 3))}</p>
+                <p class="eqe-name" data-info="eqe-name">{name}</p>
                 <table class="stack-table eqe-table" data-table="eqe">
-                    <thead><tr><th scope="col"></th><th scope="col">"Ideal step"</th><th scope="col">"This EQE"</th></tr></thead>
+                    <thead><tr><th scope="col"></th><th scope="col">"Ideal step"</th><th scope="col">{column}</th></tr></thead>
                     <tbody>{body}</tbody>
                 </table>
                 <p class="warning" hidden=warnings.is_empty()>{warnings.clone()}</p>
             })
         })
     };
-    let remove = move |_| {
-        edit_stack(ctx, "eqe-file", |st| st.absorber = AbsorberSpec::Step);
+    let gap = move || ctx.scenario.with(|s| fmt::gap_ev(s.cell.gap_ev));
+    let plot_label = move || {
+        if kind.get() == "urbach" {
+            "The absorptance of the Urbach tail against wavelength, with the ideal step at the same gap."
+        } else {
+            "The measured EQE against wavelength, with the ideal step at the same edge."
+        }
     };
     view! {
         <section class="panel-section eqe-section" aria-labelledby="eqe-h">
-            <h2 id="eqe-h">"Measured cell (EQE)"</h2>
-            <p class="hint">"Reciprocity turns a measured EQE into the cell's Jsc and its radiative-limit Voc; the ERE of the Solar cell tab sets the non-radiative loss. Compared with an ideal step at the same edge, under the same light."</p>
+            <h2 id="eqe-h">"Single-cell absorptance"</h2>
+            <p class="hint">
+                "How the Solar cell tab's cell (band gap " {gap} " eV) absorbs. Reciprocity turns the absorptance into the cell's Jsc and its radiative-limit Voc; the ERE of the Solar cell tab sets the non-radiative loss. Compared with an ideal step at the same edge, under the same light."
+            </p>
+            <fieldset class="choice">
+                <legend>"Absorptance"</legend>
+                {radios}
+                <p class="field-error" id="e-absorber" data-error="absorber" aria-live="polite">{move || ctx.error_of("absorber")}</p>
+            </fieldset>
+            <div class="sub-field" hidden=move || kind.get() != "urbach">{number_field(ctx, urbach_field, urbach_commit, None)}</div>
             {drop}
             <p class="field-error" id="e-eqe-file" data-error="eqe-file" aria-live="polite">{move || ctx.error_of("eqe-file")}</p>
             {table}
             <div class="plot-wrap eqe-plot" hidden=move || !has()>
-                <canvas data-plot="eqe" node_ref=canvas role="img" aria-label="The measured EQE against wavelength, with the ideal step at the same edge."></canvas>
+                <canvas data-plot="eqe" node_ref=canvas role="img" aria-label=plot_label></canvas>
                 <p class="plot-error" hidden=move || sc.plot_errors.with(|e| e[EQE].is_none())>{move || sc.plot_errors.with(|e| e[EQE].clone())}</p>
             </div>
-            <button type="button" class="small" data-action="remove-eqe" hidden=move || !has() on:click=remove>"Remove the EQE"</button>
         </section>
     }
 }

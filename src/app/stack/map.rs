@@ -1,11 +1,13 @@
 //! The two-junction efficiency map: a heat map over (bottom gap, top gap) with contour
-//! lines, the line where the two photocurrents match, the best point of the grid and the
-//! current design. Clicking or dragging on it moves the design; arrow keys step it.
+//! lines, the line where the two photocurrents match, the best point of the grid, that
+//! point refined to the local optimum, and the current design. Clicking or dragging on it
+//! moves the design; arrow keys step it.
 //!
 //! The map is computed in slices of rows between turns of the browser's event loop (each
 //! slice a few milliseconds), so the page stays responsive; a newer request drops an older
-//! one. It is recomputed only when the light, the cell settings, the connection or the
-//! map's axes change, not when a gap moves.
+//! one. Once shown, its best few local maxima are each refined in a turn of their own by the
+//! gap search's simplex ([`refine`]), and the best of them marked as the optimum. It is recomputed only when the light, the cell settings, the
+//! connection or the map's axes change, not when a gap moves.
 
 use std::cell::RefCell;
 use std::fmt::Write;
@@ -23,10 +25,11 @@ use super::{colours, edit_stack, save_plot, set_gaps, StackCtx, MAP};
 use crate::app::card::{plot_card, Card, Hover, PlotBehaviour};
 use crate::app::engine::same_but_gap;
 use crate::app::fmt::{fixed, gap_ev, nice_step};
-use crate::app::plots::{chart, draw_boxed_text, draw_caption, draw_legend_row, err, palette, tick_target, AxisSpec, Drawing, Frame, Look};
+use crate::app::plots::{boxed_text_rect, chart, draw_boxed_text, draw_caption, draw_legend_row, err, palette, tick_target, AxisSpec, Drawing, Frame, Look};
 use crate::app::state::tidy;
 use crate::physics::constants::{ev, to_ev};
 use crate::physics::stack::map::tandem_map;
+use crate::physics::stack::optimize::{grid_maxima, refine, Optimum, Problem, POLISHED_STARTS};
 use crate::physics::stack::Connection;
 use crate::scenario::stack::{MapSettings, StackScenario};
 use crate::scenario::{CellScenario, CellSetup, Scenario};
@@ -60,6 +63,12 @@ pub struct MapData {
     pub eff: Vec<f64>,
     /// the best grid point: (top gap [eV], bottom gap [eV], efficiency [%])
     pub best: Option<(f64, f64, f64)>,
+    /// the best of the grid's best few local maxima, each refined to the local optimum near
+    /// it (may lie off the map when the grid's best is on its edge), once found: (top,
+    /// bottom [eV], efficiency [%])
+    pub refined: Option<(f64, f64, f64)>,
+    /// time spent refining [ms]
+    pub refine_ms: f64,
     /// (bottom gap, top gap) [eV] where the two subcells' photocurrents are equal
     pub matched: Vec<(f64, f64)>,
     /// time spent computing and from request to result [ms]
@@ -121,7 +130,8 @@ struct Job {
 
 #[derive(Default)]
 struct Maps {
-    done: Option<(MapKey, Arc<MapData>)>,
+    /// the last map computed, what it was for and its light and cells
+    done: Option<(MapKey, Arc<MapData>, Arc<CellSetup>)>,
     job: Option<Job>,
     last_id: u64,
 }
@@ -138,7 +148,7 @@ fn now() -> f64 {
 pub fn ensure(sc: StackCtx, s: &Scenario) {
     let start = MAPS.with(|m| {
         let m = m.borrow();
-        if let Some((k, d)) = &m.done {
+        if let Some((k, d, _)) = &m.done {
             if k.matches(s) {
                 return Some(Err(d.clone()));
             }
@@ -226,7 +236,7 @@ fn pump(sc: StackCtx, id: u64) {
         }
         let job = m.job.take()?;
         let data = Arc::new(finish(&job));
-        m.done = Some((job.key, data.clone()));
+        m.done = Some((job.key, data.clone(), job.setup));
         Some(Ok(data))
     });
     match finished {
@@ -237,8 +247,88 @@ fn pump(sc: StackCtx, id: u64) {
         }
         Some(Ok(data)) => {
             crate::app::state::mark("gg-map-done");
+            let id = data.id;
             sc.map.try_set(Some(data));
             sc.map_status.try_set(MapStatus::Ready);
+            // refine the best point once the map is on the page
+            set_timeout(move || refine_best(sc, id), Duration::ZERO);
+        }
+    }
+}
+
+/// Refine the map `id` (while it is still the map and no other is being computed): its best
+/// few local maxima are each polished by the gap search's simplex, one per turn of the page,
+/// under the map's light, cells and connection, from first steps of one grid step, the gaps
+/// ranging over both axes. Then the map is shown again with the best of them (under a new
+/// id, so the cached drawing is redrawn once).
+fn refine_best(sc: StackCtx, id: u64) {
+    let starts = MAPS.with(|m| {
+        let m = m.borrow();
+        let (_, data, _) = m.done.as_ref().filter(|d| d.1.id == id && d.1.refined.is_none() && m.job.is_none())?;
+        let tops: Vec<f64> = data.tops_ev.iter().map(|g| ev(*g)).collect();
+        let bottoms: Vec<f64> = data.bottoms_ev.iter().map(|g| ev(*g)).collect();
+        let starts: Vec<Vec<f64>> = grid_maxima(&tops, &bottoms, &data.eff).into_iter().take(POLISHED_STARTS).map(|(x, _)| x).collect();
+        (!starts.is_empty()).then_some(starts)
+    });
+    if let Some(starts) = starts {
+        polish_next(sc, id, Rc::new(starts), 0, None, 0.0);
+    }
+}
+
+/// Polish start `k` of map `id`, keeping the best optimum so far; then the next in a turn
+/// of its own, or show the best.
+fn polish_next(sc: StackCtx, id: u64, starts: Rc<Vec<Vec<f64>>>, k: usize, best: Option<Optimum>, busy: f64) {
+    let t0 = now();
+    let step = MAPS.with(|m| {
+        let mut m = m.borrow_mut();
+        if m.job.is_some() {
+            return None;
+        }
+        let (key, data, setup) = m.done.as_ref().filter(|d| d.1.id == id)?;
+        let (tops, bottoms) = (&data.tops_ev, &data.bottoms_ev);
+        let lo = tops[0].min(bottoms[0]);
+        let hi = tops[tops.len() - 1].max(bottoms[bottoms.len() - 1]);
+        let grid_step = |xs: &[f64]| (xs[xs.len() - 1] - xs[0]) / (xs.len() - 1).max(1) as f64;
+        let p = Problem {
+            light: &setup.light,
+            cell: setup.cell,
+            connection: key.connection,
+            junctions: 2,
+            fixed: None,
+            range_j: (ev(lo), ev(hi)),
+            seeds: Vec::new(),
+        };
+        let found = refine(&p, &starts[k], ev(grid_step(tops).max(grid_step(bottoms))));
+        let best = match best {
+            Some(b) if !(found.gaps_j.len() == 2 && found.efficiency > b.efficiency) => b,
+            _ => found,
+        };
+        let busy = busy + (now() - t0);
+        if k + 1 < starts.len() {
+            return Some(Err((best, busy)));
+        }
+        if best.gaps_j.len() != 2 {
+            return None;
+        }
+        let next_id = m.last_id + 1;
+        let next = Arc::new(MapData {
+            id: next_id,
+            refined: Some((to_ev(best.gaps_j[0]), to_ev(best.gaps_j[1]), best.efficiency * 100.0)),
+            refine_ms: busy,
+            ..(**data).clone()
+        });
+        m.last_id = next_id;
+        if let Some(d) = m.done.as_mut() {
+            d.1 = next.clone();
+        }
+        Some(Ok(next))
+    });
+    match step {
+        None => {}
+        Some(Err((best, busy))) => set_timeout(move || polish_next(sc, id, starts, k + 1, Some(best), busy), Duration::ZERO),
+        Some(Ok(data)) => {
+            crate::app::state::mark("gg-map-refined");
+            sc.map.try_set(Some(data));
         }
     }
 }
@@ -263,6 +353,8 @@ fn finish(job: &Job) -> MapData {
         bottoms_ev,
         eff,
         best,
+        refined: None,
+        refine_ms: 0.0,
         matched,
         compute_ms: job.busy,
         elapsed_ms: now() - job.started,
@@ -406,6 +498,73 @@ fn dashes(points: &[(f64, f64)], on: f64, off: f64) -> Vec<Vec<(i32, i32)>> {
     out
 }
 
+/// Whether (bottom gap, top gap) [eV] lies within the axes of `frame`.
+fn on_axes(frame: &Frame, bottom: f64, top: f64) -> bool {
+    bottom >= frame.x_lo && bottom <= frame.x_hi && top >= frame.y_lo && top <= frame.y_hi
+}
+
+/// The marker of the best grid point at `p` [backend px]: a diamond, filled or outlined.
+fn draw_diamond<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, look: &Look, (px, py): (i32, i32), filled: bool) -> Result<(), String> {
+    let r = look.px(6.0);
+    let diamond = vec![(px, py - r), (px + r, py), (px, py + r), (px - r, py), (px, py - r)];
+    if filled {
+        root.draw(&Polygon::new(diamond[..4].to_vec(), palette::BEST.filled())).map_err(err)?;
+        root.draw(&PathElement::new(diamond, WHITE.stroke_width(look.px(1.2).max(1) as u32))).map_err(err)?;
+    } else {
+        root.draw(&PathElement::new(diamond.clone(), WHITE.stroke_width(look.px(3.6).max(1) as u32))).map_err(err)?;
+        root.draw(&PathElement::new(diamond, palette::BEST.stroke_width(look.px(1.6).max(1) as u32))).map_err(err)?;
+    }
+    Ok(())
+}
+
+/// The marker of the refined optimum at `p` [backend px]: a white star edged in the colour
+/// of the best point.
+fn draw_star<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, look: &Look, (px, py): (i32, i32)) -> Result<(), String> {
+    let star = star_points(px, py, look.size(10.0), look.size(4.2));
+    root.draw(&Polygon::new(star.clone(), WHITE.filled())).map_err(err)?;
+    let mut outline = star;
+    outline.push(outline[0]);
+    root.draw(&PathElement::new(outline, palette::BEST.stroke_width(look.px(1.8).max(1) as u32))).map_err(err)?;
+    Ok(())
+}
+
+/// The design's marker at `p` [backend px]: a ring with a dot.
+fn draw_ring<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, look: &Look, (px, py): (i32, i32)) -> Result<(), String> {
+    let r = look.px(7.0);
+    root.draw(&Circle::new((px, py), r, WHITE.stroke_width(look.px(4.0).max(1) as u32))).map_err(err)?;
+    root.draw(&Circle::new((px, py), r, palette::GAP.stroke_width(look.px(2.2).max(1) as u32))).map_err(err)?;
+    root.draw(&Circle::new((px, py), look.px(1.8), palette::GAP.filled())).map_err(err)?;
+    Ok(())
+}
+
+/// (cos, sin) of the directions of a five-pointed star's corners, one point up: -90° then
+/// every 36°.
+const STAR_DIRECTIONS: [(f64, f64); 10] = [
+    (0.0, -1.0),
+    (0.587_785_252_292_473_1, -0.809_016_994_374_947_4),
+    (0.951_056_516_295_153_6, -0.309_016_994_374_947_5),
+    (0.951_056_516_295_153_6, 0.309_016_994_374_947_5),
+    (0.587_785_252_292_473_1, 0.809_016_994_374_947_4),
+    (0.0, 1.0),
+    (-0.587_785_252_292_473_1, 0.809_016_994_374_947_4),
+    (-0.951_056_516_295_153_6, 0.309_016_994_374_947_5),
+    (-0.951_056_516_295_153_6, -0.309_016_994_374_947_5),
+    (-0.587_785_252_292_473_1, -0.809_016_994_374_947_4),
+];
+
+/// The corners of a five-pointed star at (x, y) [backend px], outer and inner radii, one
+/// point up.
+fn star_points(x: i32, y: i32, outer: f64, inner: f64) -> Vec<(i32, i32)> {
+    STAR_DIRECTIONS
+        .iter()
+        .enumerate()
+        .map(|(k, (c, s))| {
+            let r = if k % 2 == 0 { outer } else { inner };
+            (x + (r * c).round() as i32, y + (r * s).round() as i32)
+        })
+        .collect()
+}
+
 pub struct MapPlot<'a> {
     pub map: &'a MapData,
     pub design: Design,
@@ -481,22 +640,16 @@ impl MapPlot<'_> {
         }
 
         let (left, right, top, bottom) = (frame.left as i32, frame.right as i32, frame.top as i32, frame.bottom as i32);
-        let bounds = (left, top, right, bottom);
         let bx = |v: f64| (frame.css_of_x(v) * look.scale).round() as i32;
         let by = |v: f64| (frame.css_of_y(v) * look.scale).round() as i32;
-        // the best grid point
-        if let Some((t, b, e)) = m.best {
-            let (px, py) = (bx(b), by(t));
-            let r = look.px(6.0);
-            root.draw(&Polygon::new(vec![(px, py - r), (px + r, py), (px, py + r), (px - r, py)], palette::BEST.filled())).map_err(err)?;
-            root.draw(&PathElement::new(
-                vec![(px, py - r), (px + r, py), (px, py + r), (px - r, py), (px, py - r)],
-                WHITE.stroke_width(look.px(1.2).max(1) as u32),
-            ))
-            .map_err(err)?;
-            let text = format!("best {} / {} eV · {} %", fixed(t, 2), fixed(b, 2), fixed(e, 2));
-            // below right; the design's label keeps clear of it
-            draw_boxed_text(root, look, &text, px + look.px(9.0), py + look.px(7.0), HPos::Left, VPos::Top, &palette::BEST, bounds)?;
+        let inside = |b: f64, t: f64| on_axes(&frame, b, t);
+        // the best grid point: filled until it is refined, then an outline under the optimum
+        if let Some((t, b, _)) = m.best {
+            draw_diamond(root, look, (bx(b), by(t)), m.refined.is_none())?;
+        }
+        // the refined optimum: a star
+        if let Some((t, b, _)) = m.refined.filter(|(t, b, _)| inside(*b, *t)) {
+            draw_star(root, look, (bx(b), by(t)))?;
         }
 
         // the colour bar with the contour levels
@@ -526,39 +679,97 @@ impl MapPlot<'_> {
 
         if look.legend {
             let lx = left + look.px(12.0);
-            let ly = top + look.px(16.0);
-            draw_legend_row(root, look, lx, ly, &palette::BEST, false, "best point of the grid")?;
-            draw_legend_row(root, look, lx, ly + look.px(20.0), &palette::GAP, false, "this design")?;
+            let mut ly = top + look.px(16.0);
+            // each row's marker as on the map, over an invisible line
+            let mark = lx + look.px(11.0);
+            if m.refined.is_some() {
+                draw_legend_row(root, look, lx, ly, &WHITE, false, "optimum, refined from the grid")?;
+                draw_star(root, look, (mark, ly))?;
+                ly += look.px(20.0);
+            }
+            draw_legend_row(root, look, lx, ly, &WHITE, false, "best point of the grid")?;
+            draw_diamond(root, look, (mark, ly), m.refined.is_none())?;
+            draw_legend_row(root, look, lx, ly + look.px(20.0), &WHITE, false, "this design")?;
+            draw_ring(root, look, (mark, ly + look.px(20.0)))?;
         }
         Ok(frame)
     }
 
-    /// The design's marker and label over the map drawn in `frame`.
+    /// The labelled marker, the optimum (or the grid's best until it is refined): its label
+    /// and where its marker is [backend px], None when it is off the map.
+    fn best_tag(&self, look: &Look, frame: &Frame) -> Option<(String, Option<(i32, i32)>)> {
+        let m = self.map;
+        let at = |b: f64, t: f64| {
+            on_axes(frame, b, t).then(|| ((frame.css_of_x(b) * look.scale).round() as i32, (frame.css_of_y(t) * look.scale).round() as i32))
+        };
+        match (m.refined, m.best) {
+            (Some((t, b, e)), _) => {
+                let at = at(b, t);
+                let what = if at.is_some() { "optimum" } else { "optimum off the map:" };
+                Some((format!("{what} {} / {} eV · {} %", fixed(t, 3), fixed(b, 3), fixed(e, 2)), at))
+            }
+            (None, Some((t, b, e))) => Some((format!("best of the grid {} / {} eV · {} %", fixed(t, 2), fixed(b, 2), fixed(e, 2)), at(b, t))),
+            (None, None) => None,
+        }
+    }
+
+    /// What is redrawn over the cached map when the design moves: the design's marker, its
+    /// label and the optimum's label (so that the two labels and the markers keep clear of
+    /// each other).
     fn draw_design<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look, frame: &Frame) -> Result<(), String> {
         let m = self.map;
         let (left, right, top, bottom) = (frame.left as i32, frame.right as i32, frame.top as i32, frame.bottom as i32);
         let bounds = (left, top, right, bottom);
-        let bx = |v: f64| (frame.css_of_x(v) * look.scale).round() as i32;
-        let by = |v: f64| (frame.css_of_y(v) * look.scale).round() as i32;
-        let inside = |b: f64, t: f64| b >= frame.x_lo && b <= frame.x_hi && t >= frame.y_lo && t <= frame.y_hi;
+        let design = self.design.pair.map(|(t, b)| (t, b, on_axes(frame, b, t)));
+        let design_at = design
+            .filter(|d| d.2)
+            .map(|(t, b, _)| ((frame.css_of_x(b) * look.scale).round() as i32, (frame.css_of_y(t) * look.scale).round() as i32));
+        let around = |(x, y): (i32, i32), r: i32| (x - r, y - r, x + r, y + r);
+        // what the labels keep clear of: the markers and the labels already placed
+        let mut taken: Vec<Rect> = design_at.map(|p| around(p, look.px(10.0))).into_iter().collect();
+        if let Some((t, b, _)) = m.best.filter(|(t, b, _)| m.refined.is_some() && on_axes(frame, *b, *t)) {
+            taken.push(around(((frame.css_of_x(b) * look.scale).round() as i32, (frame.css_of_y(t) * look.scale).round() as i32), look.px(8.0)));
+        }
+        let (dx, dy) = (look.px(11.0), look.px(8.0));
+
+        // the optimum's label: below right of its star, else around it
+        if let Some((text, at)) = self.best_tag(look, frame) {
+            let place = match at {
+                Some((x, y)) => {
+                    taken.push(around((x, y), look.px(10.0)));
+                    let right_side = (HPos::Left, x + dx);
+                    let left_side = (HPos::Right, x - dx);
+                    let below = (VPos::Top, y + dy);
+                    let above = (VPos::Bottom, y - dy);
+                    clear_place(look, &text, &[(right_side, below), (left_side, below), (right_side, above), (left_side, above)], bounds, &taken)
+                }
+                None => ((HPos::Left, left + look.px(4.0)), (VPos::Bottom, bottom - look.px(4.0))),
+            };
+            let ((hp, x), (vp, y)) = place;
+            draw_boxed_text(root, look, &text, x, y, hp, vp, &palette::BEST, bounds)?;
+            taken.push(boxed_text_rect(look, &text, x, y, hp, vp, bounds));
+        }
+
         // the design
-        match self.design.pair {
-            Some((t, b)) if inside(b, t) => {
-                let (px, py) = (bx(b), by(t));
-                let r = look.px(7.0);
-                root.draw(&Circle::new((px, py), r, WHITE.stroke_width(look.px(4.0).max(1) as u32))).map_err(err)?;
-                root.draw(&Circle::new((px, py), r, palette::GAP.stroke_width(look.px(2.2).max(1) as u32))).map_err(err)?;
-                root.draw(&Circle::new((px, py), look.px(1.8), palette::GAP.filled())).map_err(err)?;
+        match (design, design_at) {
+            (Some((t, b, _)), Some((px, py))) => {
+                draw_ring(root, look, (px, py))?;
                 let e = m.nearest(b, t).map(|(i, k)| m.at(i, k)).filter(|e| e.is_finite());
                 let text = match e {
                     Some(e) => format!("design {} / {} eV · ≈{} %", gap_ev(t), gap_ev(b), fixed(e, 1)),
                     None => format!("design {} / {} eV", gap_ev(t), gap_ev(b)),
                 };
-                let left_of_best = m.best.is_some_and(|(_, bb, _)| b < bb);
-                let (hp, dx) = if left_of_best { (HPos::Right, -look.px(11.0)) } else { (HPos::Left, look.px(11.0)) };
-                draw_boxed_text(root, look, &text, px + dx, py - look.px(8.0), hp, VPos::Bottom, &palette::GAP, bounds)?;
+                // above the marker, on the side away from the optimum; else below
+                let left_of_best = m.refined.or(m.best).is_some_and(|(_, bb, _)| b < bb);
+                let right_side = (HPos::Left, px + dx);
+                let left_side = (HPos::Right, px - dx);
+                let (near, far) = if left_of_best { (left_side, right_side) } else { (right_side, left_side) };
+                let above = (VPos::Bottom, py - dy);
+                let below = (VPos::Top, py + dy);
+                let ((hp, x), (vp, y)) = clear_place(look, &text, &[(near, above), (far, above), (near, below), (far, below)], bounds, &taken);
+                draw_boxed_text(root, look, &text, x, y, hp, vp, &palette::GAP, bounds)?;
             }
-            Some(_) => {
+            (Some(_), None) => {
                 draw_boxed_text(
                     root,
                     look,
@@ -572,11 +783,29 @@ impl MapPlot<'_> {
                 )?;
             }
             // the legend says why there is no design on the map
-            None => {}
+            _ => {}
         }
 
         Ok(())
     }
+}
+
+/// A box on the plot: (left, top, right, bottom) [backend px].
+type Rect = (i32, i32, i32, i32);
+
+/// Where a label goes: ((horizontal anchor, x), (vertical anchor, y)) [backend px].
+type Place = ((HPos, i32), (VPos, i32));
+
+/// The first of `places` where the label `text` covers none of `taken`, else the first.
+fn clear_place(look: &Look, text: &str, places: &[Place], bounds: Rect, taken: &[Rect]) -> Place {
+    let apart = |a: &Rect, b: &Rect| a.2 <= b.0 || b.2 <= a.0 || a.3 <= b.1 || b.3 <= a.1;
+    *places
+        .iter()
+        .find(|((hp, x), (vp, y))| {
+            let r = boxed_text_rect(look, text, *x, *y, *hp, *vp, bounds);
+            taken.iter().all(|t| apart(&r, t))
+        })
+        .unwrap_or(&places[0])
 }
 
 /// The map's base layer as last drawn on the page: (map id, bitmap size, a copy of the
@@ -644,6 +873,12 @@ fn map_csv(m: &MapData, what: &str) -> String {
     let _ = writeln!(out, "# Glowgap: {what}");
     let _ = writeln!(out, "# efficiency of every two-junction stack of the grid; empty where the bottom gap is not below the top gap");
     let _ = writeln!(out, "# Detailed-balance limits of an ideal stack: upper bounds, not predictions of a device.");
+    if let Some((t, b, e)) = m.best {
+        let _ = writeln!(out, "# best point of the grid: top {t:.6} eV, bottom {b:.6} eV, {e:.4} %");
+    }
+    if let Some((t, b, e)) = m.refined {
+        let _ = writeln!(out, "# optimum refined from the grid's best local maxima (simplex): top {t:.6} eV, bottom {b:.6} eV, {e:.4} %");
+    }
     let _ = writeln!(out, "top gap (eV),bottom gap (eV),efficiency (%)");
     for (i, t) in m.tops_ev.iter().enumerate() {
         for (k, b) in m.bottoms_ev.iter().enumerate() {
@@ -655,6 +890,34 @@ fn map_csv(m: &MapData, what: &str) -> String {
     out
 }
 
+/// How near the pointer must be to the optimum's or the best grid point's marker for the
+/// read-out to be about it [CSS px].
+const MARKER_REACH_CSS: f64 = 7.0;
+
+/// Put a two-junction design at (top, bottom) [eV], rounded to `unit` [eV]; a design with
+/// another number of junctions is left alone with a message.
+fn place_design(sc: StackCtx, top: f64, bottom: f64, unit: f64) -> bool {
+    let ctx = sc.ctx;
+    let n = ctx.scenario.with_untracked(|s| s.stack.gaps_ev.len());
+    if n != 2 {
+        ctx.set_error(
+            "tandem-map",
+            format!("The map is for two-junction stacks and this design has {n}; set Junctions to 2 to place it on the map."),
+        );
+        return false;
+    }
+    let r = |v: f64| (v / unit).round() * unit;
+    set_gaps(ctx, "tandem-map", vec![tidy(r(top)), tidy(r(bottom))])
+}
+
+/// The optimum's gaps are given to 0.1 meV, as the gap search gives its answer [eV].
+const OPTIMUM_UNIT_EV: f64 = 1e-4;
+
+/// `p` (top, bottom [eV], efficiency), if the pointer at (x, y) [CSS px] is on its marker.
+fn on_marker(f: &Frame, p: Option<(f64, f64, f64)>, x: f64, y: f64) -> Option<(f64, f64, f64)> {
+    p.filter(|(t, b, _)| (f.css_of_x(*b) - x).hypot(f.css_of_y(*t) - y) <= MARKER_REACH_CSS)
+}
+
 /// What the map does with the pointer and keys.
 struct MapCard {
     sc: StackCtx,
@@ -663,17 +926,7 @@ struct MapCard {
 impl MapCard {
     /// Put the design at (top, bottom) [eV], rounded to 1 meV.
     fn place(&self, top: f64, bottom: f64) -> bool {
-        let ctx = self.sc.ctx;
-        let n = ctx.scenario.with_untracked(|s| s.stack.gaps_ev.len());
-        if n != 2 {
-            ctx.set_error(
-                "tandem-map",
-                format!("The map is for two-junction stacks and this design has {n}; set Junctions to 2 to place it on the map."),
-            );
-            return false;
-        }
-        let r = |v: f64| (v * 1000.0).round() / 1000.0;
-        set_gaps(ctx, "tandem-map", vec![r(top), r(bottom)])
+        place_design(self.sc, top, bottom, 1e-3)
     }
 
     fn point_at(&self, x: f64, y: f64) -> Option<(f64, f64)> {
@@ -690,6 +943,24 @@ impl PlotBehaviour for MapCard {
         if !f.contains_css(x, y, 0.0) {
             return None;
         }
+        // on a marker, say which it is and its figures
+        let near = |p| on_marker(&f, p, x, y);
+        if let Some((pt, pb, pe)) = near(m.refined) {
+            let lines = vec![
+                format!("optimum: top {} eV · bottom {} eV", fixed(pt, 4), fixed(pb, 4)),
+                format!("{} % ({}), refined from the grid's best points", fixed(pe, 3), m.connection.label()),
+                "click to put the design on it".into(),
+            ];
+            return Some(Hover::new(x, y, width, Some((f.css_of_x(pb), f.css_of_y(pt))), lines));
+        }
+        if let Some((pt, pb, pe)) = near(m.best) {
+            let lines = vec![
+                format!("best point of the grid: top {} eV · bottom {} eV", fixed(pt, 3), fixed(pb, 3)),
+                format!("{} % ({})", fixed(pe, 2), m.connection.label()),
+                "click to move the design here".into(),
+            ];
+            return Some(Hover::new(x, y, width, Some((f.css_of_x(pb), f.css_of_y(pt))), lines));
+        }
         let (i, k) = m.nearest(b, t)?;
         let e = m.at(i, k);
         let mut lines = vec![format!("top {} eV · bottom {} eV", fixed(m.tops_ev[i], 3), fixed(m.bottoms_ev[k], 3))];
@@ -703,8 +974,12 @@ impl PlotBehaviour for MapCard {
     }
 
     fn press(&self, x: f64, y: f64) -> bool {
-        if self.sc.map.with_untracked(|m| m.is_none()) {
-            return false;
+        let Some(m) = self.sc.map.get_untracked() else { return false };
+        // on the optimum's marker: the design takes the optimum (to 0.1 meV, as the search gives it)
+        let f = self.sc.frame(MAP);
+        if let Some((t, b, _)) = on_marker(&f, m.refined, x, y) {
+            place_design(self.sc, t, b, OPTIMUM_UNIT_EV);
+            return true;
         }
         match self.point_at(x, y) {
             Some((t, b)) => {
@@ -748,35 +1023,67 @@ impl PlotBehaviour for MapCard {
 }
 
 fn legend(sc: StackCtx) -> impl IntoView {
-    move || {
-        let status = sc.map_status.get();
-        let m = sc.map.get();
-        let best = m
-            .as_ref()
-            .and_then(|m| m.best)
-            .map(|(t, b, e)| format!("best on the grid: top {} eV, bottom {} eV, {} %", fixed(t, 3), fixed(b, 3), fixed(e, 2)));
-        let series = m.as_ref().is_some_and(|m| m.connection == Connection::Series);
+    // each line follows the map on its own, so a new map or design changes only text
+    let optimum = move || sc.map.with(|m| m.as_ref().and_then(|m| m.refined));
+    let has_best = move || sc.map.with(|m| m.as_ref().is_some_and(|m| m.best.is_some()));
+    let refined = move || match optimum() {
+        Some((t, b, e)) => format!("optimum, refined from the grid: top {} eV, bottom {} eV, {} %", fixed(t, 4), fixed(b, 4), fixed(e, 3)),
+        None => "refining the optimum…".to_string(),
+    };
+    let best = move || {
+        sc.map.with(|m| {
+            m.as_ref()
+                .and_then(|m| m.best)
+                .map(|(t, b, e)| format!("best point of the grid: top {} eV, bottom {} eV, {} %", fixed(t, 3), fixed(b, 3), fixed(e, 2)))
+        })
+    };
+    let series = move || sc.map.with(|m| m.as_ref().is_some_and(|m| m.connection == Connection::Series));
+    let design = move || {
         let n = sc.ctx.scenario.with(|s| s.stack.gaps_ev.len());
-        let design = if n == 2 {
+        if n == 2 {
             "this design — click or drag to move it".to_string()
         } else {
             format!("the design has {n} junctions; set Junctions to 2 to place it on the map")
-        };
-        let timing = match (&status, &m) {
+        }
+    };
+    let timing = move || {
+        let status = sc.map_status.get();
+        sc.map.with(|m| match (&status, m) {
             (MapStatus::Computing(f), _) => format!("computing the map… {} %", fixed(f * 100.0, 0)),
             (MapStatus::Failed(e), _) => e.clone(),
+            (_, Some(m)) if m.refined.is_some() => format!(
+                "{}×{} stacks in {} ms, optimum refined in {} ms",
+                m.tops_ev.len(),
+                m.bottoms_ev.len(),
+                fixed(m.compute_ms, 0),
+                fixed(m.refine_ms, 0)
+            ),
             (_, Some(m)) => format!("{}×{} stacks in {} ms", m.tops_ev.len(), m.bottoms_ev.len(), fixed(m.compute_ms, 0)),
             _ => String::new(),
-        };
-        view! {
-            <span class="key"><i class="k-diamond"></i>{best}</span>
-            <span class="key"><i class="k-ring"></i>{design}</span>
-            {series.then(|| view! { <span class="key"><i class="k-line k-matched"></i>"currents matched"</span> })}
-            <span class="key"><i class="k-fill k-not-stack"></i>"not a stack"</span>
-            <span class="key map-timing" data-info="map-timing">{timing}</span>
+        })
+    };
+    let use_optimum = move |_| {
+        if let Some((t, b, _)) = optimum() {
+            place_design(sc, t, b, OPTIMUM_UNIT_EV);
         }
+    };
+    view! {
+        <span class="key" data-info="map-optimum" hidden=move || !has_best()>
+            <svg class="k-star" viewBox="0 0 20 20" aria-hidden="true"><polygon points=STAR_KEY></polygon></svg>
+            {refined}
+            <button type="button" class="small" data-action="use-optimum" title="Make the optimum the design (gaps to 0.1 meV)"
+                hidden=move || optimum().is_none() on:click=use_optimum>"Use it"</button>
+        </span>
+        <span class="key" data-info="map-best" hidden=move || !has_best()><i class="k-diamond" class:hollow=move || optimum().is_some()></i>{best}</span>
+        <span class="key"><i class="k-ring"></i>{design}</span>
+        <span class="key" hidden=move || !series()><i class="k-line k-matched"></i>"currents matched"</span>
+        <span class="key"><i class="k-fill k-not-stack"></i>"not a stack"</span>
+        <span class="key map-timing" data-info="map-timing">{timing}</span>
     }
 }
+
+/// The legend's star, as drawn on the map (a 20 × 20 box).
+const STAR_KEY: &str = "10.0,1.6 12.3,7.6 18.7,8.0 13.7,12.0 15.4,18.2 10.0,14.7 4.6,18.2 6.3,12.0 1.3,8.0 7.7,7.6";
 
 /// Grid sizes offered for the map (points along each axis).
 const RESOLUTIONS: [usize; 4] = [61, 121, 201, 301];
@@ -821,7 +1128,7 @@ pub fn map_card(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView {
         Card {
             slug: "tandem-map",
             title: "Two-junction efficiency map",
-            aria: "Heat map of the limiting efficiency of two-junction stacks against the bottom-cell gap (across) and the top-cell gap (up), with contour lines, the best point of the grid and the current design. Click or drag to move a two-junction design; arrow keys step its gaps by 1 meV (Shift: 10 meV): left and right the bottom gap, up and down the top gap.".into(),
+            aria: "Heat map of the limiting efficiency of two-junction stacks against the bottom-cell gap (across) and the top-cell gap (up), with contour lines, the best point of the grid, the optimum refined from the grid and the current design. Click or drag to move a two-junction design; arrow keys step its gaps by 1 meV (Shift: 10 meV): left and right the bottom gap, up and down the top gap.".into(),
             interactive: true,
             wrap_class: "map-wrap",
             control: None,

@@ -1,8 +1,9 @@
 //! The Stack panel: a multi-junction design editor (junctions, connection, gaps dragged on
 //! the spectrum), its figures and per-subcell table, the two-junction efficiency map (computed
-//! in slices so the page stays responsive), the gap search (run in a background worker,
-//! cancellable), EQE import with the reciprocity limits, and the loss chart of the single
-//! cell.
+//! in slices so the page stays responsive, its best points then refined), the gap search (run
+//! in a background worker, cancellable, optionally holding one gap fixed), the single cell's
+//! absorptance (ideal step, Urbach tail or a measured EQE) with its reciprocity limits, and
+//! the loss chart of the single cell.
 //!
 //! Everything the user chooses lives in `Scenario.stack` (and the light and cell settings in
 //! `Scenario.cell`, shared with the solar-cell panel), so the share link holds it. Edits go
@@ -42,6 +43,9 @@ pub const MAP: usize = 1;
 pub const LOSSES: usize = 2;
 pub const EQE: usize = 3;
 const PLOTS: usize = 4;
+
+/// How the message on an absorptance that cannot be computed (from a link) begins.
+const ABSORBER_UNUSABLE: &str = "The single cell's absorptance cannot be computed:";
 
 /// `data-control` hooks of the gap fields, top first.
 pub const GAP_HOOKS: [&str; 6] = ["gap-1", "gap-2", "gap-3", "gap-4", "gap-5", "gap-6"];
@@ -258,11 +262,13 @@ pub fn StackPanel() -> impl IntoView {
                     draw_into(EQE, &targets[EQE], &eqe::EqePlot { a }, &mut frames, &mut errors);
                 }
                 sc.absorber.set(a);
-                ctx.clear_error("eqe-file");
+                if ctx.errors.with_untracked(|m| m.get("absorber").is_some_and(|t| t.starts_with(ABSORBER_UNUSABLE))) {
+                    ctx.clear_error("absorber");
+                }
             }
             Err(e) => {
                 sc.absorber.set(None);
-                ctx.set_error("eqe-file", sentence(&e));
+                ctx.set_error("absorber", format!("{ABSORBER_UNUSABLE} {}", sentence(&e)));
             }
         }
         mark("gg-stack-drawn");

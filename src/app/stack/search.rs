@@ -14,12 +14,13 @@ use wasm_bindgen::{JsCast, JsValue};
 use super::worker::SearchReply;
 use super::{set_gaps, StackCtx};
 use crate::app::card::range_input;
-use crate::app::controls::thousands;
+use crate::app::controls::{gap_keys, number_field, parse_gap, thousands, Field};
 use crate::app::engine::same_but_gap;
-use crate::app::fmt::{fixed, gap_ev};
-use crate::app::state::{mark, sentence};
+use crate::app::fmt::{self, fixed, gap_ev};
+use crate::app::state::{mark, sentence, tidy, Ctx};
+use crate::physics::stack::optimize::FixAt;
 use crate::physics::stack::Connection;
-use crate::scenario::stack::check_gaps;
+use crate::scenario::stack::{check_gaps, OptimizeSettings};
 use crate::scenario::{CellScenario, Scenario};
 
 /// Where the search stands.
@@ -78,6 +79,8 @@ struct Started {
     cell: CellScenario,
     connection: Connection,
     junctions: usize,
+    /// the gap held fixed and where
+    fix: (Option<f64>, FixAt),
     /// the design's efficiency at the start (display text)
     before: String,
 }
@@ -190,28 +193,44 @@ fn on_message(sc: StackCtx, m: Message) {
 /// Make the answer the design, if the search still fits the scenario.
 fn apply(sc: StackCtx, job: Started, r: SearchReply, elapsed: f64) -> Option<SearchState> {
     let ctx = sc.ctx;
-    let still = ctx
-        .scenario
-        .try_with_untracked(|s| same_but_gap(&s.cell, &job.cell) && s.stack.connection == job.connection && s.stack.gaps_ev.len() == job.junctions)?;
+    let still = ctx.scenario.try_with_untracked(|s| {
+        same_but_gap(&s.cell, &job.cell)
+            && s.stack.connection == job.connection
+            && s.stack.gaps_ev.len() == job.junctions
+            && (s.stack.optimize.fix_ev, s.stack.optimize.fix_at) == job.fix
+    })?;
     if !still {
         return sc.search.try_set(SearchState::Failed(
-            "The light, the cells or the stack changed during the search, so its answer was not used; run it again.".into(),
+            "The light, the cells, the stack or the fixed gap changed during the search, so its answer was not used; run it again.".into(),
         ));
     }
-    // 0.1 meV is far below any gap that matters, and reads better than 1 µeV
-    let gaps: Vec<f64> = r.gaps_ev.iter().map(|g| (g * 1e4).round() / 1e4).collect();
+    // 0.1 meV is far below any gap that matters, and reads better than 1 µeV; the fixed gap
+    // stays exactly as given
+    let gaps: Vec<f64> = r.gaps_ev.iter().map(|&g| if Some(g) == job.fix.0 { g } else { (g * 1e4).round() / 1e4 }).collect();
+    if let Some(f) = job.fix.0 {
+        if !gaps.contains(&f) {
+            return sc.search.try_set(SearchState::Failed(format!(
+                "The search's answer does not hold the fixed gap {} eV, so it was not used; run it again.",
+                fmt::field(f, 6)
+            )));
+        }
+    }
     if !set_gaps(ctx, "optimize", gaps.clone()) {
         // the reason is under the button
         return sc.search.try_set(SearchState::Idle);
     }
     mark("gg-search-done");
     let shown: Vec<String> = gaps.iter().map(|g| gap_ev(*g)).collect();
+    let within = match fixed_words(job.fix) {
+        Some(w) => format!("with {w} and the other gaps"),
+        None => "with gaps".into(),
+    };
     let text = format!(
-        "Best {}-junction {} stack with gaps from {} to {} eV: {} eV, {} % (the design had {}). {} stacks evaluated in {} s.",
+        "Best {}-junction {} stack {within} from {} to {} eV: {} eV, {} % (the design had {}). {} stacks evaluated in {} s.",
         job.junctions,
         job.connection.label(),
-        crate::app::fmt::field(r.from_ev, 4),
-        crate::app::fmt::field(r.to_ev, 4),
+        fmt::field(r.from_ev, 4),
+        fmt::field(r.to_ev, 4),
         shown.join(" / "),
         fixed(r.efficiency * 100.0, 2),
         job.before,
@@ -262,7 +281,14 @@ pub fn start(sc: StackCtx) {
     let posted = RUNNER.with(|r| {
         let mut r = r.borrow_mut();
         let r = r.as_mut()?;
-        r.job = Some(Started { id, cell: s.cell.clone(), connection: s.stack.connection, junctions: s.stack.gaps_ev.len(), before });
+        r.job = Some(Started {
+            id,
+            cell: s.cell.clone(),
+            connection: s.stack.connection,
+            junctions: s.stack.gaps_ev.len(),
+            fix: (s.stack.optimize.fix_ev, s.stack.optimize.fix_at),
+            before,
+        });
         Some(r.worker.post_message(&JsValue::from_str(&msg)).is_ok())
     });
     if posted != Some(true) {
@@ -281,6 +307,129 @@ pub fn cancel(sc: StackCtx) {
     }
 }
 
+/// "the bottom cell held at 1.12 eV", for a fixed gap.
+fn fixed_words(fix: (Option<f64>, FixAt)) -> Option<String> {
+    let f = fmt::field(fix.0?, 6);
+    Some(match fix.1 {
+        FixAt::Bottom => format!("the bottom cell held at {f} eV"),
+        FixAt::Top => format!("the top cell held at {f} eV"),
+        FixAt::Any => format!("one subcell held at {f} eV"),
+    })
+}
+
+/// The search settings for the design's number of junctions.
+fn settings_of(s: &Scenario) -> OptimizeSettings {
+    OptimizeSettings { junctions: s.stack.gaps_ev.len(), ..s.stack.optimize.clone() }
+}
+
+/// Edit the search settings: the edited settings are checked by the scenario, for the
+/// design's number of junctions, before they are committed; otherwise the reason goes
+/// under `hook`.
+fn edit_search(ctx: Ctx, hook: &'static str, f: impl FnOnce(&mut OptimizeSettings)) -> bool {
+    let mut o = ctx.scenario.with_untracked(|s| s.stack.optimize.clone());
+    f(&mut o);
+    let n = ctx.scenario.with_untracked(|s| s.stack.gaps_ev.len());
+    if let Err(e) = (OptimizeSettings { junctions: n, ..o.clone() }).check() {
+        ctx.set_error(hook, sentence(&e));
+        return false;
+    }
+    ctx.edit(hook, move |s| s.stack.optimize = o)
+}
+
+/// The value of the fixed-gap <select>: "off", "bottom", "top" or "any".
+fn fix_key(fix: (Option<f64>, FixAt)) -> &'static str {
+    match fix {
+        (None, _) => "off",
+        (Some(_), FixAt::Bottom) => "bottom",
+        (Some(_), FixAt::Top) => "top",
+        (Some(_), FixAt::Any) => "any",
+    }
+}
+
+/// The fixed gap used when one is first asked for [eV]: crystalline silicon, a typical
+/// room-temperature value.
+const FIRST_FIXED_EV: f64 = 1.12;
+
+/// "Hold one gap fixed": off, or a gap and where it sits.
+fn fixed_gap_control(sc: StackCtx) -> impl IntoView {
+    let ctx = sc.ctx;
+    let fix = Memo::new(move |_| ctx.scenario.with(|s| (s.stack.optimize.fix_ev, s.stack.optimize.fix_at)));
+    // the last gap held fixed, offered again when the choice is turned back on
+    let last = RwSignal::new(ctx.scenario.with_untracked(|s| s.stack.optimize.fix_ev).unwrap_or(FIRST_FIXED_EV));
+    // the <select> shows the choice in use (set after it is mounted and on every change)
+    let select = leptos::prelude::NodeRef::<leptos::html::Select>::new();
+    Effect::new(move |_| {
+        let k = fix_key(fix.get());
+        if let Some(sel) = select.get() {
+            sel.set_value(k);
+        }
+    });
+    let on_choice = move |ev: leptos::ev::Event| {
+        let at = match event_target_value(&ev).as_str() {
+            "bottom" => Some(FixAt::Bottom),
+            "top" => Some(FixAt::Top),
+            "any" => Some(FixAt::Any),
+            _ => None,
+        };
+        match at {
+            None => {
+                ctx.clear_error("fix-gap");
+                ctx.edit("fix-at", |s| s.stack.optimize.fix_ev = None);
+            }
+            Some(at) => {
+                let g = ctx.scenario.with_untracked(|s| s.stack.optimize.fix_ev).unwrap_or(last.get_untracked());
+                edit_search(ctx, "fix-at", move |o| {
+                    o.fix_ev = Some(g);
+                    o.fix_at = at;
+                });
+            }
+        }
+        // a refused choice shows the one in use again
+        if let Some(sel) = select.get_untracked() {
+            sel.set_value(fix_key(fix.get_untracked()));
+        }
+    };
+    let value = Memo::new(move |_| fix.get().0.unwrap_or_else(|| last.get()));
+    let commit: std::rc::Rc<dyn Fn(f64) -> bool> = std::rc::Rc::new(move |g| {
+        let ok = edit_search(ctx, "fix-gap", |o| o.fix_ev = Some(g));
+        if ok {
+            last.set(g);
+        }
+        ok
+    });
+    let step = commit.clone();
+    let (keys, typing) = gap_keys(std::rc::Rc::new(move |d| {
+        let g = ctx.scenario.with_untracked(|s| s.stack.optimize.fix_ev);
+        g.is_some_and(|g| step(tidy(g + d)))
+    }));
+    let field = Field {
+        label: "Fixed gap",
+        unit: "eV",
+        hook: "fix-gap",
+        hint: Some("e.g. 1.12 eV for a silicon bottom cell (or type nm). Arrow keys: ±1 meV (Shift: ±10 meV).".into()),
+        example: "1.12",
+        value,
+        show: fmt::gap_ev,
+        parse: parse_gap,
+    };
+    let off = move || fix.get().0.is_none();
+    view! {
+        <div class="fix-gap">
+            <div class="field">
+                <label for="f-fix-at">"Hold one gap fixed"</label>
+                <select id="f-fix-at" data-control="fix-at" node_ref=select on:change=on_choice aria-describedby="e-fix-at">
+                    <option value="off">"No: search every gap"</option>
+                    <option value="bottom">"Yes, the bottom cell"</option>
+                    <option value="top">"Yes, the top cell"</option>
+                    <option value="any">"Yes, any subcell"</option>
+                </select>
+                <p class="field-error" id="e-fix-at" data-error="fix-at" aria-live="polite">{move || ctx.error_of("fix-at")}</p>
+            </div>
+            <div class="sub-field" hidden=off on:focusin=move |_| typing.set(false)>{number_field(ctx, field, commit, Some(keys))}</div>
+        </div>
+    }
+}
+
 pub fn search_section(sc: StackCtx) -> impl IntoView {
     let ctx = sc.ctx;
     let running = move || sc.search.with(|s| s.running());
@@ -289,13 +438,16 @@ pub fn search_section(sc: StackCtx) -> impl IntoView {
     let bad = |text: &str| format!("'{text}' is not a band gap; type a number of eV, e.g. 0.5. The search range is unchanged.");
     let what = move || {
         ctx.scenario.with(|s| {
-            format!(
-                "Finds the {}-junction {} stack with the highest limit: every gap from {} to {} eV, the current design included, so the answer is never worse than it.",
-                s.stack.gaps_ev.len(),
-                s.stack.connection.label(),
-                crate::app::fmt::field(s.stack.optimize.from_ev, 4),
-                crate::app::fmt::field(s.stack.optimize.to_ev, 4)
-            )
+            let o = &s.stack.optimize;
+            let (n, conn, a, b) = (s.stack.gaps_ev.len(), s.stack.connection.label(), fmt::field(o.from_ev, 4), fmt::field(o.to_ev, 4));
+            match fixed_words((o.fix_ev, o.fix_at)) {
+                Some(w) => format!(
+                    "Finds the {n}-junction {conn} stack with the highest limit with {w}: the other gaps searched from {a} to {b} eV, starting from the current design with the fixed gap in its place."
+                ),
+                None => format!(
+                    "Finds the {n}-junction {conn} stack with the highest limit: every gap from {a} to {b} eV, the current design included, so the answer is never worse than it."
+                ),
+            }
         })
     };
     let progress = move || match sc.search.get() {
@@ -313,13 +465,10 @@ pub fn search_section(sc: StackCtx) -> impl IntoView {
         SearchState::Cancelled => Some("Search cancelled; the design is unchanged.".into()),
         _ => None,
     };
-    // a range that cannot be searched is said at once, not when the button is pressed
+    // settings that cannot be searched (the scenario's own check) are said at once, not
+    // when the button is pressed
     let range_problem = Memo::new(move |_| {
-        let (a, b) = (from.get(), to.get());
-        let (lo, hi) = crate::scenario::GAP_RANGE_EV;
-        (!(a.is_finite() && b.is_finite() && a >= lo && b <= hi && a < b)).then(|| {
-            format!("The search range {a}–{b} eV cannot be searched; give two band gaps from {lo} to {hi} eV, the lower first (e.g. 0.2 to 4.5).")
-        })
+        ctx.scenario.with(|s| settings_of(s).check().err()).map(|e| format!("{} The search waits for usable settings.", sentence(&e)))
     });
     let failed = move || match sc.search.get() {
         SearchState::Failed(t) => Some(t),
@@ -333,6 +482,7 @@ pub fn search_section(sc: StackCtx) -> impl IntoView {
                 {range_input(ctx, "search-from", "optimize", "from", "eV", from, |s, v| s.stack.optimize.from_ev = v, bad)}
                 {range_input(ctx, "search-to", "optimize", "to", "eV", to, |s, v| s.stack.optimize.to_ev = v, bad)}
             </div>
+            {fixed_gap_control(sc)}
             <div class="search-row">
                 <button type="button" class="action" data-action="optimize" disabled=move || running() || range_problem.get().is_some() on:click=move |_| start(sc)>
                     {move || if running() { "Optimizing…" } else { "Optimize the gaps" }}

@@ -7,7 +7,7 @@ use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
 
 use crate::physics::constants::{ev, to_ev};
-use crate::physics::stack::optimize::optimize_observed;
+use crate::physics::stack::optimize::{optimize_observed, FixAt};
 use crate::scenario::stack::OptimizeSettings;
 
 /// The search's answer.
@@ -34,8 +34,15 @@ pub fn run(job: &str, progress: &mut dyn FnMut(u64)) -> Result<SearchReply, Stri
     let mut problem = settings.to_problem(&setup.light, &setup.cell, s.stack.connection)?;
     let mut seed: Vec<f64> = s.stack.gaps_ev.iter().map(|g| ev(*g)).collect();
     if let Some(f) = problem.fixed {
-        // the fixed gap is not a free variable: drop the design's gap nearest to it
-        if let Some(i) = (0..seed.len()).min_by(|&a, &b| (seed[a] - f.gap_j).abs().total_cmp(&(seed[b] - f.gap_j).abs())) {
+        // the fixed gap is not a free variable: drop the design's gap in its place (top or
+        // bottom), or the one nearest to it
+        let nearest = (0..seed.len()).min_by(|&a, &b| (seed[a] - f.gap_j).abs().total_cmp(&(seed[b] - f.gap_j).abs()));
+        let place = match f.at {
+            FixAt::Top => Some(0),
+            FixAt::Bottom => seed.len().checked_sub(1),
+            FixAt::Any => nearest,
+        };
+        if let Some(i) = place {
             seed.remove(i);
         }
     }
@@ -44,8 +51,11 @@ pub fn run(job: &str, progress: &mut dyn FnMut(u64)) -> Result<SearchReply, Stri
     if best.gaps_j.len() != n {
         return Err("the search found no usable stack; widen the search range".into());
     }
+    // the fixed gap as given, not through J and back
+    let fixed = problem.fixed.map(|f| f.gap_j);
+    let gaps_ev = best.gaps_j.iter().map(|g| if Some(*g) == fixed { settings.fix_ev.unwrap_or(to_ev(*g)) } else { to_ev(*g) }).collect();
     Ok(SearchReply {
-        gaps_ev: best.gaps_j.iter().map(|g| to_ev(*g)).collect(),
+        gaps_ev,
         efficiency: best.efficiency,
         evaluations: best.evaluations,
         from_ev: settings.from_ev,

@@ -143,7 +143,8 @@ pub fn optimize_observed(p: &Problem, observer: &mut dyn FnMut(u64)) -> Optimum 
     search(p, Some(observer))
 }
 
-fn search(p: &Problem, observer: Option<&mut dyn FnMut(u64)>) -> Optimum {
+/// The number of free gaps and their bounds [J], or None for an unusable problem.
+fn free_part(p: &Problem) -> Option<(usize, f64, f64)> {
     let n_free = p.junctions.saturating_sub(usize::from(p.fixed.is_some()));
     let (lo, hi) = free_bounds(p);
     let valid = (1..=MAX_JUNCTIONS).contains(&p.junctions)
@@ -152,9 +153,28 @@ fn search(p: &Problem, observer: Option<&mut dyn FnMut(u64)>) -> Optimum {
         && lo > 0.0
         && hi > lo
         && p.fixed.is_none_or(|f| f.gap_j > 0.0 && f.gap_j.is_finite());
-    if !valid {
+    valid.then_some((n_free, lo, hi))
+}
+
+/// Polish the local maximum near `start` (the free gaps [J], any order; clamped to the
+/// range) with the same simplex as the search's last stage, first steps `step_j` [J]: e.g.
+/// the best point of a grid of stacks, refined. Never worse than `start`. An unusable
+/// problem, or a start of the wrong length, gives an empty result.
+pub fn refine(p: &Problem, start: &[f64], step_j: f64) -> Optimum {
+    let Some((n_free, lo, hi)) = free_part(p) else { return Optimum::default() };
+    if start.len() != n_free || n_free == 0 || !start.iter().all(|x| x.is_finite()) {
         return Optimum::default();
     }
+    let step = if step_j.is_finite() && step_j > 0.0 { step_j.min(hi - lo) } else { (hi - lo) * 0.01 };
+    let mut obj = Objective { p, evaluations: 0, observer: None };
+    let x0: Vec<f64> = start.iter().map(|v| v.clamp(lo, hi)).collect();
+    let e0 = obj.efficiency(&x0);
+    let (x, e) = nelder_mead(&mut obj, &x0, e0, step, lo, hi);
+    Optimum { gaps_j: obj.gaps(&x), efficiency: e, evaluations: obj.evaluations }
+}
+
+fn search(p: &Problem, observer: Option<&mut dyn FnMut(u64)>) -> Optimum {
+    let Some((n_free, lo, hi)) = free_part(p) else { return Optimum::default() };
     let mut obj = Objective { p, evaluations: 0, observer };
     if n_free == 0 {
         let e = obj.efficiency(&[]);
@@ -220,7 +240,7 @@ pub fn optimize_each(p: &Problem, max_junctions: usize) -> Vec<Optimum> {
 }
 
 /// How many of the best starting points are polished.
-const POLISHED_STARTS: usize = 4;
+pub const POLISHED_STARTS: usize = 4;
 
 /// Grid step of one free gap [eV] and of two free gaps [eV].
 const GRID_1D_EV: f64 = 0.002;
@@ -266,23 +286,39 @@ fn grid_2d(obj: &mut Objective, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
         }
         g
     };
+    grid_maxima(&xs, &xs, &grid)
+}
+
+/// The local maxima of a grid of two-junction efficiencies, best first: `eff[i * n + k]` is
+/// the stack of top gap `tops_j[i]` and bottom gap `bottoms_j[k]` (both ascending, [J],
+/// `n` = `bottoms_j.len()`). Points whose bottom gap is not below the top gap, and values
+/// that are not finite, are no stacks. Each maximum is ([top, bottom], efficiency).
+pub fn grid_maxima(tops_j: &[f64], bottoms_j: &[f64], eff: &[f64]) -> Vec<(Vec<f64>, f64)> {
+    let (nt, nb) = (tops_j.len(), bottoms_j.len());
+    if eff.len() != nt * nb {
+        return Vec::new();
+    }
     let at = |i: isize, k: isize| -> f64 {
-        if i < 0 || k < 0 || i as usize >= n || k as usize >= i as usize {
-            f64::NEG_INFINITY
+        if i < 0 || k < 0 || i as usize >= nt || k as usize >= nb || !(bottoms_j[k as usize] < tops_j[i as usize]) {
+            return f64::NEG_INFINITY;
+        }
+        let e = eff[i as usize * nb + k as usize];
+        if e.is_finite() {
+            e
         } else {
-            grid[i as usize * n + k as usize]
+            f64::NEG_INFINITY
         }
     };
     let mut maxima = Vec::new();
-    for i in 1..n as isize {
-        for k in 0..i {
+    for i in 0..nt as isize {
+        for k in 0..nb as isize {
             let e = at(i, k);
             if !(e > 0.0) {
                 continue;
             }
             let is_max = (-1..=1).all(|di| (-1..=1).all(|dk| (di == 0 && dk == 0) || at(i + di, k + dk) <= e));
             if is_max {
-                maxima.push((vec![xs[i as usize], xs[k as usize]], e));
+                maxima.push((vec![tops_j[i as usize], bottoms_j[k as usize]], e));
             }
         }
     }
