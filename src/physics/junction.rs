@@ -139,8 +139,15 @@ pub struct Diode {
     /// ln(ERE Jsc + R(0)): the level R(V) reaches at open circuit
     ln_target: f64,
     ln_r0: f64,
+    /// R(0) [A m^-2] when it is comfortably inside the range of doubles (the fast, direct
+    /// forms below use it), else 0 (the logarithmic forms are used)
+    r0: f64,
     model: JvModel,
 }
+
+/// ln R(0) inside this range keeps R(0) and the sums formed with it far from overflow and
+/// underflow.
+const DIRECT_LN_R0: f64 = 600.0;
 
 impl Diode {
     /// `jsc` [A m^-2] is the photocurrent the cell collects.
@@ -162,10 +169,14 @@ impl Diode {
             jsc,
             ln_target: 0.0,
             ln_r0: ln_rb0,
+            r0: 0.0,
             model: cell.model,
         };
         if cell.model == JvModel::Exact {
             d.ln_r0 = d.ln_r(0.0).ln_r;
+        }
+        if d.ln_r0.abs() < DIRECT_LN_R0 {
+            d.r0 = d.ln_r0.exp();
         }
         d.ln_target = ln_target(d.ere * jsc, d.ln_r0);
         d
@@ -326,7 +337,7 @@ impl Diode {
     pub fn with_photocurrent(&self, jsc: f64) -> Diode {
         let mut d = *self;
         d.jsc = jsc;
-        d.ln_target = ln_target(d.ere * jsc, d.ln_r0);
+        d.ln_target = if d.r0 > 0.0 && jsc < 1e300 { (d.ere * jsc + d.r0).ln() } else { ln_target(d.ere * jsc, d.ln_r0) };
         d
     }
 
@@ -358,7 +369,14 @@ impl Diode {
         }
         let r = self.ln_r(m);
         let big_r = r.ln_r.exp();
-        let j = self.jsc - self.ln_r0.exp() * (r.ln_r - self.ln_r0).exp_m1() / self.ere;
+        // (R - R0)/ERE: directly once R is well above R0 (no cancellation: R - R0 loses at
+        // most a factor 1/(1 - e^-0.5) = 2.5 of relative accuracy), else R0 (e^(lnR - lnR0) - 1)
+        let excess = if self.r0 > 0.0 && r.ln_r - self.ln_r0 > 0.5 && r.ln_r < DIRECT_LN_R0 {
+            big_r - self.r0
+        } else {
+            self.ln_r0.exp() * (r.ln_r - self.ln_r0).exp_m1()
+        };
+        let j = self.jsc - excess / self.ere;
         (j, -big_r * r.d1 / self.ere, -big_r * (r.d1 * r.d1 + r.d2) / self.ere)
     }
 
@@ -379,8 +397,14 @@ impl Diode {
     /// m' = L'/rho and m'' = (L'' - rho' m'^2)/rho.
     pub fn voltage_at_current_near(&self, j: f64, start: f64) -> VoltageAtCurrent {
         let j = if j > 0.0 { j.min(self.jsc) } else { 0.0 };
-        let ln_u = log_add((self.ere * (self.jsc - j)).ln(), self.ln_r0);
-        let dl = -self.ere * (-ln_u).exp();
+        // u = ERE (Jsc - J) + R(0), directly when R(0) is in range, else in logarithms
+        let (ln_u, dl) = if self.r0 > 0.0 && self.jsc < 1e300 {
+            let u = self.ere * (self.jsc - j) + self.r0;
+            (u.ln(), -self.ere / u)
+        } else {
+            let ln_u = log_add((self.ere * (self.jsc - j)).ln(), self.ln_r0);
+            (ln_u, -self.ere * (-ln_u).exp())
+        };
         let boltzmann = ln_u - self.ln_rb0;
         let (m, rho, rho1) = match self.model {
             JvModel::Boltzmann => (boltzmann, 1.0, 0.0),
