@@ -1,6 +1,6 @@
 // Browser benchmark (numbers printed, nothing asserted): latency from a gap edit to all
-// plots redrawn, first render after load, the 3-junction gap search in the Stack tab, and
-// the gzipped transfer size of the app.
+// plots redrawn, first render after load, the 3-junction gap search and the 201 x 201
+// two-junction map in the Stack tab, and the gzipped transfer size of the app.
 // Run: node tests/browser/bench.mjs (after trunk build --release).
 import fs from 'node:fs';
 import path from 'node:path';
@@ -116,6 +116,35 @@ try {
   cold.sort((a, b) => a - b);
   warm.sort((a, b) => a - b);
   console.log(`browser search_3j_series_ms median=${pct(cold, 0.5).toFixed(0)} max=${cold[cold.length - 1].toFixed(0)} (new page, worker started) warm_median=${pct(warm, 0.5).toFixed(0)} n=${cold.length}+${warm.length} (goal < 1000)`);
+
+  // the two-junction series map on AM1.5G at 201 x 201: the page's own busy time for the
+  // computation (its slices between turns of the event loop), as the map's legend states it
+  {
+    const context = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
+    const page = await newPage(context);
+    await page.goto(server.url);
+    await rendered(page);
+    const n = Number(await page.evaluate(() => document.body.dataset.renders));
+    await page.locator('[data-panel="stack"]').click();
+    await rendered(page, n + 1);
+    const timing = page.locator('[data-info="map-timing"]');
+    const busy = [];
+    for (let i = 0; i < 4; i++) {
+      for (const points of ['121', '201']) {
+        await page.locator('[data-control="map-points"]').selectOption(points);
+        await page.waitForFunction(
+          (p) => new RegExp(`^${p}×${p} stacks in \\d+ ms`).test(document.querySelector('[data-info="map-timing"]')?.textContent ?? ''),
+          points,
+          { timeout: 60000 },
+        );
+      }
+      const text = await timing.textContent();
+      busy.push(Number(/stacks in (\d+) ms/.exec(text)[1]));
+    }
+    busy.sort((a, b) => a - b);
+    console.log(`browser map_201x201_series_ms median=${pct(busy, 0.5)} max=${busy[busy.length - 1]} n=${busy.length} (goal at 200 x 200: < 100)`);
+    await context.close();
+  }
 } finally {
   await browser.close();
   await server.close();
