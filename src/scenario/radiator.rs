@@ -38,9 +38,23 @@ pub fn reitan_pwv_cm(dew_c: f64) -> f64 {
     (0.1102 + 0.0614 * dew_c).exp()
 }
 
-/// Dew points accepted by `clear:dew=C` [deg C]: the upper end gives the largest accepted
-/// precipitable water, 10 cm; the lower end is far below any surface dew point.
+/// Dew points accepted in place of precipitable water [deg C]: the upper end gives the
+/// largest accepted precipitable water, 10 cm; the lower end is far below any surface dew
+/// point.
 pub const DEW_POINT_RANGE_C: (f64, f64) = (-60.0, 35.7);
+
+/// The precipitable water [cm] for a dew point `dew_c` [deg C] (Reitan's relation), or a
+/// message for a dew point out of [`DEW_POINT_RANGE_C`].
+pub fn pwv_from_dew_point(dew_c: f64) -> Result<f64, String> {
+    if (DEW_POINT_RANGE_C.0..=DEW_POINT_RANGE_C.1).contains(&dew_c) {
+        Ok(reitan_pwv_cm(dew_c))
+    } else {
+        Err(format!(
+            "a dew point of {dew_c} °C is outside {} to {} °C; give the dew point in °C (e.g. 12), not in K",
+            DEW_POINT_RANGE_C.0, DEW_POINT_RANGE_C.1
+        ))
+    }
+}
 /// Accepted combined convection/conduction coefficients [W m^-2 K^-1].
 pub const HC_RANGE: (f64, f64) = (0.0, 1000.0);
 /// Accepted irradiance scale factors.
@@ -386,13 +400,8 @@ impl SkySpec {
                 let dew: f64 = number.parse().ok().filter(|d: &f64| d.is_finite()).ok_or_else(|| {
                     format!("'{text}': the dew point '{v}' is not a number; write e.g. clear:dew=12 (deg C)")
                 })?;
-                if !(DEW_POINT_RANGE_C.0..=DEW_POINT_RANGE_C.1).contains(&dew) {
-                    return Err(format!(
-                        "'{text}': a dew point of {dew} deg C is outside {} to {} deg C; give a dew point in deg C (e.g. clear:dew=12), not in K",
-                        DEW_POINT_RANGE_C.0, DEW_POINT_RANGE_C.1
-                    ));
-                }
-                return Ok(SkySpec::Clear { pwv_cm: reitan_pwv_cm(dew) });
+                let pwv_cm = pwv_from_dew_point(dew).map_err(|e| format!("'{text}': {e}"))?;
+                return Ok(SkySpec::Clear { pwv_cm });
             }
             let v = rest.strip_prefix("pwv=").ok_or_else(|| {
                 format!("'{text}': give the precipitable water as clear:pwv=CM (e.g. clear:pwv=1.5) or the dew point as clear:dew=C (e.g. clear:dew=12)")

@@ -180,6 +180,10 @@ test('sky, air and sun change the figures; bad input is refused next to its fiel
   assert.equal(prev['sky-emissivity'], '0.0000');
   await changes('clear sky', () => page.selectOption('[data-control="sky"]', 'clear'));
   await changes('precipitable water', () => page.locator('[data-control="pwv"]').fill('3'));
+  // the same sky given by its dew point: 15 deg C is 2.80443 cm of water by Reitan's
+  // relation (J. Appl. Meteor. 2, 776, 1963; coefficients from memory), shown in both fields
+  await changes('dew point', () => page.locator('[data-control="dew"]').fill('15'));
+  assert.equal(await page.locator('[data-control="pwv"]').inputValue(), '2.80443');
   await changes('ambient', () => page.locator('[data-control="ambient"]').fill('290'));
   await changes('h_c', () => page.locator('[data-control="hc"]').fill('6'));
   await changes('sun', () => page.locator('[data-control="sun"]').check());
@@ -205,6 +209,7 @@ test('sky, air and sun change the figures; bad input is refused next to its fiel
   await bad('ambient', 'warm', /not a number/);
   await bad('hc', '-1', /out of range/);
   await bad('pwv', '', /Type a value/);
+  await bad('dew', '288', /not in K/);
   await bad('sun-zenith', '95', /out of range/);
   await page.screenshot({ path: artifact('radiator-bad-input.png') });
   // a good value clears the message

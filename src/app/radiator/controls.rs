@@ -16,7 +16,8 @@ use crate::app::controls::{drop_zone, number_field, parse_number, Field};
 use crate::app::fmt;
 use crate::app::state::Ctx;
 use crate::scenario::radiator::{
-    AngularSpec, EmitterSpec, SkySpec, AMBIENT_RANGE_K, CLEAR_SKY_AMBIENT_K, HC_RANGE, PWV_RANGE_CM, SUN_SCALE_RANGE,
+    pwv_from_dew_point, reitan_dew_point_c, AngularSpec, EmitterSpec, SkySpec, AMBIENT_RANGE_K, CLEAR_SKY_AMBIENT_K,
+    DEW_POINT_RANGE_C, HC_RANGE, PWV_RANGE_CM, SUN_SCALE_RANGE,
 };
 use crate::scenario::{Scenario, SourceSpec};
 
@@ -138,6 +139,36 @@ pub fn environment_section(rad: RadState) -> impl IntoView {
         },
         |s, v| s.radiator.sky = SkySpec::Clear { pwv_cm: v },
     );
+    // the same water column as a dew point at the ground (Reitan's relation), both ways
+    let dew = number_field(
+        ctx,
+        Field {
+            label: "or its dew point",
+            unit: "°C",
+            hook: "dew",
+            hint: Some(format!(
+                "At the ground, {} to {} °C; sets the precipitable water above by Reitan's relation.",
+                DEW_POINT_RANGE_C.0, DEW_POINT_RANGE_C.1
+            )),
+            example: "12",
+            value: Memo::new(move |_| {
+                ctx.scenario.with(|s| match s.radiator.sky {
+                    SkySpec::Clear { pwv_cm } if pwv_cm > 0.0 => reitan_dew_point_c(pwv_cm),
+                    _ => f64::NAN,
+                })
+            }),
+            show: |v| if v.is_finite() { format!("{v:.1}") } else { String::new() },
+            parse: |t| {
+                let v = plain(t.trim().trim_end_matches("°C").trim_end_matches('C'))?;
+                pwv_from_dew_point(v).map(|_| v)
+            },
+        },
+        Rc::new(move |v| match pwv_from_dew_point(v) {
+            Ok(pwv_cm) => ctx.edit("dew", |s| s.radiator.sky = SkySpec::Clear { pwv_cm }),
+            Err(_) => false,
+        }),
+        None,
+    );
     let sky_hint = view! {
         <p class="hint" id="h-sky-file">
             "Zenith transmittance against wavelength (nm, µm) or wavenumber (cm⁻¹), e.g. a header "
@@ -197,7 +228,7 @@ pub fn environment_section(rad: RadState) -> impl IntoView {
                 {select("sky", "Sky model", key, options, choose)}
                 {error_line(ctx, "sky")}
             </div>
-            <div class="sub-field" hidden=move || key.get() != "clear">{pwv}</div>
+            <div class="sub-field" hidden=move || key.get() != "clear">{pwv}{dew}</div>
             {sky_drop}
             {error_line(ctx, "sky-file")}
             {ambient}
