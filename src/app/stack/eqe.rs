@@ -261,6 +261,10 @@ pub fn eqe_section(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView
             {drop}
             <p class="field-error" id="e-eqe-file" data-error="eqe-file" aria-live="polite">{move || ctx.error_of("eqe-file")}</p>
             {table}
+            <div class="legend" hidden=move || !has()>
+                <span class="key"><i class="k-line k-spectrum"></i>{move || if kind.get() == "urbach" { "with the Urbach tail" } else { "measured EQE" }}</span>
+                <span class="key"><i class="k-line k-muted"></i>"ideal step"</span>
+            </div>
             <div class="plot-wrap eqe-plot" hidden=move || !has()>
                 <canvas data-plot="eqe" node_ref=canvas role="img" aria-label=plot_label></canvas>
                 <p class="plot-error" hidden=move || sc.plot_errors.with(|e| e[EQE].is_none())>{move || sc.plot_errors.with(|e| e[EQE].clone())}</p>
