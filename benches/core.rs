@@ -127,27 +127,8 @@ fn stack_map(rounds: usize) {
 /// numpy prints "skipped". When not benchmarking for real it times one repeat only.
 fn numpy_map_comparison(ours_s: f64, ours_best: Option<(f64, f64, f64)>) {
     let quick = !std::env::args().any(|a| a == "--bench");
-    let script = concat!(env!("CARGO_MANIFEST_DIR"), "/benches/map_numpy.py");
-    let python = std::env::var("PYTHON").unwrap_or_else(|_| "python3".into());
-    let mut cmd = Command::new(&python);
-    cmd.arg(script);
-    if quick {
-        cmd.env("GLOWGAP_BENCH_REPEATS", "1");
-    }
-    let out = match cmd.output() {
-        Ok(o) if o.status.success() => String::from_utf8_lossy(&o.stdout).into_owned(),
-        Ok(o) => {
-            println!("bench numpy_map_comparison          skipped ({} failed: {})", python, String::from_utf8_lossy(&o.stderr).lines().last().unwrap_or(""));
-            return;
-        }
-        Err(e) => {
-            println!("bench numpy_map_comparison          skipped ({python} not runnable: {e})");
-            return;
-        }
-    };
-    let field = |key: &str| -> Option<f64> {
-        out.split_whitespace().find_map(|tok| tok.strip_prefix(key).and_then(|v| v.parse().ok()))
-    };
+    let Some(out) = run_numpy_script("map_numpy.py", "numpy_map_comparison", quick.then_some("1")) else { return };
+    let field = |key: &str| number_after(&out, key);
     let Some(np_s) = field("numpy_map_seconds=") else {
         println!("bench numpy_map_comparison          skipped (no timing line in the script's output)");
         return;
@@ -182,7 +163,7 @@ fn numpy_map_comparison(ours_s: f64, ours_best: Option<(f64, f64, f64)>) {
     }
 }
 
-/// The radiator balance (issue goals: one full balance with an angle-dependent profile and
+/// The radiator balance (goals: one full balance with an angle-dependent profile and
 /// the clear sky on the default grid under 2 ms; the steady temperature under 5 ms). The
 /// closed-form case (window emitter, box sky) for scale. Printed only.
 fn radiator_balance(rounds: usize) {
@@ -228,29 +209,40 @@ fn radiator_balance(rounds: usize) {
     println!("bench radiator_evaluate_clear_sky   {:>10.3} ms   (balance, steady T and figures of merit)", full * 1e3);
 }
 
-/// Run the vectorized numpy script for the same curve in this same run and print the ratio.
-fn numpy_comparison(ours_s: f64, quick: bool) {
-    let script = concat!(env!("CARGO_MANIFEST_DIR"), "/benches/sweep_numpy.py");
+/// Run `benches/<script>` with python (`$PYTHON`, default python3) in this same run, with
+/// GLOWGAP_BENCH_REPEATS = `repeats` when given; its standard output, or None after printing
+/// why the comparison `label` is skipped (no python, no numpy, a failing script).
+fn run_numpy_script(script: &str, label: &str, repeats: Option<&str>) -> Option<String> {
+    let path = format!("{}/benches/{script}", env!("CARGO_MANIFEST_DIR"));
     let python = std::env::var("PYTHON").unwrap_or_else(|_| "python3".into());
     let mut cmd = Command::new(&python);
-    cmd.arg(script);
-    if quick {
-        cmd.env("GLOWGAP_BENCH_REPEATS", "3");
+    cmd.arg(path);
+    if let Some(r) = repeats {
+        cmd.env("GLOWGAP_BENCH_REPEATS", r);
     }
-    let out = match cmd.output() {
-        Ok(o) if o.status.success() => String::from_utf8_lossy(&o.stdout).into_owned(),
+    match cmd.output() {
+        Ok(o) if o.status.success() => Some(String::from_utf8_lossy(&o.stdout).into_owned()),
         Ok(o) => {
-            println!("bench numpy_comparison              skipped ({} failed: {})", python, String::from_utf8_lossy(&o.stderr).lines().last().unwrap_or(""));
-            return;
+            let why = String::from_utf8_lossy(&o.stderr).lines().last().unwrap_or("").to_string();
+            println!("bench {label:<30} skipped ({python} failed: {why})");
+            None
         }
         Err(e) => {
-            println!("bench numpy_comparison              skipped ({python} not runnable: {e})");
-            return;
+            println!("bench {label:<30} skipped ({python} not runnable: {e})");
+            None
         }
-    };
-    let field = |key: &str| -> Option<f64> {
-        out.split_whitespace().find_map(|tok| tok.strip_prefix(key).and_then(|v| v.parse().ok()))
-    };
+    }
+}
+
+/// The number after `key` (e.g. "numpy_sweep_seconds=") in a script's key=value output.
+fn number_after(out: &str, key: &str) -> Option<f64> {
+    out.split_whitespace().find_map(|tok| tok.strip_prefix(key).and_then(|v| v.parse().ok()))
+}
+
+/// Run the vectorized numpy script for the same curve in this same run and print the ratio.
+fn numpy_comparison(ours_s: f64, quick: bool) {
+    let Some(out) = run_numpy_script("sweep_numpy.py", "numpy_comparison", quick.then_some("3")) else { return };
+    let field = |key: &str| number_after(&out, key);
     match (field("numpy_sweep_seconds="), field("numpy_import_seconds=")) {
         (Some(np_s), imp) => {
             println!(

@@ -79,26 +79,18 @@ import os  # noqa: E402
 import statistics  # noqa: E402
 from pathlib import Path  # noqa: E402
 
-# exact SI constants (2019 definitions)
-H = 6.62607015e-34
-C = 299792458.0
-KB = 1.380649e-23
-Q = 1.602176634e-19
+import sys  # noqa: E402
+
+# the exact SI constants, the table reader and the column names are the curve baseline's
+sys.dont_write_bytecode = True
+sys.path.insert(0, str(Path(__file__).resolve().parent))
+from sweep_numpy import C, COLUMN_OF, H, KB, Q, load_table  # noqa: E402
 
 REPEATS = int(os.environ.get("GLOWGAP_BENCH_REPEATS", "7"))
 ROOT = Path(__file__).resolve().parents[1]
 G173 = ROOT / "src" / "physics" / "data" / "astm_g173_03.csv"
 FIXTURE = ROOT / "tests" / "fixtures" / "stack_series.csv"
-COLUMN_OF = {"am1.5g": "global", "am1.5d": "direct", "am0": "extraterrestrial"}
 POINTS = 500
-
-
-def load_table(path):
-    with open(path, "r", encoding="utf-8") as fh:
-        fh.readline()
-        names = [s.strip() for s in fh.readline().split(",")]
-        data = np.loadtxt(fh, delimiter=",")
-    return {n: data[:, i] for i, n in enumerate(names)}
 
 
 def flux_above(lam, irr, gaps_ev):

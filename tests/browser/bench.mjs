@@ -13,6 +13,18 @@ function pct(sorted, p) {
 
 const server = await serve(0);
 const browser = await launch();
+
+// a fresh page of the app with the Stack tab in front
+async function openStack() {
+  const context = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
+  const page = await newPage(context);
+  await page.goto(server.url);
+  await rendered(page);
+  const n = Number(await page.evaluate(() => document.body.dataset.renders));
+  await page.locator('[data-panel="stack"]').click();
+  await rendered(page, n + 1);
+  return { context, page };
+}
 try {
   // first render after load, over 5 cold loads (fresh contexts, no cache)
   const loads = [];
@@ -80,13 +92,7 @@ try {
     return page.evaluate(() => window.__searchShown - window.__searchClick);
   };
   const openThree = async () => {
-    const context = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
-    const page = await newPage(context);
-    await page.goto(server.url);
-    await rendered(page);
-    const n = Number(await page.evaluate(() => document.body.dataset.renders));
-    await page.locator('[data-panel="stack"]').click();
-    await rendered(page, n + 1);
+    const { context, page } = await openStack();
     await page.locator('[data-control="junctions"]').selectOption('3');
     await page.locator('[data-control="gap-3"]').waitFor();
     return { context, page };
@@ -120,13 +126,7 @@ try {
   // the two-junction series map on AM1.5G at 201 x 201: the page's own busy time for the
   // computation (its slices between turns of the event loop), as the map's legend states it
   {
-    const context = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
-    const page = await newPage(context);
-    await page.goto(server.url);
-    await rendered(page);
-    const n = Number(await page.evaluate(() => document.body.dataset.renders));
-    await page.locator('[data-panel="stack"]').click();
-    await rendered(page, n + 1);
+    const { context, page } = await openStack();
     const timing = page.locator('[data-info="map-timing"]');
     const busy = [];
     for (let i = 0; i < 4; i++) {
