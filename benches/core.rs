@@ -175,7 +175,9 @@ fn radiator_balance(rounds: usize) {
     });
     // control points on the log axis, an angular cut-off at 70 deg (0.1 beyond), under the
     // clear sky with 1.5 cm of water and the AM1.5G sun, h_c = 5 W/m2K
-    let mut points = Emitter::new(Profile::Points { points: vec![(0.3e-6, 0.05), (4e-6, 0.05), (8e-6, 0.95), (13e-6, 0.95), (14e-6, 0.2)] });
+    let mut points = Emitter::new(Profile::Points {
+        points: vec![(0.3e-6, 0.05), (4e-6, 0.05), (8e-6, 0.95), (13e-6, 0.95), (14e-6, 0.2)],
+    });
     points.angular = AngularModel::CutOff { angle_rad: 70f64.to_radians(), beyond: 0.1 };
     let clear = Surroundings {
         sky: Sky::Clear { pwv_m: 0.015 },
@@ -203,9 +205,16 @@ fn radiator_balance(rounds: usize) {
     })
     .nodes
     .len();
-    println!("bench radiator_closed_form          {:>10.3} ms   (window emitter, box sky: balance, steady T, figures)", exact * 1e3);
+    println!(
+        "bench radiator_closed_form          {:>10.3} ms   (window emitter, box sky: balance, steady T, figures)",
+        exact * 1e3
+    );
     println!("bench radiator_balance_clear_sky    {:>10.3} ms   (goal < 2 ms; cut-off points emitter, clear sky, AM1.5G, {nodes} grid nodes)", balance * 1e3);
-    println!("bench radiator_steady_temperature   {:>10.3} ms   (goal < 5 ms; {:.3} ms with the balance prepared)", from_scratch * 1e3, steady * 1e3);
+    println!(
+        "bench radiator_steady_temperature   {:>10.3} ms   (goal < 5 ms; {:.3} ms with the balance prepared)",
+        from_scratch * 1e3,
+        steady * 1e3
+    );
     println!("bench radiator_evaluate_clear_sky   {:>10.3} ms   (balance, steady T and figures of merit)", full * 1e3);
 }
 

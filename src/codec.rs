@@ -98,13 +98,18 @@ pub fn decode_link(link: &str) -> Result<Scenario, LinkError> {
         return Err(LinkError("the link has no scenario in it (nothing after '#')".into()));
     }
     if frag.len() > MAX_LINK_CHARS {
-        return Err(LinkError(format!("the link is {} characters long, more than the {MAX_LINK_CHARS} accepted", frag.len())));
+        return Err(LinkError(format!(
+            "the link is {} characters long, more than the {MAX_LINK_CHARS} accepted",
+            frag.len()
+        )));
     }
     let Some(rest) = frag.strip_prefix('g') else {
         return Err(LinkError("this is not a Glowgap scenario link (it should contain '#g1.')".into()));
     };
     let Some((ver, body)) = rest.split_once('.') else {
-        return Err(LinkError("the link is cut short: its version mark is incomplete; copy the whole link again".into()));
+        return Err(LinkError(
+            "the link is cut short: its version mark is incomplete; copy the whole link again".into(),
+        ));
     };
     let version: u32 = ver
         .parse()
@@ -117,16 +122,18 @@ pub fn decode_link(link: &str) -> Result<Scenario, LinkError> {
     if version == 0 {
         return Err(LinkError("the link's version mark 'g0' is not one Glowgap ever wrote".into()));
     }
-    let packed = base64url_decode(body).map_err(|e| LinkError(format!("the link is garbled ({e}); copy the whole link again")))?;
-    let json = miniz_oxide::inflate::decompress_to_vec_with_limit(&packed, MAX_DOCUMENT_BYTES).map_err(|e| {
-        match e.status {
-            miniz_oxide::inflate::TINFLStatus::HasMoreOutput => LinkError(format!(
-                "the link unpacks to more than {MAX_DOCUMENT_BYTES} bytes, more than any scenario needs; it was refused"
-            )),
-            _ => LinkError("the link is damaged or cut short (its data does not unpack); copy the whole link again".into()),
-        }
+    let packed = base64url_decode(body)
+        .map_err(|e| LinkError(format!("the link is garbled ({e}); copy the whole link again")))?;
+    let json = miniz_oxide::inflate::decompress_to_vec_with_limit(&packed, MAX_DOCUMENT_BYTES).map_err(|e| match e
+        .status
+    {
+        miniz_oxide::inflate::TINFLStatus::HasMoreOutput => LinkError(format!(
+            "the link unpacks to more than {MAX_DOCUMENT_BYTES} bytes, more than any scenario needs; it was refused"
+        )),
+        _ => LinkError("the link is damaged or cut short (its data does not unpack); copy the whole link again".into()),
     })?;
-    let text = std::str::from_utf8(&json).map_err(|_| LinkError("the link's data is not text; copy the whole link again".into()))?;
+    let text = std::str::from_utf8(&json)
+        .map_err(|_| LinkError("the link's data is not text; copy the whole link again".into()))?;
     from_json(text)
 }
 
@@ -182,7 +189,15 @@ mod tests {
     #[test]
     fn base64url_matches_rfc4648_vectors() {
         // RFC 4648 section 10 test vectors (base64; same alphabet for these inputs), no padding
-        for (plain, enc) in [("", ""), ("f", "Zg"), ("fo", "Zm8"), ("foo", "Zm9v"), ("foob", "Zm9vYg"), ("fooba", "Zm9vYmE"), ("foobar", "Zm9vYmFy")] {
+        for (plain, enc) in [
+            ("", ""),
+            ("f", "Zg"),
+            ("fo", "Zm8"),
+            ("foo", "Zm9v"),
+            ("foob", "Zm9vYg"),
+            ("fooba", "Zm9vYmE"),
+            ("foobar", "Zm9vYmFy"),
+        ] {
             assert_eq!(base64url_encode(plain.as_bytes()), enc);
             assert_eq!(base64url_decode(enc).unwrap(), plain.as_bytes());
         }

@@ -71,7 +71,16 @@ fn ideal_window_and_options_follow_the_contract() {
     assert_eq!(f(&v, "window_emissivity"), 1.0);
     // a warmer surface under a cooler sky with convection (fixture case with h_c = 5)
     let v = json(&[
-        "cool", "--emitter", "window:8-13,in=0.9,out=0.2", "--ambient", "290", "--surface", "280", "--hc", "5", "--json",
+        "cool",
+        "--emitter",
+        "window:8-13,in=0.9,out=0.2",
+        "--ambient",
+        "290",
+        "--surface",
+        "280",
+        "--hc",
+        "5",
+        "--json",
     ]);
     let case = "window_0.9_0.2_box_290_surface_280_hc_5";
     assert!((f(&v, "net_w_m2") / scipy(case, 6) - 1.0).abs() < 1e-9);
@@ -114,7 +123,9 @@ fn table_is_readable_with_units_and_curve() {
     let out = glowgap(&["cool", "--sky", "clear:pwv=1.5", "--curve", "280:300:10"]);
     assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
     let text = String::from_utf8(out.stdout).unwrap();
-    for needle in ["Net cooling power", "W/m²", " K", "Steady temperature", "Solar reflectance", "8-13 um emissivity", "P_net"] {
+    for needle in
+        ["Net cooling power", "W/m²", " K", "Steady temperature", "Solar reflectance", "8-13 um emissivity", "P_net"]
+    {
         assert!(text.contains(needle), "{needle} missing in\n{text}");
     }
     // the curve has 3 rows, 280, 290, 300 K, and its value at 300 K is the table's net
@@ -153,8 +164,16 @@ fn data_files_give_the_same_answers_as_the_equivalent_built_ins() {
     // wavenumber axis and a headerless file with the options
     let wn = temp_file("wn.txt", "2000 0.9\n100 0.9\n");
     let c = json(&[
-        "cool", "--emitter", &format!("file:{}", wn.display()), "--emitter-axis", "cm-1", "--emitter-values", "emissivity",
-        "--sky", "space", "--json",
+        "cool",
+        "--emitter",
+        &format!("file:{}", wn.display()),
+        "--emitter-axis",
+        "cm-1",
+        "--emitter-values",
+        "emissivity",
+        "--sky",
+        "space",
+        "--json",
     ]);
     assert!((f(&c, "emitted_w_m2") / f(&b, "emitted_w_m2") - 1.0).abs() < 1e-9);
     // a sky that transmits everything from 0.1 um to 1 mm is space (3 K) there
@@ -169,7 +188,17 @@ fn data_files_give_the_same_answers_as_the_equivalent_built_ins() {
 
 #[test]
 fn share_link_round_trips_through_eval_radiator() {
-    let args = ["cool", "--emitter", "points:0.3=0.05,4=0.05,8=0.95,13=0.95,14=0.2", "--sky", "clear:pwv=2", "--sun", "am1.5g", "--hc", "4"];
+    let args = [
+        "cool",
+        "--emitter",
+        "points:0.3=0.05,4=0.05,8=0.95,13=0.95,14=0.2",
+        "--sky",
+        "clear:pwv=2",
+        "--sun",
+        "am1.5g",
+        "--hc",
+        "4",
+    ];
     let out = glowgap(&[&args[..], &["--link"]].concat());
     assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
     let link = String::from_utf8(out.stdout).unwrap();

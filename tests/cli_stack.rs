@@ -101,7 +101,16 @@ fn stack_table_reads_with_units() {
 fn optimize_json_has_gaps_efficiency_and_evaluations() {
     // De Vos, J. Phys. D 13, 839 (1980): two independent cells, 6000 K sun, 42.9%.
     // Tolerance 0.06 points (3 digits published).
-    let v = json(&["optimize", "--junctions", "2", "--connection", "independent", "--spectrum", "blackbody:6000", "--json"]);
+    let v = json(&[
+        "optimize",
+        "--junctions",
+        "2",
+        "--connection",
+        "independent",
+        "--spectrum",
+        "blackbody:6000",
+        "--json",
+    ]);
     let gaps: Vec<f64> = v["gaps_ev"].as_array().unwrap().iter().map(|g| g.as_f64().unwrap()).collect();
     assert_eq!(gaps.len(), 2);
     assert!(gaps[0] > gaps[1], "top first: {gaps:?}");
@@ -109,7 +118,16 @@ fn optimize_json_has_gaps_efficiency_and_evaluations() {
     assert!(v["evaluations"].as_u64().unwrap() > 100);
     assert_eq!(num(&v["stack"], "efficiency"), num(&v, "efficiency"));
     // deterministic: the same question, the same answer and the same count
-    let again = json(&["optimize", "--junctions", "2", "--connection", "independent", "--spectrum", "blackbody:6000", "--json"]);
+    let again = json(&[
+        "optimize",
+        "--junctions",
+        "2",
+        "--connection",
+        "independent",
+        "--spectrum",
+        "blackbody:6000",
+        "--json",
+    ]);
     assert_eq!(v, again);
 }
 
@@ -144,9 +162,22 @@ fn mismatch_json_gives_the_factor_and_its_four_integrals() {
     // tests/fixtures/stack_mismatch.csv (scipy): 0.5268694 for this pair; 1e-6 covers the
     // printed digits here (the full check is in tests/stack.rs)
     assert!((m - 0.526_869_4).abs() < 1e-6, "{m}");
-    let same = json(&["mismatch", "--test-eqe", &dut, "--ref-eqe", &rd, "--spectrum", "am1.5g", "--reference", "am1.5g", "--json"]);
+    let same = json(&[
+        "mismatch",
+        "--test-eqe",
+        &dut,
+        "--ref-eqe",
+        &rd,
+        "--spectrum",
+        "am1.5g",
+        "--reference",
+        "am1.5g",
+        "--json",
+    ]);
     assert!((num(&same, "mismatch_factor") - 1.0).abs() < 1e-12);
-    let text = String::from_utf8(glowgap(&["mismatch", "--test-eqe", &dut, "--ref-eqe", &rd, "--spectrum", "am1.5d"]).stdout).unwrap();
+    let text =
+        String::from_utf8(glowgap(&["mismatch", "--test-eqe", &dut, "--ref-eqe", &rd, "--spectrum", "am1.5d"]).stdout)
+            .unwrap();
     assert!(text.contains("Spectral mismatch factor M") && text.contains("mA/cm²"), "{text}");
 }
 
@@ -155,7 +186,8 @@ fn losses_json_parts_add_up_to_the_input() {
     // Hirst & Ekins-Daukes, Prog. Photovolt. 19, 286 (2011): the parts account for all
     // incident power; 1e-9 relative (rounding only).
     let v = json(&["losses", "--gap", "1.34", "--json"]);
-    let parts = ["below_gap_w_m2", "thermalization_w_m2", "emission_w_m2", "carnot_w_m2", "boltzmann_w_m2", "delivered_w_m2"];
+    let parts =
+        ["below_gap_w_m2", "thermalization_w_m2", "emission_w_m2", "carnot_w_m2", "boltzmann_w_m2", "delivered_w_m2"];
     let sum: f64 = parts.iter().map(|k| num(&v, k)).sum();
     assert!((sum - num(&v, "input_w_m2")).abs() < 1e-9 * sum, "{v}");
     assert!((num(&v, "sum_w_m2") - sum).abs() < 1e-9 * sum);
@@ -176,7 +208,20 @@ fn losses_json_parts_add_up_to_the_input() {
 fn cell_with_a_measured_eqe_or_an_urbach_tail() {
     let eqe = fixture("stack_eqe_table.csv");
     let v = json(&["cell", "--gap", "1.6", "--eqe", &eqe, "--json"]);
-    for k in ["gap_ev", "efficiency", "jsc_ma_cm2", "voc_v", "ff", "vmp_v", "jmp_ma_cm2", "pmax_w_m2", "input_w_m2", "voc_rad_v", "j0_rad_ma_cm2", "nonrad_voc_loss_v"] {
+    for k in [
+        "gap_ev",
+        "efficiency",
+        "jsc_ma_cm2",
+        "voc_v",
+        "ff",
+        "vmp_v",
+        "jmp_ma_cm2",
+        "pmax_w_m2",
+        "input_w_m2",
+        "voc_rad_v",
+        "j0_rad_ma_cm2",
+        "nonrad_voc_loss_v",
+    ] {
         assert!(v[k].is_number(), "missing {k}: {v}");
     }
     assert_eq!(v["absorber"], "measured");
@@ -256,9 +301,15 @@ fn every_bad_input_is_one_line_and_exit_2() {
     refused(&["mismatch", "--ref-eqe", &rd, "--spectrum", "am1.5d"], "needs --test-eqe");
     refused(&["mismatch", "--test-eqe", &dut, "--spectrum", "am1.5d"], "needs --ref-eqe");
     refused(&["mismatch", "--test-eqe", &dut, "--ref-eqe", &rd], "needs --spectrum");
-    refused(&["mismatch", "--test-eqe", "file:/no/such/eqe.csv", "--ref-eqe", &rd, "--spectrum", "am1.5d"], "no such file");
+    refused(
+        &["mismatch", "--test-eqe", "file:/no/such/eqe.csv", "--ref-eqe", &rd, "--spectrum", "am1.5d"],
+        "no such file",
+    );
     refused(&["mismatch", "--test-eqe", &dut, "--ref-eqe", &rd, "--spectrum", "sunshine"], "unknown spectrum");
-    refused(&["mismatch", "--test-eqe", &dut, "--ref-eqe", &rd, "--spectrum", "am1.5d", "--reference", "file:/no/such.csv"], "no such file");
+    refused(
+        &["mismatch", "--test-eqe", &dut, "--ref-eqe", &rd, "--spectrum", "am1.5d", "--reference", "file:/no/such.csv"],
+        "no such file",
+    );
     let no_header = temp_file("noheader.csv", "400,80\n500,80\n");
     let no_header = format!("file:{}", no_header.display());
     refused(&["mismatch", "--test-eqe", &no_header, "--ref-eqe", &rd, "--spectrum", "am1.5d"], "header");

@@ -62,19 +62,22 @@ fn radiator() -> impl Strategy<Value = radiator::RadiatorScenario> {
         proptest::option::of(source_spec()),
         (0.0f64..89.0, 0.0f64..10.0, 0.0f64..100.0),
     )
-        .prop_map(|(emitter, solar, angular, sky, (ambient_k, surface_k), sun, (zenith, scale, hc))| RadiatorScenario {
-            emitter,
-            solar_band: solar.map(|(b, e)| SolarBandSpec { below_um: b, profile: EmitterSpec::Grey { emissivity: e } }),
-            angular,
-            sky,
-            ambient_k,
-            surface_k,
-            sun,
-            sun_zenith_deg: zenith,
-            sun_scale: scale,
-            h_c_w_m2k: hc,
-            curve_from_k: 200.0,
-            curve_to_k: ambient_k + 50.0,
+        .prop_map(|(emitter, solar, angular, sky, (ambient_k, surface_k), sun, (zenith, scale, hc))| {
+            RadiatorScenario {
+                emitter,
+                solar_band: solar
+                    .map(|(b, e)| SolarBandSpec { below_um: b, profile: EmitterSpec::Grey { emissivity: e } }),
+                angular,
+                sky,
+                ambient_k,
+                surface_k,
+                sun,
+                sun_zenith_deg: zenith,
+                sun_scale: scale,
+                h_c_w_m2k: hc,
+                curve_from_k: 200.0,
+                curve_to_k: ambient_k + 50.0,
+            }
         })
 }
 
@@ -89,13 +92,24 @@ fn scenario() -> impl Strategy<Value = Scenario> {
         prop_oneof![Just(JvModel::Exact), Just(JvModel::Boltzmann)],
         prop_oneof![Just(PlotAxis::Wavelength), Just(PlotAxis::PhotonEnergy)],
         prop_oneof![Just(PlotQuantity::Irradiance), Just(PlotQuantity::PhotonFlux)],
-        ((0.01f64..5.0, 5.0f64..20.0, prop_oneof![Just(Panel::Cell), Just(Panel::Radiator), Just(Panel::Stack)]), radiator()),
+        (
+            (0.01f64..5.0, 5.0f64..20.0, prop_oneof![Just(Panel::Cell), Just(Panel::Radiator), Just(Panel::Stack)]),
+            radiator(),
+        ),
     )
-        .prop_map(|(gap, spectrum, x, t, ere, emission, approx, axis, quantity, ((from, to, panel), radiator))| Scenario {
-            cell: CellScenario { gap_ev: gap, spectrum, concentration: x, cell_temp_k: t, ere, emission, approx },
-            view: ViewSettings { spectrum_axis: axis, spectrum_quantity: quantity, curve_from_ev: from, curve_to_ev: to, panel },
-            radiator,
-            ..Default::default()
+        .prop_map(|(gap, spectrum, x, t, ere, emission, approx, axis, quantity, ((from, to, panel), radiator))| {
+            Scenario {
+                cell: CellScenario { gap_ev: gap, spectrum, concentration: x, cell_temp_k: t, ere, emission, approx },
+                view: ViewSettings {
+                    spectrum_axis: axis,
+                    spectrum_quantity: quantity,
+                    curve_from_ev: from,
+                    curve_to_ev: to,
+                    panel,
+                },
+                radiator,
+                ..Default::default()
+            }
         })
 }
 

@@ -152,10 +152,10 @@ fn ultimate_efficiency_44_percent_near_1_1_ev() {
     // the ultimate efficiency peaks at 44% near Eg = 1.1 eV (read off the figure: 2 digits).
     let light = Illumination::one_sun(Source::BlackbodySun { temp_k: 6000.0 });
     let g = gaps(0.8, 1.5, 0.001);
-    let (gbest, ubest) = g
-        .iter()
-        .map(|&e| (to_ev(e), ultimate_efficiency(&light, e)))
-        .fold((0.0, 0.0), |a, b| if b.1 > a.1 { b } else { a });
+    let (gbest, ubest) =
+        g.iter()
+            .map(|&e| (to_ev(e), ultimate_efficiency(&light, e)))
+            .fold((0.0, 0.0), |a, b| if b.1 > a.1 { b } else { a });
     assert!((ubest - 0.44).abs() < 0.005, "{ubest}");
     assert!((gbest - 1.1).abs() < 0.05, "{gbest}");
 }

@@ -46,7 +46,9 @@ fn balance_case(name: &str) -> (Emitter, Sky) {
         angular: AngularModel::CutOff { angle_rad: deg.to_radians(), beyond },
     };
     match name {
-        "blackbody_box_300" | "blackbody_box_280_surface_300" => (lambertian(Profile::blackbody()), Sky::textbook_box()),
+        "blackbody_box_300" | "blackbody_box_280_surface_300" => {
+            (lambertian(Profile::blackbody()), Sky::textbook_box())
+        }
         "window_8_13_box_300" => (lambertian(Profile::ideal_window(8e-6, 13e-6)), Sky::textbook_box()),
         "window_8_13_space_300" => (lambertian(Profile::ideal_window(8e-6, 13e-6)), Sky::Space),
         "grey_0.9_space_300" => (lambertian(Profile::Grey { emissivity: 0.9 }), Sky::Space),
@@ -61,7 +63,9 @@ fn balance_case(name: &str) -> (Emitter, Sky) {
             Sky::textbook_box(),
         ),
         "blackbody_cutoff_60_box_300" => (cut(Profile::blackbody(), 60.0, 0.0), Sky::textbook_box()),
-        "grey_0.8_cutoff_45_beyond_0.1_space_250_hc_2" => (cut(Profile::Grey { emissivity: 0.8 }, 45.0, 0.1), Sky::Space),
+        "grey_0.8_cutoff_45_beyond_0.1_space_250_hc_2" => {
+            (cut(Profile::Grey { emissivity: 0.8 }, 45.0, 0.1), Sky::Space)
+        }
         other => panic!("unknown fixture case {other}"),
     }
 }
@@ -81,11 +85,9 @@ fn box_sky_and_space_balances_match_scipy_band_integrals() {
         let b = Balance::new(&emitter, &night(sky, ta, hc));
         assert_eq!(b.method(), Method::ClosedForm, "{}", r[0]);
         let p = b.parts(ts);
-        for (what, ours, theirs) in [
-            ("emitted", p.emitted, num(&r[4])),
-            ("sky", p.sky_absorbed, num(&r[5])),
-            ("net", p.net, num(&r[6])),
-        ] {
+        for (what, ours, theirs) in
+            [("emitted", p.emitted, num(&r[4])), ("sky", p.sky_absorbed, num(&r[5])), ("net", p.net, num(&r[6]))]
+        {
             assert!(close(ours, theirs, 1e-9, 1e-12), "{} {what}: {ours} vs {theirs}", r[0]);
         }
         // steady temperature: our bracketing search stops at 1e-9 relative; scipy brentq at 1e-12
@@ -143,8 +145,12 @@ fn smooth_profiles_match_scipy_quadrature() {
     assert_eq!(rows.len(), 4);
     for r in rows {
         let profile = match r[0].as_str() {
-            "logistic_8_13_edge_0.5um_300" => Profile::Window { from_m: 8e-6, to_m: 13e-6, inside: 0.95, outside: 0.05, edge_m: 0.5e-6 },
-            "logistic_8_13_edge_2um_300" => Profile::Window { from_m: 8e-6, to_m: 13e-6, inside: 1.0, outside: 0.0, edge_m: 2e-6 },
+            "logistic_8_13_edge_0.5um_300" => {
+                Profile::Window { from_m: 8e-6, to_m: 13e-6, inside: 0.95, outside: 0.05, edge_m: 0.5e-6 }
+            }
+            "logistic_8_13_edge_2um_300" => {
+                Profile::Window { from_m: 8e-6, to_m: 13e-6, inside: 1.0, outside: 0.0, edge_m: 2e-6 }
+            }
             "points_5um_0.2_20um_0.9_300" => Profile::Points { points: vec![(5e-6, 0.2), (20e-6, 0.9)] },
             "points_five_350" => Profile::Points {
                 points: vec![(0.3e-6, 0.05), (4e-6, 0.05), (8e-6, 0.95), (13e-6, 0.95), (14e-6, 0.2)],
@@ -220,7 +226,12 @@ fn absorbed_sunlight_matches_scipy_over_g173() {
         let r_sol = 1.0 - num(&r[1]) / num(&r[2]);
         assert!((solar_reflectance(&e) - r_sol).abs() < tol.max(1e-12), "{}", r[0]);
         // under the sun at normal incidence the balance absorbs the same power
-        let s = Surroundings { sky: Sky::Space, ambient_k: 300.0, sun: Some(Sun { source: Source::am15g(), zenith_rad: 0.0, scale: 1.0 }), h_c: 0.0 };
+        let s = Surroundings {
+            sky: Sky::Space,
+            ambient_k: 300.0,
+            sun: Some(Sun { source: Source::am15g(), zenith_rad: 0.0, scale: 1.0 }),
+            h_c: 0.0,
+        };
         assert!(close(Balance::new(&e, &s).sun_absorbed(), ours, 1e-12, 0.0));
     }
 }
@@ -237,7 +248,11 @@ fn blackbody_at_ambient_under_a_blackbody_sky_is_in_balance() {
         Emitter::new(Profile::Grey { emissivity: 0.37 }),
         Emitter::new(window(8.0, 13.0, 0.9, 0.1)),
         Emitter::new(Profile::Points { points: vec![(0.3e-6, 0.05), (8e-6, 0.95), (14e-6, 0.2)] }),
-        Emitter { profile: Profile::blackbody(), solar: None, angular: AngularModel::CutOff { angle_rad: 1.0, beyond: 0.3 } },
+        Emitter {
+            profile: Profile::blackbody(),
+            solar: None,
+            angular: AngularModel::CutOff { angle_rad: 1.0, beyond: 0.3 },
+        },
     ];
     for ta in [200.0, 300.0, 330.0] {
         for e in &emitters {
@@ -393,11 +408,25 @@ fn profile() -> impl Strategy<Value = Profile> {
     prop_oneof![
         (0.0f64..=1.0).prop_map(|e| Profile::Grey { emissivity: e }),
         (0.2f64..50.0, 0.01f64..50.0, 0.0f64..=1.0, 0.0f64..=1.0, prop_oneof![Just(0.0), 0.001f64..5.0]).prop_map(
-            |(a, w, i, o, edge)| Profile::Window { from_m: a * 1e-6, to_m: (a + w) * 1e-6, inside: i, outside: o, edge_m: edge * 1e-6 }
+            |(a, w, i, o, edge)| Profile::Window {
+                from_m: a * 1e-6,
+                to_m: (a + w) * 1e-6,
+                inside: i,
+                outside: o,
+                edge_m: edge * 1e-6
+            }
         ),
         proptest::collection::vec((0.0f64..1.0, 0.0f64..=1.0), 1..8).prop_map(|v| {
             let mut l = 0.2e-6;
-            Profile::Points { points: v.into_iter().map(|(d, e)| { l *= 1.0 + 3.0 * d + 1e-3; (l, e) }).collect() }
+            Profile::Points {
+                points: v
+                    .into_iter()
+                    .map(|(d, e)| {
+                        l *= 1.0 + 3.0 * d + 1e-3;
+                        (l, e)
+                    })
+                    .collect(),
+            }
         }),
     ]
 }
@@ -421,14 +450,21 @@ fn sky() -> impl Strategy<Value = Sky> {
         (0.0f64..0.1).prop_map(|w| Sky::Clear { pwv_m: w }),
         proptest::collection::vec(0.0f64..=1.0, 2..20).prop_map(|t| {
             let n = t.len();
-            Sky::Table(Transmittance { wavelength_m: (0..n).map(|i| 5e-6 * (1.0 + i as f64)).collect(), transmittance: t })
+            Sky::Table(Transmittance {
+                wavelength_m: (0..n).map(|i| 5e-6 * (1.0 + i as f64)).collect(),
+                transmittance: t,
+            })
         }),
     ]
 }
 
 fn sun() -> impl Strategy<Value = Option<Sun>> {
-    proptest::option::of((0.0f64..1.55, 0.0f64..3.0, prop_oneof![Just(Source::am15g()), (3000.0f64..7000.0).prop_map(|t| Source::BlackbodySun { temp_k: t })]))
-        .prop_map(|o| o.map(|(z, s, source)| Sun { source, zenith_rad: z, scale: s }))
+    proptest::option::of((
+        0.0f64..1.55,
+        0.0f64..3.0,
+        prop_oneof![Just(Source::am15g()), (3000.0f64..7000.0).prop_map(|t| Source::BlackbodySun { temp_k: t })],
+    ))
+    .prop_map(|o| o.map(|(z, s, source)| Sun { source, zenith_rad: z, scale: s }))
 }
 
 proptest! {
@@ -527,15 +563,30 @@ fn scenario_checks_name_the_bad_value_and_the_accepted_range() {
     assert!(bad(&|s| s.ambient_k = f64::NAN).contains("not a number"));
     assert!(bad(&|s| s.curve_to_k = 100.0).contains("lower temperature first"));
     assert!(bad(&|s| s.emitter = EmitterSpec::Points { points: vec![] }).contains("1 to 1000"));
-    assert!(bad(&|s| s.emitter = EmitterSpec::Table(EmissivityTable { name: "m".into(), wavelength_m: vec![2e-6, 1e-6], emissivity: vec![0.5, 0.5] }))
-        .contains("ascending"));
-    assert!(bad(&|s| s.sky = SkySpec::Table(TransmittanceTable { name: "t".into(), wavelength_m: vec![1e-6, 2e-6], transmittance: vec![0.5, 1.5] }))
-        .contains("fraction"));
+    assert!(bad(&|s| s.emitter = EmitterSpec::Table(EmissivityTable {
+        name: "m".into(),
+        wavelength_m: vec![2e-6, 1e-6],
+        emissivity: vec![0.5, 0.5]
+    }))
+    .contains("ascending"));
+    assert!(bad(&|s| s.sky = SkySpec::Table(TransmittanceTable {
+        name: "t".into(),
+        wavelength_m: vec![1e-6, 2e-6],
+        transmittance: vec![0.5, 1.5]
+    }))
+    .contains("fraction"));
     assert!(bad(&|s| s.emitter = EmitterSpec::File { path: "x.csv".into() }).contains("not been read"));
-    assert!(bad(&|s| s.solar_band = Some(SolarBandSpec { below_um: 4.0, profile: EmitterSpec::Grey { emissivity: -0.1 } })).contains("solar band"));
+    assert!(bad(
+        &|s| s.solar_band = Some(SolarBandSpec { below_um: 4.0, profile: EmitterSpec::Grey { emissivity: -0.1 } })
+    )
+    .contains("solar band"));
     // a sky table that misses part of the window is accepted with a warning
     let s = RadiatorScenario {
-        sky: SkySpec::Table(TransmittanceTable { name: "t".into(), wavelength_m: vec![9e-6, 12e-6], transmittance: vec![0.8, 0.8] }),
+        sky: SkySpec::Table(TransmittanceTable {
+            name: "t".into(),
+            wavelength_m: vec![9e-6, 12e-6],
+            transmittance: vec![0.8, 0.8],
+        }),
         ..Default::default()
     };
     assert!(s.to_physics().unwrap().warnings[0].contains("opaque"));

@@ -82,7 +82,11 @@ fn de_vos_two_cells_one_sun_42_9_percent() {
     let best = optimize(&problem(&light, Connection::Independent, 2));
     assert!((best.efficiency - 0.429).abs() < 6e-4, "{}", best.efficiency);
     // gaps near 1.9 and 1.0 eV (De Vos 1980, read off his figure: 1 digit)
-    assert!((to_ev(best.gaps_j[0]) - 1.9).abs() < 0.1 && (to_ev(best.gaps_j[1]) - 1.0).abs() < 0.1, "{:?}", best.gaps_j);
+    assert!(
+        (to_ev(best.gaps_j[0]) - 1.9).abs() < 0.1 && (to_ev(best.gaps_j[1]) - 1.0).abs() < 0.1,
+        "{:?}",
+        best.gaps_j
+    );
 }
 
 #[test]
@@ -93,7 +97,10 @@ fn de_vos_two_cells_full_concentration_55_9_percent() {
     // law the limit is 0.1 point lower at full concentration, where qV comes within a few kT
     // of the gaps; tolerance 0.15 points covers that stated difference.
     let light = bb(6000.0, MAX_CONCENTRATION);
-    let boltz = optimize(&Problem { cell: Cell { model: JvModel::Boltzmann, ..Cell::ideal(1.0) }, ..problem(&light, Connection::Independent, 2) });
+    let boltz = optimize(&Problem {
+        cell: Cell { model: JvModel::Boltzmann, ..Cell::ideal(1.0) },
+        ..problem(&light, Connection::Independent, 2)
+    });
     assert!((boltz.efficiency - 0.559).abs() < 6e-4, "{}", boltz.efficiency);
     let exact = optimize(&problem(&light, Connection::Independent, 2));
     assert!((exact.efficiency - 0.559).abs() < 1.5e-3, "{}", exact.efficiency);
@@ -121,7 +128,10 @@ fn silicon_bottom_cell_best_partner_about_1_73_ev_and_45_percent() {
     // limit): with a 1.12 eV silicon bottom cell the best top gap is about 1.73 eV and the
     // limit about 45%. Tolerance 0.03 eV and 0.5 points (the figures are quoted to 2-3 digits).
     let light = Illumination::one_sun(Source::am15g());
-    let p = Problem { fixed: Some(FixedGap { gap_j: ev(1.12), at: FixAt::Bottom }), ..problem(&light, Connection::Series, 2) };
+    let p = Problem {
+        fixed: Some(FixedGap { gap_j: ev(1.12), at: FixAt::Bottom }),
+        ..problem(&light, Connection::Series, 2)
+    };
     let best = optimize(&p);
     assert_eq!(best.gaps_j[1], ev(1.12));
     assert!((to_ev(best.gaps_j[0]) - 1.73).abs() < 0.03, "{:?}", best.gaps_j);
@@ -138,7 +148,8 @@ fn henry_trend_with_the_number_of_gaps() {
     // second 4-9 and 35-65% of the first (Henry: 46%), every further gain smaller than the
     // last, and six gaps below Henry's 36-gap value.
     let light = Illumination { source: Source::am15d(), concentration: 1000.0 };
-    let e: Vec<f64> = optimize_each(&problem(&light, Connection::Independent, 1), 6).iter().map(|o| o.efficiency).collect();
+    let e: Vec<f64> =
+        optimize_each(&problem(&light, Connection::Independent, 1), 6).iter().map(|o| o.efficiency).collect();
     assert_eq!(e.len(), 6);
     let gains: Vec<f64> = e.windows(2).map(|w| w[1] - w[0]).collect();
     assert!((0.10..0.16).contains(&gains[0]), "{e:?}");
@@ -156,7 +167,8 @@ fn limits_rise_with_junctions_towards_the_infinite_stack() {
     // them and each added junction closes part of the remaining gap (a strict rise).
     for (x, limit) in [(1.0, 0.682), (MAX_CONCENTRATION, 0.868)] {
         let light = bb(6000.0, x);
-        let e: Vec<f64> = optimize_each(&problem(&light, Connection::Independent, 1), 6).iter().map(|o| o.efficiency).collect();
+        let e: Vec<f64> =
+            optimize_each(&problem(&light, Connection::Independent, 1), 6).iter().map(|o| o.efficiency).collect();
         assert!(e.windows(2).all(|w| w[1] > w[0]), "X={x}: {e:?}");
         assert!(e[5] < limit, "X={x}: {e:?}");
         // six junctions recover most of the single cell's distance to the limit
@@ -189,7 +201,12 @@ fn stacks_match_scipy_reference() {
             assert!(rel(s.voc, list(&r[9])[i]) < 1e-9, "{what}: voc {i}");
             // the operating point: the power is flat there, so J and V are located less
             // sharply than P; 1e-7 covers the scipy side's xtol on dP/dJ = 0
-            assert!(rel(s.j_op / 10.0, list(&r[10])[i]) < 1e-7, "{what}: j_op {i} {} vs {}", s.j_op / 10.0, list(&r[10])[i]);
+            assert!(
+                rel(s.j_op / 10.0, list(&r[10])[i]) < 1e-7,
+                "{what}: j_op {i} {} vs {}",
+                s.j_op / 10.0,
+                list(&r[10])[i]
+            );
             assert!(rel(s.v_op, list(&r[11])[i]) < 1e-7, "{what}: v_op {i}");
         }
     }
@@ -207,7 +224,11 @@ fn optima_match_scipy_nelder_mead() {
         let best = optimize(&problem(&light, conn, 2));
         let (top, bottom, eff): (f64, f64, f64) = (r[2].parse().unwrap(), r[3].parse().unwrap(), r[4].parse().unwrap());
         assert!(rel(best.efficiency, eff) < 1e-9, "{r:?}: {}", best.efficiency);
-        assert!((to_ev(best.gaps_j[0]) - top).abs() < 1e-3 && (to_ev(best.gaps_j[1]) - bottom).abs() < 1e-3, "{r:?}: {:?}", best.gaps_j);
+        assert!(
+            (to_ev(best.gaps_j[0]) - top).abs() < 1e-3 && (to_ev(best.gaps_j[1]) - bottom).abs() < 1e-3,
+            "{r:?}: {:?}",
+            best.gaps_j
+        );
     }
 }
 
@@ -223,7 +244,10 @@ fn eqe_and_urbach_cells_match_scipy_reciprocity() {
         let light = Illumination::one_sun(source(&r[1]));
         let a = match r[0].as_str() {
             "eqe_table" => Absorptance::Table(table.clone()),
-            _ => Absorptance::Urbach { gap_j: ev(r[2].parse().unwrap()), urbach_j: ev(r[3].parse::<f64>().unwrap() * 1e-3) },
+            _ => Absorptance::Urbach {
+                gap_j: ev(r[2].parse().unwrap()),
+                urbach_j: ev(r[3].parse::<f64>().unwrap() * 1e-3),
+            },
         };
         let cell = Cell { temp_k: r[4].parse().unwrap(), ..Cell::ideal(1.0) };
         let got = solve_reciprocity(&light, &a, &cell);
@@ -248,7 +272,12 @@ fn mismatch_matches_scipy_power_times_responsivity() {
         let m = mismatch_factor(&dut, &refdev, &source(&r[0]), &source(&r[1])).unwrap();
         let v: Vec<f64> = r[2..].iter().map(|s| s.parse().unwrap()).collect();
         assert!(rel(m.factor, v[0]) < 1e-9, "{r:?}: M {} vs {}", m.factor, v[0]);
-        let ours = [m.test_device_test_spectrum, m.test_device_reference_spectrum, m.reference_device_test_spectrum, m.reference_device_reference_spectrum];
+        let ours = [
+            m.test_device_test_spectrum,
+            m.test_device_reference_spectrum,
+            m.reference_device_test_spectrum,
+            m.reference_device_reference_spectrum,
+        ];
         for (o, t) in ours.iter().zip(&v[1..]) {
             assert!(rel(o / 10.0, *t) < 1e-9, "{r:?}: {o} vs {t}");
         }
@@ -273,7 +302,8 @@ fn a_step_eqe_reproduces_the_step_cell() {
     // 6000 K sun has e^-55 of its photons beyond, the cell's emission e^-1000); against
     // junction.rs's Boltzmann cell to 1e-9 too
     // (its J0 keeps only the first Bose term, e^-x0 ~ 1e-23 smaller).
-    for (src, gap) in [(Source::am15g(), 1.34), (Source::am15g(), 0.95), (Source::BlackbodySun { temp_k: 6000.0 }, 1.1)] {
+    for (src, gap) in [(Source::am15g(), 1.34), (Source::am15g(), 0.95), (Source::BlackbodySun { temp_k: 6000.0 }, 1.1)]
+    {
         let light = Illumination::one_sun(src);
         let cell = Cell::ideal(ev(gap));
         let table = solve_reciprocity(&light, &step_table(gap), &cell);
@@ -338,8 +368,16 @@ fn eqe_files_read_fractions_percent_and_amps_per_watt_alike() {
     assert!((sr - 0.322_621).abs() < 1e-6, "{sr}");
     let a = parse_eqe_csv("wavelength_nm,eqe_fraction\n400,0.8\n600,0.8\n", "a").unwrap();
     let b = parse_eqe_csv("Wavelength (nm), EQE (%)\n600, 80\n400, 80\n", "b").unwrap();
-    let c = parse_eqe_csv(&format!("lambda [nm]; SR [A/W]\n400; {}\n600; {}\n", sr_from_eqe(0.8, 400e-9), sr_from_eqe(0.8, 600e-9)), "c").unwrap();
-    let d = parse_eqe_csv(&format!("energy (eV)\tEQE (-)\n{}\t0.8\n{}\t0.8\n", HC / 600e-9 / CHARGE, HC / 400e-9 / CHARGE), "d").unwrap();
+    let c = parse_eqe_csv(
+        &format!("lambda [nm]; SR [A/W]\n400; {}\n600; {}\n", sr_from_eqe(0.8, 400e-9), sr_from_eqe(0.8, 600e-9)),
+        "c",
+    )
+    .unwrap();
+    let d = parse_eqe_csv(
+        &format!("energy (eV)\tEQE (-)\n{}\t0.8\n{}\t0.8\n", HC / 600e-9 / CHARGE, HC / 400e-9 / CHARGE),
+        "d",
+    )
+    .unwrap();
     for t in [&a, &b, &c, &d] {
         for e in [ev(2.1), ev(2.5), ev(3.0)] {
             assert!((t.at_energy(e) - 0.8).abs() < 1e-12, "{}: {}", t.name, t.at_energy(e));
@@ -391,12 +429,22 @@ fn mismatch_is_one_for_equal_spectra_and_scale_free() {
     let glowgap::physics::sources::Source::Table { spectrum, .. } = Source::am15d() else { unreachable!() };
     let scaled = Source::user(spectrum.scaled(7.5));
     let d = Source::am15d();
-    assert!(rel(mismatch_factor(&dut, &refdev, &scaled, &g).unwrap().factor, mismatch_factor(&dut, &refdev, &d, &g).unwrap().factor) < 1e-12);
+    assert!(
+        rel(
+            mismatch_factor(&dut, &refdev, &scaled, &g).unwrap().factor,
+            mismatch_factor(&dut, &refdev, &d, &g).unwrap().factor
+        ) < 1e-12
+    );
     let t = eqe_fixture();
-    let half = Absorptance::Table(Arc::new(AbsorptanceTable::new("half", t.axis(), t.coordinates().to_vec(), t.values().iter().map(|v| 0.5 * v).collect()).unwrap()));
+    let half = Absorptance::Table(Arc::new(
+        AbsorptanceTable::new("half", t.axis(), t.coordinates().to_vec(), t.values().iter().map(|v| 0.5 * v).collect())
+            .unwrap(),
+    ));
     assert!(rel(mismatch_factor(&half, &refdev, &sim, &g).unwrap().factor, m) < 1e-12);
     // a device with no response under a spectrum gives a message, not NaN
-    let uv = Absorptance::Table(Arc::new(AbsorptanceTable::new("uv", Axis::Wavelength, vec![100e-9, 200e-9], vec![1.0, 1.0]).unwrap()));
+    let uv = Absorptance::Table(Arc::new(
+        AbsorptanceTable::new("uv", Axis::Wavelength, vec![100e-9, 200e-9], vec![1.0, 1.0]).unwrap(),
+    ));
     assert!(mismatch_factor(&uv, &refdev, &g, &g).unwrap_err().contains("no current"));
 }
 
@@ -417,7 +465,13 @@ fn losses_add_up_to_the_input_power() {
     for (light, t, ere) in cases {
         let gaps: Vec<f64> = (0..=60).map(|i| ev(0.4 + 0.05 * i as f64)).collect();
         for l in loss_sweep(&light, &Cell { temp_k: t, ere, ..Cell::ideal(1.0) }, &gaps) {
-            assert!(rel(l.total(), light.input_power()) < 1e-9, "{} eV: {} vs {}", to_ev(l.gap_j), l.total(), light.input_power());
+            assert!(
+                rel(l.total(), light.input_power()) < 1e-9,
+                "{} eV: {} vs {}",
+                to_ev(l.gap_j),
+                l.total(),
+                light.input_power()
+            );
             for part in [l.below_gap, l.emission, l.carnot, l.delivered, l.thermalization] {
                 assert!(part.is_finite() && part >= 0.0, "{l:?}");
             }
@@ -463,7 +517,11 @@ fn map_agrees_with_single_stacks_and_its_best_point_with_the_optimizer() {
         for (i, &t) in tops.iter().enumerate().step_by(5) {
             for (k, &b) in bottoms.iter().enumerate().step_by(3) {
                 let want = if b < t { stack_efficiency(&light, &cell, &[t, b], conn) } else { 0.0 };
-                assert!((m.at(i, k) - want).abs() <= 1e-11 * want + 1e-14, "{conn:?} {t} {b}: {} vs {want}", m.at(i, k));
+                assert!(
+                    (m.at(i, k) - want).abs() <= 1e-11 * want + 1e-14,
+                    "{conn:?} {t} {b}: {} vs {want}",
+                    m.at(i, k)
+                );
             }
         }
         let (t, b, e) = m.best().unwrap();
@@ -501,7 +559,12 @@ fn any_light() -> impl Strategy<Value = Illumination> {
 }
 
 fn any_cell() -> impl Strategy<Value = Cell> {
-    (1.0f64..1000.0, 1e-9f64..1.0, prop_oneof![Just(JvModel::Exact), Just(JvModel::Boltzmann)], prop_oneof![Just(Emission::Front), Just(Emission::Both)])
+    (
+        1.0f64..1000.0,
+        1e-9f64..1.0,
+        prop_oneof![Just(JvModel::Exact), Just(JvModel::Boltzmann)],
+        prop_oneof![Just(Emission::Front), Just(Emission::Both)],
+    )
         .prop_map(|(temp_k, ere, model, emission)| Cell { gap_j: 1.0, temp_k, ere, emission, model })
 }
 
@@ -574,7 +637,11 @@ fn stack_scenarios_round_trip_and_old_links_still_load() {
     use glowgap::scenario::Scenario;
     let t = eqe_fixture();
     let mut s = Scenario {
-        stack: StackScenario { gaps_ev: vec![1.9, 1.37, 0.93], connection: Connection::Independent, ..Default::default() },
+        stack: StackScenario {
+            gaps_ev: vec![1.9, 1.37, 0.93],
+            connection: Connection::Independent,
+            ..Default::default()
+        },
         ..Default::default()
     };
     s.stack.absorber = AbsorberSpec::Measured(EqeTableSpec::from_table(&t));

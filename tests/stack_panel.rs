@@ -12,7 +12,9 @@ use glowgap::physics::constants::{ev, to_ev};
 use glowgap::physics::junction::{Cell, Emission, Illumination, JvModel};
 use glowgap::physics::sources::Source;
 use glowgap::physics::stack::map::tandem_map;
-use glowgap::physics::stack::optimize::{grid_maxima, optimize, optimize_observed, refine, FixAt, FixedGap, Problem, POLISHED_STARTS, PROGRESS_EVERY};
+use glowgap::physics::stack::optimize::{
+    grid_maxima, optimize, optimize_observed, refine, FixAt, FixedGap, Problem, POLISHED_STARTS, PROGRESS_EVERY,
+};
 use glowgap::physics::stack::{solve_stack, stack_efficiency, Connection};
 use glowgap::report::stack::{StackReport, STACK_METRICS};
 use glowgap::scenario::stack::{AbsorberSpec, MapSettings, OptimizeSettings};
@@ -43,7 +45,12 @@ fn observed_search_finds_the_same_optimum_and_reports_progress() {
         assert!(seen.windows(2).all(|w| w[0] < w[1]), "counts rise: {seen:?}");
         assert!(*seen.last().unwrap() <= plain.evaluations);
         // one report per PROGRESS_EVERY evaluations passed (the 2-junction grid is counted at once)
-        assert!(seen.len() as u64 <= plain.evaluations / PROGRESS_EVERY, "{} reports for {} evaluations", seen.len(), plain.evaluations);
+        assert!(
+            seen.len() as u64 <= plain.evaluations / PROGRESS_EVERY,
+            "{} reports for {} evaluations",
+            seen.len(),
+            plain.evaluations
+        );
         // the search starts from the seed, so it cannot end below it
         let seed = solve_stack(&light, &cell(), &p.seeds[0], connection).efficiency;
         assert!(plain.efficiency >= seed);
@@ -58,7 +65,10 @@ fn stack_figures_display_with_their_units_and_connection_labels() {
     // decimals, and within the commonly cited ceiling of about 46 % for two-terminal tandems
     assert_eq!(series.display("stack-efficiency"), format!("{:.2} %", series.efficiency * 100.0));
     assert!(series.efficiency > 0.40 && series.efficiency < 0.46, "{}", series.efficiency);
-    assert!(series.display("stack-voc").ends_with(" V") && series.display("stack-voc").split('.').nth(1).unwrap().len() == 6);
+    assert!(
+        series.display("stack-voc").ends_with(" V")
+            && series.display("stack-voc").split('.').nth(1).unwrap().len() == 6
+    );
     assert!(series.display("stack-jsc").ends_with(" mA/cm²"));
     assert_eq!(series.label("stack-jsc"), "Short-circuit current Jsc");
     let independent = StackReport::from(&solve_stack(&light, &cell(), &[ev(1.7), ev(1.1)], Connection::Independent));
@@ -94,9 +104,20 @@ fn refining_the_best_points_of_the_map_finds_the_scipy_optimum() {
         assert!(!maxima.is_empty());
         // the first is the grid's best stack
         let nb = bottoms.len();
-        let grid_best = (0..map.efficiency.len()).filter(|i| bottoms[i % nb] < tops[i / nb]).map(|i| map.efficiency[i]).fold(0.0, f64::max);
+        let grid_best = (0..map.efficiency.len())
+            .filter(|i| bottoms[i % nb] < tops[i / nb])
+            .map(|i| map.efficiency[i])
+            .fold(0.0, f64::max);
         assert_eq!(maxima[0].1, grid_best);
-        let p = Problem { light: &light, cell: cell(), connection, junctions: 2, fixed: None, range_j: (bottoms[0], tops[tops.len() - 1]), seeds: vec![] };
+        let p = Problem {
+            light: &light,
+            cell: cell(),
+            connection,
+            junctions: 2,
+            fixed: None,
+            range_j: (bottoms[0], tops[tops.len() - 1]),
+            seeds: vec![],
+        };
         let polished: Vec<_> = maxima.iter().take(POLISHED_STARTS).map(|(x, _)| refine(&p, x, step)).collect();
         for (o, (_, e)) in polished.iter().zip(&maxima) {
             // each is never worse than its start (the map and the search evaluate the same stack)
@@ -108,7 +129,11 @@ fn refining_the_best_points_of_the_map_finds_the_scipy_optimum() {
         let best = polished.iter().max_by(|a, b| a.efficiency.total_cmp(&b.efficiency)).unwrap();
         let (top, bottom, eff): (f64, f64, f64) = (r[2].parse().unwrap(), r[3].parse().unwrap(), r[4].parse().unwrap());
         assert!((best.efficiency - eff).abs() / eff < 1e-9, "{r:?}: {}", best.efficiency);
-        assert!((to_ev(best.gaps_j[0]) - top).abs() < 1e-3 && (to_ev(best.gaps_j[1]) - bottom).abs() < 1e-3, "{r:?}: {:?}", best.gaps_j);
+        assert!(
+            (to_ev(best.gaps_j[0]) - top).abs() < 1e-3 && (to_ev(best.gaps_j[1]) - bottom).abs() < 1e-3,
+            "{r:?}: {:?}",
+            best.gaps_j
+        );
     }
 }
 
@@ -128,11 +153,21 @@ fn grid_maxima_skip_what_is_not_a_stack() {
 #[test]
 fn refine_refuses_what_it_cannot_use() {
     let light = Illumination { source: Source::am15g(), concentration: 1.0 };
-    let p = Problem { light: &light, cell: cell(), connection: Connection::Series, junctions: 2, fixed: None, range_j: (ev(0.5), ev(2.5)), seeds: vec![] };
+    let p = Problem {
+        light: &light,
+        cell: cell(),
+        connection: Connection::Series,
+        junctions: 2,
+        fixed: None,
+        range_j: (ev(0.5), ev(2.5)),
+        seeds: vec![],
+    };
     // the wrong number of free gaps, a non-finite start, an empty range: an empty answer
     assert!(refine(&p, &[ev(1.7)], ev(0.01)).gaps_j.is_empty());
     assert!(refine(&p, &[ev(1.7), f64::NAN], ev(0.01)).gaps_j.is_empty());
-    assert!(refine(&Problem { range_j: (ev(1.0), ev(1.0)), ..p.clone() }, &[ev(1.7), ev(1.1)], ev(0.01)).gaps_j.is_empty());
+    assert!(refine(&Problem { range_j: (ev(1.0), ev(1.0)), ..p.clone() }, &[ev(1.7), ev(1.1)], ev(0.01))
+        .gaps_j
+        .is_empty());
     // with a fixed gap, only the other is refined and the fixed one is kept exactly
     let fixed = Problem { fixed: Some(FixedGap { gap_j: ev(1.12), at: FixAt::Bottom }), ..p.clone() };
     let best = refine(&fixed, &[ev(1.7)], ev(0.01));
@@ -145,13 +180,17 @@ fn refine_refuses_what_it_cannot_use() {
 
 #[test]
 fn search_settings_are_checked_once_and_say_how_to_fix_them() {
-    let two = |fix_ev: Option<f64>, fix_at: FixAt| OptimizeSettings { junctions: 2, fix_ev, fix_at, ..Default::default() };
+    let two =
+        |fix_ev: Option<f64>, fix_at: FixAt| OptimizeSettings { junctions: 2, fix_ev, fix_at, ..Default::default() };
     // off, or a usable fixed gap: the fixed gap in J, where it was asked
     assert_eq!(two(None, FixAt::Bottom).check().unwrap(), None);
     assert_eq!(two(Some(1.12), FixAt::Bottom).check().unwrap(), Some(FixedGap { gap_j: ev(1.12), at: FixAt::Bottom }));
     // to_problem checks the same way and carries the same fixed gap
     let light = Illumination { source: Source::am15g(), concentration: 1.0 };
-    assert_eq!(two(Some(1.12), FixAt::Top).to_problem(&light, &cell(), Connection::Series).unwrap().fixed, two(Some(1.12), FixAt::Top).check().unwrap());
+    assert_eq!(
+        two(Some(1.12), FixAt::Top).to_problem(&light, &cell(), Connection::Series).unwrap().fixed,
+        two(Some(1.12), FixAt::Top).check().unwrap()
+    );
     // a gap out of range: what is accepted, with an example
     for bad in [f64::NAN, -1.0, 0.0, 25.0] {
         let e = two(Some(bad), FixAt::Any).check().unwrap_err();

@@ -91,7 +91,8 @@ fn pointer_pos(ev: &web_sys::MouseEvent) -> Option<(f64, f64, f64)> {
 }
 
 pub fn plot_card(ctx: Ctx, card: Card, b: Rc<dyn PlotBehaviour>) -> impl IntoView {
-    let Card { slug, title, aria, interactive, wrap_class, control, tools, legend, note, footer, canvas, plot_error } = card;
+    let Card { slug, title, aria, interactive, wrap_class, control, tools, legend, note, footer, canvas, plot_error } =
+        card;
     let hover = RwSignal::new(None::<Hover>);
     let dragging = StoredValue::new(false);
 
@@ -171,7 +172,9 @@ pub fn plot_card(ctx: Ctx, card: Card, b: Rc<dyn PlotBehaviour>) -> impl IntoVie
             } else {
                 format!("left:{:.0}px;top:{:.0}px", h.x + 14.0, h.y + 14.0)
             };
-            let dot = h.dot.map(|(x, y)| view! { <span class="hover-dot" style=format!("left:{x:.1}px;top:{y:.1}px")></span> });
+            let dot = h
+                .dot
+                .map(|(x, y)| view! { <span class="hover-dot" style=format!("left:{x:.1}px;top:{y:.1}px")></span> });
             let lines = h.lines.into_iter().map(|l| view! { <span>{l}</span> }).collect_view();
             view! {
                 {dot}

@@ -20,15 +20,8 @@ use crate::physics::junction::{Emission, JvModel};
 use crate::scenario::{Scenario, SourceSpec, CELL_TEMP_RANGE_K};
 
 /// Band-gap starting points: (label, eV). Typical room-temperature values.
-pub const ABSORBERS: [(&str, f64); 7] = [
-    ("Ge", 0.66),
-    ("c-Si", 1.12),
-    ("CIGS", 1.15),
-    ("InP", 1.34),
-    ("GaAs", 1.42),
-    ("CdTe", 1.50),
-    ("MAPbI₃", 1.60),
-];
+pub const ABSORBERS: [(&str, f64); 7] =
+    [("Ge", 0.66), ("c-Si", 1.12), ("CIGS", 1.15), ("InP", 1.34), ("GaAs", 1.42), ("CdTe", 1.50), ("MAPbI₃", 1.60)];
 
 /// Read a number as people type it: spaces ignored, a lone decimal comma accepted.
 pub fn parse_number(text: &str) -> Option<f64> {
@@ -47,7 +40,8 @@ pub fn parse_gap(text: &str) -> Result<f64, String> {
         Some(i) => (t[..i].trim(), t[i..].trim()),
         None => (t.as_str(), ""),
     };
-    let v = parse_number(num).ok_or_else(|| format!("'{}' is not a band gap; type e.g. 1.34, 1.34 eV or 925 nm", text.trim()))?;
+    let v = parse_number(num)
+        .ok_or_else(|| format!("'{}' is not a band gap; type e.g. 1.34, 1.34 eV or 925 nm", text.trim()))?;
     match unit {
         "" | "ev" => Ok(v),
         "mev" => Ok(v / 1000.0),
@@ -162,7 +156,12 @@ pub struct NumberInput {
 /// usable value, and otherwise says under `hook` what is wrong while the last good value
 /// stays in use. `commit` returns whether the value was taken; `on_key` may handle a key
 /// (returns true when it did).
-pub fn numeric_input(ctx: Ctx, f: NumberInput, commit: Rc<dyn Fn(f64) -> bool>, on_key: Option<KeyHandler>) -> impl IntoView {
+pub fn numeric_input(
+    ctx: Ctx,
+    f: NumberInput,
+    commit: Rc<dyn Fn(f64) -> bool>,
+    on_key: Option<KeyHandler>,
+) -> impl IntoView {
     let input = NodeRef::<html::Input>::new();
     let NumberInput { hook, control, id, aria_label, describedby, unit, example, value, show, parse } = f;
 
@@ -195,7 +194,11 @@ pub fn numeric_input(ctx: Ctx, f: NumberInput, commit: Rc<dyn Fn(f64) -> bool>, 
                 }
             }
             Err(msg) => {
-                let shown = if text.trim().is_empty() { format!("Type a value, e.g. {example} {unit}") } else { super::state::sentence(&msg) };
+                let shown = if text.trim().is_empty() {
+                    format!("Type a value, e.g. {example} {unit}")
+                } else {
+                    super::state::sentence(&msg)
+                };
                 let shown = format!("{}.", shown.trim_end_matches('.'));
                 ctx.set_error(hook, format!("{shown} {}", still_using(show(value.get_untracked()), unit)));
             }
@@ -240,12 +243,7 @@ pub fn numeric_input(ctx: Ctx, f: NumberInput, commit: Rc<dyn Fn(f64) -> bool>, 
 }
 
 /// A labelled numeric input with its unit, hint and message line (see [`numeric_input`]).
-pub fn number_field(
-    ctx: Ctx,
-    f: Field,
-    commit: Rc<dyn Fn(f64) -> bool>,
-    on_key: Option<KeyHandler>,
-) -> impl IntoView {
+pub fn number_field(ctx: Ctx, f: Field, commit: Rc<dyn Fn(f64) -> bool>, on_key: Option<KeyHandler>) -> impl IntoView {
     let Field { label, unit, hook, hint, example, value, show, parse } = f;
     let id = format!("f-{hook}");
     let err_id = format!("e-{hook}");
@@ -345,7 +343,12 @@ pub fn source_panel(ctx: Ctx) -> impl IntoView {
             "table" => ctx.user_table.get_untracked().map(SourceSpec::Table),
             _ => None,
         };
-        ctx.choose("spectrum", spec, "Load a spectrum file first (below); the current source is still in use.", |s, spec| s.cell.spectrum = spec);
+        ctx.choose(
+            "spectrum",
+            spec,
+            "Load a spectrum file first (below); the current source is still in use.",
+            |s, spec| s.cell.spectrum = spec,
+        );
         // if the edit was refused, show the source in use again
         if let Some(t) = ev.target() {
             use wasm_bindgen::JsCast;
@@ -370,10 +373,12 @@ pub fn source_panel(ctx: Ctx) -> impl IntoView {
         })
     };
 
-    let bb_value = Memo::new(move |_| ctx.scenario.with(|s| match s.cell.spectrum {
-        SourceSpec::Blackbody { temp_k } => temp_k,
-        _ => ctx.bb_temp.get(),
-    }));
+    let bb_value = Memo::new(move |_| {
+        ctx.scenario.with(|s| match s.cell.spectrum {
+            SourceSpec::Blackbody { temp_k } => temp_k,
+            _ => ctx.bb_temp.get(),
+        })
+    });
     let bb_field = Field {
         label: "Sun temperature",
         unit: "K",
@@ -529,7 +534,10 @@ pub fn cell_panel(ctx: Ctx) -> impl IntoView {
             label: "Concentration",
             unit: "suns",
             hook: "concentration",
-            hint: Some(format!("1 (no concentration) up to {} suns, the limit for light from the sun's disc.", thousands(MAX_CONCENTRATION))),
+            hint: Some(format!(
+                "1 (no concentration) up to {} suns, the limit for light from the sun's disc.",
+                thousands(MAX_CONCENTRATION)
+            )),
             example: "1",
             value: conc,
             show: |v| fmt::field(v, 6),
@@ -546,7 +554,9 @@ pub fn cell_panel(ctx: Ctx) -> impl IntoView {
         }
     };
     let warnings = move || {
-        ctx.computed.with(|c| c.as_ref().map(|c| c.setup.warnings.iter().map(|w| super::state::sentence(w)).collect::<Vec<_>>().join(" ")))
+        ctx.computed.with(|c| {
+            c.as_ref().map(|c| c.setup.warnings.iter().map(|w| super::state::sentence(w)).collect::<Vec<_>>().join(" "))
+        })
     };
 
     let ere = Memo::new(move |_| ctx.scenario.with(|s| s.cell.ere));

@@ -10,7 +10,9 @@ use crate::physics::constants::{ev, to_ev, CHARGE, HC};
 use crate::physics::junction::{best_of, jv_curve, solve_cell, sweep, CellResult};
 use crate::physics::sources::Source;
 use crate::report::CellReport;
-use crate::scenario::{CellScenario, CellSetup, PlotAxis, PlotQuantity, Scenario, SourceSpec, ViewSettings, GAP_RANGE_EV};
+use crate::scenario::{
+    CellScenario, CellSetup, PlotAxis, PlotQuantity, Scenario, SourceSpec, ViewSettings, GAP_RANGE_EV,
+};
 
 /// Most band gaps computed for the efficiency curve.
 pub const CURVE_MAX_POINTS: usize = 1001;
@@ -183,7 +185,13 @@ impl Engine {
         let spectrum = match &self.spectrum {
             Some(((spec, a, q), v)) if *spec == s.cell.spectrum && *a == axis && *q == quantity => v.clone(),
             _ => {
-                let v = Arc::new(spectrum_view(&setup.light.source, &s.cell.spectrum, axis, quantity, SpectrumDetail::Plot));
+                let v = Arc::new(spectrum_view(
+                    &setup.light.source,
+                    &s.cell.spectrum,
+                    axis,
+                    quantity,
+                    SpectrumDetail::Plot,
+                ));
                 self.spectrum = Some(((s.cell.spectrum.clone(), axis, quantity), v.clone()));
                 v
             }
@@ -337,7 +345,13 @@ pub enum SpectrumDetail {
 }
 
 /// The source in plot units.
-pub fn spectrum_view(src: &Source, spec: &SourceSpec, axis: PlotAxis, quantity: PlotQuantity, detail: SpectrumDetail) -> SpectrumView {
+pub fn spectrum_view(
+    src: &Source,
+    spec: &SourceSpec,
+    axis: PlotAxis,
+    quantity: PlotQuantity,
+    detail: SpectrumDetail,
+) -> SpectrumView {
     let thin = detail == SpectrumDetail::Plot;
     let (e_lo, e_hi) = match (detail, src) {
         (SpectrumDetail::Export, Source::Table { .. }) => src.energy_range(),

@@ -49,8 +49,11 @@ pub fn caption(s: &Scenario, c: &Computed) -> String {
 /// Offer `url` as a download named `name`.
 pub fn download_url(name: &str, url: &str) -> Result<(), String> {
     let doc = web_sys::window().and_then(|w| w.document()).ok_or("no document")?;
-    let a: web_sys::HtmlAnchorElement =
-        doc.create_element("a").map_err(|_| "could not start the download")?.dyn_into().map_err(|_| "could not start the download")?;
+    let a: web_sys::HtmlAnchorElement = doc
+        .create_element("a")
+        .map_err(|_| "could not start the download")?
+        .dyn_into()
+        .map_err(|_| "could not start the download")?;
     a.set_href(url);
     a.set_download(name);
     a.set_attribute("hidden", "").ok();
@@ -66,7 +69,8 @@ pub fn download_text(name: &str, mime: &str, text: &str) -> Result<(), String> {
     let parts = js_sys::Array::of1(&JsValue::from_str(text));
     let opts = web_sys::BlobPropertyBag::new();
     opts.set_type(mime);
-    let blob = web_sys::Blob::new_with_str_sequence_and_options(&parts, &opts).map_err(|_| "the browser could not make the file")?;
+    let blob = web_sys::Blob::new_with_str_sequence_and_options(&parts, &opts)
+        .map_err(|_| "the browser could not make the file")?;
     let url = web_sys::Url::create_object_url_with_blob(&blob).map_err(|_| "the browser could not make the file")?;
     let r = download_url(name, &url);
     let u = url.clone();
@@ -156,7 +160,14 @@ pub fn spectrum_csv(s: &Scenario, c: &Computed) -> String {
             PlotAxis::Wavelength => (4, 6),
             PlotAxis::PhotonEnergy => (6, 4),
         };
-        let _ = writeln!(out, "{:.xd$},{},{:.od$},{},{absorbed}", x, csv_num(full.y[i]), o, csv_num(other.y.get(i).copied().unwrap_or(0.0)));
+        let _ = writeln!(
+            out,
+            "{:.xd$},{},{:.od$},{},{absorbed}",
+            x,
+            csv_num(full.y[i]),
+            o,
+            csv_num(other.y.get(i).copied().unwrap_or(0.0))
+        );
     }
     out
 }
@@ -188,7 +199,14 @@ pub fn efficiency_csv(s: &Scenario, c: &Computed) -> String {
     comment_lines(&mut out, "limiting efficiency against band gap", s, c);
     if let Some(b) = c.curve.best {
         let b = CellReport::from(&b);
-        let _ = writeln!(out, "# best band gap in {}-{} eV: {} eV, {} %", c.curve.from_ev, c.curve.to_ev, fixed(b.gap_ev, 4), fixed(b.efficiency * 100.0, 3));
+        let _ = writeln!(
+            out,
+            "# best band gap in {}-{} eV: {} eV, {} %",
+            c.curve.from_ev,
+            c.curve.to_ev,
+            fixed(b.gap_ev, 4),
+            fixed(b.efficiency * 100.0, 3)
+        );
     }
     report_header(&mut out);
     for r in &c.curve.results {

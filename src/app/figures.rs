@@ -12,7 +12,8 @@ pub fn figures(ctx: Ctx) -> impl IntoView {
         .iter()
         .map(|(hook, label, _unit)| {
             let hook = *hook;
-            let text = move || ctx.computed.with(|c| c.as_ref().map(|c| c.report.display(hook)).unwrap_or_else(|| "—".into()));
+            let text =
+                move || ctx.computed.with(|c| c.as_ref().map(|c| c.report.display(hook)).unwrap_or_else(|| "—".into()));
             view! {
                 <div class="figure" class:lead=hook == "efficiency">
                     <span class="fig-label">{*label}</span>
@@ -55,37 +56,35 @@ pub fn notices(ctx: Ctx) -> impl IntoView {
         if list.is_empty() {
             return None;
         }
-        Some(
-            view! {
-                <div class="notices">
-                    {list
-                        .into_iter()
-                        .map(|n| {
-                            let kind = n.kind;
-                            let role = if n.alert { "alert" } else { "status" };
-                            let action = n.action.map(|NoticeAction::Restore(s, label)| {
-                                let s = *s;
-                                view! {
-                                    <button type="button" class="small" data-action=format!("{kind}-restore") on:click=move |_| {
-                                        apply_scenario(ctx, s.clone());
-                                        ctx.dismiss(kind);
-                                    }>{label}</button>
-                                }
-                            });
+        Some(view! {
+            <div class="notices">
+                {list
+                    .into_iter()
+                    .map(|n| {
+                        let kind = n.kind;
+                        let role = if n.alert { "alert" } else { "status" };
+                        let action = n.action.map(|NoticeAction::Restore(s, label)| {
+                            let s = *s;
                             view! {
-                                <div class="notice" class:alert=n.alert role=role data-notice=kind>
-                                    <p>{n.text}</p>
-                                    <div class="notice-actions">
-                                        {action}
-                                        <button type="button" class="small ghost" aria-label="Dismiss this notice" on:click=move |_| ctx.dismiss(kind)>"Dismiss"</button>
-                                    </div>
-                                </div>
+                                <button type="button" class="small" data-action=format!("{kind}-restore") on:click=move |_| {
+                                    apply_scenario(ctx, s.clone());
+                                    ctx.dismiss(kind);
+                                }>{label}</button>
                             }
-                        })
-                        .collect_view()}
-                </div>
-            },
-        )
+                        });
+                        view! {
+                            <div class="notice" class:alert=n.alert role=role data-notice=kind>
+                                <p>{n.text}</p>
+                                <div class="notice-actions">
+                                    {action}
+                                    <button type="button" class="small ghost" aria-label="Dismiss this notice" on:click=move |_| ctx.dismiss(kind)>"Dismiss"</button>
+                                </div>
+                            </div>
+                        }
+                    })
+                    .collect_view()}
+            </div>
+        })
     }
 }
 
@@ -104,10 +103,7 @@ pub fn cautions() -> impl IntoView {
 
 /// A panel's cautions, each (lead-in, text), and the colophon.
 pub fn caution_footer(items: &[(&'static str, &'static str)]) -> impl IntoView {
-    let items = items
-        .iter()
-        .map(|(lead, text)| view! { <p><strong>{*lead}</strong>{*text}</p> })
-        .collect_view();
+    let items = items.iter().map(|(lead, text)| view! { <p><strong>{*lead}</strong>{*text}</p> }).collect_view();
     view! {
         <footer class="cautions">
             {items}

@@ -37,7 +37,13 @@ pub fn fixed(v: f64, decimals: usize) -> String {
 /// A value to `sig` significant figures; scientific form (a×10ⁿ) outside 1e-3..1e5.
 pub fn sig(v: f64, sig: usize) -> String {
     if !v.is_finite() {
-        return if v.is_nan() { "—".into() } else if v > 0.0 { "∞".into() } else { "−∞".into() };
+        return if v.is_nan() {
+            "—".into()
+        } else if v > 0.0 {
+            "∞".into()
+        } else {
+            "−∞".into()
+        };
     }
     if v == 0.0 {
         return "0".into();
@@ -120,10 +126,12 @@ pub fn nice_step(span: f64, target: usize) -> (f64, f64, usize) {
 
 /// The fewest decimals that print every multiple of `step` exactly.
 pub fn decimals_of(step: f64) -> usize {
-    (0..12).find(|d| {
-        let v = step * 10f64.powi(*d as i32);
-        (v - v.round()).abs() < 1e-6 * v.abs().max(1.0)
-    }).unwrap_or(12)
+    (0..12)
+        .find(|d| {
+            let v = step * 10f64.powi(*d as i32);
+            (v - v.round()).abs() < 1e-6 * v.abs().max(1.0)
+        })
+        .unwrap_or(12)
 }
 
 /// A number for a CSV file: 7 significant figures, plain where that stays short.
@@ -136,7 +144,11 @@ pub fn csv_num(v: f64) -> String {
         let e = a.log10().floor() as i32;
         let d = (6 - e).max(0) as usize;
         let s = format!("{v:.d$}");
-        if s.contains('.') { s.trim_end_matches('0').trim_end_matches('.').to_string() } else { s }
+        if s.contains('.') {
+            s.trim_end_matches('0').trim_end_matches('.').to_string()
+        } else {
+            s
+        }
     } else {
         format!("{v:.6e}")
     }
@@ -147,11 +159,13 @@ pub fn ticks_with_step(lo: f64, hi: f64, step: f64, sub: f64, decimals: usize) -
     let eps = step * 1e-9;
     let first = (lo / step - 1e-9).ceil() as i64;
     let last = (hi / step + 1e-9).floor() as i64;
-    let major: Vec<f64> = (first..=last).map(|i| i as f64 * step).filter(|v| *v >= lo - eps && *v <= hi + eps).collect();
+    let major: Vec<f64> =
+        (first..=last).map(|i| i as f64 * step).filter(|v| *v >= lo - eps && *v <= hi + eps).collect();
     let mstep = step / sub;
     let mfirst = (lo / mstep - 1e-9).ceil() as i64;
     let mlast = (hi / mstep + 1e-9).floor() as i64;
-    let minor: Vec<f64> = if mlast - mfirst < 400 { (mfirst..=mlast).map(|i| i as f64 * mstep).collect() } else { vec![] };
+    let minor: Vec<f64> =
+        if mlast - mfirst < 400 { (mfirst..=mlast).map(|i| i as f64 * mstep).collect() } else { vec![] };
     Ticks { major, minor, decimals }
 }
 

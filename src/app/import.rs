@@ -53,7 +53,9 @@ pub fn stem(name: &str) -> String {
 pub fn open_spectrum(ctx: Ctx, file: web_sys::File) {
     read_then(file, move |name, text| match text {
         Ok(text) => use_spectrum_text(ctx, &name, &text),
-        Err(e) => ctx.set_error("spectrum", format!("'{name}' was not loaded: {e}. The previous spectrum is still in use.")),
+        Err(e) => {
+            ctx.set_error("spectrum", format!("'{name}' was not loaded: {e}. The previous spectrum is still in use."))
+        }
     });
 }
 
@@ -89,7 +91,10 @@ pub fn open_scenario(ctx: Ctx, file: web_sys::File) {
             }
             Err(e) => ctx.notify(Notice {
                 kind: "file",
-                text: format!("The scenario file '{name}' could not be opened: {} Your current scenario is unchanged.", sentence(&e)),
+                text: format!(
+                    "The scenario file '{name}' could not be opened: {} Your current scenario is unchanged.",
+                    sentence(&e)
+                ),
                 alert: true,
                 action: None,
             }),

@@ -29,9 +29,9 @@ use leptos::ev;
 use leptos::html;
 use leptos::prelude::*;
 
+use crate::scenario::Panel;
 use engine::Engine;
 use plots::render::{draw_on_canvas, CellPlot, PlotKind};
-use crate::scenario::Panel;
 use state::{count_render, mark, Ctx};
 
 /// Start the app (called from `main` on wasm32).
@@ -136,7 +136,9 @@ fn cell_panel(ctx: Ctx, engine: StoredValue<Rc<RefCell<Engine>>, LocalStorage>) 
                     ctx.compute_error.set(None);
                 }
             }
-            Err(e) => ctx.compute_error.set(Some(format!("{} The figures shown are from the last usable scenario.", state::sentence(&e)))),
+            Err(e) => ctx
+                .compute_error
+                .set(Some(format!("{} The figures shown are from the last usable scenario.", state::sentence(&e)))),
         }
         count_render();
     });
@@ -161,7 +163,8 @@ fn cell_panel(ctx: Ctx, engine: StoredValue<Rc<RefCell<Engine>>, LocalStorage>) 
 }
 
 /// The panels in tab order: (panel, hook, tab text).
-const PANELS: [(Panel, &str, &str); 3] = [(Panel::Cell, "cell", "Solar cell"), (Panel::Radiator, "radiator", "Radiator"), (Panel::Stack, "stack", "Stack")];
+const PANELS: [(Panel, &str, &str); 3] =
+    [(Panel::Cell, "cell", "Solar cell"), (Panel::Radiator, "radiator", "Radiator"), (Panel::Stack, "stack", "Stack")];
 
 /// The tab bar that brings a panel to the front (arrow keys move between tabs).
 fn panel_tabs(ctx: Ctx, panel: Memo<Panel>) -> impl IntoView {
@@ -270,7 +273,9 @@ fn App() -> impl IntoView {
         if let Some(text) = ctx.status.get() {
             set_timeout(
                 move || {
-                    if ctx.status.with_untracked(|s| s.as_deref() == Some(text.as_str())) && !text.starts_with("This scenario is too large") {
+                    if ctx.status.with_untracked(|s| s.as_deref() == Some(text.as_str()))
+                        && !text.starts_with("This scenario is too large")
+                    {
                         ctx.status.set(None);
                     }
                 },
@@ -290,7 +295,9 @@ fn App() -> impl IntoView {
     let save = move |_| {
         let r = ctx.scenario.with_untracked(export::save_scenario);
         ctx.status.set(Some(match r {
-            Ok(()) => "Saved glowgap-scenario.json; open it again with “Open scenario…” or by dropping it on the page.".into(),
+            Ok(()) => {
+                "Saved glowgap-scenario.json; open it again with “Open scenario…” or by dropping it on the page.".into()
+            }
             Err(e) => format!("Could not save the scenario: {e}."),
         }));
     };

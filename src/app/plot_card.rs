@@ -147,10 +147,10 @@ fn header_tools(ctx: Ctx, kind: PlotKind) -> impl IntoView {
 fn range_tools(ctx: Ctx) -> impl IntoView {
     let from = Memo::new(move |_| ctx.scenario.with(|s| s.view.curve_from_ev));
     let to = Memo::new(move |_| ctx.scenario.with(|s| s.view.curve_to_ev));
-    let bad = |text: &str| format!("'{text}' is not a band gap; type a number of eV, e.g. 0.5. The plotted range is unchanged.");
-    let best = move || {
-        ctx.computed.with(|c| c.as_ref().and_then(|c| c.curve.best.map(|b| to_ev(b.gap_j))))
+    let bad = |text: &str| {
+        format!("'{text}' is not a band gap; type a number of eV, e.g. 0.5. The plotted range is unchanged.")
     };
+    let best = move || ctx.computed.with(|c| c.as_ref().and_then(|c| c.curve.best.map(|b| to_ev(b.gap_j))));
     view! {
         <div class="plot-tools">
             {range_input(ctx, "curve-from", "curve-range", "from", "eV", from, |s, v| s.view.curve_from_ev = v, bad)}
@@ -254,7 +254,13 @@ impl PlotBehaviour for CellCard {
         let ctx = self.ctx;
         let step = super::controls::key_step(ev);
         // on a wavelength axis, right means longer wavelengths: a smaller gap
-        let right = ctx.scenario.with_untracked(|s| if self.kind == PlotKind::Spectrum && s.view.spectrum_axis == PlotAxis::Wavelength { -1.0 } else { 1.0 });
+        let right = ctx.scenario.with_untracked(|s| {
+            if self.kind == PlotKind::Spectrum && s.view.spectrum_axis == PlotAxis::Wavelength {
+                -1.0
+            } else {
+                1.0
+            }
+        });
         let dir = match ev.key().as_str() {
             "ArrowUp" => 1.0,
             "ArrowDown" => -1.0,

@@ -112,7 +112,12 @@ pub struct Persist {
 
 impl Persist {
     pub fn new(hold: Option<Scenario>) -> Rc<Persist> {
-        Rc::new(Persist { hold: RefCell::new(hold), last_fragment: RefCell::new(String::new()), generation: Cell::new(0), told_full: Cell::new(false) })
+        Rc::new(Persist {
+            hold: RefCell::new(hold),
+            last_fragment: RefCell::new(String::new()),
+            generation: Cell::new(0),
+            told_full: Cell::new(false),
+        })
     }
 }
 
@@ -212,7 +217,10 @@ pub fn on_hash_change(ctx: Ctx, p: &Persist) {
         }
         Err(e) => ctx.notify(Notice {
             kind: "link",
-            text: format!("This link could not be opened: {}. Your current scenario is unchanged.", sentence(&e.0).trim_end_matches('.')),
+            text: format!(
+                "This link could not be opened: {}. Your current scenario is unchanged.",
+                sentence(&e.0).trim_end_matches('.')
+            ),
             alert: true,
             action: None,
         }),
@@ -239,10 +247,14 @@ pub fn copy_link(ctx: Ctx, fallback: RwSignal<Option<String>>) {
         return;
     }
     let nav = window.navigator();
-    let has_clipboard = js_sys::Reflect::get(&nav, &JsValue::from_str("clipboard")).map(|v| !v.is_undefined() && !v.is_null()).unwrap_or(false);
+    let has_clipboard = js_sys::Reflect::get(&nav, &JsValue::from_str("clipboard"))
+        .map(|v| !v.is_undefined() && !v.is_null())
+        .unwrap_or(false);
     if !has_clipboard {
         fallback.set(Some(href));
-        ctx.status.set(Some("This browser offers no clipboard here; the link is selected below — press Ctrl+C (⌘C) to copy it.".into()));
+        ctx.status.set(Some(
+            "This browser offers no clipboard here; the link is selected below — press Ctrl+C (⌘C) to copy it.".into(),
+        ));
         return;
     }
     let promise = nav.clipboard().write_text(&href);
@@ -257,7 +269,10 @@ pub fn copy_link(ctx: Ctx, fallback: RwSignal<Option<String>>) {
             }
             Err(_) => {
                 fallback.set(Some(href));
-                ctx.status.set(Some("The browser did not allow copying; the link is selected below — press Ctrl+C (⌘C) to copy it.".into()));
+                ctx.status.set(Some(
+                    "The browser did not allow copying; the link is selected below — press Ctrl+C (⌘C) to copy it."
+                        .into(),
+                ));
             }
         }
     });

@@ -144,7 +144,13 @@ impl Ctx {
     /// Apply a choice that may be missing (e.g. "your table" before one was loaded): with
     /// `Some(value)`, edit under `hook` as [`Ctx::edit`] does; with `None`, show `missing`
     /// next to the control and keep the scenario.
-    pub fn choose<T>(&self, hook: &'static str, value: Option<T>, missing: &str, apply: impl FnOnce(&mut Scenario, T)) -> bool {
+    pub fn choose<T>(
+        &self,
+        hook: &'static str,
+        value: Option<T>,
+        missing: &str,
+        apply: impl FnOnce(&mut Scenario, T),
+    ) -> bool {
         match value {
             Some(v) => self.edit(hook, move |s| apply(s, v)),
             None => {
@@ -160,9 +166,15 @@ impl Ctx {
         mark("gg-edit");
         let (lo, hi) = GAP_RANGE_EV;
         if gap_ev.is_nan() || !(gap_ev >= lo && gap_ev <= hi) {
-            let mut msg = format!("The band gap {} eV is out of range; give a value from {lo} to {hi} eV (e.g. 1.34)", super::fmt::field(gap_ev, 6));
+            let mut msg = format!(
+                "The band gap {} eV is out of range; give a value from {lo} to {hi} eV (e.g. 1.34)",
+                super::fmt::field(gap_ev, 6)
+            );
             if (100.0..=1e5).contains(&gap_ev) {
-                msg.push_str(&format!(" — for a wavelength, type it with its unit, e.g. '{} nm'", super::fmt::field(gap_ev, 6)));
+                msg.push_str(&format!(
+                    " — for a wavelength, type it with its unit, e.g. '{} nm'",
+                    super::fmt::field(gap_ev, 6)
+                ));
             }
             msg.push('.');
             self.set_error(hook, msg);

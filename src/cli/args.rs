@@ -117,7 +117,10 @@ impl Parsed {
             None => Ok(None),
             Some(s) => {
                 let v: f64 = s.trim().parse().map_err(|_| {
-                    format!("--{name} '{s}' is not a number; give the {what} ({unit}), e.g. --{name} {}", example_for(name))
+                    format!(
+                        "--{name} '{s}' is not a number; give the {what} ({unit}), e.g. --{name} {}",
+                        example_for(name)
+                    )
                 })?;
                 if !v.is_finite() {
                     return Err(format!("--{name} '{s}' is not a finite number; give the {what} ({unit})"));

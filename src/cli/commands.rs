@@ -102,11 +102,14 @@ pub(super) fn apply_common(p: &Parsed, sc: &mut CellScenario) -> Result<(), Stri
             _ => return Err(format!("--approx '{a}' is not known; use exact or boltzmann")),
         };
     }
-    let has_hints = p.text("spectrum-axis").is_some() || p.text("spectrum-values").is_some() || p.text("spectrum-column").is_some();
+    let has_hints =
+        p.text("spectrum-axis").is_some() || p.text("spectrum-values").is_some() || p.text("spectrum-column").is_some();
     if let SourceSpec::File { path } = &sc.spectrum {
         sc.spectrum = read_spectrum_file(path, p)?;
     } else if has_hints {
-        return Err("--spectrum-axis, --spectrum-values and --spectrum-column apply only to --spectrum file:PATH".into());
+        return Err(
+            "--spectrum-axis, --spectrum-values and --spectrum-column apply only to --spectrum file:PATH".into()
+        );
     }
     Ok(())
 }
@@ -115,9 +118,9 @@ pub(super) fn apply_common(p: &Parsed, sc: &mut CellScenario) -> Result<(), Stri
 pub fn read_spectrum_file(path: &str, p: &Parsed) -> Result<SourceSpec, String> {
     let mut hints = ColumnHints::default();
     if let Some(a) = p.text("spectrum-axis") {
-        hints.axis = Some(AxisUnit::parse(a).ok_or_else(|| {
-            format!("--spectrum-axis '{a}' is not known; use nm, um, eV or cm-1")
-        })?);
+        hints.axis = Some(
+            AxisUnit::parse(a).ok_or_else(|| format!("--spectrum-axis '{a}' is not known; use nm, um, eV or cm-1"))?,
+        );
     }
     if let Some(v) = p.text("spectrum-values") {
         hints.value = Some(ValueUnit::parse(v).ok_or_else(|| {
@@ -191,9 +194,21 @@ pub fn write_cell_table(out: Out, r: &CellReport, source: &str, sc: &CellScenari
     writeln!(out, "{:<28} {:.4} eV", "Band gap", r.gap_ev)?;
     let suns = if sc.concentration == 1.0 { "1 sun".to_string() } else { format!("{} suns", sc.concentration) };
     writeln!(out, "{:<28} {} at {}", "Source", source, suns)?;
-    writeln!(out, "{:<28} {} K, ERE {}, {} emission, {} J-V", "Cell", sc.cell_temp_k, sc.ere,
-        match sc.emission { Emission::Front => "front", Emission::Both => "two-face" },
-        match sc.approx { JvModel::Exact => "exact", JvModel::Boltzmann => "Boltzmann" })?;
+    writeln!(
+        out,
+        "{:<28} {} K, ERE {}, {} emission, {} J-V",
+        "Cell",
+        sc.cell_temp_k,
+        sc.ere,
+        match sc.emission {
+            Emission::Front => "front",
+            Emission::Both => "two-face",
+        },
+        match sc.approx {
+            JvModel::Exact => "exact",
+            JvModel::Boltzmann => "Boltzmann",
+        }
+    )?;
     for (hook, label, _) in crate::report::CELL_METRICS {
         writeln!(out, "{:<28} {}", label, r.display(hook))?;
     }
@@ -252,7 +267,14 @@ fn sweep_cmd(args: &[String], out: Out) -> Result<(), Failure> {
     Ok(())
 }
 
-fn write_sweep(out: Out, results: &[CellResult], best: &CellResult, only_best: bool, json: bool, csv: bool) -> std::io::Result<()> {
+fn write_sweep(
+    out: Out,
+    results: &[CellResult],
+    best: &CellResult,
+    only_best: bool,
+    json: bool,
+    csv: bool,
+) -> std::io::Result<()> {
     let best_r = CellReport::from(best);
     if json {
         let mut buf = std::io::BufWriter::new(out);
@@ -273,11 +295,8 @@ fn write_sweep(out: Out, results: &[CellResult], best: &CellResult, only_best: b
         return buf.flush();
     }
     let mut buf = std::io::BufWriter::new(out);
-    let rows: Box<dyn Iterator<Item = CellReport>> = if only_best {
-        Box::new(std::iter::once(best_r))
-    } else {
-        Box::new(results.iter().map(CellReport::from))
-    };
+    let rows: Box<dyn Iterator<Item = CellReport>> =
+        if only_best { Box::new(std::iter::once(best_r)) } else { Box::new(results.iter().map(CellReport::from)) };
     if csv {
         writeln!(buf, "gap_ev,efficiency,jsc_ma_cm2,voc_v,ff,vmp_v,jmp_ma_cm2,pmax_w_m2,input_w_m2")?;
         for r in rows {
@@ -291,7 +310,15 @@ fn write_sweep(out: Out, results: &[CellResult], best: &CellResult, only_best: b
         writeln!(
             buf,
             "{:>9} {:>9} {:>11} {:>8} {:>7} {:>8} {:>11} {:>10} {:>10}",
-            "gap (eV)", "eff (%)", "Jsc (mA/cm²)", "Voc (V)", "FF", "Vmp (V)", "Jmp (mA/cm²)", "Pmax (W/m²)", "Pin (W/m²)"
+            "gap (eV)",
+            "eff (%)",
+            "Jsc (mA/cm²)",
+            "Voc (V)",
+            "FF",
+            "Vmp (V)",
+            "Jmp (mA/cm²)",
+            "Pmax (W/m²)",
+            "Pin (W/m²)"
         )?;
         for r in rows {
             writeln!(
@@ -353,7 +380,10 @@ pub(super) fn load_scenario(what: &str) -> Result<crate::scenario::Scenario, Str
     use crate::codec::{decode_link, from_json};
     let looks_like_link = |t: &str| {
         let t = t.trim();
-        let versioned = t.strip_prefix('g').and_then(|r| r.split_once('.')).is_some_and(|(v, _)| !v.is_empty() && v.bytes().all(|b| b.is_ascii_digit()));
+        let versioned = t
+            .strip_prefix('g')
+            .and_then(|r| r.split_once('.'))
+            .is_some_and(|(v, _)| !v.is_empty() && v.bytes().all(|b| b.is_ascii_digit()));
         t.contains('#') || versioned || t.starts_with("http://") || t.starts_with("https://")
     };
     let text = if what == "-" {
@@ -365,7 +395,10 @@ pub(super) fn load_scenario(what: &str) -> Result<crate::scenario::Scenario, Str
         return decode_link(what).map_err(|e| e.to_string());
     } else {
         let bytes = std::fs::read(what).map_err(|e| {
-            format!("cannot read scenario file '{what}': {}; give a share link, a scenario file or - for standard input", io_reason(&e))
+            format!(
+                "cannot read scenario file '{what}': {}; give a share link, a scenario file or - for standard input",
+                io_reason(&e)
+            )
         })?;
         String::from_utf8_lossy(&bytes).into_owned()
     };

@@ -74,7 +74,12 @@ pub fn cool(args: &[String], out: &mut dyn Write) -> Result<(), Failure> {
 
 /// Evaluate a radiator scenario and print it: JSON with `json`, else a table; with a curve
 /// step [K], also P_net(T) over the scenario's curve range.
-pub fn print_radiator(sc: &RadiatorScenario, json: bool, curve_step: Option<f64>, out: &mut dyn Write) -> Result<(), Failure> {
+pub fn print_radiator(
+    sc: &RadiatorScenario,
+    json: bool,
+    curve_step: Option<f64>,
+    out: &mut dyn Write,
+) -> Result<(), Failure> {
     let setup = sc.to_physics()?;
     warn(&setup.warnings);
     let ev = evaluate(&setup.emitter, &setup.surroundings, setup.surface_k);
@@ -82,8 +87,7 @@ pub fn print_radiator(sc: &RadiatorScenario, json: bool, curve_step: Option<f64>
     let curve = match curve_step {
         Some(step) => {
             let n = ((sc.curve_to_k - sc.curve_from_k) / step).round() as usize + 1;
-            let temps: Vec<f64> =
-                (0..n).map(|i| (sc.curve_from_k + step * i as f64).min(sc.curve_to_k)).collect();
+            let temps: Vec<f64> = (0..n).map(|i| (sc.curve_from_k + step * i as f64).min(sc.curve_to_k)).collect();
             ev.balance.curve(&temps)
         }
         None => Vec::new(),
@@ -197,7 +201,9 @@ fn apply_options(p: &Parsed, sc: &mut RadiatorScenario) -> Result<(), String> {
             Ok(v) => EmitterSpec::Grey { emissivity: v },
             Err(_) => EmitterSpec::parse(s).map_err(|e| format!("--solar: {e}"))?,
         };
-        let below = p.number("solar-below", "solar-band limit", "um")?.unwrap_or(crate::scenario::radiator::DEFAULT_SOLAR_BELOW_UM);
+        let below = p
+            .number("solar-below", "solar-band limit", "um")?
+            .unwrap_or(crate::scenario::radiator::DEFAULT_SOLAR_BELOW_UM);
         sc.solar_band = Some(SolarBandSpec { below_um: below, profile });
     } else if p.text("solar-below").is_some() {
         return Err("--solar-below sets where the solar-band profile ends and needs --solar, e.g. --solar 0.03".into());
@@ -208,7 +214,12 @@ fn apply_options(p: &Parsed, sc: &mut RadiatorScenario) -> Result<(), String> {
             None => (c, None),
         };
         let num = |s: &str, what: &str| {
-            s.trim().parse::<f64>().map_err(|_| format!("--cutoff '{c}': the {what} '{}' is not a number; write DEG[:EPS], e.g. --cutoff 60:0", s.trim()))
+            s.trim().parse::<f64>().map_err(|_| {
+                format!(
+                    "--cutoff '{c}': the {what} '{}' is not a number; write DEG[:EPS], e.g. --cutoff 60:0",
+                    s.trim()
+                )
+            })
         };
         sc.angular = AngularSpec::CutOff {
             angle_deg: num(angle, "angle")?,
@@ -254,7 +265,8 @@ pub fn resolve_files(sc: &mut RadiatorScenario, p: &Parsed) -> Result<(), String
     }
     if let SkySpec::File { path } = &sc.sky {
         let t = read_optical_file(path, FileKind::Sky, p)?;
-        sc.sky = SkySpec::Table(TransmittanceTable { name: t.name, wavelength_m: t.wavelength_m, transmittance: t.values });
+        sc.sky =
+            SkySpec::Table(TransmittanceTable { name: t.name, wavelength_m: t.wavelength_m, transmittance: t.values });
     }
     if let Some(SourceSpec::File { path }) = &sc.sun {
         sc.sun = Some(read_spectrum_file(path, p)?);
@@ -273,11 +285,17 @@ fn read_optical_file(path: &str, kind: FileKind, p: &Parsed) -> Result<OpticalTa
     };
     let mut hints = OpticalHints::default();
     if let Some(a) = p.text(&format!("{prefix}-axis")) {
-        hints.axis = Some(AxisUnit::parse(a).ok_or_else(|| format!("--{prefix}-axis '{a}' is not known; use nm, um or cm-1"))?);
+        hints.axis =
+            Some(AxisUnit::parse(a).ok_or_else(|| format!("--{prefix}-axis '{a}' is not known; use nm, um or cm-1"))?);
     }
     if let Some(v) = p.text(&format!("{prefix}-values")) {
-        let kinds = if kind == FileKind::Sky { "transmittance or transmittance%" } else { "emissivity, absorptance or reflectance, with % for percent" };
-        hints.value = Some(ValueKind::parse(v).ok_or_else(|| format!("--{prefix}-values '{v}' is not known; use {kinds}"))?);
+        let kinds = if kind == FileKind::Sky {
+            "transmittance or transmittance%"
+        } else {
+            "emissivity, absorptance or reflectance, with % for percent"
+        };
+        hints.value =
+            Some(ValueKind::parse(v).ok_or_else(|| format!("--{prefix}-values '{v}' is not known; use {kinds}"))?);
     }
     if let Some(c) = p.text(&format!("{prefix}-column")) {
         let n = c.trim().parse::<usize>().ok().filter(|n| *n >= 1).ok_or_else(|| {
@@ -286,7 +304,8 @@ fn read_optical_file(path: &str, kind: FileKind, p: &Parsed) -> Result<OpticalTa
         hints.column = Some(n);
     }
     let bytes = std::fs::read(path).map_err(|e| format!("cannot read {what} '{path}': {}", io_reason(&e)))?;
-    let name = std::path::Path::new(path).file_name().map_or_else(|| path.to_string(), |n| n.to_string_lossy().into_owned());
+    let name =
+        std::path::Path::new(path).file_name().map_or_else(|| path.to_string(), |n| n.to_string_lossy().into_owned());
     let text = String::from_utf8_lossy(&bytes);
     let parsed = match kind {
         FileKind::Emitter => parse_emissivity_csv(&text, &hints, &name),

@@ -4,7 +4,7 @@
 //! table or JSON (keys from `report::stack`).
 
 use super::args::{Parsed, Spec};
-use super::commands::{apply_common, load_scenario, read_spectrum_file, warn, write_cell_table, io_reason, Failure};
+use super::commands::{apply_common, io_reason, load_scenario, read_spectrum_file, warn, write_cell_table, Failure};
 use crate::formats::eqe_csv::parse_eqe_csv;
 use crate::physics::absorber::{ere_from_voc, solve_absorber, AbsorptanceTable};
 use crate::physics::constants::ev;
@@ -22,7 +22,8 @@ type Out<'a> = &'a mut dyn Write;
 
 /// Options of each command: its own, then the source and cell options of `cell` and `sweep`.
 const STACK_VALUED: &[&str] = super::commands::with_light_and_cell_options!("gaps", "connection");
-const OPTIMIZE_VALUED: &[&str] = super::commands::with_light_and_cell_options!("junctions", "connection", "fix", "fix-at", "from", "to");
+const OPTIMIZE_VALUED: &[&str] =
+    super::commands::with_light_and_cell_options!("junctions", "connection", "fix", "fix-at", "from", "to");
 const LOSSES_VALUED: &[&str] = super::commands::with_light_and_cell_options!("gap", "from", "to", "step");
 
 fn print_json<T: serde::Serialize>(out: Out, v: &T) -> Result<(), Failure> {
@@ -118,7 +119,15 @@ fn write_stack_table(out: Out, r: &StackReport, source: &str, sc: &CellScenario)
     writeln!(
         out,
         "{:>9} {:>9} {:>12} {:>13} {:>8} {:>12} {:>8} {:>10} {:>13}",
-        "subcell", "gap (eV)", "band to (eV)", "Jsc (mA/cm²)", "Voc (V)", "J (mA/cm²)", "V (V)", "P (W/m²)", "excess Jsc"
+        "subcell",
+        "gap (eV)",
+        "band to (eV)",
+        "Jsc (mA/cm²)",
+        "Voc (V)",
+        "J (mA/cm²)",
+        "V (V)",
+        "P (W/m²)",
+        "excess Jsc"
     )?;
     for (i, s) in r.subcells.iter().enumerate() {
         let name = if i == 0 { format!("{} top", i + 1) } else { format!("{}", i + 1) };
@@ -140,7 +149,10 @@ pub fn stack(args: &[String], out: Out) -> Result<(), Failure> {
     let spec = Spec { command: "stack", valued: STACK_VALUED, flags: &["json", "link"], max_positional: 0 };
     let p = spec.parse(args)?;
     let st = StackScenario { gaps_ev: gap_list(&p, "stack")?, connection: connection(&p)?, ..Default::default() };
-    let mut sc = CellScenario { gap_ev: st.gaps_ev.first().copied().unwrap_or(1.34).clamp(GAP_RANGE_EV.0, GAP_RANGE_EV.1), ..Default::default() };
+    let mut sc = CellScenario {
+        gap_ev: st.gaps_ev.first().copied().unwrap_or(1.34).clamp(GAP_RANGE_EV.0, GAP_RANGE_EV.1),
+        ..Default::default()
+    };
     apply_common(&p, &mut sc)?;
     let setup = st.to_physics(&sc)?;
     warn(&setup.warnings);
@@ -168,7 +180,11 @@ pub fn optimize(args: &[String], out: Out) -> Result<(), Failure> {
     if !((1.0..=6.0).contains(&n) && n.fract() == 0.0) {
         return Err(Failure::Usage(format!("--junctions {n} is not usable; give a whole number from 1 to 6")));
     }
-    let mut settings = OptimizeSettings { junctions: n as usize, fix_ev: p.number("fix", "fixed band gap", "eV")?, ..Default::default() };
+    let mut settings = OptimizeSettings {
+        junctions: n as usize,
+        fix_ev: p.number("fix", "fixed band gap", "eV")?,
+        ..Default::default()
+    };
     if let Some(a) = p.text("fix-at") {
         if settings.fix_ev.is_none() {
             return Err(Failure::Usage("--fix-at applies only with --fix EV (the gap held fixed)".into()));
@@ -205,7 +221,16 @@ pub fn optimize(args: &[String], out: Out) -> Result<(), Failure> {
     let gaps: Vec<String> = report.gaps_ev.iter().map(|g| format!("{g:.4}")).collect();
     writeln!(out, "{:<28} {} junction(s), {}", "Best stack", report.junctions, connection_words(conn))?;
     if let Some(f) = settings.fix_ev {
-        writeln!(out, "{:<28} {f} eV ({})", "Fixed gap", match settings.fix_at { FixAt::Any => "anywhere", FixAt::Top => "top cell", FixAt::Bottom => "bottom cell" })?;
+        writeln!(
+            out,
+            "{:<28} {f} eV ({})",
+            "Fixed gap",
+            match settings.fix_at {
+                FixAt::Any => "anywhere",
+                FixAt::Top => "top cell",
+                FixAt::Bottom => "bottom cell",
+            }
+        )?;
     }
     writeln!(out, "{:<28} {} eV", "Gaps (top first)", gaps.join(", "))?;
     writeln!(out, "{:<28} {:.3} %", "Efficiency", report.efficiency * 100.0)?;
@@ -234,9 +259,13 @@ fn read_eqe_file(spec: &str, option: &str) -> Result<AbsorptanceTable, String> {
     if path.trim().is_empty() {
         return Err(format!("{option} needs a file, e.g. {option} file:eqe.csv"));
     }
-    let bytes = std::fs::read(path).map_err(|e| format!("cannot read quantum-efficiency file '{path}': {}", io_reason(&e)))?;
+    let bytes =
+        std::fs::read(path).map_err(|e| format!("cannot read quantum-efficiency file '{path}': {}", io_reason(&e)))?;
     let text = String::from_utf8_lossy(&bytes);
-    let name = std::path::Path::new(path).file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_else(|| path.to_string());
+    let name = std::path::Path::new(path)
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_else(|| path.to_string());
     parse_eqe_csv(&text, &name).map_err(|e| format!("quantum-efficiency file '{path}': {e}"))
 }
 
@@ -244,7 +273,15 @@ fn read_eqe_file(spec: &str, option: &str) -> Result<AbsorptanceTable, String> {
 pub fn mismatch(args: &[String], out: Out) -> Result<(), Failure> {
     let spec = Spec {
         command: "mismatch",
-        valued: &["test-eqe", "ref-eqe", "spectrum", "reference", "spectrum-axis", "spectrum-values", "spectrum-column"],
+        valued: &[
+            "test-eqe",
+            "ref-eqe",
+            "spectrum",
+            "reference",
+            "spectrum-axis",
+            "spectrum-values",
+            "spectrum-column",
+        ],
         flags: &["json"],
         max_positional: 0,
     };
@@ -254,8 +291,14 @@ pub fn mismatch(args: &[String], out: Out) -> Result<(), Failure> {
             Failure::Usage(format!("'glowgap mismatch' needs --{name}: {what}, e.g. --{name} file:eqe.csv"))
         })
     };
-    let test = read_eqe_file(&need("test-eqe", "the quantum efficiency (or A/W response) of the device under test")?, "--test-eqe")?;
-    let reference = read_eqe_file(&need("ref-eqe", "the quantum efficiency (or A/W response) of the reference device")?, "--ref-eqe")?;
+    let test = read_eqe_file(
+        &need("test-eqe", "the quantum efficiency (or A/W response) of the device under test")?,
+        "--test-eqe",
+    )?;
+    let reference = read_eqe_file(
+        &need("ref-eqe", "the quantum efficiency (or A/W response) of the reference device")?,
+        "--ref-eqe",
+    )?;
     let Some(test_spec) = p.text("spectrum") else {
         return Err(Failure::Usage(
             "'glowgap mismatch' needs --spectrum: the spectrum the measurement is made under (e.g. a simulator's, --spectrum file:simulator.csv)".into(),
@@ -271,13 +314,15 @@ pub fn mismatch(args: &[String], out: Out) -> Result<(), Failure> {
     };
     if let Some(r) = p.text("reference") {
         settings.reference_spectrum = match SourceSpec::parse(r)? {
-            SourceSpec::File { path } => read_spectrum_file(&path, &Parsed::default())
-                .map_err(|e| format!("--reference: {e}"))?,
+            SourceSpec::File { path } => {
+                read_spectrum_file(&path, &Parsed::default()).map_err(|e| format!("--reference: {e}"))?
+            }
             other => other,
         };
     }
     let setup = settings.to_physics(&sc.spectrum)?;
-    let m = mismatch_factor(&setup.test_device, &setup.reference_device, &setup.test_spectrum, &setup.reference_spectrum)?;
+    let m =
+        mismatch_factor(&setup.test_device, &setup.reference_device, &setup.test_spectrum, &setup.reference_spectrum)?;
     let report = MismatchReport::new(&m, setup.test_spectrum.name(), setup.reference_spectrum.name());
     if p.flag("json") {
         return print_json(out, &report);
@@ -304,7 +349,11 @@ pub fn losses(args: &[String], out: Out) -> Result<(), Failure> {
     if p.flag("json") && p.flag("csv") {
         return Err(Failure::Usage("'glowgap losses': choose one of --json and --csv".into()));
     }
-    let range = [p.number("from", "first band gap", "eV")?, p.number("to", "last band gap", "eV")?, p.number("step", "band-gap step", "eV")?];
+    let range = [
+        p.number("from", "first band gap", "eV")?,
+        p.number("to", "last band gap", "eV")?,
+        p.number("step", "band-gap step", "eV")?,
+    ];
     let gap = p.number("gap", "band gap", "eV")?;
     let gaps_ev: Vec<f64> = match (gap, range) {
         (Some(g), [None, None, None]) => vec![g],
@@ -316,7 +365,10 @@ pub fn losses(args: &[String], out: Out) -> Result<(), Failure> {
             }
             let n = ((b - a) / s).round();
             if n + 1.0 > 100_000.0 {
-                return Err(Failure::Usage(format!("that range has {} points; the most is 100000: use a larger --step", n + 1.0)));
+                return Err(Failure::Usage(format!(
+                    "that range has {} points; the most is 100000: use a larger --step",
+                    n + 1.0
+                )));
             }
             (0..=n as usize).map(|i| if i == n as usize { b } else { a + s * i as f64 }).collect()
         }
@@ -341,7 +393,14 @@ pub fn losses(args: &[String], out: Out) -> Result<(), Failure> {
         if p.flag("csv") {
             return write_loss_csv(out, &[report]);
         }
-        writeln!(out, "Band gap {:.4} eV, {} at {}, {}", report.gap_ev, setup.light.source.name(), suns(sc.concentration), cell_line(&sc))?;
+        writeln!(
+            out,
+            "Band gap {:.4} eV, {} at {}, {}",
+            report.gap_ev,
+            setup.light.source.name(),
+            suns(sc.concentration),
+            cell_line(&sc)
+        )?;
         writeln!(out, "{:<32} {:>12} {:>8}", "", "W/m²", "%")?;
         let pct = |v: f64| if report.input_w_m2 > 0.0 { 100.0 * v / report.input_w_m2 } else { 0.0 };
         for (label, v) in report.parts() {
@@ -349,7 +408,11 @@ pub fn losses(args: &[String], out: Out) -> Result<(), Failure> {
         }
         writeln!(out, "{:<32} {:>12.3} {:>8.2}", "Sum", report.sum_w_m2, pct(report.sum_w_m2))?;
         writeln!(out, "{:<32} {:>12.3}", "Incident power", report.input_w_m2)?;
-        writeln!(out, "Carnot factor with a {} K source; etendue ratio {:.6e}", report.source_temp_k, report.etendue_ratio)?;
+        writeln!(
+            out,
+            "Carnot factor with a {} K source; etendue ratio {:.6e}",
+            report.source_temp_k, report.etendue_ratio
+        )?;
         return Ok(());
     }
     let gaps_j: Vec<f64> = gaps_ev.iter().map(|&g| ev(g)).collect();
@@ -367,8 +430,16 @@ fn write_loss_csv(out: Out, rows: &[LossReport]) -> Result<(), Failure> {
         writeln!(
             buf,
             "{},{},{},{},{},{},{},{},{},{}",
-            r.gap_ev, r.input_w_m2, r.below_gap_w_m2, r.thermalization_w_m2, r.emission_w_m2, r.carnot_w_m2, r.boltzmann_w_m2,
-            r.delivered_w_m2, r.sum_w_m2, r.efficiency
+            r.gap_ev,
+            r.input_w_m2,
+            r.below_gap_w_m2,
+            r.thermalization_w_m2,
+            r.emission_w_m2,
+            r.carnot_w_m2,
+            r.boltzmann_w_m2,
+            r.delivered_w_m2,
+            r.sum_w_m2,
+            r.efficiency
         )?;
     }
     buf.flush()?;
@@ -395,7 +466,9 @@ pub fn wants_absorber(p: &Parsed) -> bool {
 pub fn cell_with_absorber(p: &Parsed, sc: CellScenario, out: Out) -> Result<(), Failure> {
     let absorber = match (p.text("eqe"), p.number("urbach", "Urbach energy", "meV")?) {
         (Some(_), Some(_)) => {
-            return Err(Failure::Usage("give one of --eqe (a measured absorptance) and --urbach (a modelled tail), not both".into()))
+            return Err(Failure::Usage(
+                "give one of --eqe (a measured absorptance) and --urbach (a modelled tail), not both".into(),
+            ))
         }
         (Some(f), None) => AbsorberSpec::Measured(EqeTableSpec::from_table(&read_eqe_file(f, "--eqe")?)),
         (None, Some(u)) => AbsorberSpec::Urbach { urbach_mev: u },
@@ -410,11 +483,14 @@ pub fn cell_with_absorber(p: &Parsed, sc: CellScenario, out: Out) -> Result<(), 
     let measured = p.number("measured-voc", "measured open-circuit voltage", "V")?;
     if let Some(v) = measured {
         if !(v > 0.0) {
-            return Err(Failure::Usage(format!("--measured-voc {v} must be a positive voltage in V, e.g. --measured-voc 1.1")));
+            return Err(Failure::Usage(format!(
+                "--measured-voc {v} must be a positive voltage in V, e.g. --measured-voc 1.1"
+            )));
         }
     }
     if p.flag("link") {
-        let scenario = Scenario { cell: sc, stack: StackScenario { absorber, ..Default::default() }, ..Default::default() };
+        let scenario =
+            Scenario { cell: sc, stack: StackScenario { absorber, ..Default::default() }, ..Default::default() };
         writeln!(out, "{}", crate::codec::encode_fragment(&scenario))?;
         return Ok(());
     }
@@ -450,12 +526,20 @@ fn write_absorber_cell(scenario: &Scenario, measured_voc: Option<f64>, json: boo
         return print_json(out, &report);
     }
     // a non-step absorptance follows the reciprocity law J0 (e^(qV/kT) - 1), the Boltzmann form
-    let shown = if scenario.stack.absorber.is_step() { sc.clone() } else { CellScenario { approx: JvModel::Boltzmann, ..sc.clone() } };
+    let shown = if scenario.stack.absorber.is_step() {
+        sc.clone()
+    } else {
+        CellScenario { approx: JvModel::Boltzmann, ..sc.clone() }
+    };
     write_cell_table(out, &report.cell, &setup.light.source.name(), &shown)?;
     let what = match &scenario.stack.absorber {
         AbsorberSpec::Step => "step at the band gap".to_string(),
-        AbsorberSpec::Urbach { urbach_mev } => format!("step with an Urbach tail of {urbach_mev} meV (reciprocity J-V)"),
-        AbsorberSpec::Measured(t) => format!("measured EQE '{}' (reciprocity J-V; gap shown: half-maximum edge)", t.name),
+        AbsorberSpec::Urbach { urbach_mev } => {
+            format!("step with an Urbach tail of {urbach_mev} meV (reciprocity J-V)")
+        }
+        AbsorberSpec::Measured(t) => {
+            format!("measured EQE '{}' (reciprocity J-V; gap shown: half-maximum edge)", t.name)
+        }
     };
     writeln!(out, "{:<28} {}", "Absorptance", what)?;
     match report.log10_j0_rad_ma_cm2 {
@@ -465,8 +549,12 @@ fn write_absorber_cell(scenario: &Scenario, measured_voc: Option<f64>, json: boo
     writeln!(out, "{:<28} {:.4} V", "Radiative-limit Voc", report.voc_rad_v)?;
     writeln!(out, "{:<28} {:.4} V", "Non-radiative Voc loss", report.nonrad_voc_loss_v)?;
     if let (Some(v), Some(loss)) = (report.measured_voc_v, report.measured_nonrad_voc_loss_v) {
-        writeln!(out, "{:<28} {v:.4} V: loss {loss:.4} V, ERE {}", "Measured Voc",
-            report.ere_from_voc.map(|e| format!("{e:.3e}")).unwrap_or_else(|| "-".into()))?;
+        writeln!(
+            out,
+            "{:<28} {v:.4} V: loss {loss:.4} V, ERE {}",
+            "Measured Voc",
+            report.ere_from_voc.map(|e| format!("{e:.3e}")).unwrap_or_else(|| "-".into())
+        )?;
     }
     Ok(())
 }
@@ -474,7 +562,10 @@ fn write_absorber_cell(scenario: &Scenario, measured_voc: Option<f64>, json: boo
 /// `glowgap eval LINK --stack`: the stack figures of a scenario.
 pub fn eval_stack(what: &str, json: bool, out: Out) -> Result<(), Failure> {
     let scenario = load_scenario(what)?;
-    let setup = scenario.stack.to_physics(&scenario.cell).map_err(|e| format!("the scenario's stack cannot be computed: {e}"))?;
+    let setup = scenario
+        .stack
+        .to_physics(&scenario.cell)
+        .map_err(|e| format!("the scenario's stack cannot be computed: {e}"))?;
     warn(&setup.warnings);
     let r = solve_stack(&setup.light, &setup.cell, &setup.gaps_j, setup.connection);
     let report = with_gaps_as_given(StackReport::from(&r), &scenario.stack.gaps_ev);

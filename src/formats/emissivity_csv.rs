@@ -20,8 +20,8 @@
 use std::fmt;
 
 use super::spectrum_csv::{
-    axis_unit_from_name, check_distinct, name_words, quoted, scan_table, AxisUnit, CsvError, TablePoints,
-    TableWords, MAX_DATA_ROWS,
+    axis_unit_from_name, check_distinct, name_words, quoted, scan_table, AxisUnit, CsvError, TablePoints, TableWords,
+    MAX_DATA_ROWS,
 };
 use crate::physics::constants::HC;
 
@@ -82,10 +82,8 @@ impl ValueKind {
         let t = text.trim();
         let lower = t.to_lowercase();
         let percent = lower.contains('%') || lower.contains("percent");
-        let quantity = lower
-            .split(|c: char| !c.is_alphabetic())
-            .filter(|w| !w.is_empty())
-            .find_map(OpticalQuantity::from_word)?;
+        let quantity =
+            lower.split(|c: char| !c.is_alphabetic()).filter(|w| !w.is_empty()).find_map(OpticalQuantity::from_word)?;
         Some(ValueKind { quantity, percent })
     }
 
@@ -162,11 +160,13 @@ fn header_example(opts: &OptionNames) -> &'static str {
 /// Read a table of emissivity (or absorptance, or reflectance converted to 1 - R) of an
 /// opaque emitter.
 pub fn parse_emissivity_csv(text: &str, hints: &OpticalHints, name: &str) -> Result<OpticalTable, CsvError> {
-    read_optical(text, hints, name, &EMITTER_OPTIONS, &[
-        OpticalQuantity::Emissivity,
-        OpticalQuantity::Absorptance,
-        OpticalQuantity::Reflectance,
-    ])
+    read_optical(
+        text,
+        hints,
+        name,
+        &EMITTER_OPTIONS,
+        &[OpticalQuantity::Emissivity, OpticalQuantity::Absorptance, OpticalQuantity::Reflectance],
+    )
 }
 
 /// Read a table of the sky's zenith transmittance.
@@ -253,10 +253,12 @@ fn read_optical(
             };
             return Err(CsvError::at(
                 line,
-                format!("the {} {as_written} exceeds {}; values lie from 0 to {}: {hint}",
+                format!(
+                    "the {} {as_written} exceeds {}; values lie from 0 to {}: {hint}",
                     kind.quantity,
                     if kind.percent { "100 %" } else { "1" },
-                    if kind.percent { "100 %" } else { "1" }),
+                    if kind.percent { "100 %" } else { "1" }
+                ),
             ));
         }
         let value = match kind.quantity {
@@ -337,7 +339,8 @@ mod tests {
         assert!(e.message.contains("--sky file"), "{e}");
         let e = emis("1,0.5\n2,0.5\n").unwrap_err();
         assert!(e.message.contains("--emitter-axis"), "{e}");
-        let e = parse_transmittance_csv("wavelength_um,emissivity\n1,0.5\n2,0.5\n", &OpticalHints::default(), "s").unwrap_err();
+        let e = parse_transmittance_csv("wavelength_um,emissivity\n1,0.5\n2,0.5\n", &OpticalHints::default(), "s")
+            .unwrap_err();
         assert!(e.message.contains("--emitter file"), "{e}");
     }
 

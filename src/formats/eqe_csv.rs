@@ -11,8 +11,8 @@
 //! [`AbsorptanceTable`] on the file's axis, linear between its points, zero outside.
 
 use super::spectrum_csv::{
-    axis_unit_from_name, bracket_contents, check_distinct, compact_unit_text, name_words, quoted, scan_table,
-    CsvError, TablePoints, TableWords, MAX_DATA_ROWS,
+    axis_unit_from_name, bracket_contents, check_distinct, compact_unit_text, name_words, quoted, scan_table, CsvError,
+    TablePoints, TableWords, MAX_DATA_ROWS,
 };
 use crate::physics::absorber::AbsorptanceTable;
 use crate::physics::constants::CHARGE;

@@ -43,8 +43,7 @@ pub const AXIS_UNITS_HELP: &str = "nm, um, eV or cm-1";
 pub const VALUE_UNITS_HELP: &str = "W/m2/nm, W/m2/um, W/m2/eV, W/m2/cm-1, photons/m2/s/nm, \
 photons/m2/s/um, photons/m2/s/eV or photons/m2/s/cm-1, each also with cm2 in place of m2";
 
-const HEADER_EXAMPLE: &str =
-    "'wavelength_nm,irradiance_W_m2_nm' or 'Wavelength (nm), Irradiance (W m-2 nm-1)'";
+const HEADER_EXAMPLE: &str = "'wavelength_nm,irradiance_W_m2_nm' or 'Wavelength (nm), Irradiance (W m-2 nm-1)'";
 
 // ---------------------------------------------------------------------------------------------
 // Units
@@ -78,9 +77,7 @@ impl AxisUnit {
             "ev" | "electronvolt" | "electronvolts" | "electron-volt" | "electron-volts" => {
                 Some(AxisUnit::Electronvolt)
             }
-            "cm-1" | "cm^-1" | "1/cm" | "/cm" | "percm" | "wavenumber" | "wavenumbers" => {
-                Some(AxisUnit::PerCentimetre)
-            }
+            "cm-1" | "cm^-1" | "1/cm" | "/cm" | "percm" | "wavenumber" | "wavenumbers" => Some(AxisUnit::PerCentimetre),
             _ => None,
         }
     }
@@ -242,7 +239,10 @@ impl fmt::Display for ValueUnit {
 /// A unit name as one lower-case token: [`normalize_unit_text`] without whitespace and
 /// brackets, so that `( nm )`, `[nm]` and `nm` read alike.
 pub(crate) fn compact_unit_text(s: &str) -> String {
-    normalize_unit_text(s).chars().filter(|c| !c.is_whitespace() && !matches!(c, '(' | ')' | '[' | ']' | '{' | '}')).collect()
+    normalize_unit_text(s)
+        .chars()
+        .filter(|c| !c.is_whitespace() && !matches!(c, '(' | ')' | '[' | ']' | '{' | '}'))
+        .collect()
 }
 
 /// Lower-case, with micro signs as `u`, superscript digits and signs as plain ones, unicode
@@ -462,10 +462,9 @@ fn classify_factors(factors: &[Factor]) -> Option<ValueUnit> {
             ("nm" | "nanometre" | "nanometres" | "nanometer" | "nanometers", -1) => {
                 once(&mut per, AxisUnit::Nanometre)?
             }
-            (
-                "um" | "micron" | "microns" | "micrometre" | "micrometres" | "micrometer" | "micrometers",
-                -1,
-            ) => once(&mut per, AxisUnit::Micrometre)?,
+            ("um" | "micron" | "microns" | "micrometre" | "micrometres" | "micrometer" | "micrometers", -1) => {
+                once(&mut per, AxisUnit::Micrometre)?
+            }
             ("ev" | "electronvolt" | "electronvolts", -1) => once(&mut per, AxisUnit::Electronvolt)?,
             // per (cm^-1) is a factor of cm; "per wavenumber" names the same thing
             ("cm" | "centimetre" | "centimetres" | "centimeter" | "centimeters", 1)
@@ -993,8 +992,7 @@ impl TableScan<'_> {
                 match direction {
                     None => direction = Some((up, pline)),
                     Some((ascending, from)) if ascending != up => {
-                        let (was, now) =
-                            if ascending { ("ascends", "goes down") } else { ("descends", "goes up") };
+                        let (was, now) = if ascending { ("ascends", "goes down") } else { ("descends", "goes up") };
                         return Err(CsvError::at(
                             d.line,
                             format!(
@@ -1226,15 +1224,19 @@ fn units_of_kind(a: Axis) -> &'static str {
 }
 
 fn missing_axis_unit(header_line: Option<usize>, name: Option<&str>) -> CsvError {
-    let fix = format!(
-        "put the unit in the header, e.g. {HEADER_EXAMPLE}, or give {AXIS_OPTION} UNIT ({AXIS_UNITS_HELP})"
-    );
+    let fix =
+        format!("put the unit in the header, e.g. {HEADER_EXAMPLE}, or give {AXIS_OPTION} UNIT ({AXIS_UNITS_HELP})");
     match (header_line, name) {
         (Some(h), Some(n)) => CsvError::at(
             h,
-            format!("the unit of the spectral axis is missing: column 0 is named {} with no recognised unit; {fix}", quoted(n)),
+            format!(
+                "the unit of the spectral axis is missing: column 0 is named {} with no recognised unit; {fix}",
+                quoted(n)
+            ),
         ),
-        (Some(h), None) => CsvError::at(h, format!("the unit of the spectral axis is missing: the header names no columns; {fix}")),
+        (Some(h), None) => {
+            CsvError::at(h, format!("the unit of the spectral axis is missing: the header names no columns; {fix}"))
+        }
         _ => CsvError::general(format!(
             "the unit of the spectral axis is missing: the file has no header line \
              (a header must not start with '#', '%' or '//', which mark comments); {fix}"
@@ -1256,10 +1258,9 @@ fn missing_value_unit(header_line: Option<usize>, col: usize, name: Option<&str>
                 quoted(n)
             ),
         ),
-        (Some(h), None) => CsvError::at(
-            h,
-            format!("the unit of the values is missing: the header names no column {col}; {fix}"),
-        ),
+        (Some(h), None) => {
+            CsvError::at(h, format!("the unit of the values is missing: the header names no column {col}; {fix}"))
+        }
         _ => CsvError::general(format!(
             "the unit of the values is missing: the file has no header line \
              (a header must not start with '#', '%' or '//', which mark comments); {fix}"
@@ -1417,14 +1418,8 @@ mod tests {
         assert_eq!(value_unit_from_name("W/m2/cm-1"), Some(irr(PerCentimetre)));
         assert_eq!(value_unit_from_name("E [W/m^2/um]"), Some(irr(Micrometre)));
         assert_eq!(value_unit_from_name("Global tilt  W*m-2*nm-1"), Some(irr(Nanometre)));
-        assert_eq!(
-            value_unit_from_name("photon_flux_per_m2_s_eV"),
-            Some(ValueUnit::photon_flux(Electronvolt))
-        );
-        assert_eq!(
-            value_unit_from_name("Photon flux (per m2 s nm)"),
-            Some(ValueUnit::photon_flux(Nanometre))
-        );
+        assert_eq!(value_unit_from_name("photon_flux_per_m2_s_eV"), Some(ValueUnit::photon_flux(Electronvolt)));
+        assert_eq!(value_unit_from_name("Photon flux (per m2 s nm)"), Some(ValueUnit::photon_flux(Nanometre)));
         assert_eq!(value_unit_from_name("spectral irradiance per m2 nm"), Some(irr(Nanometre)));
         assert_eq!(value_unit_from_name("global"), None);
         assert_eq!(value_unit_from_name("flux_per_m2_s_eV"), None);
@@ -1515,22 +1510,18 @@ mod tests {
         // default: the first value column
         let s = parse_spectrum_csv(text, &ColumnHints { axis, value, column: None }, "x").unwrap();
         assert!(rel(s.total_power(), 400.0) < 1e-12);
-        for (col, want, label) in
-            [(1, 400.0, "'extraterrestrial'"), (2, 200.0, "'global'"), (3, 100.0, "'direct'")]
-        {
+        for (col, want, label) in [(1, 400.0, "'extraterrestrial'"), (2, 200.0, "'global'"), (3, 100.0, "'direct'")] {
             let s = parse_spectrum_csv(text, &ColumnHints { axis, value, column: Some(col) }, "x").unwrap();
             assert!(rel(s.total_power(), want) < 1e-12, "column {col}");
             assert!(s.provenance.ends_with(&format!("column {col} {label}")), "{}", s.provenance);
         }
         // the header gives no value unit: the error says so and names the option
-        let e = parse_spectrum_csv(text, &ColumnHints { column: Some(2), ..Default::default() }, "x")
-            .unwrap_err();
+        let e = parse_spectrum_csv(text, &ColumnHints { column: Some(2), ..Default::default() }, "x").unwrap_err();
         assert_eq!(e.line, Some(1));
         assert!(e.message.contains("'global'") && e.message.contains(VALUES_OPTION), "{e}");
         // per-column units in the header
         let text2 = "Wavelength (nm), ETR (W m-2 nm-1), Global (W m-2 nm-1)\n400,2,1\n500,2,1\n";
-        let s =
-            parse_spectrum_csv(text2, &ColumnHints { column: Some(2), ..Default::default() }, "x").unwrap();
+        let s = parse_spectrum_csv(text2, &ColumnHints { column: Some(2), ..Default::default() }, "x").unwrap();
         assert!(rel(s.total_power(), 100.0) < 1e-12);
         // column out of range, column 0
         let e = parse_spectrum_csv(text, &ColumnHints { axis, value, column: Some(4) }, "x").unwrap_err();
@@ -1817,10 +1808,8 @@ mod tests {
                 let _ = parse_spectrum_csv(t, h, "x");
             }
         }
-        for s in [
-            "^", "m^", "m^(", "m^(-", "m^(-1", "(", ")", "/", "per", "per2", "1", "11/cm", "m99999", "#^2",
-            "𝔪",
-        ] {
+        for s in ["^", "m^", "m^(", "m^(-", "m^(-1", "(", ")", "/", "per", "per2", "1", "11/cm", "m99999", "#^2", "𝔪"]
+        {
             let _ = ValueUnit::parse(s);
             let _ = AxisUnit::parse(s);
         }

@@ -68,14 +68,13 @@ impl AbsorptanceTable {
                 return Err(format!("point {} has a spectral coordinate that is not a positive number", i + 1));
             }
             if i > 0 && !(x[i] > x[i - 1]) {
-                return Err(format!("point {} does not increase along the spectral axis (sort the points, without duplicates)", i + 1));
+                return Err(format!(
+                    "point {} does not increase along the spectral axis (sort the points, without duplicates)",
+                    i + 1
+                ));
             }
             if !(a[i] >= 0.0 && a[i] <= 1.0) {
-                return Err(format!(
-                    "point {} has a quantum efficiency {} outside 0 to 1 (0 to 100 %)",
-                    i + 1,
-                    a[i]
-                ));
+                return Err(format!("point {} has a quantum efficiency {} outside 0 to 1 (0 to 100 %)", i + 1, a[i]));
             }
         }
         let a = a.into_iter().map(|v| v + 0.0).collect();
@@ -195,8 +194,10 @@ impl Absorptance {
 // ------------------------------------------------------------------------ quadrature
 
 /// Gauss-Legendre nodes and weights on [-1, 1], 8 points (half shown, symmetric).
-const GL_X: [f64; 4] = [0.183_434_642_495_649_78, 0.525_532_409_916_329, 0.796_666_477_413_626_7, 0.960_289_856_497_536_2];
-const GL_W: [f64; 4] = [0.362_683_783_378_361_66, 0.313_706_645_877_886_9, 0.222_381_034_453_374_43, 0.101_228_536_290_377_06];
+const GL_X: [f64; 4] =
+    [0.183_434_642_495_649_78, 0.525_532_409_916_329, 0.796_666_477_413_626_7, 0.960_289_856_497_536_2];
+const GL_W: [f64; 4] =
+    [0.362_683_783_378_361_66, 0.313_706_645_877_886_9, 0.222_381_034_453_374_43, 0.101_228_536_290_377_06];
 
 /// The 8 (node, weight) pairs of the rule on [a, b].
 #[inline]
@@ -346,7 +347,8 @@ pub fn ln_dark_current(a: &Absorptance, temp_k: f64, emission: Emission) -> f64 
             let rate = 1.0 / eu - 1.0 / kt;
             let lo = if rate > 0.0 { (g - 50.0 / rate).max(0.0) } else { 0.0 };
             let cuts = cut_points(lo, g, []);
-            let tail = log_quadrature(&panels(&cuts, 0.5 * eu.min(kt), |a, b| b - a), |e| ln_integrand(e, (e - g) / eu));
+            let tail =
+                log_quadrature(&panels(&cuts, 0.5 * eu.min(kt), |a, b| b - a), |e| ln_integrand(e, (e - g) / eu));
             ln_pre + log_add(ln_step(g), tail)
         }
         Absorptance::Table(t) => {
@@ -438,7 +440,11 @@ pub fn solve_reciprocity(light: &Illumination, a: &Absorptance, cell: &Cell) -> 
     let input = light.input_power();
     let gap_j = if a.is_valid() { a.edge_j() } else { 0.0 };
     if !a.is_valid() || !(cell.temp_k > 0.0 && cell.temp_k.is_finite()) || !(cell.ere > 0.0) {
-        return AbsorberResult { cell: CellResult { gap_j, input, ..Default::default() }, ln_j0: f64::NEG_INFINITY, ..Default::default() };
+        return AbsorberResult {
+            cell: CellResult { gap_j, input, ..Default::default() },
+            ln_j0: f64::NEG_INFINITY,
+            ..Default::default()
+        };
     }
     let ere = cell.ere.min(1.0);
     let jsc = photocurrent(light, a);
@@ -457,7 +463,13 @@ pub fn solve_absorber(light: &Illumination, a: &Absorptance, cell: &Cell) -> Abs
             let r = solve_cell(light, &c);
             let rad = solve_cell(light, &Cell { ere: 1.0, ..c });
             let ln_j0 = ln_dark_current(a, cell.temp_k, cell.emission);
-            AbsorberResult { cell: r, ln_j0, j0: ln_j0.exp(), voc_rad: rad.voc, nonrad_voc_loss: (rad.voc - r.voc).max(0.0) }
+            AbsorberResult {
+                cell: r,
+                ln_j0,
+                j0: ln_j0.exp(),
+                voc_rad: rad.voc,
+                nonrad_voc_loss: (rad.voc - r.voc).max(0.0),
+            }
         }
         _ => solve_reciprocity(light, a, &Cell { model: JvModel::Boltzmann, ..*cell }),
     }

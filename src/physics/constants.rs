@@ -19,14 +19,12 @@ pub const CHARGE: f64 = 1.602_176_634e-19;
 pub const HC: f64 = PLANCK * LIGHT_SPEED;
 
 /// Stefan-Boltzmann constant sigma = 2 pi^5 k^4 / (15 h^3 c^2) [W m^-2 K^-4].
-pub const STEFAN_BOLTZMANN: f64 = 2.0 * PI * PI * PI * PI * PI * BOLTZMANN * BOLTZMANN * BOLTZMANN
-    * BOLTZMANN
+pub const STEFAN_BOLTZMANN: f64 = 2.0 * PI * PI * PI * PI * PI * BOLTZMANN * BOLTZMANN * BOLTZMANN * BOLTZMANN
     / (15.0 * PLANCK * PLANCK * PLANCK * LIGHT_SPEED * LIGHT_SPEED);
 
 /// 2 pi / (h^3 c^2) [J^-3 m^-2 s^-1]: the prefactor of the hemispherical photon flux per unit
 /// photon energy of a black surface, phi(E) = PHOTON_FLUX_PREFACTOR * E^2 / (exp(E/kT) - 1).
-pub const PHOTON_FLUX_PREFACTOR: f64 =
-    2.0 * PI / (PLANCK * PLANCK * PLANCK * LIGHT_SPEED * LIGHT_SPEED);
+pub const PHOTON_FLUX_PREFACTOR: f64 = 2.0 * PI / (PLANCK * PLANCK * PLANCK * LIGHT_SPEED * LIGHT_SPEED);
 
 /// Nominal solar radius R_sun [m] (IAU 2015 Resolution B3).
 pub const SOLAR_RADIUS: f64 = 6.957e8;
@@ -38,8 +36,7 @@ pub const SUN_EFFECTIVE_TEMPERATURE: f64 = 5772.0;
 /// Geometric dilution of sunlight at 1 au, f = (R_sun / au)^2 (dimensionless, about 2.16e-5).
 /// A flat receiver facing a uniform disc of angular radius theta receives sin^2(theta) times
 /// the hemispherical exitance of the disc; sin(theta) = R_sun / au.
-pub const SUN_DILUTION: f64 =
-    (SOLAR_RADIUS / ASTRONOMICAL_UNIT) * (SOLAR_RADIUS / ASTRONOMICAL_UNIT);
+pub const SUN_DILUTION: f64 = (SOLAR_RADIUS / ASTRONOMICAL_UNIT) * (SOLAR_RADIUS / ASTRONOMICAL_UNIT);
 
 /// The highest concentration of the sun's disc that etendue conservation allows, 1 / f
 /// (about 46,200).

@@ -337,7 +337,8 @@ impl Diode {
     pub fn with_photocurrent(&self, jsc: f64) -> Diode {
         let mut d = *self;
         d.jsc = jsc;
-        d.ln_target = if d.r0 > 0.0 && jsc < 1e300 { (d.ere * jsc + d.r0).ln() } else { ln_target(d.ere * jsc, d.ln_r0) };
+        d.ln_target =
+            if d.r0 > 0.0 && jsc < 1e300 { (d.ere * jsc + d.r0).ln() } else { ln_target(d.ere * jsc, d.ln_r0) };
         d
     }
 

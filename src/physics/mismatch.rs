@@ -77,7 +77,10 @@ pub fn mismatch_factor(
     }
     let factor = (tt / tr) * (rr / rt);
     if !factor.is_finite() {
-        return Err("the mismatch factor is out of the representable range; check the units of the responses and spectra".into());
+        return Err(
+            "the mismatch factor is out of the representable range; check the units of the responses and spectra"
+                .into(),
+        );
     }
     Ok(Mismatch {
         factor,

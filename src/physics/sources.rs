@@ -54,8 +54,7 @@ fn parse_g173(column: G173Column) -> Spectrum {
         G173Column::Global => format!("{G173_PROVENANCE}, global tilt 37 deg column"),
         G173Column::Direct => format!("{G173_PROVENANCE}, direct + circumsolar column"),
     };
-    Spectrum::new(name, prov, Axis::Wavelength, Quantity::Irradiance, x, y)
-        .expect("the shipped G173 table is valid")
+    Spectrum::new(name, prov, Axis::Wavelength, Quantity::Irradiance, x, y).expect("the shipped G173 table is valid")
 }
 
 /// The G173 column as a shared, parsed-once spectrum.
@@ -122,9 +121,7 @@ impl Source {
     pub fn photon_flux_above(&self, e_j: f64) -> f64 {
         match self {
             Source::Table { spectrum, .. } => spectrum.photon_flux_above(e_j),
-            Source::BlackbodySun { temp_k } => {
-                SUN_DILUTION * band_photon_flux_energy(e_j, f64::INFINITY, *temp_k)
-            }
+            Source::BlackbodySun { temp_k } => SUN_DILUTION * band_photon_flux_energy(e_j, f64::INFINITY, *temp_k),
         }
     }
 
@@ -155,11 +152,12 @@ impl Source {
                     Quantity::Irradiance => v,
                     Quantity::PhotonFlux => v * e_j,
                 };
-                per_u * match axis {
-                    Axis::Wavelength => u * u / super::constants::HC,
-                    Axis::PhotonEnergy => 1.0,
-                    Axis::Wavenumber => 1.0 / super::constants::HC,
-                }
+                per_u
+                    * match axis {
+                        Axis::Wavelength => u * u / super::constants::HC,
+                        Axis::PhotonEnergy => 1.0,
+                        Axis::Wavenumber => 1.0 / super::constants::HC,
+                    }
             }
             Source::BlackbodySun { temp_k } => {
                 // pi * B_E * f

@@ -497,10 +497,7 @@ mod tests {
                     }
                 }
                 let ours = scaled_polylog(s, a) * z;
-                assert!(
-                    ((ours - direct) / direct).abs() < 1e-12,
-                    "s={s} a={a}: {ours} vs {direct}"
-                );
+                assert!(((ours - direct) / direct).abs() < 1e-12, "s={s} a={a}: {ours} vs {direct}");
             }
         }
     }

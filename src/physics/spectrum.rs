@@ -165,7 +165,18 @@ impl Spectrum {
             .unzip();
         let cum_power = cumulative_trapezoid(&x, &power);
         let cum_photons = cumulative_trapezoid(&x, &photons);
-        Ok(Spectrum { name: name.into(), provenance: provenance.into(), axis, quantity, x, y, power, photons, cum_power, cum_photons })
+        Ok(Spectrum {
+            name: name.into(),
+            provenance: provenance.into(),
+            axis,
+            quantity,
+            x,
+            y,
+            power,
+            photons,
+            cum_power,
+            cum_photons,
+        })
     }
 
     pub fn axis(&self) -> Axis {
@@ -252,7 +263,13 @@ impl Spectrum {
                 // move the hint to the segment holding u, then interpolate as cumulative_at
                 if self.x[hint] > u || self.x[(hint + 1).min(n - 1)] <= u {
                     let step_ok = hint + 2 < n && self.x[hint + 1] <= u && self.x[hint + 2] > u;
-                    hint = if step_ok { hint + 1 } else if hint > 0 && self.x[hint - 1] <= u && self.x[hint] > u { hint - 1 } else { self.x.partition_point(|&v| v <= u) - 1 };
+                    hint = if step_ok {
+                        hint + 1
+                    } else if hint > 0 && self.x[hint - 1] <= u && self.x[hint] > u {
+                        hint - 1
+                    } else {
+                        self.x.partition_point(|&v| v <= u) - 1
+                    };
                 }
                 let i = hint;
                 let (x0, x1) = (self.x[i], self.x[i + 1]);
@@ -409,7 +426,8 @@ mod tests {
             let s = Spectrum::new("t", "t", Axis::Wavelength, Quantity::Irradiance, x.clone(), y.clone())
                 .unwrap()
                 .converted(axis, Quantity::Irradiance);
-            let mut e: Vec<f64> = (0..2000).map(|i| (0.2 + 0.002 * i as f64) * crate::physics::constants::CHARGE).collect();
+            let mut e: Vec<f64> =
+                (0..2000).map(|i| (0.2 + 0.002 * i as f64) * crate::physics::constants::CHARGE).collect();
             let sorted = s.photon_flux_above_many(&e);
             e.reverse();
             let reversed = s.photon_flux_above_many(&e);

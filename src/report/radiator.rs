@@ -108,7 +108,9 @@ impl RadiatorReport {
     /// "none in range" (see [`RadiatorReport::steady_note`] for why).
     pub fn display(&self, hook: &str) -> String {
         match hook {
-            "net-power" | "emitted" | "sky-absorbed" | "sun-absorbed" | "parasitic" => format!("{:.2} W/m²", self.metric(hook)),
+            "net-power" | "emitted" | "sky-absorbed" | "sun-absorbed" | "parasitic" => {
+                format!("{:.2} W/m²", self.metric(hook))
+            }
             "steady-temp" => match self.steady_temp_k {
                 Some(t) => format!("{t:.2} K"),
                 None if self.steady_status == "undefined" => "none".into(),
@@ -149,7 +151,10 @@ impl RadiatorReport {
     pub fn rows(&self) -> Vec<(String, String)> {
         let t = self.surface_temp_k;
         vec![
-            ("Ambient / surface".into(), format!("{} / {}", self.display("ambient-temp"), self.display("surface-temp"))),
+            (
+                "Ambient / surface".into(),
+                format!("{} / {}", self.display("ambient-temp"), self.display("surface-temp")),
+            ),
             ("Sky broadband emissivity".into(), self.display("sky-emissivity")),
             ("Emitted".into(), self.display("emitted")),
             ("Absorbed from the sky".into(), self.display("sky-absorbed")),

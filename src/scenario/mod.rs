@@ -102,8 +102,15 @@ impl SourceSpec {
             }
             SourceSpec::File { path } => Err(format!("the spectrum file '{path}' has not been read yet")),
             SourceSpec::Table(t) => {
-                let s = Spectrum::new(t.name.clone(), format!("user table '{}'", t.name), t.axis, t.quantity, t.x.clone(), t.y.clone())
-                    .map_err(|e| format!("the spectrum '{}' is not usable: {e}", t.name))?;
+                let s = Spectrum::new(
+                    t.name.clone(),
+                    format!("user table '{}'", t.name),
+                    t.axis,
+                    t.quantity,
+                    t.x.clone(),
+                    t.y.clone(),
+                )
+                .map_err(|e| format!("the spectrum '{}' is not usable: {e}", t.name))?;
                 Ok(Source::user(s))
             }
         }
@@ -197,7 +204,9 @@ impl CellScenario {
 /// sunlight.
 pub fn check_concentration(x: f64, source: &Source, warnings: &mut Vec<String>) -> Result<(), String> {
     if x.is_nan() || !(x >= 1.0) || x == f64::INFINITY {
-        return Err(format!("the concentration {x} is out of range; give a number of suns of at least 1 (1 is unconcentrated light)"));
+        return Err(format!(
+            "the concentration {x} is out of range; give a number of suns of at least 1 (1 is unconcentrated light)"
+        ));
     }
     // allow the limit as printed to 6 significant figures
     if x > MAX_CONCENTRATION * (1.0 + 1e-6) {

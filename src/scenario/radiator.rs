@@ -225,9 +225,7 @@ fn check_wavelength(what: &str, v: f64) -> Result<(), String> {
 /// Checks shared by measured tables: at least two points, finite, ascending, fractions.
 fn check_table(kind: &str, name: &str, wavelength_m: &[f64], values: &[f64]) -> Result<(), String> {
     if wavelength_m.len() != values.len() || wavelength_m.len() < 2 {
-        return Err(format!(
-            "the {kind} table '{name}' needs at least two points, each with a wavelength and a value"
-        ));
+        return Err(format!("the {kind} table '{name}' needs at least two points, each with a wavelength and a value"));
     }
     for (i, (l, v)) in wavelength_m.iter().zip(values).enumerate() {
         if !(l.is_finite() && *l > 0.0) || (i > 0 && !(*l > wavelength_m[i - 1])) {
@@ -281,7 +279,11 @@ impl EmitterSpec {
                     "in" => inside = number(v, "inside emissivity")?,
                     "out" => outside = number(v, "outside emissivity")?,
                     "edge" => edge = number(v, "edge width")?,
-                    other => return Err(format!("'{text}': unknown window setting '{other}'; use in=EPS, out=EPS or edge=UM")),
+                    other => {
+                        return Err(format!(
+                            "'{text}': unknown window setting '{other}'; use in=EPS, out=EPS or edge=UM"
+                        ))
+                    }
                 }
             }
             return Ok(EmitterSpec::Window {
@@ -296,7 +298,9 @@ impl EmitterSpec {
             let mut points = Vec::new();
             for p in rest.split(',').filter(|p| !p.trim().is_empty()) {
                 let Some((l, e)) = p.split_once('=') else {
-                    return Err(format!("'{text}': the control point '{p}' is not UM=EPS, e.g. points:0.3=0.05,8=0.95"));
+                    return Err(format!(
+                        "'{text}': the control point '{p}' is not UM=EPS, e.g. points:0.3=0.05,8=0.95"
+                    ));
                 };
                 points.push([number(l, "control-point wavelength")?, number(e, "control-point emissivity")?]);
             }
@@ -441,7 +445,14 @@ impl RadiatorScenario {
         check_range("ambient temperature", self.ambient_k, AMBIENT_RANGE_K.0, AMBIENT_RANGE_K.1, "K", "e.g. 300")?;
         let surface_k = self.surface_temperature();
         check_range("surface temperature", surface_k, STEADY_SEARCH_K.0, STEADY_SEARCH_K.1, "K", "e.g. 300")?;
-        check_range("convection coefficient h_c", self.h_c_w_m2k, HC_RANGE.0, HC_RANGE.1, "W/m²K", "0 for none, 3-10 for still to light wind")?;
+        check_range(
+            "convection coefficient h_c",
+            self.h_c_w_m2k,
+            HC_RANGE.0,
+            HC_RANGE.1,
+            "W/m²K",
+            "0 for none, 3-10 for still to light wind",
+        )?;
         check_range("curve start", self.curve_from_k, STEADY_SEARCH_K.0, STEADY_SEARCH_K.1, "K", "e.g. 250")?;
         check_range("curve end", self.curve_to_k, STEADY_SEARCH_K.0, STEADY_SEARCH_K.1, "K", "e.g. 350")?;
         if !(self.curve_to_k > self.curve_from_k) {
@@ -477,7 +488,14 @@ impl RadiatorScenario {
             SkySpec::Box => Sky::textbook_box(),
             SkySpec::Space => Sky::Space,
             SkySpec::Clear { pwv_cm } => {
-                check_range("precipitable water", *pwv_cm, PWV_RANGE_CM.0, PWV_RANGE_CM.1, "cm", "e.g. 1.5; 0.5 is a dry, 4 a humid sky")?;
+                check_range(
+                    "precipitable water",
+                    *pwv_cm,
+                    PWV_RANGE_CM.0,
+                    PWV_RANGE_CM.1,
+                    "cm",
+                    "e.g. 1.5; 0.5 is a dry, 4 a humid sky",
+                )?;
                 check_range(
                     "ambient temperature for the clear-sky model",
                     self.ambient_k,
@@ -522,7 +540,10 @@ impl RadiatorScenario {
                         hi * 1e6
                     ));
                 }
-                Sky::Table(Transmittance { wavelength_m: t.wavelength_m.clone(), transmittance: t.transmittance.clone() })
+                Sky::Table(Transmittance {
+                    wavelength_m: t.wavelength_m.clone(),
+                    transmittance: t.transmittance.clone(),
+                })
             }
         };
 
@@ -536,7 +557,14 @@ impl RadiatorScenario {
                         self.sun_zenith_deg
                     ));
                 }
-                check_range("sun irradiance scale", self.sun_scale, SUN_SCALE_RANGE.0, SUN_SCALE_RANGE.1, "times the table", "1 for the spectrum as tabulated")?;
+                check_range(
+                    "sun irradiance scale",
+                    self.sun_scale,
+                    SUN_SCALE_RANGE.0,
+                    SUN_SCALE_RANGE.1,
+                    "times the table",
+                    "1 for the spectrum as tabulated",
+                )?;
                 Some(Sun { source, zenith_rad: self.sun_zenith_deg.to_radians(), scale: self.sun_scale })
             }
         };

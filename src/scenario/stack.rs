@@ -12,9 +12,9 @@ use super::{CellScenario, CellSetup, SourceSpec, GAP_RANGE_EV};
 use crate::physics::absorber::{Absorptance, AbsorptanceTable};
 use crate::physics::constants::{ev, thermal_energy};
 use crate::physics::junction::{Cell, Illumination};
+use crate::physics::spectrum::Axis;
 use crate::physics::stack::optimize::{FixAt, FixedGap, Problem, SEARCH_RANGE_EV};
 use crate::physics::stack::{Connection, MAX_JUNCTIONS};
-use crate::physics::spectrum::Axis;
 use serde::{Deserialize, Serialize};
 use std::sync::Arc;
 
@@ -62,7 +62,13 @@ pub struct OptimizeSettings {
 
 impl Default for OptimizeSettings {
     fn default() -> Self {
-        OptimizeSettings { junctions: 2, fix_ev: None, fix_at: FixAt::Any, from_ev: SEARCH_RANGE_EV.0, to_ev: SEARCH_RANGE_EV.1 }
+        OptimizeSettings {
+            junctions: 2,
+            fix_ev: None,
+            fix_at: FixAt::Any,
+            from_ev: SEARCH_RANGE_EV.0,
+            to_ev: SEARCH_RANGE_EV.1,
+        }
     }
 }
 
@@ -236,7 +242,12 @@ impl StackScenario {
 impl OptimizeSettings {
     /// Check the settings and build the optimizer's problem under `light`, subcells like
     /// `cell` (its gap unused).
-    pub fn to_problem<'a>(&self, light: &'a Illumination, cell: &Cell, connection: Connection) -> Result<Problem<'a>, String> {
+    pub fn to_problem<'a>(
+        &self,
+        light: &'a Illumination,
+        cell: &Cell,
+        connection: Connection,
+    ) -> Result<Problem<'a>, String> {
         let fixed = self.check()?;
         Ok(Problem {
             light,
@@ -275,7 +286,10 @@ impl OptimizeSettings {
                     ));
                 }
                 if self.junctions < 2 {
-                    return Err("a fixed gap needs at least 2 junctions (it is the partner search); give --junctions 2 or more".into());
+                    return Err(
+                        "a fixed gap needs at least 2 junctions (it is the partner search); give --junctions 2 or more"
+                            .into(),
+                    );
                 }
                 let room = match self.fix_at {
                     FixAt::Any => true,
@@ -312,7 +326,10 @@ impl MapSettings {
             let n = self.points;
             Ok((0..n).map(|i| ev(a + (b - a) * i as f64 / (n - 1) as f64)).collect())
         };
-        Ok((axis("top-gap", self.top_from_ev, self.top_to_ev)?, axis("bottom-gap", self.bottom_from_ev, self.bottom_to_ev)?))
+        Ok((
+            axis("top-gap", self.top_from_ev, self.top_to_ev)?,
+            axis("bottom-gap", self.bottom_from_ev, self.bottom_to_ev)?,
+        ))
     }
 }
 
@@ -332,7 +349,9 @@ impl MismatchSettings {
         let need = |t: &Option<EqeTableSpec>, what: &str| -> Result<Absorptance, String> {
             match t {
                 Some(t) => Ok(Absorptance::Table(t.to_table()?)),
-                None => Err(format!("the {what}'s quantum efficiency is missing; give it as a file (wavelength and EQE or A/W)")),
+                None => Err(format!(
+                    "the {what}'s quantum efficiency is missing; give it as a file (wavelength and EQE or A/W)"
+                )),
             }
         };
         let test_source = test_spectrum.to_source()?;

@@ -4,7 +4,9 @@ use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
-use super::{draw_boxed_text, draw_caption, draw_legend_row, draw_tag, err, palette::*, tick_target, AxisSpec, Frame, Look};
+use super::{
+    draw_boxed_text, draw_caption, draw_legend_row, draw_tag, err, palette::*, tick_target, AxisSpec, Frame, Look,
+};
 use crate::app::engine::Computed;
 use crate::app::fmt::{fixed, gap_ev};
 use crate::physics::constants::to_ev;
@@ -45,8 +47,19 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, loo
     } else {
         let beyond_right = gap > x.hi;
         let text = format!("Eg {} eV — outside this range {}", gap_ev(gap), if beyond_right { "▸" } else { "◂" });
-        let (anchor, ax) = if beyond_right { (HPos::Right, right - look.px(4.0)) } else { (HPos::Left, left + look.px(4.0)) };
-        draw_boxed_text(&plot, look, &text, ax, top + look.px(4.0), anchor, VPos::Top, &GAP, (left, top, right, bottom))?;
+        let (anchor, ax) =
+            if beyond_right { (HPos::Right, right - look.px(4.0)) } else { (HPos::Left, left + look.px(4.0)) };
+        draw_boxed_text(
+            &plot,
+            look,
+            &text,
+            ax,
+            top + look.px(4.0),
+            anchor,
+            VPos::Top,
+            &GAP,
+            (left, top, right, bottom),
+        )?;
     }
 
     // the best gap of the range
@@ -54,9 +67,20 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, loo
         let (gx, gy) = (to_ev(b.gap_j), b.efficiency * 100.0);
         let (px, py) = (bx(gx), by(gy));
         let r = look.px(5.5);
-        plot.draw(&Polygon::new(vec![(px, py - r), (px + r, py), (px, py + r), (px - r, py)], BEST.filled())).map_err(err)?;
+        plot.draw(&Polygon::new(vec![(px, py - r), (px + r, py), (px, py + r), (px - r, py)], BEST.filled()))
+            .map_err(err)?;
         let text = format!("best {} eV · {} %", fixed(gx, 3), fixed(gy, 2));
-        draw_boxed_text(&plot, look, &text, px, py - look.px(9.0), HPos::Center, VPos::Bottom, &BEST, (left, top + look.px(22.0), right, bottom))?;
+        draw_boxed_text(
+            &plot,
+            look,
+            &text,
+            px,
+            py - look.px(9.0),
+            HPos::Center,
+            VPos::Bottom,
+            &BEST,
+            (left, top + look.px(22.0), right, bottom),
+        )?;
     }
 
     if gap >= x.lo && gap <= x.hi {
@@ -67,7 +91,15 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, loo
         let lx = left + look.px(14.0);
         let ly = bottom - look.px(40.0);
         draw_legend_row(&plot, look, lx, ly, &CURVE, false, "detailed-balance limit against band gap")?;
-        draw_legend_row(&plot, look, lx, ly + look.px(20.0), &GAP, false, &format!("this cell: {} %", fixed(c.result.efficiency * 100.0, 2)))?;
+        draw_legend_row(
+            &plot,
+            look,
+            lx,
+            ly + look.px(20.0),
+            &GAP,
+            false,
+            &format!("this cell: {} %", fixed(c.result.efficiency * 100.0, 2)),
+        )?;
     }
     Ok(frame)
 }

@@ -5,7 +5,10 @@ use plotters::element::DashedPathElement;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
-use super::{draw_boxed_text, draw_caption, draw_legend_row, err, frame_of, margins, palette::*, tick_target, AxisSpec, Frame, Look};
+use super::{
+    draw_boxed_text, draw_caption, draw_legend_row, err, frame_of, margins, palette::*, tick_target, AxisSpec, Frame,
+    Look,
+};
 use crate::app::engine::Computed;
 use crate::app::fmt::sig;
 
@@ -26,15 +29,9 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, loo
 
     let mut chart = super::builder(root, &m)
         .right_y_label_area_size(m.right_area)
-        .build_cartesian_2d(
-            x.coord(),
-            y.coord(),
-        )
+        .build_cartesian_2d(x.coord(), y.coord())
         .map_err(err)?
-        .set_secondary_coord(
-            x.coord_major(),
-            y2.coord_major(),
-        );
+        .set_secondary_coord(x.coord_major(), y2.coord_major());
     let xf = |v: &f64| x.label(*v);
     let yf = |v: &f64| y.label(*v);
     let y2f = |v: &f64| y2.label(*v);
@@ -82,12 +79,27 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, loo
         let gapd = look.px(4.0);
         let thin = MUTED.stroke_width(look.px(1.0).max(1) as u32);
         plot.draw(&DashedPathElement::new(vec![(left, my), (mx, my), (mx, bottom)], dash, gapd, thin)).map_err(err)?;
-        plot.draw(&DashedPathElement::new(vec![(mx, mp), (right, mp)], dash, gapd, POWER.mix(0.7).stroke_width(look.px(1.0).max(1) as u32)))
-            .map_err(err)?;
+        plot.draw(&DashedPathElement::new(
+            vec![(mx, mp), (right, mp)],
+            dash,
+            gapd,
+            POWER.mix(0.7).stroke_width(look.px(1.0).max(1) as u32),
+        ))
+        .map_err(err)?;
         plot.draw(&Circle::new((mx, my), look.px(5.0), GAP.filled())).map_err(err)?;
         plot.draw(&Circle::new((mx, mp), look.px(4.0), POWER.filled())).map_err(err)?;
         let text = format!("max power {} mW/cm² at {} V", sig(pmax, 4), sig(r.vmp_v, 4));
-        draw_boxed_text(&plot, look, &text, mx - look.px(10.0), bottom - (bottom - top) / 4, HPos::Right, VPos::Center, &GAP, (left, top, right, bottom))?;
+        draw_boxed_text(
+            &plot,
+            look,
+            &text,
+            mx - look.px(10.0),
+            bottom - (bottom - top) / 4,
+            HPos::Right,
+            VPos::Center,
+            &GAP,
+            (left, top, right, bottom),
+        )?;
     }
     if look.legend {
         let lx = left + look.px(14.0);

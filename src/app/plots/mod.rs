@@ -207,7 +207,8 @@ const LOG_MANTISSAS: [&[f64]; 4] = [&[1.0, 2.0, 3.0, 5.0], &[1.0, 2.0, 5.0], &[1
 impl AxisSpec {
     /// Ticks over [lo, hi]; with `snap_hi` the top is raised to the next tick.
     pub fn new(lo: f64, hi: f64, target: usize, name: &str, unit: &str, snap_hi: bool) -> AxisSpec {
-        let (lo, hi) = if hi > lo && hi.is_finite() && lo.is_finite() { (lo, hi) } else { (lo.min(0.0), lo.min(0.0) + 1.0) };
+        let (lo, hi) =
+            if hi > lo && hi.is_finite() && lo.is_finite() { (lo, hi) } else { (lo.min(0.0), lo.min(0.0) + 1.0) };
         let exp = axis_exponent(lo.abs().max(hi.abs()));
         let f = 10f64.powi(exp);
         let mut t = nice_ticks(lo / f, hi / f, target);
@@ -239,16 +240,24 @@ impl AxisSpec {
         let in_range = |v: f64| v >= lo - 1e-9 && v <= hi + 1e-9;
         let decades = (lo.floor() as i32)..=(hi.ceil() as i32);
         let at = |mantissas: &[f64]| -> Vec<f64> {
-            decades.clone().flat_map(|d| mantissas.iter().map(move |m| (m * 10f64.powi(d)).log10())).filter(|v| in_range(*v)).collect()
+            decades
+                .clone()
+                .flat_map(|d| mantissas.iter().map(move |m| (m * 10f64.powi(d)).log10()))
+                .filter(|v| in_range(*v))
+                .collect()
         };
-        let major = LOG_MANTISSAS
-            .iter()
-            .map(|m| at(m))
-            .find(|t| t.len() <= target.max(2))
-            .unwrap_or_else(|| at(&[1.0]));
+        let major =
+            LOG_MANTISSAS.iter().map(|m| at(m)).find(|t| t.len() <= target.max(2)).unwrap_or_else(|| at(&[1.0]));
         let all: Vec<f64> = (1..10).map(|k| k as f64).collect();
         let minor = at(&all);
-        AxisSpec { lo, hi, ticks: Ticks { major, minor, decimals: 0 }, exp: 0, title: titled(name, unit), scale: Scale::Log10 }
+        AxisSpec {
+            lo,
+            hi,
+            ticks: Ticks { major, minor, decimals: 0 },
+            exp: 0,
+            title: titled(name, unit),
+            scale: Scale::Log10,
+        }
     }
 
     /// A category axis: one slot per name, ticks at the slot centres.
@@ -316,7 +325,8 @@ pub fn margins(look: &Look, x: &AxisSpec, y: &AxisSpec, y2: Option<&AxisSpec>) -
     let bottom_area = (label_dist + tf * 1.25 + look.size(8.0) + df * 1.25 + look.size(2.0)).ceil() as i32;
     // the last x label is centred on the axis end: leave half of it free on the right
     let last_x = x.labels().last().map(|l| measure::text_width(l, tf)).unwrap_or(0.0);
-    let right = if y2.is_some() { look.px(8.0) } else { ((last_x / 2.0).ceil() as i32 + look.px(6.0)).max(look.px(18.0)) };
+    let right =
+        if y2.is_some() { look.px(8.0) } else { ((last_x / 2.0).ceil() as i32 + look.px(6.0)).max(look.px(18.0)) };
     let mut top = look.px(14.0);
     if look.caption.is_some() {
         top += (look.size(13.0) * 1.6).ceil() as i32;
@@ -378,7 +388,10 @@ pub fn tick_target(look: &Look, pixels: u32, spacing_css: f64) -> usize {
 }
 
 /// Draw the caption line, if any, at the top left.
-pub fn draw_caption<DB: DrawingBackend>(root: &DrawingArea<DB, plotters::coord::Shift>, look: &Look) -> Result<(), String> {
+pub fn draw_caption<DB: DrawingBackend>(
+    root: &DrawingArea<DB, plotters::coord::Shift>,
+    look: &Look,
+) -> Result<(), String> {
     if let Some(c) = &look.caption {
         let fs = look.size(13.0);
         let style = look.text(fs, &palette::MUTED).pos(Pos::new(HPos::Left, VPos::Top));
@@ -474,7 +487,15 @@ pub fn draw_boxed_text<DB: DrawingBackend>(
 }
 
 /// Where [`draw_boxed_text`] puts its box: (left, top, right, bottom) [backend px].
-pub fn boxed_text_rect(look: &Look, text: &str, x: i32, y: i32, h_pos: HPos, v_pos: VPos, bounds: (i32, i32, i32, i32)) -> (i32, i32, i32, i32) {
+pub fn boxed_text_rect(
+    look: &Look,
+    text: &str,
+    x: i32,
+    y: i32,
+    h_pos: HPos,
+    v_pos: VPos,
+    bounds: (i32, i32, i32, i32),
+) -> (i32, i32, i32, i32) {
     let fs = look.size(12.0);
     let pad = look.px(4.0);
     let w = measure::text_width(text, fs).ceil() as i32 + 2 * pad;
@@ -511,8 +532,11 @@ pub fn draw_legend_row<DB: DrawingBackend>(
     let tw = measure::text_width(text, fs).ceil() as i32;
     let pad = look.px(4.0);
     let half = (fs * 0.75).ceil() as i32;
-    root.draw(&Rectangle::new([(x - pad, y - half - pad / 2), (x + len + look.px(6.0) + tw + pad, y + half + pad / 2)], WHITE.mix(0.85).filled()))
-        .map_err(err)?;
+    root.draw(&Rectangle::new(
+        [(x - pad, y - half - pad / 2), (x + len + look.px(6.0) + tw + pad, y + half + pad / 2)],
+        WHITE.mix(0.85).filled(),
+    ))
+    .map_err(err)?;
     if swatch {
         root.draw(&Rectangle::new([(x, y - look.px(5.0)), (x + len, y + look.px(5.0))], color.mix(0.5).filled()))
             .map_err(err)?;

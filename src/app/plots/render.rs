@@ -62,7 +62,11 @@ impl Drawing for CellPlot<'_> {
 }
 
 fn device_pixel_ratio() -> f64 {
-    web_sys::window().map(|w| w.device_pixel_ratio()).filter(|r| r.is_finite() && *r > 0.0).unwrap_or(1.0).clamp(1.0, 4.0)
+    web_sys::window()
+        .map(|w| w.device_pixel_ratio())
+        .filter(|r| r.is_finite() && *r > 0.0)
+        .unwrap_or(1.0)
+        .clamp(1.0, 4.0)
 }
 
 /// Draw onto a canvas of the page at its CSS size times the device pixel ratio. Returns
@@ -80,7 +84,8 @@ pub fn draw_on_canvas(canvas: &HtmlCanvasElement, plot: &impl Drawing) -> Result
     if canvas.height() != ph {
         canvas.set_height(ph);
     }
-    let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("this browser gave no 2D drawing context for the plot")?;
+    let backend = CanvasBackend::with_canvas_object(canvas.clone())
+        .ok_or("this browser gave no 2D drawing context for the plot")?;
     let root = backend.into_drawing_area();
     let frame = plot.draw(&root, &Look::screen(dpr))?;
     root.present().map_err(err)?;
@@ -98,7 +103,8 @@ pub fn png_data_url(plot: &impl Drawing, caption: String) -> Result<String, Stri
     canvas.set_width(PNG_SIZE.0);
     canvas.set_height(PNG_SIZE.1);
     {
-        let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("this browser gave no 2D drawing context")?;
+        let backend =
+            CanvasBackend::with_canvas_object(canvas.clone()).ok_or("this browser gave no 2D drawing context")?;
         let root = backend.into_drawing_area();
         plot.draw(&root, &Look { scale: PNG_SCALE, caption: Some(caption), legend: true })?;
         root.present().map_err(err)?;

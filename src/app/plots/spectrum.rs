@@ -60,7 +60,10 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, loo
         chart.draw_series(AreaSeries::new(area, 0.0, ABSORBED.mix(0.5).filled())).map_err(err)?;
     }
     chart
-        .draw_series(LineSeries::new(sv.x.iter().copied().zip(sv.y.iter().copied()), SPECTRUM.stroke_width(look.px(1.6).max(1) as u32)))
+        .draw_series(LineSeries::new(
+            sv.x.iter().copied().zip(sv.y.iter().copied()),
+            SPECTRUM.stroke_width(look.px(1.6).max(1) as u32),
+        ))
         .map_err(err)?;
 
     // the gap marker and its handle
@@ -82,7 +85,17 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, loo
         let text = format!("{label} — off scale {}", if beyond_right { "▸" } else { "◂" });
         let anchor = if beyond_right { HPos::Right } else { HPos::Left };
         let ax = if beyond_right { right - look.px(4.0) } else { left + look.px(4.0) };
-        super::draw_boxed_text(&plot, look, &text, ax, top + look.px(4.0), anchor, VPos::Top, &GAP, (left, top, right, bottom))?;
+        super::draw_boxed_text(
+            &plot,
+            look,
+            &text,
+            ax,
+            top + look.px(4.0),
+            anchor,
+            VPos::Top,
+            &GAP,
+            (left, top, right, bottom),
+        )?;
     }
 
     if look.legend {

@@ -52,7 +52,11 @@ impl PlotBehaviour for ReadOut {
                     y,
                     width,
                     dot,
-                    vec![format!("{label}: {value}"), format!("{} W/m² to the net power", fixed(change, 2)), BAR_NOTES[i].into()],
+                    vec![
+                        format!("{label}: {value}"),
+                        format!("{} W/m² to the net power", fixed(change, 2)),
+                        BAR_NOTES[i].into(),
+                    ],
                 ))
             }
             _ => {
@@ -141,7 +145,9 @@ pub fn curve_card(rad: RadState, canvas: NodeRef<html::Canvas>) -> impl IntoView
     let ctx = rad.ctx;
     let from = Memo::new(move |_| ctx.scenario.with(|s| s.radiator.curve_from_k));
     let to = Memo::new(move |_| ctx.scenario.with(|s| s.radiator.curve_to_k));
-    let bad = |text: &str| format!("'{text}' is not a temperature; type a number of kelvin, e.g. 250. The plotted range is unchanged.");
+    let bad = |text: &str| {
+        format!("'{text}' is not a temperature; type a number of kelvin, e.g. 250. The plotted range is unchanged.")
+    };
     let tools = view! {
         <div class="plot-tools">
             {range_input(ctx, "net-curve-from", "net-curve-range", "from", "K", from, |s, v| s.radiator.curve_from_k = v, bad)}

@@ -124,7 +124,12 @@ pub fn environment_section(rad: RadState) -> impl IntoView {
             "table" => rad.user_sky.get_untracked().map(SkySpec::Table),
             _ => None,
         };
-        ctx.choose("sky", spec, "Load a sky transmittance file first (below); the current sky is still in use.", |s, spec| s.radiator.sky = spec);
+        ctx.choose(
+            "sky",
+            spec,
+            "Load a sky transmittance file first (below); the current sky is still in use.",
+            |s, spec| s.radiator.sky = spec,
+        );
     };
     let pwv = field(
         ctx,
@@ -216,7 +221,10 @@ pub fn environment_section(rad: RadState) -> impl IntoView {
         "Convection coefficient h_c",
         "W/m²K",
         "hc",
-        format!("{} to {}; 0 for none (vacuum, a still enclosure), about 3-10 for still air to a light wind.", HC_RANGE.0, HC_RANGE.1),
+        format!(
+            "{} to {}; 0 for none (vacuum, a still enclosure), about 3-10 for still air to a light wind.",
+            HC_RANGE.0, HC_RANGE.1
+        ),
         "6",
         |s| s.radiator.h_c_w_m2k,
         |s, v| s.radiator.h_c_w_m2k = v,
@@ -260,7 +268,8 @@ pub fn sun_section(rad: RadState) -> impl IntoView {
         let spec = want.then(|| rad.last_sun.get_untracked());
         ctx.edit("sun", move |s| s.radiator.sun = spec);
     };
-    let key = Memo::new(move |_| ctx.scenario.with(|s| sun_key(s.radiator.sun.as_ref().unwrap_or(&rad.last_sun.get()))));
+    let key =
+        Memo::new(move |_| ctx.scenario.with(|s| sun_key(s.radiator.sun.as_ref().unwrap_or(&rad.last_sun.get()))));
     let other = Signal::derive(move || rad.last_sun.with(|s| format!("From the link: {}", s.label())));
     let options = vec![
         ("am1.5g", fixed_text("AM1.5G (global, tilted)"), always()),
@@ -295,7 +304,10 @@ pub fn sun_section(rad: RadState) -> impl IntoView {
         "Irradiance scale",
         "×",
         "sun-scale",
-        format!("{} to {} times the tabulated spectrum (1000 W/m² for AM1.5G at 1).", SUN_SCALE_RANGE.0, SUN_SCALE_RANGE.1),
+        format!(
+            "{} to {} times the tabulated spectrum (1000 W/m² for AM1.5G at 1).",
+            SUN_SCALE_RANGE.0, SUN_SCALE_RANGE.1
+        ),
         "1",
         |s| s.radiator.sun_scale,
         |s, v| s.radiator.sun_scale = v,
@@ -391,10 +403,18 @@ pub fn surface_section(rad: RadState) -> impl IntoView {
             let r = &s.radiator;
             let mut notes = Vec::new();
             if let Some(b) = &r.solar_band {
-                notes.push(format!("Below {} µm a separate solar-band profile applies ({}); the editor reshapes the profile above it.", fmt::field(b.below_um, 4), b.profile.label()));
+                notes.push(format!(
+                    "Below {} µm a separate solar-band profile applies ({}); the editor reshapes the profile above it.",
+                    fmt::field(b.below_um, 4),
+                    b.profile.label()
+                ));
             }
             if let AngularSpec::CutOff { angle_deg, beyond } = r.angular {
-                notes.push(format!("Angular cut-off from the link: the emissivity drops to {} beyond {}° from the normal.", fmt::field(beyond, 3), fmt::field(angle_deg, 4)));
+                notes.push(format!(
+                    "Angular cut-off from the link: the emissivity drops to {} beyond {}° from the normal.",
+                    fmt::field(beyond, 3),
+                    fmt::field(angle_deg, 4)
+                ));
             }
             notes.join(" ")
         })

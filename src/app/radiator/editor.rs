@@ -114,7 +114,16 @@ impl PlotBehaviour for EditorCard {
                 "drag to reshape: the profile becomes control points"
             };
             let dot = Some((f.css_of_x(p[0].log10()), f.css_of_y(p[1])));
-            return Some(Hover::new(x, y, width, dot, vec![format!("point {} of {n}: {} µm, emissivity {}", i + 1, field(p[0], 4), fixed(p[1], 3)), how.into()]));
+            return Some(Hover::new(
+                x,
+                y,
+                width,
+                dot,
+                vec![
+                    format!("point {} of {n}: {} µm, emissivity {}", i + 1, field(p[0], 4), fixed(p[1], 3)),
+                    how.into(),
+                ],
+            ));
         }
         let (l, _) = self.value_at(x, y);
         let lx = l.log10();
@@ -124,8 +133,16 @@ impl PlotBehaviour for EditorCard {
         let mut lines = vec![
             format!("λ {} µm · emissivity {}", sig(l, 4), fixed(e, 3)),
             format!("sky transmittance {} (zenith)", fixed(at(&bg.sky), 3)),
-            format!("sun: {} W m⁻² µm⁻¹{}", sig(at(&bg.sun) * bg.sun_peak, 3), if c.scenario.sun.is_some() { "" } else { " (sun off)" }),
-            format!("blackbody at {} K: {} W m⁻² µm⁻¹", field(c.scenario.surface_temperature(), 5), sig(at(&bg.bb) * bg.bb_peak, 3)),
+            format!(
+                "sun: {} W m⁻² µm⁻¹{}",
+                sig(at(&bg.sun) * bg.sun_peak, 3),
+                if c.scenario.sun.is_some() { "" } else { " (sun off)" }
+            ),
+            format!(
+                "blackbody at {} K: {} W m⁻² µm⁻¹",
+                field(c.scenario.surface_temperature(), 5),
+                sig(at(&bg.bb) * bg.bb_peak, 3)
+            ),
         ];
         lines.push("double-click to add a point here".into());
         Some(Hover::new(x, y, width, Some((x, f.css_of_y(e))), lines))
@@ -262,7 +279,13 @@ fn selection_line(rad: RadState) -> impl IntoView {
         let c = rad.computed.get()?;
         let i = rad.selected.get().filter(|i| *i < c.profile.handles.len())?;
         let p = c.profile.handles[i];
-        Some(format!("Chosen: point {} of {} — {} µm, emissivity {}", i + 1, c.profile.handles.len(), field(p[0], 4), fixed(p[1], 3)))
+        Some(format!(
+            "Chosen: point {} of {} — {} µm, emissivity {}",
+            i + 1,
+            c.profile.handles.len(),
+            field(p[0], 4),
+            fixed(p[1], 3)
+        ))
     }
 }
 
@@ -348,13 +371,15 @@ fn parse_wavelength(t: &str) -> Result<f64, String> {
 }
 
 fn parse_fraction(t: &str) -> Result<f64, String> {
-    parse_number(t).ok_or_else(|| format!("'{}' is not an emissivity; type a fraction from 0 to 1, e.g. 0.95", t.trim()))
+    parse_number(t)
+        .ok_or_else(|| format!("'{}' is not an emissivity; type a fraction from 0 to 1, e.g. 0.95", t.trim()))
 }
 
 fn row(rad: RadState, i: usize) -> impl IntoView {
     let ctx = rad.ctx;
     let cell = |k: usize| {
-        let (what, unit, example): (&str, &'static str, &'static str) = if k == 0 { ("wavelength", "µm", "8") } else { ("emissivity", "", "0.95") };
+        let (what, unit, example): (&str, &'static str, &'static str) =
+            if k == 0 { ("wavelength", "µm", "8") } else { ("emissivity", "", "0.95") };
         let show: fn(f64) -> String = if k == 0 { |v| field(v, 4) } else { |v| field(v, 3) };
         let parse: fn(&str) -> Result<f64, String> = if k == 0 { parse_wavelength } else { parse_fraction };
         let input = NumberInput {
@@ -411,7 +436,8 @@ pub fn points_table(rad: RadState) -> impl IntoView {
         let Some(pts) = points_now(rad) else { return };
         let n = pts.len();
         let at = selected(rad, n).unwrap_or(n.saturating_sub(1));
-        let range = rad.computed.with_untracked(|c| c.as_ref().map(|c| c.range_um)).unwrap_or(super::profile::EDITOR_RANGE_UM);
+        let range =
+            rad.computed.with_untracked(|c| c.as_ref().map(|c| c.range_um)).unwrap_or(super::profile::EDITOR_RANGE_UM);
         match insert_after(&pts, at, range) {
             Ok((p, i)) => {
                 if commit(rad, TABLE_HOOK, p) {

@@ -147,7 +147,12 @@ fn background(sky: &Sky, ambient_k: f64, sun: &SourceSpec, surface_k: f64, range
     let (sun_rel, sun_peak, sun_name) = match sun.to_source() {
         Ok(src) => {
             // W m^-2 nm^-1 -> W m^-2 um^-1
-            let v = x.iter().map(|v| 1000.0 * display_value(&src, PlotAxis::Wavelength, PlotQuantity::Irradiance, HC / lambda_m(*v))).collect();
+            let v = x
+                .iter()
+                .map(|v| {
+                    1000.0 * display_value(&src, PlotAxis::Wavelength, PlotQuantity::Irradiance, HC / lambda_m(*v))
+                })
+                .collect();
             let (rel, peak) = normalized(v);
             (rel, peak, src.name())
         }
@@ -167,7 +172,12 @@ pub fn curve_temps(from: f64, to: f64, n: usize) -> Vec<f64> {
 impl RadEngine {
     /// Compute everything for `sc`, the curve coarse when `coarse`. Errors are the
     /// scenario's own messages.
-    pub fn compute(&mut self, sc: &RadiatorScenario, coarse: bool, sun_shown: &SourceSpec) -> Result<Arc<RadComputed>, String> {
+    pub fn compute(
+        &mut self,
+        sc: &RadiatorScenario,
+        coarse: bool,
+        sun_shown: &SourceSpec,
+    ) -> Result<Arc<RadComputed>, String> {
         if let Some(((c, sun), r)) = &self.result {
             if *c == coarse && sun == sun_shown && r.scenario == *sc {
                 return Ok(r.clone());
@@ -178,7 +188,12 @@ impl RadEngine {
         Ok(r)
     }
 
-    fn compute_new(&mut self, sc: &RadiatorScenario, coarse: bool, sun_shown: &SourceSpec) -> Result<RadComputed, String> {
+    fn compute_new(
+        &mut self,
+        sc: &RadiatorScenario,
+        coarse: bool,
+        sun_shown: &SourceSpec,
+    ) -> Result<RadComputed, String> {
         let (ev, warnings, emitter, sky) = match &self.last {
             Some((k, done)) if k == sc => done.clone(),
             _ => {
@@ -205,7 +220,8 @@ impl RadEngine {
         let bg = match &self.background {
             Some((k, b)) if *k == key => b.clone(),
             _ => {
-                let b = Arc::new(background(&sky, sc.ambient_k, sc.sun.as_ref().unwrap_or(sun_shown), surface_k, range));
+                let b =
+                    Arc::new(background(&sky, sc.ambient_k, sc.sun.as_ref().unwrap_or(sun_shown), surface_k, range));
                 self.background = Some((key, b.clone()));
                 b
             }

@@ -97,7 +97,8 @@ pub fn curve_csv(c: &RadComputed) -> String {
     let mut out = String::new();
     comment_lines(&mut out, "net cooling power against surface temperature", c);
     let _ = writeln!(out, "# steady temperature: {}", c.report.steady_text());
-    let _ = writeln!(out, "temperature_K,net_W_m2,emitted_W_m2,sky_absorbed_W_m2,sun_absorbed_W_m2,gained_from_air_W_m2");
+    let _ =
+        writeln!(out, "temperature_K,net_W_m2,emitted_W_m2,sky_absorbed_W_m2,sun_absorbed_W_m2,gained_from_air_W_m2");
     for p in &c.curve {
         let _ = writeln!(
             out,

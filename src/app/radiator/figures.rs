@@ -8,12 +8,16 @@ use crate::app::figures::caution_footer;
 use crate::report::radiator::{RADIATOR_METRICS, RADIATOR_PARTS};
 
 pub fn figures(rad: RadState) -> impl IntoView {
-    let text = move |hook: &'static str| move || rad.computed.with(|c| c.as_ref().map(|c| c.report.display(hook)).unwrap_or_else(|| "—".into()));
+    let text = move |hook: &'static str| {
+        move || rad.computed.with(|c| c.as_ref().map(|c| c.report.display(hook)).unwrap_or_else(|| "—".into()))
+    };
     let label = move |hook: &'static str, base: &'static str| {
         move || {
             let t = rad.computed.with(|c| c.as_ref().map(|c| c.report.surface_temp_k));
             match (hook, t) {
-                ("thermal-emittance" | "window-emissivity", Some(t)) => format!("{} ({t:.0}\u{a0}K)", base.replace("8-13 um", "8–13 µm")),
+                ("thermal-emittance" | "window-emissivity", Some(t)) => {
+                    format!("{} ({t:.0}\u{a0}K)", base.replace("8-13 um", "8–13 µm"))
+                }
                 _ => base.to_string(),
             }
         }
@@ -43,7 +47,13 @@ pub fn figures(rad: RadState) -> impl IntoView {
             }
         })
         .collect_view();
-    let warnings = move || rad.computed.with(|c| c.as_ref().map(|c| c.warnings.iter().map(|w| crate::app::state::sentence(w)).collect::<Vec<_>>().join(" ")).unwrap_or_default());
+    let warnings = move || {
+        rad.computed.with(|c| {
+            c.as_ref()
+                .map(|c| c.warnings.iter().map(|w| crate::app::state::sentence(w)).collect::<Vec<_>>().join(" "))
+                .unwrap_or_default()
+        })
+    };
     let error = move || rad.compute_error.get();
     let at = move || {
         rad.computed.with(|c| {

@@ -11,7 +11,14 @@ use crate::formats::emissivity_csv::{parse_emissivity_csv, parse_transmittance_c
 use crate::scenario::radiator::{EmissivityTable, EmitterSpec, SkySpec, TransmittanceTable};
 
 /// Make `apply(table)` the scenario's, or say under `hook` why the file cannot be used.
-fn use_table(ctx: Ctx, hook: &'static str, file_name: &str, parsed: Result<OpticalTable, String>, what: &str, apply: impl FnOnce(&mut crate::scenario::Scenario, OpticalTable)) -> bool {
+fn use_table(
+    ctx: Ctx,
+    hook: &'static str,
+    file_name: &str,
+    parsed: Result<OpticalTable, String>,
+    what: &str,
+    apply: impl FnOnce(&mut crate::scenario::Scenario, OpticalTable),
+) -> bool {
     match parsed {
         Ok(t) => {
             if ctx.edit(hook, move |s| apply(s, t)) {
@@ -19,7 +26,12 @@ fn use_table(ctx: Ctx, hook: &'static str, file_name: &str, parsed: Result<Optic
                 true
             } else {
                 if let Some(msg) = ctx.errors.with_untracked(|e| e.get(hook).cloned()) {
-                    ctx.set_error(hook, format!("'{file_name}' was read but cannot be used: {msg} The previous {what} is still in use."));
+                    ctx.set_error(
+                        hook,
+                        format!(
+                            "'{file_name}' was read but cannot be used: {msg} The previous {what} is still in use."
+                        ),
+                    );
                 }
                 false
             }
@@ -37,9 +49,11 @@ pub fn open_emissivity(ctx: Ctx, rad: RadState, file: web_sys::File) {
 }
 
 pub fn use_emissivity_text(ctx: Ctx, rad: RadState, file_name: &str, text: Result<String, String>) {
-    let parsed = text.and_then(|t| parse_emissivity_csv(&t, &OpticalHints::default(), &stem(file_name)).map_err(|e| e.to_string()));
+    let parsed = text
+        .and_then(|t| parse_emissivity_csv(&t, &OpticalHints::default(), &stem(file_name)).map_err(|e| e.to_string()));
     let used = use_table(ctx, "emissivity-file", file_name, parsed, "emissivity profile", |s, t| {
-        s.radiator.emitter = EmitterSpec::Table(EmissivityTable { name: t.name, wavelength_m: t.wavelength_m, emissivity: t.values });
+        s.radiator.emitter =
+            EmitterSpec::Table(EmissivityTable { name: t.name, wavelength_m: t.wavelength_m, emissivity: t.values });
     });
     if used {
         rad.selected.set(None);
@@ -50,9 +64,15 @@ pub fn use_emissivity_text(ctx: Ctx, rad: RadState, file_name: &str, text: Resul
 /// Read a zenith transmittance file and make it the sky.
 pub fn open_sky(ctx: Ctx, file: web_sys::File) {
     read_then(file, move |name, text| {
-        let parsed = text.and_then(|t| parse_transmittance_csv(&t, &OpticalHints::default(), &stem(&name)).map_err(|e| e.to_string()));
+        let parsed = text.and_then(|t| {
+            parse_transmittance_csv(&t, &OpticalHints::default(), &stem(&name)).map_err(|e| e.to_string())
+        });
         if use_table(ctx, "sky-file", &name, parsed, "sky transmittance", |s, t| {
-            s.radiator.sky = SkySpec::Table(TransmittanceTable { name: t.name, wavelength_m: t.wavelength_m, transmittance: t.values });
+            s.radiator.sky = SkySpec::Table(TransmittanceTable {
+                name: t.name,
+                wavelength_m: t.wavelength_m,
+                transmittance: t.values,
+            });
         }) {
             ctx.clear_error("sky");
         }

@@ -58,7 +58,8 @@ fn render_effect(rad: RadState, canvases: [NodeRef<html::Canvas>; 3]) {
                 c
             }
             Err(e) => {
-                rad.compute_error.set(Some(format!("{} The figures shown are from the last usable scenario.", sentence(&e))));
+                rad.compute_error
+                    .set(Some(format!("{} The figures shown are from the last usable scenario.", sentence(&e))));
                 count_render();
                 return;
             }
@@ -78,7 +79,12 @@ fn render_effect(rad: RadState, canvases: [NodeRef<html::Canvas>; 3]) {
         // where the control points landed, in CSS px (for tests and tools)
         if let Some(canvas) = &targets[Slot::Editor.index()] {
             let f = frames[Slot::Editor.index()];
-            let at: Vec<String> = c.profile.handles.iter().map(|p| format!("{:.1},{:.1}", f.css_of_x(p[0].log10()), f.css_of_y(p[1]))).collect();
+            let at: Vec<String> = c
+                .profile
+                .handles
+                .iter()
+                .map(|p| format!("{:.1},{:.1}", f.css_of_x(p[0].log10()), f.css_of_y(p[1])))
+                .collect();
             let _ = canvas.set_attribute("data-handles", &at.join(";"));
         }
         rad.frames.set(frames);

@@ -21,8 +21,16 @@ pub const PRESETS: [(&str, &str, &str); 5] = [
     ("blackbody", "Blackbody", "emissivity 1 at every wavelength"),
     ("grey", "Grey 0.9", "emissivity 0.9 at every wavelength"),
     ("window", "Ideal window", "1 from 8 to 13 um, 0 elsewhere: the ideal selective emitter"),
-    ("white-paint", "White-paint-like", "low in the visible, high in the thermal infrared (an illustrative shape, not a product)"),
-    ("polished-metal", "Polished-metal-like", "low everywhere, a little higher at short wavelengths (an illustrative shape)"),
+    (
+        "white-paint",
+        "White-paint-like",
+        "low in the visible, high in the thermal infrared (an illustrative shape, not a product)",
+    ),
+    (
+        "polished-metal",
+        "Polished-metal-like",
+        "low everywhere, a little higher at short wavelengths (an illustrative shape)",
+    ),
 ];
 
 /// An illustrative pigmented white coating: absorbing in the ultraviolet, scattering in the
@@ -46,7 +54,8 @@ const WHITE_PAINT: [[f64; 2]; 15] = [
 ];
 
 /// An illustrative bare, polished metal: a few per cent, a little more in the blue.
-const POLISHED_METAL: [[f64; 2]; 7] = [[0.30, 0.30], [0.50, 0.15], [0.80, 0.08], [1.50, 0.05], [5.00, 0.03], [15.0, 0.025], [50.0, 0.02]];
+const POLISHED_METAL: [[f64; 2]; 7] =
+    [[0.30, 0.30], [0.50, 0.15], [0.80, 0.08], [1.50, 0.05], [5.00, 0.03], [15.0, 0.025], [50.0, 0.02]];
 
 /// The profile of a preset hook.
 pub fn preset(hook: &str) -> Option<EmitterSpec> {
@@ -108,7 +117,14 @@ pub fn as_points(spec: &EmitterSpec) -> Option<Vec<[f64; 2]>> {
                     .map(|l| [l, profile.at(l * 1e-6)])
                     .collect()
             } else {
-                vec![[lo, *outside], [a / 1.02, *outside], [a, *inside], [b, *inside], [b * 1.02, *outside], [hi, *outside]]
+                vec![
+                    [lo, *outside],
+                    [a / 1.02, *outside],
+                    [a, *inside],
+                    [b, *inside],
+                    [b * 1.02, *outside],
+                    [hi, *outside],
+                ]
             }
         }
         EmitterSpec::Table(t) => {
@@ -130,10 +146,8 @@ pub fn as_points(spec: &EmitterSpec) -> Option<Vec<[f64; 2]>> {
         }
         EmitterSpec::File { .. } => return None,
     };
-    let pts: Vec<[f64; 2]> = pts
-        .into_iter()
-        .map(|[l, e]| tidy([l.clamp(WAVELENGTH_RANGE_UM.0, WAVELENGTH_RANGE_UM.1), e]))
-        .collect();
+    let pts: Vec<[f64; 2]> =
+        pts.into_iter().map(|[l, e]| tidy([l.clamp(WAVELENGTH_RANGE_UM.0, WAVELENGTH_RANGE_UM.1), e])).collect();
     Some(ascending(pts))
 }
 
@@ -208,7 +222,9 @@ pub fn insert_after(points: &[[f64; 2]], i: usize, range: (f64, f64)) -> Result<
 /// The points without point `i`, or why not (a profile keeps at least one point).
 pub fn remove(points: &[[f64; 2]], i: usize) -> Result<Vec<[f64; 2]>, String> {
     if points.len() <= 1 {
-        return Err("A profile needs at least one control point; this is the last one. Move it, or choose a preset.".into());
+        return Err(
+            "A profile needs at least one control point; this is the last one. Move it, or choose a preset.".into()
+        );
     }
     let mut out = points.to_vec();
     if i < out.len() {

@@ -100,7 +100,9 @@ impl RadState {
                 }
             }
             match &r.sky {
-                SkySpec::Table(t) if rad.user_sky.with_untracked(|u| u.as_ref() != Some(t)) => rad.user_sky.set(Some(t.clone())),
+                SkySpec::Table(t) if rad.user_sky.with_untracked(|u| u.as_ref() != Some(t)) => {
+                    rad.user_sky.set(Some(t.clone()))
+                }
                 SkySpec::Clear { pwv_cm } if rad.last_pwv.get_untracked() != *pwv_cm => rad.last_pwv.set(*pwv_cm),
                 _ => {}
             }

@@ -4,8 +4,14 @@
 use plotters::style::RGBColor;
 
 /// Subcell colours, top first.
-pub const SUBCELL: [RGBColor; 6] =
-    [RGBColor(112, 78, 180), RGBColor(36, 112, 192), RGBColor(20, 146, 118), RGBColor(188, 150, 16), RGBColor(224, 112, 38), RGBColor(168, 50, 62)];
+pub const SUBCELL: [RGBColor; 6] = [
+    RGBColor(112, 78, 180),
+    RGBColor(36, 112, 192),
+    RGBColor(20, 146, 118),
+    RGBColor(188, 150, 16),
+    RGBColor(224, 112, 38),
+    RGBColor(168, 50, 62),
+];
 
 pub fn subcell(i: usize) -> RGBColor {
     SUBCELL[i.min(SUBCELL.len() - 1)]

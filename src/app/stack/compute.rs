@@ -135,7 +135,8 @@ pub fn loss_view(s: &Scenario) -> Result<LossView, String> {
             }
         }
         let gaps: Vec<f64> = loss_gaps(range.0, range.1).into_iter().map(ev).collect();
-        let v: Arc<Vec<LossReport>> = Arc::new(loss_sweep(&setup.light, &setup.cell, &gaps).iter().map(LossReport::from).collect());
+        let v: Arc<Vec<LossReport>> =
+            Arc::new(loss_sweep(&setup.light, &setup.cell, &gaps).iter().map(LossReport::from).collect());
         c.losses = Some((s.cell.clone(), range, v.clone()));
         v
     });
@@ -162,7 +163,9 @@ fn urbach_curve(a: &Absorptance, gap_j: f64, urbach_j: f64) -> Vec<(f64, f64)> {
 pub fn absorber_view(s: &Scenario) -> Result<Option<AbsorberView>, String> {
     let (kind, name) = match &s.stack.absorber {
         AbsorberSpec::Step => return Ok(None),
-        AbsorberSpec::Urbach { urbach_mev } => ("urbach", format!("Urbach tail of {} meV", crate::app::fmt::field(*urbach_mev, 6))),
+        AbsorberSpec::Urbach { urbach_mev } => {
+            ("urbach", format!("Urbach tail of {} meV", crate::app::fmt::field(*urbach_mev, 6)))
+        }
         AbsorberSpec::Measured(t) => ("measured", t.name.clone()),
     };
     let setup = setup_of(&s.cell)?;

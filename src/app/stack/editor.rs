@@ -58,7 +58,16 @@ fn gap_field(sc: StackCtx, i: usize) -> impl IntoView {
         let g = ctx.scenario.with_untracked(|s| s.stack.gaps_ev.get(i).copied());
         g.is_some_and(|g| step(tidy(g + d)))
     }));
-    let field = Field { label: GAP_LABELS[i], unit: "eV", hook, hint: None, example: "1.42", value, show: fmt::gap_ev, parse: parse_gap };
+    let field = Field {
+        label: GAP_LABELS[i],
+        unit: "eV",
+        hook,
+        hint: None,
+        example: "1.42",
+        value,
+        show: fmt::gap_ev,
+        parse: parse_gap,
+    };
     let swatch = format!("background:{}", colours::css(colours::subcell(i)));
     view! {
         <div class="stack-gap" on:focusin=move |_| { typing.set(false); sc.selected.set(i); }>
@@ -85,7 +94,8 @@ pub fn editor_section(sc: StackCtx) -> impl IntoView {
                     sc.selected.set(n - 1);
                 }
             }
-            _ => ctx.set_error("junctions", format!("'{text}' is not a number of junctions; choose 2 to {MAX_JUNCTIONS}.")),
+            _ => ctx
+                .set_error("junctions", format!("'{text}' is not a number of junctions; choose 2 to {MAX_JUNCTIONS}.")),
         }
     };
     let on_connection = move |ev: ev::Event| {
@@ -177,7 +187,8 @@ pub fn figures(sc: StackCtx) -> impl IntoView {
             let hook = *hook;
             let fallback = STACK_METRICS.iter().find(|m| m.0 == hook).map(|m| m.1).unwrap_or("");
             let label = move || sc.view.with(|v| v.as_ref().map(|v| v.report.label(hook)).unwrap_or(fallback));
-            let text = move || sc.view.with(|v| v.as_ref().map(|v| v.report.display(hook)).unwrap_or_else(|| "—".into()));
+            let text =
+                move || sc.view.with(|v| v.as_ref().map(|v| v.report.display(hook)).unwrap_or_else(|| "—".into()));
             view! {
                 <div class="figure" class:lead=hook == "stack-efficiency">
                     <span class="fig-label">{label}</span>

@@ -43,12 +43,18 @@ pub fn open_eqe(ctx: Ctx, kept: RwSignal<Option<EqeTableSpec>>, file: web_sys::F
                 if set_absorber(ctx, "eqe-file", AbsorberSpec::Measured(spec.clone())) {
                     kept.set(Some(spec));
                     ctx.clear_error("absorber");
-                    ctx.status.set(Some(format!("Loaded the quantum efficiency '{name}' ({} points).", table.coordinates().len())));
+                    ctx.status.set(Some(format!(
+                        "Loaded the quantum efficiency '{name}' ({} points).",
+                        table.coordinates().len()
+                    )));
                 }
             }
             Err(e) => ctx.set_error(
                 "eqe-file",
-                format!("'{name}' was not loaded — {}. Fix the file and load it again; nothing else changed.", sentence(&e).trim_end_matches('.')),
+                format!(
+                    "'{name}' was not loaded — {}. Fix the file and load it again; nothing else changed.",
+                    sentence(&e).trim_end_matches('.')
+                ),
             ),
         }
     });
@@ -74,12 +80,17 @@ impl Drawing for EqePlot<'_> {
         if edge_nm > lo {
             let e = edge_nm.min(hi);
             let step = vec![(lo, 100.0), (e, 100.0), (e, 0.0), (hi, 0.0)];
-            c.draw_series(std::iter::once(PathElement::new(step, palette::MUTED.stroke_width(look.px(1.4).max(1) as u32)))).map_err(err)?;
+            c.draw_series(std::iter::once(PathElement::new(
+                step,
+                palette::MUTED.stroke_width(look.px(1.4).max(1) as u32),
+            )))
+            .map_err(err)?;
         }
         let mut sorted = pts.clone();
         sorted.sort_by(|a, b| a.0.total_cmp(&b.0));
         c.draw_series(AreaSeries::new(sorted.clone(), 0.0, palette::ABSORBED.mix(0.35).filled())).map_err(err)?;
-        c.draw_series(LineSeries::new(sorted, palette::SPECTRUM.stroke_width(look.px(1.8).max(1) as u32))).map_err(err)?;
+        c.draw_series(LineSeries::new(sorted, palette::SPECTRUM.stroke_width(look.px(1.8).max(1) as u32)))
+            .map_err(err)?;
         Ok(frame)
     }
 }
@@ -91,7 +102,12 @@ fn rows(a: &AbsorberView, ere: f64) -> Vec<(String, &'static str, String, String
     vec![
         ("Jsc".into(), "eqe-jsc", s.cell.display("jsc"), m.cell.display("jsc")),
         ("Voc, radiative limit".into(), "eqe-voc-rad", v(s.voc_rad_v), v(m.voc_rad_v)),
-        (format!("Voc at ERE {}", crate::app::fmt::field(ere, 4)), "eqe-voc", s.cell.display("voc"), m.cell.display("voc")),
+        (
+            format!("Voc at ERE {}", crate::app::fmt::field(ere, 4)),
+            "eqe-voc",
+            s.cell.display("voc"),
+            m.cell.display("voc"),
+        ),
         ("Non-radiative Voc loss".into(), "eqe-nonrad-loss", v(s.nonrad_voc_loss_v), v(m.nonrad_voc_loss_v)),
         ("Efficiency limit".into(), "eqe-efficiency", s.cell.display("efficiency"), m.cell.display("efficiency")),
     ]
@@ -123,10 +139,12 @@ pub fn eqe_section(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView
         AbsorberSpec::Measured(t) => Some(t.clone()),
         _ => None,
     }));
-    let urbach = Memo::new(move |_| ctx.scenario.with(|s| match s.stack.absorber {
-        AbsorberSpec::Urbach { urbach_mev } => Some(urbach_mev),
-        _ => None,
-    }));
+    let urbach = Memo::new(move |_| {
+        ctx.scenario.with(|s| match s.stack.absorber {
+            AbsorberSpec::Urbach { urbach_mev } => Some(urbach_mev),
+            _ => None,
+        })
+    });
     let last_urbach = RwSignal::new(urbach.get_untracked().unwrap_or(FIRST_URBACH_MEV));
     // bumped when a choice is refused, so the radios show the one in use again
     let refresh = RwSignal::new(0u32);
@@ -137,7 +155,10 @@ pub fn eqe_section(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView
             "measured" => match kept_table.get_untracked() {
                 Some(t) => set_absorber(ctx, "absorber", AbsorberSpec::Measured(t)),
                 None => {
-                    ctx.set_error("absorber", "Load an EQE file first (below); the current absorptance is still in use.".into());
+                    ctx.set_error(
+                        "absorber",
+                        "Load an EQE file first (below); the current absorptance is still in use.".into(),
+                    );
                     false
                 }
             },

@@ -45,7 +45,8 @@ fn draw_bar<DB: DrawingBackend>(
     let mut base = 0.0;
     let pc = percents(cell);
     for (j, v) in pc.iter().enumerate() {
-        bar.draw_series(std::iter::once(Rectangle::new([(0.18, base), (0.82, base + v)], colours::LOSS[j].filled()))).map_err(err)?;
+        bar.draw_series(std::iter::once(Rectangle::new([(0.18, base), (0.82, base + v)], colours::LOSS[j].filled())))
+            .map_err(err)?;
         base += v;
     }
     // labels of the parts tall enough to hold one
@@ -107,7 +108,8 @@ impl Drawing for LossPlot<'_> {
             .collect();
         for j in 0..6 {
             let upper: Vec<(f64, f64)> = curve.iter().zip(&cum).map(|(r, c)| (r.gap_ev, c[j])).collect();
-            let lower: Vec<(f64, f64)> = curve.iter().zip(&cum).rev().map(|(r, c)| (r.gap_ev, if j == 0 { 0.0 } else { c[j - 1] })).collect();
+            let lower: Vec<(f64, f64)> =
+                curve.iter().zip(&cum).rev().map(|(r, c)| (r.gap_ev, if j == 0 { 0.0 } else { c[j - 1] })).collect();
             let poly: Vec<(f64, f64)> = upper.into_iter().chain(lower).collect();
             chart2.draw_series(std::iter::once(Polygon::new(poly, colours::LOSS[j].mix(0.9).filled()))).map_err(err)?;
         }
@@ -116,7 +118,11 @@ impl Drawing for LossPlot<'_> {
         let (left, right, top, bottom) = (frame.left as i32, frame.right as i32, frame.top as i32, frame.bottom as i32);
         if g >= x.lo && g <= x.hi {
             let px = (frame.css_of_x(g) * look.scale).round() as i32;
-            root.draw(&PathElement::new(vec![(px, top), (px, bottom)], palette::GAP.stroke_width(look.px(2.0).max(1) as u32))).map_err(err)?;
+            root.draw(&PathElement::new(
+                vec![(px, top), (px, bottom)],
+                palette::GAP.stroke_width(look.px(2.0).max(1) as u32),
+            ))
+            .map_err(err)?;
             draw_tag(root, look, &format!("Eg {} eV", gap_ev(g)), px, top, left, right, &palette::GAP)?;
         }
         if look.legend {
@@ -124,8 +130,11 @@ impl Drawing for LossPlot<'_> {
             let mut lx = left + look.px(8.0);
             let ly = bottom - look.px(14.0);
             for j in 0..6 {
-                root.draw(&Rectangle::new([(lx, ly - look.px(5.0)), (lx + look.px(12.0), ly + look.px(5.0))], colours::LOSS[j].filled()))
-                    .map_err(err)?;
+                root.draw(&Rectangle::new(
+                    [(lx, ly - look.px(5.0)), (lx + look.px(12.0), ly + look.px(5.0))],
+                    colours::LOSS[j].filled(),
+                ))
+                .map_err(err)?;
                 let style = look.text(fs, &palette::INK).pos(Pos::new(HPos::Left, VPos::Center));
                 root.draw_text(SHORT[j], &style, (lx + look.px(16.0), ly)).map_err(err)?;
                 lx += look.px(24.0) + crate::app::plots::measure::text_width(SHORT[j], fs) as i32;
@@ -208,7 +217,14 @@ impl PlotBehaviour for LossCard {
 
     fn save(&self, what: &'static str) -> Result<(), String> {
         let l = self.sc.losses.get_untracked().ok_or("nothing has been computed yet")?;
-        save_plot(self.sc, "losses", what, "where the power goes in a single-junction cell", &LossPlot { l: &l }, |cap| losses_csv(&l, cap))
+        save_plot(
+            self.sc,
+            "losses",
+            what,
+            "where the power goes in a single-junction cell",
+            &LossPlot { l: &l },
+            |cap| losses_csv(&l, cap),
+        )
     }
 }
 

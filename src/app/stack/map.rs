@@ -25,7 +25,10 @@ use super::{colours, edit_stack, save_plot, set_gaps, StackCtx, MAP};
 use crate::app::card::{plot_card, Card, Hover, PlotBehaviour};
 use crate::app::engine::same_but_gap;
 use crate::app::fmt::{fixed, gap_ev, nice_step};
-use crate::app::plots::{boxed_text_rect, chart, draw_boxed_text, draw_caption, draw_legend_row, err, palette, tick_target, AxisSpec, Drawing, Frame, Look};
+use crate::app::plots::{
+    boxed_text_rect, chart, draw_boxed_text, draw_caption, draw_legend_row, err, palette, tick_target, AxisSpec,
+    Drawing, Frame, Look,
+};
 use crate::app::state::tidy;
 use crate::physics::constants::{ev, to_ev};
 use crate::physics::stack::map::tandem_map;
@@ -83,7 +86,10 @@ impl MapData {
     }
     /// (smallest, largest) efficiency of the stacks on the map [%].
     pub fn range(&self) -> (f64, f64) {
-        self.eff.iter().filter(|e| e.is_finite()).fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), &e| (a.min(e), b.max(e)))
+        self.eff
+            .iter()
+            .filter(|e| e.is_finite())
+            .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), &e| (a.min(e), b.max(e)))
     }
     /// The grid point nearest to (bottom, top) [eV].
     pub fn nearest(&self, bottom: f64, top: f64) -> Option<(usize, usize)> {
@@ -222,7 +228,13 @@ fn pump(sc: StackCtx, id: u64) {
         while job.next < job.tops_j.len() && now() - t0 < SLICE_MS {
             let end = (job.next + job.rows).min(job.tops_j.len());
             let c0 = now();
-            let part = tandem_map(&job.setup.light, &job.setup.cell, job.key.connection, &job.tops_j[job.next..end], &job.bottoms_j);
+            let part = tandem_map(
+                &job.setup.light,
+                &job.setup.cell,
+                job.key.connection,
+                &job.tops_j[job.next..end],
+                &job.bottoms_j,
+            );
             let took = now() - c0;
             job.eff[job.next * nb..end * nb].copy_from_slice(&part.efficiency);
             job.next = end;
@@ -267,7 +279,8 @@ fn refine_best(sc: StackCtx, id: u64) {
         let (_, data, _) = m.done.as_ref().filter(|d| d.1.id == id && d.1.refined.is_none() && m.job.is_none())?;
         let tops: Vec<f64> = data.tops_ev.iter().map(|g| ev(*g)).collect();
         let bottoms: Vec<f64> = data.bottoms_ev.iter().map(|g| ev(*g)).collect();
-        let starts: Vec<Vec<f64>> = grid_maxima(&tops, &bottoms, &data.eff).into_iter().take(POLISHED_STARTS).map(|(x, _)| x).collect();
+        let starts: Vec<Vec<f64>> =
+            grid_maxima(&tops, &bottoms, &data.eff).into_iter().take(POLISHED_STARTS).map(|(x, _)| x).collect();
         (!starts.is_empty()).then_some(starts)
     });
     if let Some(starts) = starts {
@@ -325,7 +338,9 @@ fn polish_next(sc: StackCtx, id: u64, starts: Rc<Vec<Vec<f64>>>, k: usize, best:
     });
     match step {
         None => {}
-        Some(Err((best, busy))) => set_timeout(move || polish_next(sc, id, starts, k + 1, Some(best), busy), Duration::ZERO),
+        Some(Err((best, busy))) => {
+            set_timeout(move || polish_next(sc, id, starts, k + 1, Some(best), busy), Duration::ZERO)
+        }
         Some(Ok(data)) => {
             crate::app::state::mark("gg-map-refined");
             sc.map.try_set(Some(data));
@@ -337,8 +352,12 @@ fn finish(job: &Job) -> MapData {
     let tops_ev: Vec<f64> = job.tops_j.iter().map(|g| to_ev(*g)).collect();
     let bottoms_ev: Vec<f64> = job.bottoms_j.iter().map(|g| to_ev(*g)).collect();
     let nb = bottoms_ev.len();
-    let eff: Vec<f64> =
-        job.eff.iter().enumerate().map(|(idx, e)| if job.bottoms_j[idx % nb] < job.tops_j[idx / nb] { e * 100.0 } else { f64::NAN }).collect();
+    let eff: Vec<f64> = job
+        .eff
+        .iter()
+        .enumerate()
+        .map(|(idx, e)| if job.bottoms_j[idx % nb] < job.tops_j[idx / nb] { e * 100.0 } else { f64::NAN })
+        .collect();
     let best = eff
         .iter()
         .enumerate()
@@ -434,7 +453,10 @@ pub fn contour(m: &MapData, level: f64) -> Vec<[(f64, f64); 2]> {
                 let (pa, pb) = (p(a), p(b));
                 (pa.0 + t * (pb.0 - pa.0), pa.1 + t * (pb.1 - pa.1))
             };
-            let edges: Vec<(f64, f64)> = (0..4).filter(|&j| (v[j] >= level) != (v[(j + 1) % 4] >= level)).map(|j| cross(j, (j + 1) % 4)).collect();
+            let edges: Vec<(f64, f64)> = (0..4)
+                .filter(|&j| (v[j] >= level) != (v[(j + 1) % 4] >= level))
+                .map(|j| cross(j, (j + 1) % 4))
+                .collect();
             match edges.len() {
                 2 => out.push([edges[0], edges[1]]),
                 4 => {
@@ -463,7 +485,9 @@ fn dashes(points: &[(f64, f64)], on: f64, off: f64) -> Vec<Vec<(i32, i32)>> {
     let mut out = Vec::new();
     let mut cur: Vec<(i32, i32)> = Vec::new();
     let (mut drawing, mut phase) = (true, 0.0);
-    let at = |a: (f64, f64), b: (f64, f64), t: f64| ((a.0 + t * (b.0 - a.0)).round() as i32, (a.1 + t * (b.1 - a.1)).round() as i32);
+    let at = |a: (f64, f64), b: (f64, f64), t: f64| {
+        ((a.0 + t * (b.0 - a.0)).round() as i32, (a.1 + t * (b.1 - a.1)).round() as i32)
+    };
     for w in points.windows(2) {
         let (a, b) = (w[0], w[1]);
         let len = ((b.0 - a.0).powi(2) + (b.1 - a.1).powi(2)).sqrt();
@@ -504,7 +528,12 @@ fn on_axes(frame: &Frame, bottom: f64, top: f64) -> bool {
 }
 
 /// The marker of the best grid point at `p` [backend px]: a diamond, filled or outlined.
-fn draw_diamond<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, look: &Look, (px, py): (i32, i32), filled: bool) -> Result<(), String> {
+fn draw_diamond<DB: DrawingBackend>(
+    root: &DrawingArea<DB, Shift>,
+    look: &Look,
+    (px, py): (i32, i32),
+    filled: bool,
+) -> Result<(), String> {
     let r = look.px(6.0);
     let diamond = vec![(px, py - r), (px + r, py), (px, py + r), (px - r, py), (px, py - r)];
     if filled {
@@ -519,7 +548,11 @@ fn draw_diamond<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, look: &Look, 
 
 /// The marker of the refined optimum at `p` [backend px]: a white star edged in the colour
 /// of the best point.
-fn draw_star<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, look: &Look, (px, py): (i32, i32)) -> Result<(), String> {
+fn draw_star<DB: DrawingBackend>(
+    root: &DrawingArea<DB, Shift>,
+    look: &Look,
+    (px, py): (i32, i32),
+) -> Result<(), String> {
     let star = star_points(px, py, look.size(10.0), look.size(4.2));
     root.draw(&Polygon::new(star.clone(), WHITE.filled())).map_err(err)?;
     let mut outline = star;
@@ -529,7 +562,11 @@ fn draw_star<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, look: &Look, (px
 }
 
 /// The design's marker at `p` [backend px]: a ring with a dot.
-fn draw_ring<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, look: &Look, (px, py): (i32, i32)) -> Result<(), String> {
+fn draw_ring<DB: DrawingBackend>(
+    root: &DrawingArea<DB, Shift>,
+    look: &Look,
+    (px, py): (i32, i32),
+) -> Result<(), String> {
     let r = look.px(7.0);
     root.draw(&Circle::new((px, py), r, WHITE.stroke_width(look.px(4.0).max(1) as u32))).map_err(err)?;
     root.draw(&Circle::new((px, py), r, palette::GAP.stroke_width(look.px(2.2).max(1) as u32))).map_err(err)?;
@@ -628,11 +665,20 @@ impl MapPlot<'_> {
             let c = colours::ramp((level - lo) / (hi - lo));
             let line = if colours::is_dark(c) { WHITE.mix(0.75) } else { palette::INK.mix(0.5) };
             let segs = contour(m, *level);
-            chart.draw_series(segs.into_iter().map(|s| PathElement::new(s.to_vec(), line.stroke_width(look.px(1.1).max(1) as u32)))).map_err(err)?;
+            chart
+                .draw_series(
+                    segs.into_iter()
+                        .map(|s| PathElement::new(s.to_vec(), line.stroke_width(look.px(1.1).max(1) as u32))),
+                )
+                .map_err(err)?;
         }
         // where the two photocurrents match (series maxima lie close to it)
         if m.connection == Connection::Series && m.matched.len() >= 2 {
-            let px: Vec<(f64, f64)> = m.matched.iter().map(|p| (frame.css_of_x(p.0) * look.scale, frame.css_of_y(p.1) * look.scale)).collect();
+            let px: Vec<(f64, f64)> = m
+                .matched
+                .iter()
+                .map(|p| (frame.css_of_x(p.0) * look.scale, frame.css_of_y(p.1) * look.scale))
+                .collect();
             let style = MATCHED.stroke_width(look.px(2.0).max(1) as u32);
             for dash in dashes(&px, look.size(7.0), look.size(5.0)) {
                 root.draw(&PathElement::new(dash, style)).map_err(err)?;
@@ -661,16 +707,22 @@ impl MapPlot<'_> {
             let c = colours::ramp((s as f64 + 0.5) / steps as f64);
             root.draw(&Rectangle::new([(bar_x, yb), (bar_x + bar_w, ya)], c.filled())).map_err(err)?;
         }
-        root.draw(&Rectangle::new([(bar_x, top), (bar_x + bar_w, bottom)], palette::AXIS.stroke_width(1))).map_err(err)?;
+        root.draw(&Rectangle::new([(bar_x, top), (bar_x + bar_w, bottom)], palette::AXIS.stroke_width(1)))
+            .map_err(err)?;
         let fs = look.tick_font();
         let label_style = look.text(fs, &palette::INK).pos(Pos::new(HPos::Left, VPos::Center));
         let decimals = crate::app::fmt::decimals_of(levels.get(1).map(|b| b - levels[0]).unwrap_or(1.0));
         let mut last_y = i32::MAX;
         for level in &levels {
             let py = bottom - ((level - lo) / (hi - lo) * (bottom - top) as f64).round() as i32;
-            root.draw(&PathElement::new(vec![(bar_x, py), (bar_x + bar_w + look.px(4.0), py)], palette::INK.stroke_width(1))).map_err(err)?;
+            root.draw(&PathElement::new(
+                vec![(bar_x, py), (bar_x + bar_w + look.px(4.0), py)],
+                palette::INK.stroke_width(1),
+            ))
+            .map_err(err)?;
             if (last_y - py).abs() as f64 >= fs * 1.1 {
-                root.draw_text(&fixed(*level, decimals), &label_style, (bar_x + bar_w + look.px(6.0), py)).map_err(err)?;
+                root.draw_text(&fixed(*level, decimals), &label_style, (bar_x + bar_w + look.px(6.0), py))
+                    .map_err(err)?;
                 last_y = py;
             }
         }
@@ -700,7 +752,9 @@ impl MapPlot<'_> {
     fn best_tag(&self, look: &Look, frame: &Frame) -> Option<(String, Option<(i32, i32)>)> {
         let m = self.map;
         let at = |b: f64, t: f64| {
-            on_axes(frame, b, t).then(|| ((frame.css_of_x(b) * look.scale).round() as i32, (frame.css_of_y(t) * look.scale).round() as i32))
+            on_axes(frame, b, t).then(|| {
+                ((frame.css_of_x(b) * look.scale).round() as i32, (frame.css_of_y(t) * look.scale).round() as i32)
+            })
         };
         match (m.refined, m.best) {
             (Some((t, b, e)), _) => {
@@ -708,7 +762,9 @@ impl MapPlot<'_> {
                 let what = if at.is_some() { "optimum" } else { "optimum off the map:" };
                 Some((format!("{what} {} / {} eV · {} %", fixed(t, 3), fixed(b, 3), fixed(e, 2)), at))
             }
-            (None, Some((t, b, e))) => Some((format!("best of the grid {} / {} eV · {} %", fixed(t, 2), fixed(b, 2), fixed(e, 2)), at(b, t))),
+            (None, Some((t, b, e))) => {
+                Some((format!("best of the grid {} / {} eV · {} %", fixed(t, 2), fixed(b, 2), fixed(e, 2)), at(b, t)))
+            }
             (None, None) => None,
         }
     }
@@ -716,19 +772,27 @@ impl MapPlot<'_> {
     /// What is redrawn over the cached map when the design moves: the design's marker, its
     /// label and the optimum's label (so that the two labels and the markers keep clear of
     /// each other).
-    fn draw_design<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look, frame: &Frame) -> Result<(), String> {
+    fn draw_design<DB: DrawingBackend>(
+        &self,
+        root: &DrawingArea<DB, Shift>,
+        look: &Look,
+        frame: &Frame,
+    ) -> Result<(), String> {
         let m = self.map;
         let (left, right, top, bottom) = (frame.left as i32, frame.right as i32, frame.top as i32, frame.bottom as i32);
         let bounds = (left, top, right, bottom);
         let design = self.design.pair.map(|(t, b)| (t, b, on_axes(frame, b, t)));
-        let design_at = design
-            .filter(|d| d.2)
-            .map(|(t, b, _)| ((frame.css_of_x(b) * look.scale).round() as i32, (frame.css_of_y(t) * look.scale).round() as i32));
+        let design_at = design.filter(|d| d.2).map(|(t, b, _)| {
+            ((frame.css_of_x(b) * look.scale).round() as i32, (frame.css_of_y(t) * look.scale).round() as i32)
+        });
         let around = |(x, y): (i32, i32), r: i32| (x - r, y - r, x + r, y + r);
         // what the labels keep clear of: the markers and the labels already placed
         let mut taken: Vec<Rect> = design_at.map(|p| around(p, look.px(10.0))).into_iter().collect();
         if let Some((t, b, _)) = m.best.filter(|(t, b, _)| m.refined.is_some() && on_axes(frame, *b, *t)) {
-            taken.push(around(((frame.css_of_x(b) * look.scale).round() as i32, (frame.css_of_y(t) * look.scale).round() as i32), look.px(8.0)));
+            taken.push(around(
+                ((frame.css_of_x(b) * look.scale).round() as i32, (frame.css_of_y(t) * look.scale).round() as i32),
+                look.px(8.0),
+            ));
         }
         let (dx, dy) = (look.px(11.0), look.px(8.0));
 
@@ -741,7 +805,13 @@ impl MapPlot<'_> {
                     let left_side = (HPos::Right, x - dx);
                     let below = (VPos::Top, y + dy);
                     let above = (VPos::Bottom, y - dy);
-                    clear_place(look, &text, &[(right_side, below), (left_side, below), (right_side, above), (left_side, above)], bounds, &taken)
+                    clear_place(
+                        look,
+                        &text,
+                        &[(right_side, below), (left_side, below), (right_side, above), (left_side, above)],
+                        bounds,
+                        &taken,
+                    )
                 }
                 None => ((HPos::Left, left + look.px(4.0)), (VPos::Bottom, bottom - look.px(4.0))),
             };
@@ -766,7 +836,13 @@ impl MapPlot<'_> {
                 let (near, far) = if left_of_best { (left_side, right_side) } else { (right_side, left_side) };
                 let above = (VPos::Bottom, py - dy);
                 let below = (VPos::Top, py + dy);
-                let ((hp, x), (vp, y)) = clear_place(look, &text, &[(near, above), (far, above), (near, below), (far, below)], bounds, &taken);
+                let ((hp, x), (vp, y)) = clear_place(
+                    look,
+                    &text,
+                    &[(near, above), (far, above), (near, below), (far, below)],
+                    bounds,
+                    &taken,
+                );
                 draw_boxed_text(root, look, &text, x, y, hp, vp, &palette::GAP, bounds)?;
             }
             (Some(_), None) => {
@@ -829,21 +905,34 @@ fn context_2d(c: &web_sys::HtmlCanvasElement) -> Option<web_sys::CanvasRendering
 /// Draw the map on the page's canvas. The base layer (heat map, contours, axes) is drawn once
 /// per map and canvas size and then copied, so moving the design redraws only its marker.
 pub fn draw_on_page(canvas: &web_sys::HtmlCanvasElement, plot: &MapPlot) -> Result<Option<Frame>, String> {
-    let dpr = web_sys::window().map(|w| w.device_pixel_ratio()).filter(|r| r.is_finite() && *r > 0.0).unwrap_or(1.0).clamp(1.0, 4.0);
-    let size = ((canvas.client_width() as f64 * dpr).round() as u32, (canvas.client_height() as f64 * dpr).round() as u32);
+    let dpr = web_sys::window()
+        .map(|w| w.device_pixel_ratio())
+        .filter(|r| r.is_finite() && *r > 0.0)
+        .unwrap_or(1.0)
+        .clamp(1.0, 4.0);
+    let size =
+        ((canvas.client_width() as f64 * dpr).round() as u32, (canvas.client_height() as f64 * dpr).round() as u32);
     if size.0 == 0 || size.1 == 0 {
         return Ok(None);
     }
     let fits = (canvas.width(), canvas.height()) == size;
-    let cached = BASE.with(|b| b.borrow().as_ref().filter(|c| fits && c.id == plot.map.id && c.size == size).map(|c| (c.image.clone(), c.frame)));
+    let cached = BASE.with(|b| {
+        b.borrow()
+            .as_ref()
+            .filter(|c| fits && c.id == plot.map.id && c.size == size)
+            .map(|c| (c.image.clone(), c.frame))
+    });
     let frame = match cached {
         Some((image, frame)) => {
             let ctx = context_2d(canvas).ok_or("this browser gave no 2D drawing context for the map")?;
-            ctx.draw_image_with_html_canvas_element(&image, 0.0, 0.0).map_err(|_| "the map could not be copied".to_string())?;
+            ctx.draw_image_with_html_canvas_element(&image, 0.0, 0.0)
+                .map_err(|_| "the map could not be copied".to_string())?;
             frame
         }
         None => {
-            let Some(frame) = crate::app::plots::render::draw_on_canvas(canvas, &MapBase(plot))? else { return Ok(None) };
+            let Some(frame) = crate::app::plots::render::draw_on_canvas(canvas, &MapBase(plot))? else {
+                return Ok(None);
+            };
             // keep a copy of the base for the next redraw
             let copy = web_sys::window()
                 .and_then(|w| w.document())
@@ -861,7 +950,8 @@ pub fn draw_on_page(canvas: &web_sys::HtmlCanvasElement, plot: &MapPlot) -> Resu
             frame
         }
     };
-    let backend = plotters_canvas::CanvasBackend::with_canvas_object(canvas.clone()).ok_or("this browser gave no 2D drawing context for the map")?;
+    let backend = plotters_canvas::CanvasBackend::with_canvas_object(canvas.clone())
+        .ok_or("this browser gave no 2D drawing context for the map")?;
     let root = backend.into_drawing_area();
     plot.draw_design(&root, &Look::screen(dpr), &frame)?;
     root.present().map_err(err)?;
@@ -871,13 +961,19 @@ pub fn draw_on_page(canvas: &web_sys::HtmlCanvasElement, plot: &MapPlot) -> Resu
 fn map_csv(m: &MapData, what: &str) -> String {
     let mut out = String::new();
     let _ = writeln!(out, "# Glowgap: {what}");
-    let _ = writeln!(out, "# efficiency of every two-junction stack of the grid; empty where the bottom gap is not below the top gap");
+    let _ = writeln!(
+        out,
+        "# efficiency of every two-junction stack of the grid; empty where the bottom gap is not below the top gap"
+    );
     let _ = writeln!(out, "# Detailed-balance limits of an ideal stack: upper bounds, not predictions of a device.");
     if let Some((t, b, e)) = m.best {
         let _ = writeln!(out, "# best point of the grid: top {t:.6} eV, bottom {b:.6} eV, {e:.4} %");
     }
     if let Some((t, b, e)) = m.refined {
-        let _ = writeln!(out, "# optimum refined from the grid's best local maxima (simplex): top {t:.6} eV, bottom {b:.6} eV, {e:.4} %");
+        let _ = writeln!(
+            out,
+            "# optimum refined from the grid's best local maxima (simplex): top {t:.6} eV, bottom {b:.6} eV, {e:.4} %"
+        );
     }
     let _ = writeln!(out, "top gap (eV),bottom gap (eV),efficiency (%)");
     for (i, t) in m.tops_ev.iter().enumerate() {
@@ -1027,14 +1123,19 @@ fn legend(sc: StackCtx) -> impl IntoView {
     let optimum = move || sc.map.with(|m| m.as_ref().and_then(|m| m.refined));
     let has_best = move || sc.map.with(|m| m.as_ref().is_some_and(|m| m.best.is_some()));
     let refined = move || match optimum() {
-        Some((t, b, e)) => format!("optimum, refined from the grid: top {} eV, bottom {} eV, {} %", fixed(t, 4), fixed(b, 4), fixed(e, 3)),
+        Some((t, b, e)) => format!(
+            "optimum, refined from the grid: top {} eV, bottom {} eV, {} %",
+            fixed(t, 4),
+            fixed(b, 4),
+            fixed(e, 3)
+        ),
         None => "refining the optimum…".to_string(),
     };
     let best = move || {
         sc.map.with(|m| {
-            m.as_ref()
-                .and_then(|m| m.best)
-                .map(|(t, b, e)| format!("best point of the grid: top {} eV, bottom {} eV, {} %", fixed(t, 3), fixed(b, 3), fixed(e, 2)))
+            m.as_ref().and_then(|m| m.best).map(|(t, b, e)| {
+                format!("best point of the grid: top {} eV, bottom {} eV, {} %", fixed(t, 3), fixed(b, 3), fixed(e, 2))
+            })
         })
     };
     let series = move || sc.map.with(|m| m.as_ref().is_some_and(|m| m.connection == Connection::Series));
@@ -1058,7 +1159,9 @@ fn legend(sc: StackCtx) -> impl IntoView {
                 fixed(m.compute_ms, 0),
                 fixed(m.refine_ms, 0)
             ),
-            (_, Some(m)) => format!("{}×{} stacks in {} ms", m.tops_ev.len(), m.bottoms_ev.len(), fixed(m.compute_ms, 0)),
+            (_, Some(m)) => {
+                format!("{}×{} stacks in {} ms", m.tops_ev.len(), m.bottoms_ev.len(), fixed(m.compute_ms, 0))
+            }
             _ => String::new(),
         })
     };
@@ -1103,7 +1206,9 @@ fn resolution_tool(sc: StackCtx) -> impl IntoView {
             list.push(now);
             list.sort_unstable();
         }
-        list.into_iter().map(|n| view! { <option value=n.to_string() prop:selected=n == now>{format!("{n} × {n}")}</option> }).collect_view()
+        list.into_iter()
+            .map(|n| view! { <option value=n.to_string() prop:selected=n == now>{format!("{n} × {n}")}</option> })
+            .collect_view()
     };
     view! {
         <label class="range-field">
@@ -1116,7 +1221,9 @@ fn resolution_tool(sc: StackCtx) -> impl IntoView {
 pub fn map_card(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView {
     let ctx = sc.ctx;
     let progress = move || match sc.map_status.get() {
-        MapStatus::Computing(f) => Some(view! { <progress class="map-progress" data-progress="map" max="1" value=f.to_string()></progress> }),
+        MapStatus::Computing(f) => {
+            Some(view! { <progress class="map-progress" data-progress="map" max="1" value=f.to_string()></progress> })
+        }
         _ => None,
     };
     let note = view! {

@@ -149,7 +149,14 @@ pub fn caption(s: &Scenario, what: &str) -> String {
 
 /// Offer one of the panel's plots as a file, `what` = "svg", "png" or "csv", named after
 /// `slug`; `describe` goes into the caption, `csv` writes the plotted data under it.
-pub fn save_plot(sc: StackCtx, slug: &str, what: &str, describe: &str, plot: &impl Drawing, csv: impl FnOnce(&str) -> String) -> Result<(), String> {
+pub fn save_plot(
+    sc: StackCtx,
+    slug: &str,
+    what: &str,
+    describe: &str,
+    plot: &impl Drawing,
+    csv: impl FnOnce(&str) -> String,
+) -> Result<(), String> {
     use super::export::{download_text, download_url};
     use super::plots::render::{png_data_url, svg_text};
     let cap = sc.ctx.scenario.with_untracked(|s| caption(s, describe));
@@ -217,7 +224,13 @@ pub fn StackPanel() -> impl IntoView {
         match outcome {
             Ok(v) => {
                 let v = Arc::new(v);
-                draw_into(SPECTRUM, &targets[SPECTRUM], &spectrum::SpectrumPlot { v: &v, selected }, &mut frames, &mut errors);
+                draw_into(
+                    SPECTRUM,
+                    &targets[SPECTRUM],
+                    &spectrum::SpectrumPlot { v: &v, selected },
+                    &mut frames,
+                    &mut errors,
+                );
                 sc.view.set(Some(v));
                 if sc.error.with_untracked(|e| e.is_some()) {
                     sc.error.set(None);

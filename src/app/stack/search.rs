@@ -115,7 +115,8 @@ fn module_urls() -> Option<(String, String)> {
         let end = script[start..].find('\'')? + start;
         Some(script[start..end].to_string())
     })?;
-    let wasm = attr("link[rel=\"preload\"][href$=\".wasm\"]").unwrap_or_else(|| js.trim_end_matches(".js").to_string() + "_bg.wasm");
+    let wasm = attr("link[rel=\"preload\"][href$=\".wasm\"]")
+        .unwrap_or_else(|| js.trim_end_matches(".js").to_string() + "_bg.wasm");
     let abs = |u: &str| web_sys::Url::new_with_base(u, &base).ok().map(|u| u.href());
     Some((abs(&js)?, abs(&wasm)?))
 }
@@ -124,11 +125,14 @@ fn new_worker(sc: StackCtx) -> Result<Runner, String> {
     let parts = js_sys::Array::of1(&JsValue::from_str(WORKER_SCRIPT));
     let opts = web_sys::BlobPropertyBag::new();
     opts.set_type("text/javascript");
-    let blob = web_sys::Blob::new_with_str_sequence_and_options(&parts, &opts).map_err(|_| "the browser could not make the worker's script")?;
-    let url = web_sys::Url::create_object_url_with_blob(&blob).map_err(|_| "the browser could not make the worker's script")?;
+    let blob = web_sys::Blob::new_with_str_sequence_and_options(&parts, &opts)
+        .map_err(|_| "the browser could not make the worker's script")?;
+    let url = web_sys::Url::create_object_url_with_blob(&blob)
+        .map_err(|_| "the browser could not make the worker's script")?;
     let wo = web_sys::WorkerOptions::new();
     wo.set_type(web_sys::WorkerType::Module);
-    let worker = web_sys::Worker::new_with_options(&url, &wo).map_err(|_| "this browser cannot start a background worker for the search")?;
+    let worker = web_sys::Worker::new_with_options(&url, &wo)
+        .map_err(|_| "this browser cannot start a background worker for the search")?;
     let _ = web_sys::Url::revoke_object_url(&url);
     let on_message = Closure::<dyn FnMut(web_sys::MessageEvent)>::new(move |e: web_sys::MessageEvent| {
         if let Some(text) = e.data().as_string() {
@@ -139,8 +143,17 @@ fn new_worker(sc: StackCtx) -> Result<Runner, String> {
     });
     let on_error = Closure::<dyn FnMut(web_sys::Event)>::new(move |e: web_sys::Event| {
         e.prevent_default();
-        let msg = js_sys::Reflect::get(&e, &JsValue::from_str("message")).ok().and_then(|m| m.as_string()).unwrap_or_default();
-        fail(sc, format!("The search stopped: the background worker failed{}.", if msg.is_empty() { String::new() } else { format!(" ({msg})") }));
+        let msg = js_sys::Reflect::get(&e, &JsValue::from_str("message"))
+            .ok()
+            .and_then(|m| m.as_string())
+            .unwrap_or_default();
+        fail(
+            sc,
+            format!(
+                "The search stopped: the background worker failed{}.",
+                if msg.is_empty() { String::new() } else { format!(" ({msg})") }
+            ),
+        );
     });
     worker.set_onmessage(Some(on_message.as_ref().unchecked_ref()));
     worker.set_onerror(Some(on_error.as_ref().unchecked_ref()));
@@ -206,7 +219,8 @@ fn apply(sc: StackCtx, job: Started, r: SearchReply, elapsed: f64) -> Option<Sea
     }
     // 0.1 meV is far below any gap that matters, and reads better than 1 µeV; the fixed gap
     // stays exactly as given
-    let gaps: Vec<f64> = r.gaps_ev.iter().map(|&g| if Some(g) == job.fix.0 { g } else { (g * 1e4).round() / 1e4 }).collect();
+    let gaps: Vec<f64> =
+        r.gaps_ev.iter().map(|&g| if Some(g) == job.fix.0 { g } else { (g * 1e4).round() / 1e4 }).collect();
     if let Some(f) = job.fix.0 {
         if !gaps.contains(&f) {
             return sc.search.try_set(SearchState::Failed(format!(
@@ -251,7 +265,8 @@ pub fn start(sc: StackCtx) {
     // say what is wrong here rather than from the worker
     let checked = check_gaps(&s.stack.gaps_ev).and_then(|_| {
         let setup = super::compute::setup_of(&s.cell)?;
-        let settings = crate::scenario::stack::OptimizeSettings { junctions: s.stack.gaps_ev.len(), ..s.stack.optimize.clone() };
+        let settings =
+            crate::scenario::stack::OptimizeSettings { junctions: s.stack.gaps_ev.len(), ..s.stack.optimize.clone() };
         settings.to_problem(&setup.light, &setup.cell, s.stack.connection).map(|_| ())
     });
     if let Err(e) = checked {
@@ -259,7 +274,8 @@ pub fn start(sc: StackCtx) {
         return;
     }
     let Some((module, wasm)) = module_urls() else {
-        sc.search.set(SearchState::Failed("The search could not find the app's module to run in the background.".into()));
+        sc.search
+            .set(SearchState::Failed("The search could not find the app's module to run in the background.".into()));
         return;
     };
     let have = RUNNER.with(|r| r.borrow().is_some());
@@ -276,8 +292,11 @@ pub fn start(sc: StackCtx) {
         c.set(c.get() + 1);
         c.get()
     });
-    let before = sc.view.with_untracked(|v| v.as_ref().map(|v| v.report.display("stack-efficiency")).unwrap_or_else(|| "—".into()));
-    let msg = serde_json::json!({ "id": id, "module": module, "wasm": wasm, "job": crate::codec::to_json(&s) }).to_string();
+    let before = sc
+        .view
+        .with_untracked(|v| v.as_ref().map(|v| v.report.display("stack-efficiency")).unwrap_or_else(|| "—".into()));
+    let msg =
+        serde_json::json!({ "id": id, "module": module, "wasm": wasm, "job": crate::codec::to_json(&s) }).to_string();
     let posted = RUNNER.with(|r| {
         let mut r = r.borrow_mut();
         let r = r.as_mut()?;
@@ -435,7 +454,9 @@ pub fn search_section(sc: StackCtx) -> impl IntoView {
     let running = move || sc.search.with(|s| s.running());
     let from = Memo::new(move |_| ctx.scenario.with(|s| s.stack.optimize.from_ev));
     let to = Memo::new(move |_| ctx.scenario.with(|s| s.stack.optimize.to_ev));
-    let bad = |text: &str| format!("'{text}' is not a band gap; type a number of eV, e.g. 0.5. The search range is unchanged.");
+    let bad = |text: &str| {
+        format!("'{text}' is not a band gap; type a number of eV, e.g. 0.5. The search range is unchanged.")
+    };
     let what = move || {
         ctx.scenario.with(|s| {
             let o = &s.stack.optimize;
@@ -455,7 +476,11 @@ pub fn search_section(sc: StackCtx) -> impl IntoView {
             if evaluations == 0 {
                 "Starting the search…".to_string()
             } else {
-                format!("Searching… {} stacks evaluated ({} s)", thousands(evaluations as f64), fixed(elapsed / 1000.0, 1))
+                format!(
+                    "Searching… {} stacks evaluated ({} s)",
+                    thousands(evaluations as f64),
+                    fixed(elapsed / 1000.0, 1)
+                )
             }
         }
         _ => String::new(),
@@ -468,7 +493,9 @@ pub fn search_section(sc: StackCtx) -> impl IntoView {
     // settings that cannot be searched (the scenario's own check) are said at once, not
     // when the button is pressed
     let range_problem = Memo::new(move |_| {
-        ctx.scenario.with(|s| settings_of(s).check().err()).map(|e| format!("{} The search waits for usable settings.", sentence(&e)))
+        ctx.scenario
+            .with(|s| settings_of(s).check().err())
+            .map(|e| format!("{} The search waits for usable settings.", sentence(&e)))
     });
     let failed = move || match sc.search.get() {
         SearchState::Failed(t) => Some(t),

@@ -17,7 +17,9 @@ use crate::app::card::{plot_card, Card, Hover, PlotBehaviour};
 use crate::app::engine::{interpolate, nearest, SpectrumView};
 use crate::app::fmt::{csv_num, fixed, gap_ev, sig};
 use crate::app::plots::spectrum::{axis_name, value_name};
-use crate::app::plots::{chart, draw_caption, draw_legend_row, draw_tag, err, measure, palette, tick_target, AxisSpec, Drawing, Frame, Look};
+use crate::app::plots::{
+    chart, draw_caption, draw_legend_row, draw_tag, err, measure, palette, tick_target, AxisSpec, Drawing, Frame, Look,
+};
 use crate::app::state::{ev_of_nm, tidy};
 use crate::scenario::{PlotAxis, GAP_RANGE_EV};
 
@@ -79,7 +81,8 @@ fn tag_rows(look: &Look, tags: &[(&str, i32)], min_x: i32, max_x: i32) -> Vec<us
     tags.iter()
         .map(|(text, x)| {
             let (x0, x1) = tag_extent(look, text, *x, min_x, max_x);
-            let row = rows.iter().position(|r| r.iter().all(|&(a, b)| x1 + pad <= a || x0 >= b + pad)).unwrap_or(rows.len());
+            let row =
+                rows.iter().position(|r| r.iter().all(|&(a, b)| x1 + pad <= a || x0 >= b + pad)).unwrap_or(rows.len());
             if row == rows.len() {
                 rows.push(Vec::new());
             }
@@ -111,7 +114,10 @@ impl Drawing for SpectrumPlot<'_> {
             }
         }
         chart
-            .draw_series(LineSeries::new(sv.x.iter().copied().zip(sv.y.iter().copied()), palette::SPECTRUM.stroke_width(look.px(1.4).max(1) as u32)))
+            .draw_series(LineSeries::new(
+                sv.x.iter().copied().zip(sv.y.iter().copied()),
+                palette::SPECTRUM.stroke_width(look.px(1.4).max(1) as u32),
+            ))
             .map_err(err)?;
 
         let (left, right, top, bottom) = (frame.left as i32, frame.right as i32, frame.top as i32, frame.bottom as i32);
@@ -124,12 +130,15 @@ impl Drawing for SpectrumPlot<'_> {
             let px = px_of(i);
             let width = if i == self.selected { 3.0 } else { 2.0 };
             let c = colours::darker(colours::subcell(i));
-            root.draw(&PathElement::new(vec![(px, top), (px, bottom)], c.stroke_width(look.px(width).max(1) as u32))).map_err(err)?;
+            root.draw(&PathElement::new(vec![(px, top), (px, bottom)], c.stroke_width(look.px(width).max(1) as u32)))
+                .map_err(err)?;
         }
         // the most detailed tags that fit in two rows (the shortest otherwise)
         let forms: [&dyn Fn(usize) -> String; 3] = [
             &|i| match sv.axis {
-                PlotAxis::Wavelength => format!("{} · {} eV · {} nm", i + 1, gap_ev(gaps[i]), fixed(sv.x_of_ev(gaps[i]), 0)),
+                PlotAxis::Wavelength => {
+                    format!("{} · {} eV · {} nm", i + 1, gap_ev(gaps[i]), fixed(sv.x_of_ev(gaps[i]), 0))
+                }
                 PlotAxis::PhotonEnergy => format!("{} · {} eV", i + 1, gap_ev(gaps[i])),
             },
             &|i| format!("{} · {} eV", i + 1, gap_ev(gaps[i])),
@@ -138,12 +147,14 @@ impl Drawing for SpectrumPlot<'_> {
         let mut layout = Vec::new();
         for form in forms {
             layout = order.iter().map(|&i| (i, form(i))).collect::<Vec<_>>();
-            let rows = tag_rows(look, &layout.iter().map(|(i, t)| (t.as_str(), px_of(*i))).collect::<Vec<_>>(), left, right);
+            let rows =
+                tag_rows(look, &layout.iter().map(|(i, t)| (t.as_str(), px_of(*i))).collect::<Vec<_>>(), left, right);
             if rows.iter().all(|r| *r < 2) {
                 break;
             }
         }
-        let rows = tag_rows(look, &layout.iter().map(|(i, t)| (t.as_str(), px_of(*i))).collect::<Vec<_>>(), left, right);
+        let rows =
+            tag_rows(look, &layout.iter().map(|(i, t)| (t.as_str(), px_of(*i))).collect::<Vec<_>>(), left, right);
         for ((i, text), row) in layout.iter().zip(&rows) {
             let c = colours::darker(colours::subcell(*i));
             draw_tag(root, look, text, px_of(*i), top + *row as i32 * tag_h, left, right, &c)?;
@@ -176,11 +187,21 @@ fn spectrum_csv(v: &StackView, what: &str) -> String {
     let sv = &v.spectrum;
     let mut out = String::new();
     let _ = writeln!(out, "# Glowgap: {what}");
-    let _ = writeln!(out, "# band gaps top first (eV): {}", v.gaps_ev.iter().map(|g| gap_ev(*g)).collect::<Vec<_>>().join(", "));
+    let _ = writeln!(
+        out,
+        "# band gaps top first (eV): {}",
+        v.gaps_ev.iter().map(|g| gap_ev(*g)).collect::<Vec<_>>().join(", ")
+    );
     let _ = writeln!(out, "# subcell = which subcell absorbs the photon (1 = top), 0 = below every gap");
     let _ = writeln!(out, "# Detailed-balance limits of an ideal stack: upper bounds, not predictions of a device.");
     let unit = sv.unit().replace('⁻', "-").replace('¹', "1").replace('²', "2");
-    let _ = writeln!(out, "{} ({}),{} ({unit}),subcell", axis_name(sv.axis).to_lowercase(), sv.x_unit(), value_name(sv.quantity).to_lowercase());
+    let _ = writeln!(
+        out,
+        "{} ({}),{} ({unit}),subcell",
+        axis_name(sv.axis).to_lowercase(),
+        sv.x_unit(),
+        value_name(sv.quantity).to_lowercase()
+    );
     for (x, y) in sv.x.iter().zip(&sv.y) {
         let k = absorbing(&v.gaps_ev, sv.ev_of_x(*x)).map(|i| i + 1).unwrap_or(0);
         let _ = writeln!(out, "{},{},{k}", csv_num(*x), csv_num(*y));
@@ -200,7 +221,11 @@ impl SpectrumCard {
 
     /// The marker nearest to CSS x and its distance [CSS px].
     fn nearest_marker(&self, v: &StackView, f: &Frame, x_css: f64) -> Option<(usize, f64)> {
-        v.gaps_ev.iter().enumerate().map(|(i, g)| (i, (f.css_of_x(v.spectrum.x_of_ev(*g)) - x_css).abs())).min_by(|a, b| a.1.total_cmp(&b.1))
+        v.gaps_ev
+            .iter()
+            .enumerate()
+            .map(|(i, g)| (i, (f.css_of_x(v.spectrum.x_of_ev(*g)) - x_css).abs()))
+            .min_by(|a, b| a.1.total_cmp(&b.1))
     }
 
     /// Move gap `i` to `g` eV, kept strictly between its neighbours.
@@ -297,7 +322,9 @@ impl PlotBehaviour for SpectrumCard {
     fn save(&self, what: &'static str) -> Result<(), String> {
         let v = self.view().ok_or("nothing has been computed yet")?;
         let describe = format!("{}-junction stack, absorbed bands", v.gaps_ev.len());
-        save_plot(self.sc, "stack-spectrum", what, &describe, &SpectrumPlot { v: &v, selected: usize::MAX }, |cap| spectrum_csv(&v, cap))
+        save_plot(self.sc, "stack-spectrum", what, &describe, &SpectrumPlot { v: &v, selected: usize::MAX }, |cap| {
+            spectrum_csv(&v, cap)
+        })
     }
 }
 

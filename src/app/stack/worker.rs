@@ -53,7 +53,11 @@ pub fn run(job: &str, progress: &mut dyn FnMut(u64)) -> Result<SearchReply, Stri
     }
     // the fixed gap as given, not through J and back
     let fixed = problem.fixed.map(|f| f.gap_j);
-    let gaps_ev = best.gaps_j.iter().map(|g| if Some(*g) == fixed { settings.fix_ev.unwrap_or(to_ev(*g)) } else { to_ev(*g) }).collect();
+    let gaps_ev = best
+        .gaps_j
+        .iter()
+        .map(|g| if Some(*g) == fixed { settings.fix_ev.unwrap_or(to_ev(*g)) } else { to_ev(*g) })
+        .collect();
     Ok(SearchReply {
         gaps_ev,
         efficiency: best.efficiency,
@@ -70,5 +74,6 @@ pub fn glowgap_stack_search(job: &str, progress: &js_sys::Function) -> String {
     let mut tell = |n: u64| {
         let _ = progress.call1(&JsValue::NULL, &JsValue::from_f64(n as f64));
     };
-    serde_json::to_string(&run(job, &mut tell)).unwrap_or_else(|_| "{\"Err\":\"the answer could not be written\"}".into())
+    serde_json::to_string(&run(job, &mut tell))
+        .unwrap_or_else(|_| "{\"Err\":\"the answer could not be written\"}".into())
 }

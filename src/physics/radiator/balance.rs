@@ -203,7 +203,8 @@ impl Balance {
         });
         let sky_alone = Weights::from_samples(sky_alone, grid.bands.len());
         let through = emit.combine(&absorbed_sky, |e, s| (e - s).max(0.0));
-        let sky_absorbed = grid.against_blackbody(&absorbed_sky, ta) + grid.against_blackbody(&through, SPACE_TEMPERATURE_K);
+        let sky_absorbed =
+            grid.against_blackbody(&absorbed_sky, ta) + grid.against_blackbody(&through, SPACE_TEMPERATURE_K);
         let sun_absorbed = match &surroundings.sun {
             Some(sun) => sun.absorbed(|l, mu| emitter.directional(l, mu), &emitter.knots()),
             None => 0.0,
@@ -277,8 +278,7 @@ impl Balance {
     /// inside the bracket, sped up by false-position steps (the Illinois variant, Dowell &
     /// Jarratt, BIT 11, 168, 1971).
     pub fn steady_between(&self, lo: f64, hi: f64) -> Steady {
-        let exchanges = self.h_c > 0.0
-            || self.emit.bands.iter().chain(&self.emit.nodes).any(|v| *v > 0.0);
+        let exchanges = self.h_c > 0.0 || self.emit.bands.iter().chain(&self.emit.nodes).any(|v| *v > 0.0);
         if !exchanges {
             return Steady::Undefined;
         }

@@ -81,12 +81,60 @@ pub struct AbsorberBand {
 
 /// The bands of the model, with the calibrated parameters (see the module notes).
 pub const BANDS: [AbsorberBand; 6] = [
-    AbsorberBand { name: "H2O rotational", centre_cm: 230.0, strength: 150.0, width_below_cm: f64::INFINITY, width_above_cm: 70.0, overlap: 0.18, per_water: true },
-    AbsorberBand { name: "H2O 6.3 um", centre_cm: 1595.0, strength: 250.0, width_below_cm: 62.0, width_above_cm: 62.0, overlap: 0.18, per_water: true },
-    AbsorberBand { name: "H2O 2.7 um", centre_cm: 3755.0, strength: 100.0, width_below_cm: 80.0, width_above_cm: 80.0, overlap: 0.18, per_water: true },
-    AbsorberBand { name: "CO2 15 um", centre_cm: 667.0, strength: 3.0e6, width_below_cm: 5.3, width_above_cm: 5.3, overlap: 0.3, per_water: false },
-    AbsorberBand { name: "CO2 4.3 um", centre_cm: 2349.0, strength: 3.0e5, width_below_cm: 8.0, width_above_cm: 8.0, overlap: 0.3, per_water: false },
-    AbsorberBand { name: "O3 9.6 um", centre_cm: 1042.0, strength: 0.6, width_below_cm: 18.0, width_above_cm: 18.0, overlap: f64::INFINITY, per_water: false },
+    AbsorberBand {
+        name: "H2O rotational",
+        centre_cm: 230.0,
+        strength: 150.0,
+        width_below_cm: f64::INFINITY,
+        width_above_cm: 70.0,
+        overlap: 0.18,
+        per_water: true,
+    },
+    AbsorberBand {
+        name: "H2O 6.3 um",
+        centre_cm: 1595.0,
+        strength: 250.0,
+        width_below_cm: 62.0,
+        width_above_cm: 62.0,
+        overlap: 0.18,
+        per_water: true,
+    },
+    AbsorberBand {
+        name: "H2O 2.7 um",
+        centre_cm: 3755.0,
+        strength: 100.0,
+        width_below_cm: 80.0,
+        width_above_cm: 80.0,
+        overlap: 0.18,
+        per_water: true,
+    },
+    AbsorberBand {
+        name: "CO2 15 um",
+        centre_cm: 667.0,
+        strength: 3.0e6,
+        width_below_cm: 5.3,
+        width_above_cm: 5.3,
+        overlap: 0.3,
+        per_water: false,
+    },
+    AbsorberBand {
+        name: "CO2 4.3 um",
+        centre_cm: 2349.0,
+        strength: 3.0e5,
+        width_below_cm: 8.0,
+        width_above_cm: 8.0,
+        overlap: 0.3,
+        per_water: false,
+    },
+    AbsorberBand {
+        name: "O3 9.6 um",
+        centre_cm: 1042.0,
+        strength: 0.6,
+        width_below_cm: 18.0,
+        width_above_cm: 18.0,
+        overlap: f64::INFINITY,
+        per_water: false,
+    },
 ];
 
 /// Malkmus band-mean optical depth for weak-line optical depth `x` and overlap `beta`

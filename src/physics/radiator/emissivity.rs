@@ -244,11 +244,7 @@ impl Emitter {
 
 /// The pieces restricted to [lo, hi], empty ones dropped.
 fn clip(pieces: &[Piece], lo: f64, hi: f64) -> Vec<Piece> {
-    pieces
-        .iter()
-        .map(|&(a, b, v)| (a.max(lo), b.min(hi), v))
-        .filter(|(a, b, _)| b > a)
-        .collect()
+    pieces.iter().map(|&(a, b, v)| (a.max(lo), b.min(hi), v)).filter(|(a, b, _)| b > a).collect()
 }
 
 #[cfg(test)]

@@ -88,7 +88,13 @@ impl Grid {
             .filter(|w| w[1] > w[0])
             .map(|w| {
                 let (a, b) = (w[0], w[1]);
-                let inside = if a == 0.0 { 0.5 * b } else if b == f64::INFINITY { 2.0 * a } else { 0.5 * (a + b) };
+                let inside = if a == 0.0 {
+                    0.5 * b
+                } else if b == f64::INFINITY {
+                    2.0 * a
+                } else {
+                    0.5 * (a + b)
+                };
                 (a, b, inside)
             })
             .collect();

@@ -37,11 +37,8 @@ impl EfficiencyMap {
     /// The best point: (top gap [J], bottom gap [J], efficiency); None for an empty map.
     pub fn best(&self) -> Option<(f64, f64, f64)> {
         let nb = self.bottom_gaps_j.len();
-        let (idx, eff) = self
-            .efficiency
-            .iter()
-            .enumerate()
-            .fold(None, |best: Option<(usize, f64)>, (i, &e)| match best {
+        let (idx, eff) =
+            self.efficiency.iter().enumerate().fold(None, |best: Option<(usize, f64)>, (i, &e)| match best {
                 Some((_, b)) if b >= e => best,
                 _ => Some((i, e)),
             })?;

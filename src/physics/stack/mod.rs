@@ -149,7 +149,13 @@ pub fn solve_stack(light: &Illumination, template: &Cell, gaps_j: &[f64], connec
     let mut subcells: Vec<SubcellResult> = singles
         .iter()
         .zip(uppers)
-        .map(|(r, upper)| SubcellResult { gap_j: r.gap_j, upper_j: upper, jsc: r.jsc, voc: r.voc, ..Default::default() })
+        .map(|(r, upper)| SubcellResult {
+            gap_j: r.gap_j,
+            upper_j: upper,
+            jsc: r.jsc,
+            voc: r.voc,
+            ..Default::default()
+        })
         .collect();
     let voc = singles.iter().map(|r| r.voc).sum();
     let (jsc, pmax, limiting) = match connection {
@@ -162,10 +168,11 @@ pub fn solve_stack(light: &Illumination, template: &Cell, gaps_j: &[f64], connec
             (singles.iter().map(|r| r.jsc).sum(), singles.iter().map(|r| r.pmax).sum(), None)
         }
         Connection::Series => {
-            let (lim, jmin) = singles
-                .iter()
-                .enumerate()
-                .fold((0, f64::INFINITY), |(bi, bj), (i, r)| if r.jsc < bj { (i, r.jsc) } else { (bi, bj) });
+            let (lim, jmin) =
+                singles
+                    .iter()
+                    .enumerate()
+                    .fold((0, f64::INFINITY), |(bi, bj), (i, r)| if r.jsc < bj { (i, r.jsc) } else { (bi, bj) });
             let point = series::max_power(&diodes);
             for (s, d) in subcells.iter_mut().zip(&diodes) {
                 s.excess_jsc = s.jsc - jmin;
@@ -183,7 +190,11 @@ pub fn solve_stack(light: &Illumination, template: &Cell, gaps_j: &[f64], connec
 /// The efficiency alone (no per-subcell figures): what the optimizer and the map evaluate.
 pub fn stack_efficiency(light: &Illumination, template: &Cell, gaps_j: &[f64], connection: Connection) -> f64 {
     let input = light.input_power();
-    if !gaps_are_valid(gaps_j) || !(input > 0.0) || !(template.temp_k > 0.0 && template.temp_k.is_finite()) || !(template.ere > 0.0) {
+    if !gaps_are_valid(gaps_j)
+        || !(input > 0.0)
+        || !(template.temp_k > 0.0 && template.temp_k.is_finite())
+        || !(template.ere > 0.0)
+    {
         return 0.0;
     }
     let diodes = subcell_diodes(light, template, gaps_j);

@@ -365,7 +365,11 @@ fn evolve(obj: &mut Objective, d: usize, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64
     // stratified start: member i draws each coordinate from its own slice of the range
     let mut pop: Vec<Vec<f64>> = (0..np)
         .map(|i| {
-            canon((0..d).map(|_| lo + (hi - lo) * ((i as f64 + rng.unit()) / np as f64 * 0.5 + rng.unit() * 0.5)).collect())
+            canon(
+                (0..d)
+                    .map(|_| lo + (hi - lo) * ((i as f64 + rng.unit()) / np as f64 * 0.5 + rng.unit() * 0.5))
+                    .collect(),
+            )
         })
         .collect();
     let mut fit: Vec<f64> = pop.iter().map(|x| obj.efficiency(x)).collect();
@@ -454,7 +458,8 @@ fn nelder_mead(obj: &mut Objective, x0: &[f64], e0: f64, step: f64, lo: f64, hi:
         if size < tol {
             break;
         }
-        let centroid: Vec<f64> = (0..d).map(|k| simplex[..d].iter().map(|(x, _)| x[k]).sum::<f64>() / d as f64).collect();
+        let centroid: Vec<f64> =
+            (0..d).map(|k| simplex[..d].iter().map(|(x, _)| x[k]).sum::<f64>() / d as f64).collect();
         let worst = simplex[d].clone();
         let along = |t: f64| clamp(centroid.iter().zip(&worst.0).map(|(c, w)| c + t * (c - w)).collect());
         let xr = along(1.0);

@@ -63,10 +63,13 @@ fn solve(diodes: &[Diode], hint: Option<SeriesHint>, precise: bool) -> (SeriesPo
     if n == 0 || n > MAX_JUNCTIONS {
         return (SeriesPoint::default(), None);
     }
-    let (lim, jmin) = diodes
-        .iter()
-        .enumerate()
-        .fold((0, f64::INFINITY), |(bi, bj), (i, d)| if d.photocurrent() < bj { (i, d.photocurrent()) } else { (bi, bj) });
+    let (lim, jmin) = diodes.iter().enumerate().fold((0, f64::INFINITY), |(bi, bj), (i, d)| {
+        if d.photocurrent() < bj {
+            (i, d.photocurrent())
+        } else {
+            (bi, bj)
+        }
+    });
     if !(jmin > 0.0) || !jmin.is_finite() {
         return (SeriesPoint::default(), None);
     }
@@ -85,7 +88,9 @@ fn solve(diodes: &[Diode], hint: Option<SeriesHint>, precise: bool) -> (SeriesPo
         .iter()
         .enumerate()
         .filter(|&(i, _)| i != lim)
-        .map(|(_, d)| d.thermal_voltage() / s_l * (d.reduced_open_circuit_bound() + (-j_guess / d.photocurrent()).ln_1p()))
+        .map(|(_, d)| {
+            d.thermal_voltage() / s_l * (d.reduced_open_circuit_bound() + (-j_guess / d.photocurrent()).ln_1p())
+        })
         .sum();
     let mut warm = [f64::NAN; MAX_JUNCTIONS];
     // (J, V, dP/dm, d2P/dm2) at m_L = x

@@ -6,9 +6,9 @@ use plotters::element::DashedPathElement;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
-use crate::app::plots::palette::*;
 use super::{edges, padded_axis, px_x, px_y};
 use crate::app::plots::measure::text_width;
+use crate::app::plots::palette::*;
 use crate::app::plots::{chart, draw_caption, err, tick_target, AxisSpec, Frame, Look};
 use crate::app::radiator::engine::RadComputed;
 
@@ -62,13 +62,19 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadComputed, 
     let half = 0.3;
     for (i, (a, b)) in bars.iter().enumerate() {
         let xc = i as f64 + 0.5;
-        chart.draw_series(std::iter::once(Rectangle::new([(xc - half, *a), (xc + half, *b)], colours[i].mix(0.85).filled()))).map_err(err)?;
+        chart
+            .draw_series(std::iter::once(Rectangle::new(
+                [(xc - half, *a), (xc + half, *b)],
+                colours[i].mix(0.85).filled(),
+            )))
+            .map_err(err)?;
     }
 
     let plot = root.clone();
     let (left, top, right, _) = edges(&frame);
     let zero = px_y(&frame, look, 0.0);
-    plot.draw(&PathElement::new(vec![(left, zero), (right, zero)], INK.stroke_width(look.px(1.2).max(1) as u32))).map_err(err)?;
+    plot.draw(&PathElement::new(vec![(left, zero), (right, zero)], INK.stroke_width(look.px(1.2).max(1) as u32)))
+        .map_err(err)?;
     // connectors between the running levels
     let thin = MUTED.stroke_width(look.px(1.0).max(1) as u32);
     for (i, bar) in bars.iter().take(4).enumerate() {

@@ -6,9 +6,11 @@ use plotters::element::DashedPathElement;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
-use crate::app::plots::palette::*;
 use super::{edges, padded_axis, px_x, px_y};
-use crate::app::plots::{chart, draw_boxed_text, draw_caption, draw_legend_row, draw_tag, err, tick_target, AxisSpec, Frame, Look};
+use crate::app::plots::palette::*;
+use crate::app::plots::{
+    chart, draw_boxed_text, draw_caption, draw_legend_row, draw_tag, err, tick_target, AxisSpec, Frame, Look,
+};
 use crate::app::radiator::engine::RadComputed;
 
 pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadComputed, look: &Look) -> Result<Frame, String> {
@@ -28,14 +30,24 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadComputed, 
     let thin = look.px(1.0).max(1) as u32;
 
     let zero = px_y(&frame, look, 0.0);
-    plot.draw(&PathElement::new(vec![(left, zero), (right, zero)], INK.stroke_width(look.px(1.2).max(1) as u32))).map_err(err)?;
+    plot.draw(&PathElement::new(vec![(left, zero), (right, zero)], INK.stroke_width(look.px(1.2).max(1) as u32)))
+        .map_err(err)?;
     let ta = r.ambient_temp_k;
     if ta >= from && ta <= to {
         let px = px_x(&frame, look, ta);
-        plot.draw(&DashedPathElement::new(vec![(px, top), (px, bottom)], look.px(5.0), look.px(4.0), AIR.stroke_width(thin))).map_err(err)?;
+        plot.draw(&DashedPathElement::new(
+            vec![(px, top), (px, bottom)],
+            look.px(5.0),
+            look.px(4.0),
+            AIR.stroke_width(thin),
+        ))
+        .map_err(err)?;
     }
     chart
-        .draw_series(LineSeries::new(c.curve.iter().map(|p| (p.temp_k, p.net)), CURVE.stroke_width(look.px(2.2).max(1) as u32)))
+        .draw_series(LineSeries::new(
+            c.curve.iter().map(|p| (p.temp_k, p.net)),
+            CURVE.stroke_width(look.px(2.2).max(1) as u32),
+        ))
         .map_err(err)?;
 
     // the balance's own surface temperature
@@ -50,7 +62,8 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadComputed, 
         Some(t) if t >= from && t <= to => {
             let (px, py) = (px_x(&frame, look, t), px_y(&frame, look, 0.0));
             let s = look.px(6.0);
-            plot.draw(&Polygon::new(vec![(px, py - s), (px + s, py), (px, py + s), (px - s, py)], BEST.filled())).map_err(err)?;
+            plot.draw(&Polygon::new(vec![(px, py - s), (px + s, py), (px, py + s), (px - s, py)], BEST.filled()))
+                .map_err(err)?;
             draw_tag(&plot, look, &format!("steady {}", r.display("steady-temp")), px, top, left, right, &BEST)?;
         }
         _ => {
@@ -60,8 +73,19 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadComputed, 
                 None => format!("steady temperature: {}", r.steady_text()),
             };
             let right_side = r.steady_temp_k.is_some_and(|t| t > to);
-            let (anchor, ax) = if right_side { (HPos::Right, right - look.px(4.0)) } else { (HPos::Left, left + look.px(4.0)) };
-            draw_boxed_text(&plot, look, &text, ax, top + look.px(4.0), anchor, VPos::Top, &BEST, (left, top, right, bottom))?;
+            let (anchor, ax) =
+                if right_side { (HPos::Right, right - look.px(4.0)) } else { (HPos::Left, left + look.px(4.0)) };
+            draw_boxed_text(
+                &plot,
+                look,
+                &text,
+                ax,
+                top + look.px(4.0),
+                anchor,
+                VPos::Top,
+                &BEST,
+                (left, top, right, bottom),
+            )?;
         }
     }
 
@@ -69,8 +93,24 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadComputed, 
         let lx = left + look.px(14.0);
         let ly = bottom - look.px(60.0);
         draw_legend_row(&plot, look, lx, ly, &CURVE, false, "net cooling power P_net(T) (> 0 cools)")?;
-        draw_legend_row(&plot, look, lx, ly + look.px(20.0), &AIR, false, &format!("ambient {}", r.display("ambient-temp")))?;
-        draw_legend_row(&plot, look, lx, ly + look.px(40.0), &EMITTED, false, &format!("balance at {}: {}", r.display("surface-temp"), r.display("net-power")))?;
+        draw_legend_row(
+            &plot,
+            look,
+            lx,
+            ly + look.px(20.0),
+            &AIR,
+            false,
+            &format!("ambient {}", r.display("ambient-temp")),
+        )?;
+        draw_legend_row(
+            &plot,
+            look,
+            lx,
+            ly + look.px(40.0),
+            &EMITTED,
+            false,
+            &format!("balance at {}: {}", r.display("surface-temp"), r.display("net-power")),
+        )?;
     }
     Ok(frame)
 }

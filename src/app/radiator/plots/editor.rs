@@ -6,8 +6,8 @@ use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
-use crate::app::plots::palette::*;
 use super::{edges, px_x, px_y};
+use crate::app::plots::palette::*;
 use crate::app::plots::{chart, draw_caption, draw_legend_row, err, tick_target, AxisSpec, Frame, Look};
 use crate::app::radiator::engine::RadComputed;
 use crate::app::radiator::export::shown;
@@ -16,7 +16,12 @@ use crate::app::radiator::export::shown;
 pub const HANDLE_RADIUS: f64 = 5.5;
 pub const PICK_RADIUS: f64 = 11.0;
 
-pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadComputed, selected: Option<usize>, look: &Look) -> Result<Frame, String> {
+pub fn draw<DB: DrawingBackend>(
+    root: &DrawingArea<DB, Shift>,
+    c: &RadComputed,
+    selected: Option<usize>,
+    look: &Look,
+) -> Result<Frame, String> {
     root.fill(&WHITE).map_err(err)?;
     draw_caption(root, look)?;
     let (w, h) = root.dim_in_pixel();
@@ -30,14 +35,23 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadComputed, 
     // the atmospheric window
     let (w0, w1) = (8f64.log10(), 13f64.log10());
     if w0 > x.lo && w1 < x.hi {
-        chart.draw_series(std::iter::once(Rectangle::new([(w0, 0.0), (w1, 1.0)], SKY.mix(0.07).filled()))).map_err(err)?;
+        chart
+            .draw_series(std::iter::once(Rectangle::new([(w0, 0.0), (w1, 1.0)], SKY.mix(0.07).filled())))
+            .map_err(err)?;
     }
     chart
-        .draw_series(AreaSeries::new(bg.x.iter().copied().zip(bg.sky.iter().copied()), 0.0, SKY.mix(0.2).filled()).border_style(SKY.mix(0.75).stroke_width(thin)))
+        .draw_series(
+            AreaSeries::new(bg.x.iter().copied().zip(bg.sky.iter().copied()), 0.0, SKY.mix(0.2).filled())
+                .border_style(SKY.mix(0.75).stroke_width(thin)),
+        )
         .map_err(err)?;
     let sun_alpha = if c.scenario.sun.is_some() { 0.42 } else { 0.16 };
     chart
-        .draw_series(AreaSeries::new(bg.x.iter().copied().zip(bg.sun.iter().copied()), 0.0, ABSORBED.mix(sun_alpha).filled()))
+        .draw_series(AreaSeries::new(
+            bg.x.iter().copied().zip(bg.sun.iter().copied()),
+            0.0,
+            ABSORBED.mix(sun_alpha).filled(),
+        ))
         .map_err(err)?;
     chart
         .draw_series(DashedLineSeries::new(
@@ -91,7 +105,11 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadComputed, 
         let rows: [(&RGBColor, bool, String); 4] = [
             (&EMISSIVITY, false, format!("emissivity: {}", shown(c.scenario.emitter.label()))),
             (&SKY, true, format!("sky zenith transmittance: {}", shown(c.scenario.sky.label()))),
-            (&ABSORBED, true, format!("{} (peak = 1){}", bg.sun_name, if c.scenario.sun.is_some() { "" } else { ", sun off" })),
+            (
+                &ABSORBED,
+                true,
+                format!("{} (peak = 1){}", bg.sun_name, if c.scenario.sun.is_some() { "" } else { ", sun off" }),
+            ),
             (&BLACKBODY, false, format!("blackbody at {:.1} K (peak = 1)", c.scenario.surface_temperature())),
         ];
         for (k, (col, swatch, text)) in rows.iter().enumerate() {
