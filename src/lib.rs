@@ -11,6 +11,7 @@ pub mod formats;
 pub mod physics;
 pub mod report;
 pub mod scenario;
+pub mod view;
 
 #[cfg(not(target_arch = "wasm32"))]
 pub mod cli;
