@@ -5,7 +5,7 @@ use leptos::prelude::*;
 use wasm_bindgen_futures::JsFuture;
 
 use super::share::apply_scenario;
-use super::state::{sentence, validate, Ctx, Notice};
+use crate::app::state::{sentence, validate, Ctx, Notice};
 use crate::codec::from_json;
 use crate::formats::spectrum_csv::{parse_spectrum_csv, ColumnHints};
 use crate::scenario::{SourceSpec, TableSpec};

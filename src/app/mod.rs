@@ -4,35 +4,27 @@
 //! Flow: controls and plots edit the scenario signal ([`state::Ctx::edit`] checks every
 //! edit); the panel in front (the cell, [`radiator`] or [`stack`], chosen by the tab bar
 //! and kept in the scenario's view settings) has one effect that computes (with caches
-//! such as [`engine::Engine`]) and redraws its canvases; one effect of the page writes the
+//! such as [`engine::CellCache`]) and redraws its canvases; one effect of the page writes the
 //! link and the saved state ([`share`]) after every change.
 
-pub mod card;
-pub mod controls;
-pub mod engine;
-pub mod export;
-pub mod figures;
-pub mod fmt;
+pub mod cell;
 pub mod import;
-pub mod plot_card;
-pub mod plots;
 pub mod radiator;
 pub mod share;
 pub mod stack;
 pub mod state;
+pub mod widgets;
 
 use std::cell::{Cell, RefCell};
 use std::rc::Rc;
-use std::sync::Arc;
 
 use leptos::ev;
 use leptos::html;
 use leptos::prelude::*;
 
 use crate::scenario::Panel;
-use engine::Engine;
-use plots::render::{draw_on_canvas, CellPlot, PlotKind};
-use state::{count_render, mark, Ctx};
+use crate::view::cell::CellCache;
+use state::Ctx;
 
 /// Start the app (called from `main` on wasm32).
 pub fn start() {
@@ -104,64 +96,6 @@ pub fn watch_sizes(ctx: Ctx, canvases: Vec<NodeRef<html::Canvas>>) {
     });
 }
 
-/// The solar-cell panel: its settings, figures and three plots.
-fn cell_panel(ctx: Ctx, engine: StoredValue<Rc<RefCell<Engine>>, LocalStorage>) -> impl IntoView {
-    let canvases: [NodeRef<html::Canvas>; 3] = [NodeRef::new(), NodeRef::new(), NodeRef::new()];
-    Effect::new(move |_| {
-        ctx.layout.track();
-        let targets: Vec<_> = canvases.iter().map(|r| r.get()).collect();
-        let engine = engine.get_value();
-        let outcome = ctx.scenario.with(|s| engine.borrow_mut().compute(s));
-        match outcome {
-            Ok(c) => {
-                let c = Arc::new(c);
-                let mut frames = ctx.frames.get_untracked();
-                let mut errors: [Option<String>; 3] = [None, None, None];
-                for kind in PlotKind::ALL {
-                    if let Some(canvas) = &targets[kind.index()] {
-                        match draw_on_canvas(canvas, &CellPlot { kind, c: &c }) {
-                            Ok(Some(f)) => frames[kind.index()] = f,
-                            Ok(None) => {}
-                            Err(e) => errors[kind.index()] = Some(e),
-                        }
-                    }
-                }
-                mark("gg-drawn");
-                ctx.frames.set(frames);
-                if ctx.plot_errors.with_untracked(|p| *p != errors) {
-                    ctx.plot_errors.set(errors);
-                }
-                ctx.computed.set(Some(c));
-                if ctx.compute_error.with_untracked(|e| e.is_some()) {
-                    ctx.compute_error.set(None);
-                }
-            }
-            Err(e) => ctx
-                .compute_error
-                .set(Some(format!("{} The figures shown are from the last usable scenario.", state::sentence(&e)))),
-        }
-        count_render();
-    });
-    watch_sizes(ctx, canvases.to_vec());
-    view! {
-        <main class="layout">
-            <aside class="panel" aria-label="Settings">
-                {controls::source_panel(ctx)}
-                {controls::cell_panel(ctx)}
-            </aside>
-            <section class="results" aria-label="Results">
-                {figures::figures(ctx)}
-                <div class="plots">
-                    {plot_card::plot_card(ctx, PlotKind::Spectrum, canvases[0])}
-                    {plot_card::plot_card(ctx, PlotKind::Efficiency, canvases[1])}
-                    {plot_card::plot_card(ctx, PlotKind::Jv, canvases[2])}
-                </div>
-            </section>
-        </main>
-        {figures::cautions()}
-    }
-}
-
 /// The panels in tab order: (panel, hook, tab text).
 const PANELS: [(Panel, &str, &str); 3] =
     [(Panel::Cell, "cell", "Solar cell"), (Panel::Radiator, "radiator", "Radiator"), (Panel::Stack, "stack", "Stack")];
@@ -227,7 +161,7 @@ fn App() -> impl IntoView {
     let rad = radiator::RadState::new(ctx);
     provide_context(rad);
     let persist = share::Persist::new(hold);
-    let engine = StoredValue::new_local(Rc::new(RefCell::new(Engine::default())));
+    let engine = StoredValue::new_local(Rc::new(RefCell::new(CellCache::default())));
     let panel = Memo::new(move |_| ctx.scenario.with(|s| s.view.panel));
 
     // the link and the saved state follow every change, whichever panel made it: after the
@@ -293,7 +227,7 @@ fn App() -> impl IntoView {
         }
     };
     let save = move |_| {
-        let r = ctx.scenario.with_untracked(export::save_scenario);
+        let r = ctx.scenario.with_untracked(widgets::export::save_scenario);
         ctx.status.set(Some(match r {
             Ok(()) => {
                 "Saved glowgap-scenario.json; open it again with “Open scenario…” or by dropping it on the page.".into()
@@ -315,7 +249,7 @@ fn App() -> impl IntoView {
         Panel::Stack => "Detailed-balance limits of multi-junction stacks",
     };
     let body = move || match panel.get() {
-        Panel::Cell => cell_panel(ctx, engine).into_any(),
+        Panel::Cell => cell::cell_panel(ctx, engine).into_any(),
         Panel::Radiator => view! { <radiator::RadiatorPanel /> }.into_any(),
         Panel::Stack => view! { <stack::StackPanel /> }.into_any(),
     };
@@ -345,7 +279,7 @@ fn App() -> impl IntoView {
                 {move || ctx.status.get()}
                 {move || link_fallback.get().map(|l| view! { <input class="link-copy" readonly node_ref=fallback_ref value=l aria-label="Link to this scenario" /> })}
             </div>
-            {figures::notices(ctx)}
+            {widgets::notices::notices(ctx)}
             {panel_tabs(ctx, panel)}
             <p class="field-error tabs-error" data-error="panel" aria-live="polite">{move || ctx.error_of("panel")}</p>
             <div id="panel-body" role="tabpanel" aria-labelledby=move || format!("tab-{}", PANELS.iter().find(|p| p.0 == panel.get()).map(|p| p.1).unwrap_or("cell"))>

@@ -13,7 +13,7 @@ use std::time::Duration;
 use leptos::prelude::*;
 use wasm_bindgen::JsValue;
 
-use super::state::{sentence, validate, Ctx, Notice, NoticeAction};
+use crate::app::state::{sentence, validate, Ctx, Notice, NoticeAction};
 use crate::codec::{decode_link, encode_fragment, from_json, to_json, MAX_LINK_CHARS};
 use crate::scenario::{Scenario, SourceSpec};
 

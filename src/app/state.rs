@@ -8,10 +8,9 @@ use std::sync::Arc;
 
 use leptos::prelude::*;
 
-use super::engine::Computed;
-use super::plots::Frame;
-use crate::physics::constants::CHARGE;
+use crate::app::widgets::plot::Frame;
 use crate::scenario::{Scenario, TableSpec, GAP_RANGE_EV};
+use crate::view::cell::CellView;
 
 /// A message across the top of the page.
 #[derive(Debug, Clone, PartialEq)]
@@ -35,7 +34,7 @@ pub enum NoticeAction {
 #[derive(Clone, Copy)]
 pub struct Ctx {
     pub scenario: RwSignal<Scenario>,
-    pub computed: RwSignal<Option<Arc<Computed>>>,
+    pub computed: RwSignal<Option<Arc<CellView>>>,
     /// why the scenario cannot be computed (should not happen: edits are checked)
     pub compute_error: RwSignal<Option<String>>,
     /// messages next to controls, by control hook
@@ -168,12 +167,12 @@ impl Ctx {
         if gap_ev.is_nan() || !(gap_ev >= lo && gap_ev <= hi) {
             let mut msg = format!(
                 "The band gap {} eV is out of range; give a value from {lo} to {hi} eV (e.g. 1.34)",
-                super::fmt::field(gap_ev, 6)
+                crate::view::format::field(gap_ev, 6)
             );
             if (100.0..=1e5).contains(&gap_ev) {
                 msg.push_str(&format!(
                     " — for a wavelength, type it with its unit, e.g. '{} nm'",
-                    super::fmt::field(gap_ev, 6)
+                    crate::view::format::field(gap_ev, 6)
                 ));
             }
             msg.push('.');
@@ -203,16 +202,6 @@ impl Ctx {
     pub fn dismiss(&self, kind: &'static str) {
         self.notices.update(|v| v.retain(|o| o.kind != kind));
     }
-}
-
-/// Round to 1 µeV so that arithmetic on steps leaves no binary noise in links.
-pub fn tidy(v: f64) -> f64 {
-    (v * 1e6).round() / 1e6
-}
-
-/// Photon energy [eV] of a wavelength [nm].
-pub fn ev_of_nm(nm: f64) -> f64 {
-    crate::physics::constants::HC / (nm * 1e-9) / CHARGE
 }
 
 thread_local! {

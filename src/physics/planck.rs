@@ -133,6 +133,23 @@ fn scaled_by_power_of_kt(band: f64, kt: f64, p: i32) -> f64 {
     }
 }
 
+/// Spectral exitance of a black (Lambertian) surface per unit wavelength,
+/// M_lambda = pi B_lambda [W m^-2 m^-1] (radiance integrated over the hemisphere, Modest,
+/// Radiative Heat Transfer, 3rd ed., eq. 1.14). `lambda_m` [m], `temp_k` [K].
+pub fn exitance_per_wavelength(lambda_m: f64, temp_k: f64) -> f64 {
+    PI * radiance_per_wavelength(lambda_m, temp_k)
+}
+
+/// Wavelength [m] at which B_lambda (and M_lambda) peaks at `temp_k` [K]: Wien's
+/// displacement law, lambda_max = b / T (Wien 1893; b from
+/// [`super::constants::wien_displacement`]). 0 for a temperature that is not positive.
+pub fn peak_wavelength(temp_k: f64) -> f64 {
+    if !(temp_k > 0.0) {
+        return 0.0;
+    }
+    super::constants::wien_displacement() / temp_k
+}
+
 /// Total hemispherical emissive power of a black surface, sigma T^4 [W m^-2]
 /// (Stefan 1879, Boltzmann 1884). `temp_k` [K].
 pub fn stefan_boltzmann(temp_k: f64) -> f64 {
@@ -206,6 +223,19 @@ pub fn ln_photon_flux_above(e0_j: f64, temp_k: f64, mu_j: f64) -> (f64, f64, f64
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn peak_wavelength_is_wien_and_the_maximum() {
+        // CODATA 2018: b = 2.897 771 955... e-3 m K (exact constants, 10 digits published)
+        assert!((peak_wavelength(1.0) - 2.897_771_955e-3).abs() < 1e-12);
+        for t in [300.0, 1500.0, 5772.0] {
+            let l = peak_wavelength(t);
+            let m = exitance_per_wavelength(l, t);
+            // a maximum: 0.1 % either side is lower (definition of the peak)
+            assert!(m > exitance_per_wavelength(l * 1.001, t) && m > exitance_per_wavelength(l * 0.999, t));
+        }
+        assert_eq!(peak_wavelength(0.0), 0.0);
+    }
 
     #[test]
     fn forms_agree_through_jacobians() {

@@ -5,3 +5,11 @@
 //! Architecture invariant: `view` imports `scenario`, `physics`, `report` and `formats`,
 //! never `app` or `cli`, and no web crate; `app` draws what `view` returns and computes no
 //! physics of its own.
+
+pub mod cell;
+pub mod export;
+pub mod format;
+pub mod input;
+pub mod radiator;
+pub mod spectrum;
+pub mod stack;

@@ -6,13 +6,15 @@ use std::rc::Rc;
 use leptos::html;
 use leptos::prelude::*;
 
+use crate::view::export::ExportKind;
+
 use super::export;
-use super::plots::balance::{amounts, steps, BARS};
-use super::state::{RadState, Slot};
-use crate::app::card::{plot_card, range_input, Card, Hover, PlotBehaviour};
-use crate::app::engine::nearest;
-use crate::app::fmt::fixed;
+use crate::app::radiator::state::{RadState, Slot};
+use crate::app::widgets::card::{plot_card, range_input, Card, Hover, PlotBehaviour};
 use crate::report::radiator::RADIATOR_PARTS;
+use crate::view::format::fixed;
+use crate::view::radiator::{balance_amounts, balance_steps, BALANCE_BARS};
+use crate::view::spectrum::nearest;
 
 /// What each bar of the waterfall stands for.
 const BAR_NOTES: [&str; 5] = [
@@ -39,14 +41,14 @@ impl PlotBehaviour for ReadOut {
         let r = &c.report;
         match self.slot {
             Slot::Balance => {
-                let i = (f.x_at_css(x).floor().max(0.0) as usize).min(BARS.len() - 1);
+                let i = (f.x_at_css(x).floor().max(0.0) as usize).min(BALANCE_BARS.len() - 1);
                 let (label, value) = match RADIATOR_PARTS.get(i) {
                     Some((hook, label)) => (*label, r.display(hook)),
                     None => ("Net cooling power", r.display("net-power")),
                 };
-                let (a, b) = steps(&c)[i];
+                let (a, b) = balance_steps(&c)[i];
                 let dot = Some((f.css_of_x(i as f64 + 0.5), f.css_of_y(a.max(b))));
-                let change = amounts(&c)[i];
+                let change = balance_amounts(&c)[i];
                 Some(Hover::new(
                     x,
                     y,
@@ -79,9 +81,9 @@ impl PlotBehaviour for ReadOut {
         }
     }
 
-    fn save(&self, what: &'static str) -> Result<(), String> {
+    fn save(&self, kind: ExportKind) -> Result<(), String> {
         let c = self.rad.computed.get_untracked().ok_or("nothing has been computed yet")?;
-        export::save(self.slot, &c, None, what)
+        export::save(self.slot, &c, None, kind)
     }
 }
 

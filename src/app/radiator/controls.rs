@@ -10,16 +10,17 @@ use leptos::html;
 use leptos::prelude::*;
 
 use super::import::{open_emissivity, open_sky};
-use super::profile::{preset, preset_of, PRESETS};
-use super::state::RadState;
-use crate::app::controls::{drop_zone, number_field, parse_number, Field};
-use crate::app::fmt;
+use crate::app::radiator::state::RadState;
 use crate::app::state::Ctx;
+use crate::app::widgets::fields::{drop_zone, number_field, Field};
 use crate::scenario::radiator::{
     pwv_from_dew_point, reitan_dew_point_c, AngularSpec, EmitterSpec, SkySpec, AMBIENT_RANGE_K, CLEAR_SKY_AMBIENT_K,
     DEW_POINT_RANGE_C, HC_RANGE, PWV_RANGE_CM, SUN_SCALE_RANGE,
 };
 use crate::scenario::{Scenario, SourceSpec};
+use crate::view::format as fmt;
+use crate::view::input::parse_number;
+use crate::view::radiator::points::{preset, preset_of, PRESETS};
 
 fn plain(text: &str) -> Result<f64, String> {
     parse_number(text).ok_or_else(|| format!("'{}' is not a number", text.trim()))

@@ -9,17 +9,20 @@ use std::sync::Arc;
 use leptos::html;
 use leptos::prelude::*;
 
-use super::engine::RadComputed;
+use crate::view::export::ExportKind;
+
 use super::export;
 use super::plots::editor::PICK_RADIUS;
-use super::profile::{as_points, insert_after, insert_at, move_point, preset_of, remove, step_point};
-use super::state::{RadState, Slot};
-use crate::app::card::{plot_card, Card, Hover, PlotBehaviour};
-use crate::app::controls::{numeric_input, parse_number, NumberInput};
-use crate::app::engine::interpolate;
-use crate::app::fmt::{field, fixed, sig};
+use crate::app::radiator::state::{RadState, Slot};
 use crate::app::state::{mark, Ctx};
+use crate::app::widgets::card::{plot_card, Card, Hover, PlotBehaviour};
+use crate::app::widgets::fields::{numeric_input, NumberInput};
 use crate::scenario::radiator::EmitterSpec;
+use crate::view::format::{field, fixed, sig};
+use crate::view::input::parse_number;
+use crate::view::radiator::points::{as_points, insert_after, insert_at, move_point, preset_of, remove, step_point};
+use crate::view::radiator::RadiatorView;
+use crate::view::spectrum::interpolate;
 
 /// The hook under which editor messages are shown.
 pub const HOOK: &str = "emissivity-editor";
@@ -62,7 +65,7 @@ struct EditorCard {
 }
 
 impl EditorCard {
-    fn computed(&self) -> Option<Arc<RadComputed>> {
+    fn computed(&self) -> Option<Arc<RadiatorView>> {
         self.rad.computed.get_untracked()
     }
 
@@ -90,7 +93,7 @@ impl EditorCard {
     }
 
     fn range(&self) -> (f64, f64) {
-        self.computed().map(|c| c.range_um).unwrap_or(super::profile::EDITOR_RANGE_UM)
+        self.computed().map(|c| c.range_um).unwrap_or(crate::view::radiator::points::EDITOR_RANGE_UM)
     }
 
     fn edit(&self, points: Vec<[f64; 2]>) -> bool {
@@ -267,9 +270,9 @@ impl PlotBehaviour for EditorCard {
         self.release();
     }
 
-    fn save(&self, what: &'static str) -> Result<(), String> {
+    fn save(&self, kind: ExportKind) -> Result<(), String> {
         let c = self.computed().ok_or("nothing has been computed yet")?;
-        export::save(Slot::Editor, &c, self.rad.selected.get_untracked(), what)
+        export::save(Slot::Editor, &c, self.rad.selected.get_untracked(), kind)
     }
 }
 
@@ -436,8 +439,10 @@ pub fn points_table(rad: RadState) -> impl IntoView {
         let Some(pts) = points_now(rad) else { return };
         let n = pts.len();
         let at = selected(rad, n).unwrap_or(n.saturating_sub(1));
-        let range =
-            rad.computed.with_untracked(|c| c.as_ref().map(|c| c.range_um)).unwrap_or(super::profile::EDITOR_RANGE_UM);
+        let range = rad
+            .computed
+            .with_untracked(|c| c.as_ref().map(|c| c.range_um))
+            .unwrap_or(crate::view::radiator::points::EDITOR_RANGE_UM);
         match insert_after(&pts, at, range) {
             Ok((p, i)) => {
                 if commit(rad, TABLE_HOOK, p) {

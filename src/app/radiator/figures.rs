@@ -3,8 +3,8 @@
 
 use leptos::prelude::*;
 
-use super::state::RadState;
-use crate::app::figures::caution_footer;
+use crate::app::radiator::state::RadState;
+use crate::app::widgets::notices::caution_footer;
 use crate::report::radiator::{RADIATOR_METRICS, RADIATOR_PARTS};
 
 pub fn figures(rad: RadState) -> impl IntoView {

@@ -4,8 +4,8 @@
 
 use leptos::prelude::*;
 
-use super::state::RadState;
 use crate::app::import::{read_then, stem};
+use crate::app::radiator::state::RadState;
 use crate::app::state::Ctx;
 use crate::formats::emissivity_csv::{parse_emissivity_csv, parse_transmittance_csv, OpticalHints, OpticalTable};
 use crate::scenario::radiator::{EmissivityTable, EmitterSpec, SkySpec, TransmittanceTable};

@@ -17,12 +17,10 @@
 pub mod cards;
 pub mod controls;
 pub mod editor;
-pub mod engine;
 pub mod export;
 pub mod figures;
 pub mod import;
 pub mod plots;
-pub mod profile;
 pub mod state;
 
 use std::sync::Arc;
@@ -32,9 +30,9 @@ use leptos::prelude::*;
 
 pub use state::RadState;
 
-use crate::app::plots::render::draw_on_canvas;
 use crate::app::state::{count_render, mark, sentence, Ctx};
 use crate::app::watch_sizes;
+use crate::app::widgets::plot::render::draw_on_canvas;
 use plots::RadPlot;
 use state::Slot;
 

@@ -8,11 +8,11 @@ use std::sync::Arc;
 
 use leptos::prelude::*;
 
-use super::engine::{RadComputed, RadEngine};
-use crate::app::plots::Frame;
 use crate::app::state::Ctx;
+use crate::app::widgets::plot::Frame;
 use crate::scenario::radiator::{EmissivityTable, EmitterSpec, RadiatorScenario, SkySpec, TransmittanceTable};
 use crate::scenario::SourceSpec;
+use crate::view::radiator::{RadiatorCache, RadiatorView};
 
 /// The radiator's plots.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -51,8 +51,8 @@ impl Slot {
 pub struct RadState {
     pub ctx: Ctx,
     /// caches, kept while another panel is in front
-    pub engine: StoredValue<Rc<RefCell<RadEngine>>, LocalStorage>,
-    pub computed: RwSignal<Option<Arc<RadComputed>>>,
+    pub engine: StoredValue<Rc<RefCell<RadiatorCache>>, LocalStorage>,
+    pub computed: RwSignal<Option<Arc<RadiatorView>>>,
     /// why the radiator cannot be computed (should not happen: edits are checked)
     pub compute_error: RwSignal<Option<String>>,
     pub frames: RwSignal<[Frame; 3]>,
@@ -79,7 +79,7 @@ impl RadState {
     pub fn new(ctx: Ctx) -> RadState {
         let rad = RadState {
             ctx,
-            engine: StoredValue::new_local(Rc::new(RefCell::new(RadEngine::default()))),
+            engine: StoredValue::new_local(Rc::new(RefCell::new(RadiatorCache::default()))),
             computed: RwSignal::new(None),
             compute_error: RwSignal::new(None),
             frames: RwSignal::new([Frame::default(); 3]),

@@ -10,16 +10,17 @@ use leptos::prelude::*;
 use plotters::coord::Shift;
 use plotters::prelude::*;
 
-use super::compute::AbsorberView;
 use super::{edit_stack, StackCtx, EQE};
-use crate::app::controls::{drop_zone, number_field, parse_number, Field};
-use crate::app::fmt::{self, fixed};
 use crate::app::import::{read_then, stem};
-use crate::app::plots::{chart, err, palette, tick_target, AxisSpec, Drawing, Frame, Look};
-use crate::app::state::{ev_of_nm, sentence, Ctx};
+use crate::app::state::{sentence, Ctx};
+use crate::app::widgets::fields::{drop_zone, number_field, Field};
+use crate::app::widgets::plot::{chart, err, palette, tick_target, AxisSpec, Drawing, Frame, Look};
 use crate::formats::eqe_csv::parse_eqe_csv;
 use crate::report::stack::AbsorberReport;
 use crate::scenario::stack::{AbsorberSpec, EqeTableSpec};
+use crate::view::format::{self as fmt, fixed};
+use crate::view::input::{ev_of_nm, parse_number};
+use crate::view::stack::AbsorberView;
 
 /// Make `spec` the single cell's absorptance, if the scenario accepts it for the cell's gap
 /// and temperature; otherwise say why under `hook`.
@@ -103,7 +104,7 @@ fn rows(a: &AbsorberView, ere: f64) -> Vec<(String, &'static str, String, String
         ("Jsc".into(), "eqe-jsc", s.cell.display("jsc"), m.cell.display("jsc")),
         ("Voc, radiative limit".into(), "eqe-voc-rad", v(s.voc_rad_v), v(m.voc_rad_v)),
         (
-            format!("Voc at ERE {}", crate::app::fmt::field(ere, 4)),
+            format!("Voc at ERE {}", crate::view::format::field(ere, 4)),
             "eqe-voc",
             s.cell.display("voc"),
             m.cell.display("voc"),

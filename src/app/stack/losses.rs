@@ -8,17 +8,21 @@ use std::rc::Rc;
 
 use leptos::html;
 use leptos::prelude::*;
+
+use crate::view::export::ExportKind;
 use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
-use super::compute::LossView;
 use super::{colours, save_plot, StackCtx, LOSSES};
-use crate::app::card::{plot_card, Card, Hover, PlotBehaviour};
-use crate::app::engine::nearest;
-use crate::app::fmt::{csv_num, fixed, gap_ev};
-use crate::app::plots::{chart, draw_caption, draw_tag, err, palette, tick_target, AxisSpec, Drawing, Frame, Look};
+use crate::app::widgets::card::{plot_card, Card, Hover, PlotBehaviour};
+use crate::app::widgets::plot::{
+    chart, draw_caption, draw_tag, err, palette, tick_target, AxisSpec, Drawing, Frame, Look,
+};
 use crate::report::stack::LossReport;
+use crate::view::format::{csv_num, fixed, gap_ev};
+use crate::view::spectrum::nearest;
+use crate::view::stack::LossView;
 
 /// Short names of the parts, in the order of [`LossReport::parts`].
 const SHORT: [&str; 6] = ["below gap", "thermalization", "emission", "Carnot", "Boltzmann", "delivered"];
@@ -137,7 +141,7 @@ impl Drawing for LossPlot<'_> {
                 .map_err(err)?;
                 let style = look.text(fs, &palette::INK).pos(Pos::new(HPos::Left, VPos::Center));
                 root.draw_text(SHORT[j], &style, (lx + look.px(16.0), ly)).map_err(err)?;
-                lx += look.px(24.0) + crate::app::plots::measure::text_width(SHORT[j], fs) as i32;
+                lx += look.px(24.0) + crate::app::widgets::plot::measure::text_width(SHORT[j], fs) as i32;
             }
         }
         Ok(frame)
@@ -215,12 +219,12 @@ impl PlotBehaviour for LossCard {
         }
     }
 
-    fn save(&self, what: &'static str) -> Result<(), String> {
+    fn save(&self, kind: ExportKind) -> Result<(), String> {
         let l = self.sc.losses.get_untracked().ok_or("nothing has been computed yet")?;
         save_plot(
             self.sc,
             "losses",
-            what,
+            kind,
             "where the power goes in a single-junction cell",
             &LossPlot { l: &l },
             |cap| losses_csv(&l, cap),

@@ -10,7 +10,6 @@
 //! connection or the map's axes change, not when a gap moves.
 
 use std::cell::RefCell;
-use std::fmt::Write;
 use std::rc::Rc;
 use std::sync::Arc;
 use std::time::Duration;
@@ -22,88 +21,25 @@ use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
 use super::{colours, edit_stack, save_plot, set_gaps, StackCtx, MAP};
-use crate::app::card::{plot_card, Card, Hover, PlotBehaviour};
-use crate::app::engine::same_but_gap;
-use crate::app::fmt::{fixed, gap_ev, nice_step};
-use crate::app::plots::{
+use crate::app::widgets::card::{plot_card, Card, Hover, PlotBehaviour};
+use crate::app::widgets::plot::{
     boxed_text_rect, chart, draw_boxed_text, draw_caption, draw_legend_row, err, palette, tick_target, AxisSpec,
     Drawing, Frame, Look,
 };
-use crate::app::state::tidy;
 use crate::physics::constants::{ev, to_ev};
 use crate::physics::stack::map::tandem_map;
 use crate::physics::stack::optimize::{grid_maxima, refine, Optimum, Problem, POLISHED_STARTS};
 use crate::physics::stack::Connection;
-use crate::scenario::stack::{MapSettings, StackScenario};
+use crate::scenario::stack::MapSettings;
 use crate::scenario::{CellScenario, CellSetup, Scenario};
+use crate::view::cell::same_but_gap;
+use crate::view::export::ExportKind;
+use crate::view::format::{fixed, gap_ev};
+use crate::view::input::tidy;
+use crate::view::stack::map::{contour, levels, map_csv, Design, Grid, MapData, MapStatus};
 
 /// Time one slice of the map may take before the page gets a turn [ms].
 const SLICE_MS: f64 = 10.0;
-
-/// Where the map's computation stands.
-#[derive(Debug, Clone, PartialEq, Default)]
-pub enum MapStatus {
-    #[default]
-    Idle,
-    /// fraction of the rows done
-    Computing(f64),
-    Ready,
-    Failed(String),
-}
-
-/// A computed map in display units.
-#[derive(Debug, Clone)]
-pub struct MapData {
-    /// which computation made it (the page's drawing of it is cached by this)
-    pub id: u64,
-    pub connection: Connection,
-    /// top-cell gaps [eV] (rows, the y axis), ascending
-    pub tops_ev: Vec<f64>,
-    /// bottom-cell gaps [eV] (columns, the x axis), ascending
-    pub bottoms_ev: Vec<f64>,
-    /// efficiency [%] of row i, column k at i * bottoms_ev.len() + k; NaN where the bottom
-    /// gap is not below the top gap
-    pub eff: Vec<f64>,
-    /// the best grid point: (top gap [eV], bottom gap [eV], efficiency [%])
-    pub best: Option<(f64, f64, f64)>,
-    /// the best of the grid's best few local maxima, each refined to the local optimum near
-    /// it (may lie off the map when the grid's best is on its edge), once found: (top,
-    /// bottom [eV], efficiency [%])
-    pub refined: Option<(f64, f64, f64)>,
-    /// time spent refining [ms]
-    pub refine_ms: f64,
-    /// (bottom gap, top gap) [eV] where the two subcells' photocurrents are equal
-    pub matched: Vec<(f64, f64)>,
-    /// time spent computing and from request to result [ms]
-    pub compute_ms: f64,
-    pub elapsed_ms: f64,
-    pub source: String,
-}
-
-impl MapData {
-    pub fn at(&self, i: usize, k: usize) -> f64 {
-        self.eff.get(i * self.bottoms_ev.len() + k).copied().unwrap_or(f64::NAN)
-    }
-    /// (smallest, largest) efficiency of the stacks on the map [%].
-    pub fn range(&self) -> (f64, f64) {
-        self.eff
-            .iter()
-            .filter(|e| e.is_finite())
-            .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), &e| (a.min(e), b.max(e)))
-    }
-    /// The grid point nearest to (bottom, top) [eV].
-    pub fn nearest(&self, bottom: f64, top: f64) -> Option<(usize, usize)> {
-        let idx = |xs: &[f64], v: f64| -> Option<usize> {
-            let n = xs.len();
-            if n < 2 {
-                return None;
-            }
-            let t = (v - xs[0]) / (xs[n - 1] - xs[0]) * (n - 1) as f64;
-            (t >= -0.5 && t <= n as f64 - 0.5).then(|| (t.round().max(0.0) as usize).min(n - 1))
-        };
-        Some((idx(&self.tops_ev, top)?, idx(&self.bottoms_ev, bottom)?))
-    }
-}
 
 /// What the map was computed for.
 struct MapKey {
@@ -179,7 +115,7 @@ pub fn ensure(sc: StackCtx, s: &Scenario) {
 }
 
 fn begin(sc: StackCtx, s: &Scenario) {
-    let setup = super::compute::setup_of(&s.cell);
+    let setup = crate::view::stack::setup_of(&s.cell);
     let grid = s.stack.map.grid();
     let (setup, (tops_j, bottoms_j)) = match (setup, grid) {
         (Ok(a), Ok(b)) => (a, b),
@@ -349,132 +285,16 @@ fn polish_next(sc: StackCtx, id: u64, starts: Rc<Vec<Vec<f64>>>, k: usize, best:
 }
 
 fn finish(job: &Job) -> MapData {
-    let tops_ev: Vec<f64> = job.tops_j.iter().map(|g| to_ev(*g)).collect();
-    let bottoms_ev: Vec<f64> = job.bottoms_j.iter().map(|g| to_ev(*g)).collect();
-    let nb = bottoms_ev.len();
-    let eff: Vec<f64> = job
-        .eff
-        .iter()
-        .enumerate()
-        .map(|(idx, e)| if job.bottoms_j[idx % nb] < job.tops_j[idx / nb] { e * 100.0 } else { f64::NAN })
-        .collect();
-    let best = eff
-        .iter()
-        .enumerate()
-        .filter(|(_, e)| e.is_finite())
-        .max_by(|a, b| a.1.total_cmp(b.1))
-        .map(|(idx, e)| (tops_ev[idx / nb], bottoms_ev[idx % nb], *e));
-    let matched = matched_line(&job.setup, &tops_ev, &bottoms_ev);
-    MapData {
+    MapData::from_grid(&Grid {
         id: job.id,
         connection: job.key.connection,
-        tops_ev,
-        bottoms_ev,
-        eff,
-        best,
-        refined: None,
-        refine_ms: 0.0,
-        matched,
+        setup: &job.setup,
+        tops_j: &job.tops_j,
+        bottoms_j: &job.bottoms_j,
+        efficiency: &job.eff,
         compute_ms: job.busy,
         elapsed_ms: now() - job.started,
-        source: job.setup.light.source.name(),
-    }
-}
-
-/// Where the bottom cell's photocurrent equals the top cell's: flux above the bottom gap is
-/// twice the flux above the top gap. Found by bisection for each top gap of the map.
-fn matched_line(setup: &CellSetup, tops_ev: &[f64], bottoms_ev: &[f64]) -> Vec<(f64, f64)> {
-    let src = &setup.light.source;
-    let (lo, hi) = (bottoms_ev[0], bottoms_ev[bottoms_ev.len() - 1]);
-    tops_ev
-        .iter()
-        .filter_map(|&t| {
-            let target = 2.0 * src.photon_flux_above(ev(t));
-            let (mut a, mut b) = (lo, hi.min(t));
-            // flux above decreases with the gap: at a it must be above the target
-            if !(src.photon_flux_above(ev(a)) >= target && src.photon_flux_above(ev(b)) <= target) {
-                return None;
-            }
-            for _ in 0..50 {
-                let m = 0.5 * (a + b);
-                if src.photon_flux_above(ev(m)) >= target {
-                    a = m;
-                } else {
-                    b = m;
-                }
-            }
-            Some((0.5 * (a + b), t))
-        })
-        .collect()
-}
-
-/// The design as the map shows it: the top and bottom gaps of a two-junction stack.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub struct Design {
-    /// (top, bottom) [eV] for a two-junction stack
-    pub pair: Option<(f64, f64)>,
-    pub junctions: usize,
-}
-
-impl Design {
-    pub fn of(st: &StackScenario) -> Design {
-        let pair = (st.gaps_ev.len() == 2).then(|| (st.gaps_ev[0], st.gaps_ev[1]));
-        Design { pair, junctions: st.gaps_ev.len() }
-    }
-}
-
-/// Contour levels [%] for a map spanning efficiencies up to `hi`.
-pub fn levels(lo: f64, hi: f64) -> Vec<f64> {
-    if !(hi > lo) {
-        return Vec::new();
-    }
-    let (step, _, _) = nice_step(hi - lo, 7);
-    let first = (lo / step).floor() as i64 + 1;
-    (first..).map(|k| k as f64 * step).take_while(|v| *v < hi).collect()
-}
-
-/// Line segments where the grid crosses `level` (marching squares), in (x = bottom gap,
-/// y = top gap) [eV]. Squares with a corner that is not a stack are skipped.
-pub fn contour(m: &MapData, level: f64) -> Vec<[(f64, f64); 2]> {
-    let (nt, nb) = (m.tops_ev.len(), m.bottoms_ev.len());
-    let mut out = Vec::new();
-    for i in 0..nt.saturating_sub(1) {
-        for k in 0..nb.saturating_sub(1) {
-            // corners counter-clockwise from (k, i)
-            let c = [(k, i), (k + 1, i), (k + 1, i + 1), (k, i + 1)];
-            let v: Vec<f64> = c.iter().map(|&(kk, ii)| m.at(ii, kk)).collect();
-            if v.iter().any(|x| !x.is_finite()) {
-                continue;
-            }
-            let p = |j: usize| (m.bottoms_ev[c[j].0], m.tops_ev[c[j].1]);
-            // crossing on the edge from corner a to corner b
-            let cross = |a: usize, b: usize| {
-                let t = (level - v[a]) / (v[b] - v[a]);
-                let (pa, pb) = (p(a), p(b));
-                (pa.0 + t * (pb.0 - pa.0), pa.1 + t * (pb.1 - pa.1))
-            };
-            let edges: Vec<(f64, f64)> = (0..4)
-                .filter(|&j| (v[j] >= level) != (v[(j + 1) % 4] >= level))
-                .map(|j| cross(j, (j + 1) % 4))
-                .collect();
-            match edges.len() {
-                2 => out.push([edges[0], edges[1]]),
-                4 => {
-                    // a saddle: the centre value decides how the crossings pair up
-                    let centre = v.iter().sum::<f64>() / 4.0;
-                    if (centre >= level) == (v[0] >= level) {
-                        out.push([edges[0], edges[3]]);
-                        out.push([edges[1], edges[2]]);
-                    } else {
-                        out.push([edges[0], edges[1]]);
-                        out.push([edges[2], edges[3]]);
-                    }
-                }
-                _ => {}
-            }
-        }
-    }
-    out
+    })
 }
 
 /// The line of matched currents.
@@ -711,7 +531,7 @@ impl MapPlot<'_> {
             .map_err(err)?;
         let fs = look.tick_font();
         let label_style = look.text(fs, &palette::INK).pos(Pos::new(HPos::Left, VPos::Center));
-        let decimals = crate::app::fmt::decimals_of(levels.get(1).map(|b| b - levels[0]).unwrap_or(1.0));
+        let decimals = crate::view::format::decimals_of(levels.get(1).map(|b| b - levels[0]).unwrap_or(1.0));
         let mut last_y = i32::MAX;
         for level in &levels {
             let py = bottom - ((level - lo) / (hi - lo) * (bottom - top) as f64).round() as i32;
@@ -930,7 +750,7 @@ pub fn draw_on_page(canvas: &web_sys::HtmlCanvasElement, plot: &MapPlot) -> Resu
             frame
         }
         None => {
-            let Some(frame) = crate::app::plots::render::draw_on_canvas(canvas, &MapBase(plot))? else {
+            let Some(frame) = crate::app::widgets::plot::render::draw_on_canvas(canvas, &MapBase(plot))? else {
                 return Ok(None);
             };
             // keep a copy of the base for the next redraw
@@ -956,34 +776,6 @@ pub fn draw_on_page(canvas: &web_sys::HtmlCanvasElement, plot: &MapPlot) -> Resu
     plot.draw_design(&root, &Look::screen(dpr), &frame)?;
     root.present().map_err(err)?;
     Ok(Some(frame))
-}
-
-fn map_csv(m: &MapData, what: &str) -> String {
-    let mut out = String::new();
-    let _ = writeln!(out, "# Glowgap: {what}");
-    let _ = writeln!(
-        out,
-        "# efficiency of every two-junction stack of the grid; empty where the bottom gap is not below the top gap"
-    );
-    let _ = writeln!(out, "# Detailed-balance limits of an ideal stack: upper bounds, not predictions of a device.");
-    if let Some((t, b, e)) = m.best {
-        let _ = writeln!(out, "# best point of the grid: top {t:.6} eV, bottom {b:.6} eV, {e:.4} %");
-    }
-    if let Some((t, b, e)) = m.refined {
-        let _ = writeln!(
-            out,
-            "# optimum refined from the grid's best local maxima (simplex): top {t:.6} eV, bottom {b:.6} eV, {e:.4} %"
-        );
-    }
-    let _ = writeln!(out, "top gap (eV),bottom gap (eV),efficiency (%)");
-    for (i, t) in m.tops_ev.iter().enumerate() {
-        for (k, b) in m.bottoms_ev.iter().enumerate() {
-            let e = m.at(i, k);
-            let e = if e.is_finite() { format!("{e:.4}") } else { String::new() };
-            let _ = writeln!(out, "{t:.6},{b:.6},{e}");
-        }
-    }
-    out
 }
 
 /// How near the pointer must be to the optimum's or the best grid point's marker for the
@@ -1093,7 +885,7 @@ impl PlotBehaviour for MapCard {
     }
 
     fn key_down(&self, ev: &web_sys::KeyboardEvent) -> bool {
-        let step = crate::app::controls::key_step(ev);
+        let step = crate::app::widgets::fields::key_step(ev);
         let (dt, db) = match ev.key().as_str() {
             "ArrowUp" => (step, 0.0),
             "ArrowDown" => (-step, 0.0),
@@ -1110,11 +902,11 @@ impl PlotBehaviour for MapCard {
         true
     }
 
-    fn save(&self, what: &'static str) -> Result<(), String> {
+    fn save(&self, kind: ExportKind) -> Result<(), String> {
         let m = self.sc.map.get_untracked().ok_or("the map has not been computed yet")?;
         let design = self.sc.ctx.scenario.with_untracked(|s| Design::of(&s.stack));
         let describe = format!("two-junction {} map", m.connection.label());
-        save_plot(self.sc, "tandem-map", what, &describe, &MapPlot { map: &m, design }, |cap| map_csv(&m, cap))
+        save_plot(self.sc, "tandem-map", kind, &describe, &MapPlot { map: &m, design }, |cap| map_csv(&m, cap))
     }
 }
 

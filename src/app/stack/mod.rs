@@ -13,8 +13,8 @@
 //! cell settings, the connection or the map's axes change, never on a gap edit.
 
 pub mod colours;
-pub mod compute;
-pub mod editor;
+
+pub mod controls;
 pub mod eqe;
 pub mod losses;
 pub mod map;
@@ -27,15 +27,16 @@ use std::sync::Arc;
 use leptos::html;
 use leptos::prelude::*;
 
-use compute::{AbsorberView, LossView, StackView};
-use map::{MapData, MapStatus};
+use crate::app::widgets::export::offer;
+use crate::view::export::ExportKind;
+use crate::view::stack::map::{MapData, MapStatus};
+use crate::view::stack::{AbsorberView, LossView, StackView};
 use search::SearchState;
 
-use super::plots::render::draw_on_canvas;
-use super::plots::{Drawing, Frame};
-use super::state::{count_render, mark, sentence, Ctx};
+use crate::app::state::{count_render, mark, sentence, Ctx};
+use crate::app::widgets::plot::render::draw_on_canvas;
+use crate::app::widgets::plot::{Drawing, Frame};
 use crate::scenario::stack::{check_gaps, StackScenario};
-use crate::scenario::Scenario;
 
 /// The panel's plots, by index into [`StackCtx::frames`].
 pub const SPECTRUM: usize = 0;
@@ -132,40 +133,18 @@ pub fn edit_stack(ctx: Ctx, hook: &'static str, f: impl FnOnce(&mut StackScenari
     ok
 }
 
-/// One line describing the stack's light and cells, for exported figures and files.
-pub fn caption(s: &Scenario, what: &str) -> String {
-    let cell = &s.cell;
-    let mut parts = vec![
-        super::export::source_label(&cell.spectrum),
-        format!("{} sun{}", super::fmt::field(cell.concentration, 6), if cell.concentration == 1.0 { "" } else { "s" }),
-        format!("cells {} K", super::fmt::field(cell.cell_temp_k, 6)),
-    ];
-    if cell.ere != 1.0 {
-        parts.push(format!("ERE {}", super::fmt::field(cell.ere, 4)));
-    }
-    parts.push(what.to_string());
-    format!("Glowgap · {} · detailed-balance limit", parts.join(" · "))
-}
-
-/// Offer one of the panel's plots as a file, `what` = "svg", "png" or "csv", named after
-/// `slug`; `describe` goes into the caption, `csv` writes the plotted data under it.
+/// Offer one of the panel's plots as a file of `kind`, named after `slug`; `describe` goes
+/// into the caption, `csv` writes the plotted data under it.
 pub fn save_plot(
     sc: StackCtx,
     slug: &str,
-    what: &str,
+    kind: ExportKind,
     describe: &str,
     plot: &impl Drawing,
     csv: impl FnOnce(&str) -> String,
 ) -> Result<(), String> {
-    use super::export::{download_text, download_url};
-    use super::plots::render::{png_data_url, svg_text};
-    let cap = sc.ctx.scenario.with_untracked(|s| caption(s, describe));
-    let name = super::card::file_name(slug, what);
-    match what {
-        "svg" => download_text(&name, "image/svg+xml", &svg_text(plot, cap)?),
-        "png" => download_url(&name, &png_data_url(plot, cap)?),
-        _ => download_text(&name, "text/csv", &csv(&cap)),
-    }
+    let cap = sc.ctx.scenario.with_untracked(|s| crate::view::stack::caption(s, describe));
+    offer(kind, slug, plot, || cap.clone(), || csv(&cap))
 }
 
 /// Put where the axes landed on the canvas, in CSS px and axis units (tests aim with it).
@@ -220,7 +199,7 @@ pub fn StackPanel() -> impl IntoView {
         let targets: Vec<_> = canvases.iter().map(|r| r.get()).collect();
         let mut frames = sc.frames.get_untracked();
         let mut errors: [Option<String>; PLOTS] = Default::default();
-        let outcome = ctx.scenario.with(compute::stack_view);
+        let outcome = ctx.scenario.with(crate::view::stack::stack_view);
         match outcome {
             Ok(v) => {
                 let v = Arc::new(v);
@@ -248,7 +227,7 @@ pub fn StackPanel() -> impl IntoView {
         }
         ctx.scenario.with(|s| map::ensure(sc, s));
         if let Some(m) = &map {
-            let design = ctx.scenario.with(|s| map::Design::of(&s.stack));
+            let design = ctx.scenario.with(|s| crate::view::stack::map::Design::of(&s.stack));
             if let Some(canvas) = &targets[MAP] {
                 match map::draw_on_page(canvas, &map::MapPlot { map: m, design }) {
                     Ok(Some(f)) => {
@@ -260,7 +239,7 @@ pub fn StackPanel() -> impl IntoView {
                 }
             }
         }
-        match ctx.scenario.with(compute::loss_view) {
+        match ctx.scenario.with(crate::view::stack::loss_view) {
             Ok(l) => {
                 let l = Arc::new(l);
                 draw_into(LOSSES, &targets[LOSSES], &losses::LossPlot { l: &l }, &mut frames, &mut errors);
@@ -268,7 +247,7 @@ pub fn StackPanel() -> impl IntoView {
             }
             Err(e) => errors[LOSSES] = Some(sentence(&e)),
         }
-        match ctx.scenario.with(compute::absorber_view) {
+        match ctx.scenario.with(crate::view::stack::absorber_view) {
             Ok(a) => {
                 let a = a.map(Arc::new);
                 if let Some(a) = &a {
@@ -300,14 +279,14 @@ pub fn StackPanel() -> impl IntoView {
     view! {
         <main class="layout stack-layout">
             <aside class="panel" aria-label="Stack settings">
-                {editor::editor_section(sc)}
+                {controls::editor_section(sc)}
                 {search::search_section(sc)}
-                {editor::conditions(sc)}
+                {controls::conditions(sc)}
                 {eqe::eqe_section(sc, canvases[EQE])}
             </aside>
             <section class="results" aria-label="Stack results">
-                {editor::figures(sc)}
-                {editor::subcell_table(sc)}
+                {controls::figures(sc)}
+                {controls::subcell_table(sc)}
                 <div class="plots stack-plots">
                     {spectrum::spectrum_card(sc, canvases[SPECTRUM])}
                     {map::map_card(sc, canvases[MAP])}
@@ -315,6 +294,6 @@ pub fn StackPanel() -> impl IntoView {
                 </div>
             </section>
         </main>
-        {editor::cautions(sc)}
+        {controls::cautions(sc)}
     }
 }

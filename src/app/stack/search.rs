@@ -13,15 +13,16 @@ use wasm_bindgen::{JsCast, JsValue};
 
 use super::worker::SearchReply;
 use super::{set_gaps, StackCtx};
-use crate::app::card::range_input;
-use crate::app::controls::{gap_keys, number_field, parse_gap, thousands, Field};
-use crate::app::engine::same_but_gap;
-use crate::app::fmt::{self, fixed, gap_ev};
-use crate::app::state::{mark, sentence, tidy, Ctx};
+use crate::app::state::{mark, sentence, Ctx};
+use crate::app::widgets::card::range_input;
+use crate::app::widgets::fields::{gap_keys, number_field, Field};
 use crate::physics::stack::optimize::FixAt;
 use crate::physics::stack::Connection;
 use crate::scenario::stack::{check_gaps, OptimizeSettings};
 use crate::scenario::{CellScenario, Scenario};
+use crate::view::cell::same_but_gap;
+use crate::view::format::{self as fmt, fixed, gap_ev};
+use crate::view::input::{parse_gap, thousands, tidy};
 
 /// Where the search stands.
 #[derive(Debug, Clone, PartialEq, Default)]
@@ -264,7 +265,7 @@ pub fn start(sc: StackCtx) {
     let s: Scenario = ctx.scenario.get_untracked();
     // say what is wrong here rather than from the worker
     let checked = check_gaps(&s.stack.gaps_ev).and_then(|_| {
-        let setup = super::compute::setup_of(&s.cell)?;
+        let setup = crate::view::stack::setup_of(&s.cell)?;
         let settings =
             crate::scenario::stack::OptimizeSettings { junctions: s.stack.gaps_ev.len(), ..s.stack.optimize.clone() };
         settings.to_problem(&setup.light, &setup.cell, s.stack.connection).map(|_| ())

@@ -8,20 +8,22 @@ use std::rc::Rc;
 
 use leptos::html;
 use leptos::prelude::*;
+
+use crate::view::export::ExportKind;
 use plotters::coord::Shift;
 use plotters::prelude::*;
 
-use super::compute::StackView;
 use super::{colours, save_plot, set_gaps, StackCtx, SPECTRUM};
-use crate::app::card::{plot_card, Card, Hover, PlotBehaviour};
-use crate::app::engine::{interpolate, nearest, SpectrumView};
-use crate::app::fmt::{csv_num, fixed, gap_ev, sig};
-use crate::app::plots::spectrum::{axis_name, value_name};
-use crate::app::plots::{
+use crate::app::cell::plots::spectrum::{axis_name, value_name};
+use crate::app::widgets::card::{plot_card, Card, Hover, PlotBehaviour};
+use crate::app::widgets::plot::{
     chart, draw_caption, draw_legend_row, draw_tag, err, measure, palette, tick_target, AxisSpec, Drawing, Frame, Look,
 };
-use crate::app::state::{ev_of_nm, tidy};
 use crate::scenario::{PlotAxis, GAP_RANGE_EV};
+use crate::view::format::{csv_num, fixed, gap_ev, sig};
+use crate::view::input::{ev_of_nm, tidy};
+use crate::view::spectrum::{interpolate, nearest, SpectrumView};
+use crate::view::stack::StackView;
 
 /// Smallest distance kept between neighbouring gaps while dragging [eV].
 const MIN_SPACING_EV: f64 = 0.001;
@@ -314,15 +316,15 @@ impl PlotBehaviour for SpectrumCard {
         };
         let i = self.sc.selected.get_untracked().min(n.saturating_sub(1));
         if let Some(g) = self.sc.gaps().get(i).copied() {
-            self.move_gap(i, g + dir * crate::app::controls::key_step(ev));
+            self.move_gap(i, g + dir * crate::app::widgets::fields::key_step(ev));
         }
         true
     }
 
-    fn save(&self, what: &'static str) -> Result<(), String> {
+    fn save(&self, kind: ExportKind) -> Result<(), String> {
         let v = self.view().ok_or("nothing has been computed yet")?;
         let describe = format!("{}-junction stack, absorbed bands", v.gaps_ev.len());
-        save_plot(self.sc, "stack-spectrum", what, &describe, &SpectrumPlot { v: &v, selected: usize::MAX }, |cap| {
+        save_plot(self.sc, "stack-spectrum", kind, &describe, &SpectrumPlot { v: &v, selected: usize::MAX }, |cap| {
             spectrum_csv(&v, cap)
         })
     }

@@ -11,6 +11,7 @@
 use super::{series, Connection};
 use crate::physics::constants::CHARGE;
 use crate::physics::junction::{Cell, Diode, Illumination, ThermalPrefactor};
+use crate::physics::sources::Source;
 
 /// A grid of two-junction efficiencies.
 #[derive(Debug, Clone, PartialEq)]
@@ -124,4 +125,28 @@ pub fn tandem_map(
         }
     }
     EfficiencyMap { connection, top_gaps_j: top_gaps_j.to_vec(), bottom_gaps_j: bottom_gaps_j.to_vec(), efficiency }
+}
+
+/// The bottom gap [J] at which a two-junction stack's photocurrents match for top gap
+/// `top_j` [J]: with ideal step absorbers the bottom cell collects the photons between the
+/// two gaps, so its current equals the top cell's where the photon flux above the bottom
+/// gap is twice the flux above the top gap (Henry, J. Appl. Phys. 51, 4494 (1980), the
+/// current-matching condition of a series stack). Searched by bisection on
+/// [`lo_j`, min(`hi_j`, `top_j`)] (the flux above a gap falls as the gap rises), to 2^-60 of
+/// the interval; None when the matching gap is not in that interval.
+pub fn matched_bottom_gap(source: &Source, top_j: f64, lo_j: f64, hi_j: f64) -> Option<f64> {
+    let target = 2.0 * source.photon_flux_above(top_j);
+    let (mut a, mut b) = (lo_j, hi_j.min(top_j));
+    if !(source.photon_flux_above(a) >= target && source.photon_flux_above(b) <= target) {
+        return None;
+    }
+    for _ in 0..60 {
+        let m = 0.5 * (a + b);
+        if source.photon_flux_above(m) >= target {
+            a = m;
+        } else {
+            b = m;
+        }
+    }
+    Some(0.5 * (a + b))
 }

@@ -7,31 +7,13 @@ use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
 use super::{edges, padded_axis, px_x, px_y};
-use crate::app::plots::measure::text_width;
-use crate::app::plots::palette::*;
-use crate::app::plots::{chart, draw_caption, err, tick_target, AxisSpec, Frame, Look};
-use crate::app::radiator::engine::RadComputed;
+use crate::app::widgets::plot::measure::text_width;
+use crate::app::widgets::plot::palette::*;
+use crate::app::widgets::plot::{chart, draw_caption, err, tick_target, AxisSpec, Frame, Look};
+use crate::view::radiator::{balance_amounts, balance_steps, RadiatorView, BALANCE_BARS};
 
 /// The bars' names on the axis, and shorter ones for narrow plots.
-pub const BARS: [&str; 5] = ["emitted", "from sky", "from sun", "from air", "net"];
 const BARS_SHORT: [&str; 5] = ["out", "sky", "sun", "air", "net"];
-
-/// Each bar's (start, end) [W/m²]: the waterfall from 0 up by the emitted power, down by each
-/// gain, and the net power from 0.
-pub fn steps(c: &RadComputed) -> [(f64, f64); 5] {
-    let r = &c.report;
-    let e = r.emitted_w_m2;
-    let after_sky = e - r.sky_absorbed_w_m2;
-    let after_sun = after_sky - r.sun_absorbed_w_m2;
-    let net = r.net_w_m2;
-    [(0.0, e), (e, after_sky), (after_sky, after_sun), (after_sun, net), (0.0, net)]
-}
-
-/// The signed amount each bar stands for, as its label shows it.
-pub fn amounts(c: &RadComputed) -> [f64; 5] {
-    let r = &c.report;
-    [r.emitted_w_m2, -r.sky_absorbed_w_m2, -r.sun_absorbed_w_m2, -r.parasitic_w_m2, r.net_w_m2]
-}
 
 fn signed(v: f64) -> String {
     let s = format!("{:.1}", v.abs());
@@ -44,14 +26,18 @@ fn signed(v: f64) -> String {
     }
 }
 
-pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadComputed, look: &Look) -> Result<Frame, String> {
+pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadiatorView, look: &Look) -> Result<Frame, String> {
     root.fill(&WHITE).map_err(err)?;
     draw_caption(root, look)?;
     let (w, h) = root.dim_in_pixel();
-    let bars = steps(c);
+    let bars = balance_steps(c);
     // the names need their width and some room each, in about four fifths of the width
-    let widest = BARS.iter().map(|n| text_width(n, look.tick_font())).fold(0.0f64, f64::max);
-    let names = if (widest + look.size(14.0)) * BARS.len() as f64 > 0.8 * w as f64 { &BARS_SHORT } else { &BARS };
+    let widest = BALANCE_BARS.iter().map(|n| text_width(n, look.tick_font())).fold(0.0f64, f64::max);
+    let names = if (widest + look.size(14.0)) * BALANCE_BARS.len() as f64 > 0.8 * w as f64 {
+        &BARS_SHORT
+    } else {
+        &BALANCE_BARS
+    };
     let lo = bars.iter().flat_map(|b| [b.0, b.1]).fold(0.0f64, f64::min);
     let hi = bars.iter().flat_map(|b| [b.0, b.1]).fold(0.0f64, f64::max);
     let x = AxisSpec::named(names, "Term of the balance at the surface temperature");
@@ -84,7 +70,7 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadComputed, 
         plot.draw(&DashedPathElement::new(vec![(x0, yl), (x1, yl)], look.px(3.0), look.px(3.0), thin)).map_err(err)?;
     }
     // amounts beside each bar's upper end
-    let amounts = amounts(c);
+    let amounts = balance_amounts(c);
     let fs = look.size(12.0);
     for (i, (a, b)) in bars.iter().enumerate() {
         let xc = px_x(&frame, look, i as f64 + 0.5);

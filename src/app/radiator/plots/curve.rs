@@ -7,13 +7,13 @@ use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
 use super::{edges, padded_axis, px_x, px_y};
-use crate::app::plots::palette::*;
-use crate::app::plots::{
+use crate::app::widgets::plot::palette::*;
+use crate::app::widgets::plot::{
     chart, draw_boxed_text, draw_caption, draw_legend_row, draw_tag, err, tick_target, AxisSpec, Frame, Look,
 };
-use crate::app::radiator::engine::RadComputed;
+use crate::view::radiator::RadiatorView;
 
-pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadComputed, look: &Look) -> Result<Frame, String> {
+pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadiatorView, look: &Look) -> Result<Frame, String> {
     root.fill(&WHITE).map_err(err)?;
     draw_caption(root, look)?;
     let (w, h) = root.dim_in_pixel();

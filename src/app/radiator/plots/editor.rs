@@ -7,10 +7,10 @@ use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
 use super::{edges, px_x, px_y};
-use crate::app::plots::palette::*;
-use crate::app::plots::{chart, draw_caption, draw_legend_row, err, tick_target, AxisSpec, Frame, Look};
-use crate::app::radiator::engine::RadComputed;
-use crate::app::radiator::export::shown;
+use crate::app::widgets::plot::palette::*;
+use crate::app::widgets::plot::{chart, draw_caption, draw_legend_row, err, tick_target, AxisSpec, Frame, Look};
+use crate::view::radiator::csv::shown;
+use crate::view::radiator::RadiatorView;
 
 /// Radius of a control point [CSS px]; the pointer picks a point within [`PICK_RADIUS`].
 pub const HANDLE_RADIUS: f64 = 5.5;
@@ -18,7 +18,7 @@ pub const PICK_RADIUS: f64 = 11.0;
 
 pub fn draw<DB: DrawingBackend>(
     root: &DrawingArea<DB, Shift>,
-    c: &RadComputed,
+    c: &RadiatorView,
     selected: Option<usize>,
     look: &Look,
 ) -> Result<Frame, String> {

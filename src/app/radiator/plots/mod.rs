@@ -9,15 +9,15 @@ pub mod editor;
 use plotters::coord::Shift;
 use plotters::prelude::*;
 
-use super::engine::RadComputed;
-use super::state::Slot;
-use crate::app::fmt::nice_step;
-use crate::app::plots::{AxisSpec, Drawing, Frame, Look};
+use crate::app::radiator::state::Slot;
+use crate::app::widgets::plot::{AxisSpec, Drawing, Frame, Look};
+use crate::view::format::nice_step;
+use crate::view::radiator::RadiatorView;
 
 /// One of the radiator's plots of one result; `selected` marks a control point.
 pub struct RadPlot<'a> {
     pub slot: Slot,
-    pub c: &'a RadComputed,
+    pub c: &'a RadiatorView,
     pub selected: Option<usize>,
 }
 

@@ -4,10 +4,12 @@ use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
-use super::{draw_caption, draw_legend_row, draw_tag, err, palette::*, tick_target, AxisSpec, Frame, Look};
-use crate::app::engine::Computed;
-use crate::app::fmt::{fixed, gap_ev};
+use crate::app::widgets::plot::{
+    draw_caption, draw_legend_row, draw_tag, err, palette::*, tick_target, AxisSpec, Frame, Look,
+};
 use crate::scenario::{PlotAxis, PlotQuantity};
+use crate::view::cell::CellView;
+use crate::view::format::{fixed, gap_ev};
 
 /// Axis title of the spectrum's values.
 pub fn value_name(q: PlotQuantity) -> &'static str {
@@ -25,7 +27,7 @@ pub fn axis_name(a: PlotAxis) -> &'static str {
     }
 }
 
-pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, look: &Look) -> Result<Frame, String> {
+pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &CellView, look: &Look) -> Result<Frame, String> {
     root.fill(&WHITE).map_err(err)?;
     draw_caption(root, look)?;
     let (w, h) = root.dim_in_pixel();
@@ -35,7 +37,7 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, loo
     let ymax = if ymax > 0.0 { ymax } else { 1.0 };
     let x = AxisSpec::new(sv.x_lo, sv.x_hi, tick_target(look, w, 95.0), axis_name(sv.axis), sv.x_unit(), false);
     let y = AxisSpec::new(0.0, ymax * 1.12, tick_target(look, h, 55.0), value_name(sv.quantity), sv.unit(), true);
-    let (mut chart, frame) = super::chart(root, look, &x, &y, true)?;
+    let (mut chart, frame) = crate::app::widgets::plot::chart(root, look, &x, &y, true)?;
     let xg = sv.x_of_ev(gap);
     let in_view = xg >= x.lo && xg <= x.hi;
 
@@ -85,7 +87,7 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, loo
         let text = format!("{label} — off scale {}", if beyond_right { "▸" } else { "◂" });
         let anchor = if beyond_right { HPos::Right } else { HPos::Left };
         let ax = if beyond_right { right - look.px(4.0) } else { left + look.px(4.0) };
-        super::draw_boxed_text(
+        crate::app::widgets::plot::draw_boxed_text(
             &plot,
             look,
             &text,

@@ -6,23 +6,27 @@ use std::rc::Rc;
 use leptos::html;
 use leptos::prelude::*;
 
-use super::card::{plot_card as card, range_input, Card, Hover, PlotBehaviour};
-use super::engine::{nearest, Computed};
-use super::export;
-use super::fmt::{fixed, gap_ev, sig};
-use super::plots::render::PlotKind;
-use super::plots::Frame;
-use super::state::{ev_of_nm, tidy, Ctx};
+use super::plots::{CellPlot, PlotKind};
+use crate::app::state::Ctx;
+use crate::app::widgets::card::{plot_card as card, range_input, Card, Hover, PlotBehaviour};
+use crate::app::widgets::export::offer;
+use crate::app::widgets::plot::Frame;
 use crate::physics::constants::to_ev;
 use crate::report::CellReport;
 use crate::scenario::{PlotAxis, PlotQuantity};
+use crate::view::cell::csv;
+use crate::view::cell::CellView;
+use crate::view::export::ExportKind;
+use crate::view::format::{fixed, gap_ev, sig};
+use crate::view::input::{ev_of_nm, tidy};
+use crate::view::spectrum::nearest;
 
 fn round_mev(v: f64) -> f64 {
     (v * 1000.0).round() / 1000.0
 }
 
 /// The band gap [eV] under CSS x on a draggable plot.
-fn gap_at(kind: PlotKind, frame: &Frame, c: &Computed, x_css: f64) -> Option<f64> {
+fn gap_at(kind: PlotKind, frame: &Frame, c: &CellView, x_css: f64) -> Option<f64> {
     let x = frame.x_at_css(x_css);
     let g = match kind {
         PlotKind::Spectrum => c.spectrum.ev_of_x(x),
@@ -33,7 +37,7 @@ fn gap_at(kind: PlotKind, frame: &Frame, c: &Computed, x_css: f64) -> Option<f64
     Some(round_mev(g).clamp(lo, hi))
 }
 
-fn hover_of(kind: PlotKind, frame: &Frame, c: &Computed, x_css: f64, y_css: f64, width: f64) -> Option<Hover> {
+fn hover_of(kind: PlotKind, frame: &Frame, c: &CellView, x_css: f64, y_css: f64, width: f64) -> Option<Hover> {
     if !frame.is_valid() || !frame.contains_css(x_css, y_css, 0.0) {
         return None;
     }
@@ -252,7 +256,7 @@ impl PlotBehaviour for CellCard {
             return false;
         }
         let ctx = self.ctx;
-        let step = super::controls::key_step(ev);
+        let step = crate::app::widgets::fields::key_step(ev);
         // on a wavelength axis, right means longer wavelengths: a smaller gap
         let right = ctx.scenario.with_untracked(|s| {
             if self.kind == PlotKind::Spectrum && s.view.spectrum_axis == PlotAxis::Wavelength {
@@ -272,16 +276,16 @@ impl PlotBehaviour for CellCard {
         true
     }
 
-    fn save(&self, what: &'static str) -> Result<(), String> {
+    fn save(&self, kind: ExportKind) -> Result<(), String> {
         let s = self.ctx.scenario.get_untracked();
-        self.ctx.computed.with_untracked(|c| match c.as_ref() {
-            Some(c) => match what {
-                "svg" => export::save_svg(self.kind, &s, c),
-                "png" => export::save_png(self.kind, &s, c),
-                _ => export::save_csv(self.kind, &s, c),
-            },
-            None => Err("nothing has been computed yet".into()),
-        })
+        let c = self.ctx.computed.get_untracked().ok_or("nothing has been computed yet")?;
+        let plot = CellPlot { kind: self.kind, c: &c };
+        let csv = || match self.kind {
+            PlotKind::Spectrum => csv::spectrum_csv(&s, &c),
+            PlotKind::Efficiency => csv::efficiency_csv(&s, &c),
+            PlotKind::Jv => csv::jv_csv(&s, &c),
+        };
+        offer(kind, self.kind.slug(), &plot, || csv::caption(&s, &c), csv)
     }
 }
 

@@ -7,13 +7,14 @@ use leptos::ev;
 use leptos::prelude::*;
 
 use super::{colours, edit_stack, set_gaps, StackCtx, GAP_HOOKS};
-use crate::app::controls::{gap_keys, number_field, parse_gap, Field};
-use crate::app::fmt;
-use crate::app::state::tidy;
+use crate::app::widgets::fields::{gap_keys, number_field, Field};
 use crate::physics::junction::{Emission, JvModel};
 use crate::physics::stack::{Connection, MAX_JUNCTIONS};
 use crate::report::stack::{StackReport, STACK_METRICS};
 use crate::scenario::{Panel, GAP_RANGE_EV};
+use crate::view::format as fmt;
+use crate::view::input::parse_gap;
+use crate::view::input::tidy;
 
 /// Labels of the gap fields, top first.
 const GAP_LABELS: [&str; 6] = ["Subcell 1 (top)", "Subcell 2", "Subcell 3", "Subcell 4", "Subcell 5", "Subcell 6"];
@@ -146,7 +147,7 @@ pub fn conditions(sc: StackCtx) -> impl IntoView {
     let line = move || {
         ctx.scenario.with(|s| {
             let c = &s.cell;
-            let source = crate::app::export::source_label(&c.spectrum);
+            let source = crate::view::cell::csv::source_label(&c.spectrum);
             let suns = fmt::field(c.concentration, 6);
             let mut parts = vec![
                 format!("{source} at {suns} sun{}", if c.concentration == 1.0 { "" } else { "s" }),

@@ -10,9 +10,10 @@ use leptos::html;
 use leptos::prelude::*;
 use wasm_bindgen::JsCast;
 
-use super::controls::parse_number;
-use super::state::Ctx;
+use crate::app::state::Ctx;
 use crate::scenario::Scenario;
+use crate::view::export::{file_name, ExportKind};
+use crate::view::input::parse_number;
 
 /// What the hover read-out shows.
 #[derive(Debug, Clone, PartialEq)]
@@ -53,8 +54,8 @@ pub trait PlotBehaviour: 'static {
         false
     }
     fn key_up(&self, _ev: &web_sys::KeyboardEvent) {}
-    /// Offer the plot as a file: "svg", "png" or "csv".
-    fn save(&self, what: &'static str) -> Result<(), String>;
+    /// Offer the plot as a file of this kind (through [`super::export::offer`]).
+    fn save(&self, kind: ExportKind) -> Result<(), String>;
 }
 
 /// Everything about a plot card but its behaviour.
@@ -77,11 +78,6 @@ pub struct Card {
     pub footer: AnyView,
     pub canvas: NodeRef<html::Canvas>,
     pub plot_error: Signal<Option<String>>,
-}
-
-/// The file name of a plot's download.
-pub fn file_name(slug: &str, ext: &str) -> String {
-    format!("glowgap-{slug}.{ext}")
 }
 
 fn pointer_pos(ev: &web_sys::MouseEvent) -> Option<(f64, f64, f64)> {
@@ -152,15 +148,16 @@ pub fn plot_card(ctx: Ctx, card: Card, b: Rc<dyn PlotBehaviour>) -> impl IntoVie
         }
     };
 
-    let download = move |what: &'static str| match b.save(what) {
-        Ok(()) => ctx.status.set(Some(format!("Saved {}.", file_name(slug, what)))),
-        Err(e) => ctx.status.set(Some(format!("Could not save the {} file: {e}.", what.to_uppercase()))),
+    let download = move |kind: ExportKind| match b.save(kind) {
+        Ok(()) => ctx.status.set(Some(format!("Saved {}.", file_name(slug, kind)))),
+        Err(e) => ctx.status.set(Some(format!("Could not save the {} file: {e}.", kind.as_str().to_uppercase()))),
     };
     let download = Rc::new(download);
-    let button = move |what: &'static str, tip: &'static str| {
+    let button = move |kind: ExportKind| {
         let d = download.clone();
+        let what = kind.as_str();
         view! {
-            <button type="button" data-action=format!("download-{slug}-{what}") title=tip on:click=move |_| d(what)>
+            <button type="button" data-action=format!("download-{slug}-{what}") title=kind.describe() on:click=move |_| d(kind)>
                 {what.to_uppercase()}
             </button>
         }
@@ -189,9 +186,7 @@ pub fn plot_card(ctx: Ctx, card: Card, b: Rc<dyn PlotBehaviour>) -> impl IntoVie
                 <h3>{title}</h3>
                 {tools}
                 <div class="downloads" role="group" aria-label=format!("Download the {} plot", slug)>
-                    {button("svg", "Download the plot as SVG (vector)")}
-                    {button("png", "Download the plot as PNG, 1600×1000")}
-                    {button("csv", "Download the plotted data as CSV")}
+                    {ExportKind::ALL.map(button).collect_view()}
                 </div>
             </header>
             <div class="legend">{legend}</div>
@@ -242,7 +237,7 @@ pub fn range_input(
             if el.matches(":focus").unwrap_or(false) && typed == Some(v) {
                 return;
             }
-            el.set_value(&super::fmt::field(v, 6));
+            el.set_value(&crate::view::format::field(v, 6));
         }
     });
     let on_input = move |ev: ev::Event| {
@@ -257,7 +252,7 @@ pub fn range_input(
     view! {
         <label class="range-field">
             <span>{label}</span>
-            <input type="text" inputmode="decimal" data-control=hook node_ref=r value=super::fmt::field(value.get_untracked(), 6) on:input=on_input aria-describedby=format!("e-{err_hook}") />
+            <input type="text" inputmode="decimal" data-control=hook node_ref=r value=crate::view::format::field(value.get_untracked(), 6) on:input=on_input aria-describedby=format!("e-{err_hook}") />
             <span class="unit">{unit}</span>
         </label>
     }

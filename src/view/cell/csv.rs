@@ -1,17 +1,18 @@
-//! Files the user takes away: plots as SVG and PNG, their data as CSV, the scenario as JSON.
+//! The cell panel's data as text: the caption under exported figures and the CSV of each
+//! plot (the spectrum's file loads back as a spectrum).
+//!
+//! Architecture invariant: figures come from `report::CellReport`, numbers are written by
+//! `view::format::csv_num`, so the files and the page show the same values.
 
 use std::fmt::Write;
 
-use wasm_bindgen::{JsCast, JsValue};
-
-use super::engine::{spectrum_view, Computed, SpectrumDetail};
-use super::fmt::{csv_num, fixed, gap_ev};
-use super::plots::render::{png_data_url, svg_text, CellPlot, PlotKind};
-use crate::codec::to_json;
+use super::CellView;
 use crate::physics::constants::{to_ev, HC};
 use crate::physics::junction::{Emission, JvModel};
 use crate::report::CellReport;
 use crate::scenario::{PlotAxis, PlotQuantity, Scenario, SourceSpec};
+use crate::view::format::{csv_num, field, fixed, gap_ev};
+use crate::view::spectrum::{spectrum_view, SpectrumDetail};
 
 /// Short human name of a source.
 pub fn source_label(spec: &SourceSpec) -> String {
@@ -19,22 +20,22 @@ pub fn source_label(spec: &SourceSpec) -> String {
         SourceSpec::Am15g => "AM1.5G".into(),
         SourceSpec::Am15d => "AM1.5D".into(),
         SourceSpec::Am0 => "AM0".into(),
-        SourceSpec::Blackbody { temp_k } => format!("{} K blackbody sun", super::fmt::field(*temp_k, 6)),
+        SourceSpec::Blackbody { temp_k } => format!("{} K blackbody sun", field(*temp_k, 6)),
         SourceSpec::File { path } => format!("file {path}"),
         SourceSpec::Table(t) => format!("spectrum '{}'", t.name),
     }
 }
 
 /// One line describing the scenario, for exported figures and files.
-pub fn caption(s: &Scenario, c: &Computed) -> String {
+pub fn caption(s: &Scenario, c: &CellView) -> String {
     let cell = &s.cell;
     let mut parts = vec![
         source_label(&cell.spectrum),
-        format!("{} sun{}", super::fmt::field(cell.concentration, 6), if cell.concentration == 1.0 { "" } else { "s" }),
-        format!("cell {} K", super::fmt::field(cell.cell_temp_k, 6)),
+        format!("{} sun{}", field(cell.concentration, 6), if cell.concentration == 1.0 { "" } else { "s" }),
+        format!("cell {} K", field(cell.cell_temp_k, 6)),
     ];
     if cell.ere != 1.0 {
-        parts.push(format!("ERE {}", super::fmt::field(cell.ere, 4)));
+        parts.push(format!("ERE {}", field(cell.ere, 4)));
     }
     if cell.emission == Emission::Both {
         parts.push("both faces emit".into());
@@ -46,71 +47,7 @@ pub fn caption(s: &Scenario, c: &Computed) -> String {
     format!("Glowgap · {} · detailed-balance limit", parts.join(" · "))
 }
 
-/// Offer `url` as a download named `name`.
-pub fn download_url(name: &str, url: &str) -> Result<(), String> {
-    let doc = web_sys::window().and_then(|w| w.document()).ok_or("no document")?;
-    let a: web_sys::HtmlAnchorElement = doc
-        .create_element("a")
-        .map_err(|_| "could not start the download")?
-        .dyn_into()
-        .map_err(|_| "could not start the download")?;
-    a.set_href(url);
-    a.set_download(name);
-    a.set_attribute("hidden", "").ok();
-    let body = doc.body().ok_or("no body")?;
-    body.append_child(&a).map_err(|_| "could not start the download")?;
-    a.click();
-    a.remove();
-    Ok(())
-}
-
-/// Offer `text` as a download.
-pub fn download_text(name: &str, mime: &str, text: &str) -> Result<(), String> {
-    let parts = js_sys::Array::of1(&JsValue::from_str(text));
-    let opts = web_sys::BlobPropertyBag::new();
-    opts.set_type(mime);
-    let blob = web_sys::Blob::new_with_str_sequence_and_options(&parts, &opts)
-        .map_err(|_| "the browser could not make the file")?;
-    let url = web_sys::Url::create_object_url_with_blob(&blob).map_err(|_| "the browser could not make the file")?;
-    let r = download_url(name, &url);
-    let u = url.clone();
-    leptos::prelude::set_timeout(
-        move || {
-            let _ = web_sys::Url::revoke_object_url(&u);
-        },
-        std::time::Duration::from_secs(30),
-    );
-    r
-}
-
-pub fn file_name(kind: PlotKind, ext: &str) -> String {
-    super::card::file_name(kind.slug(), ext)
-}
-
-pub fn save_svg(kind: PlotKind, s: &Scenario, c: &Computed) -> Result<(), String> {
-    let svg = svg_text(&CellPlot { kind, c }, caption(s, c))?;
-    download_text(&file_name(kind, "svg"), "image/svg+xml", &svg)
-}
-
-pub fn save_png(kind: PlotKind, s: &Scenario, c: &Computed) -> Result<(), String> {
-    let url = png_data_url(&CellPlot { kind, c }, caption(s, c))?;
-    download_url(&file_name(kind, "png"), &url)
-}
-
-pub fn save_csv(kind: PlotKind, s: &Scenario, c: &Computed) -> Result<(), String> {
-    let text = match kind {
-        PlotKind::Spectrum => spectrum_csv(s, c),
-        PlotKind::Efficiency => efficiency_csv(s, c),
-        PlotKind::Jv => jv_csv(s, c),
-    };
-    download_text(&file_name(kind, "csv"), "text/csv", &text)
-}
-
-pub fn save_scenario(s: &Scenario) -> Result<(), String> {
-    download_text("glowgap-scenario.json", "application/json", &to_json(s))
-}
-
-fn comment_lines(out: &mut String, what: &str, s: &Scenario, c: &Computed) {
+fn comment_lines(out: &mut String, what: &str, s: &Scenario, c: &CellView) {
     let _ = writeln!(out, "# Glowgap: {what}");
     let _ = writeln!(out, "# {}", caption(s, c));
     let _ = writeln!(out, "# Detailed-balance limits of an ideal cell: upper bounds, not predictions of a device.");
@@ -118,7 +55,7 @@ fn comment_lines(out: &mut String, what: &str, s: &Scenario, c: &Computed) {
 
 /// The source spectrum at every point of the plotted window: the plot's axis and quantity
 /// first (so the file loads back as a spectrum), then the other axis and quantity.
-pub fn spectrum_csv(s: &Scenario, c: &Computed) -> String {
+pub fn spectrum_csv(s: &Scenario, c: &CellView) -> String {
     let axis = c.view.spectrum_axis;
     let quantity = c.view.spectrum_quantity;
     let other_q = match quantity {
@@ -194,7 +131,7 @@ fn report_row(out: &mut String, r: &CellReport) {
     );
 }
 
-pub fn efficiency_csv(s: &Scenario, c: &Computed) -> String {
+pub fn efficiency_csv(s: &Scenario, c: &CellView) -> String {
     let mut out = String::new();
     comment_lines(&mut out, "limiting efficiency against band gap", s, c);
     if let Some(b) = c.curve.best {
@@ -215,7 +152,7 @@ pub fn efficiency_csv(s: &Scenario, c: &Computed) -> String {
     out
 }
 
-pub fn jv_csv(s: &Scenario, c: &Computed) -> String {
+pub fn jv_csv(s: &Scenario, c: &CellView) -> String {
     let mut out = String::new();
     comment_lines(&mut out, "J-V and P-V curves", s, c);
     let r = &c.report;

@@ -1,39 +1,16 @@
-//! Turning the scenario into everything the page shows, with caches so that dragging the
-//! band gap recomputes only what depends on it: the cell's figures and its J-V curve. The
-//! efficiency curve is recomputed only when the light, the cell settings other than the gap,
-//! or its band-gap range change; the plotted spectrum only when the source or the plot's
-//! axis and quantity change.
-
-use std::sync::Arc;
+//! A light source as the spectrum plots show it: in nm or eV, as irradiance or photon flux,
+//! thinned for drawing, with the unit texts of the axes. Shared by the cell and stack panels.
+//!
+//! Architecture invariant: unit conversions go through `physics::constants` (`ev`, `to_ev`,
+//! `HC`) and `Spectrum`'s own axes; nothing here types in a physical number.
 
 use crate::physics::constants::{ev, to_ev, CHARGE, HC};
-use crate::physics::junction::{best_of, jv_curve, solve_cell, sweep, CellResult};
 use crate::physics::sources::Source;
-use crate::report::CellReport;
-use crate::scenario::{
-    CellScenario, CellSetup, PlotAxis, PlotQuantity, Scenario, SourceSpec, ViewSettings, GAP_RANGE_EV,
-};
+use crate::scenario::{PlotAxis, PlotQuantity, SourceSpec};
 
-/// Most band gaps computed for the efficiency curve.
-pub const CURVE_MAX_POINTS: usize = 1001;
-/// Finest band-gap step of the efficiency curve [eV].
-pub const CURVE_MIN_STEP_EV: f64 = 0.001;
-/// Samples of the J-V curve.
-pub const JV_POINTS: usize = 240;
 /// Most points drawn for a spectrum (longer tables are thinned, keeping each bucket's
 /// extremes, for drawing only; exports keep every point).
 const SPECTRUM_DRAW_POINTS: usize = 3000;
-
-/// The efficiency curve for one light and cell template.
-#[derive(Debug, Clone)]
-pub struct Curve {
-    pub gaps_ev: Vec<f64>,
-    pub results: Vec<CellResult>,
-    /// The best gap, refined between the grid points around the best grid point.
-    pub best: Option<CellResult>,
-    pub from_ev: f64,
-    pub to_ev: f64,
-}
 
 /// The source spectrum in the units of the spectrum plot.
 #[derive(Debug, Clone)]
@@ -100,183 +77,6 @@ pub fn unit_of(axis: PlotAxis, quantity: PlotQuantity) -> &'static str {
     }
 }
 
-/// Everything shown for one scenario.
-#[derive(Debug, Clone)]
-pub struct Computed {
-    /// the band gap [eV] as the scenario gives it
-    pub gap_ev: f64,
-    pub view: ViewSettings,
-    pub setup: Arc<CellSetup>,
-    pub result: CellResult,
-    pub report: CellReport,
-    /// (V [V], J [mA/cm^2]) from 0 to Voc
-    pub jv: Vec<(f64, f64)>,
-    pub curve: Arc<Curve>,
-    pub spectrum: Arc<SpectrumView>,
-    /// fraction of the incident power carried by photons above the gap
-    pub absorbed_power_fraction: f64,
-    /// fraction of the incident photons above the gap
-    pub absorbed_photon_fraction: f64,
-}
-
-/// Caches between renders. Keys are compared in place, so that a large user spectrum is
-/// not copied on every drag of the gap.
-#[derive(Default)]
-pub struct Engine {
-    /// the cell scenario (its gap ignored) and its physics inputs
-    setup: Option<(CellScenario, Arc<CellSetup>)>,
-    /// the curve, valid for the cell scenario of `setup` and this range
-    curve: Option<((f64, f64), Arc<Curve>)>,
-    spectrum: Option<((SourceSpec, PlotAxis, PlotQuantity), Arc<SpectrumView>)>,
-    /// how many times the efficiency curve was computed
-    pub curve_runs: u64,
-}
-
-/// Whether two cell scenarios agree in everything but the band gap.
-pub fn same_but_gap(a: &CellScenario, b: &CellScenario) -> bool {
-    a.spectrum == b.spectrum
-        && a.concentration.to_bits() == b.concentration.to_bits()
-        && a.cell_temp_k.to_bits() == b.cell_temp_k.to_bits()
-        && a.ere.to_bits() == b.ere.to_bits()
-        && a.emission == b.emission
-        && a.approx == b.approx
-}
-
-impl Engine {
-    /// Compute everything for `s`. Errors are the scenario's own messages.
-    pub fn compute(&mut self, s: &Scenario) -> Result<Computed, String> {
-        s.view.check()?;
-        let setup = match &self.setup {
-            Some((k, setup)) if same_but_gap(k, &s.cell) => {
-                // only the gap changed: check it the way the scenario does
-                let (lo, hi) = GAP_RANGE_EV;
-                let g = s.cell.gap_ev;
-                if g.is_nan() || !(g >= lo && g <= hi) {
-                    // the full check gives the standard message
-                    s.cell.to_physics()?;
-                }
-                let mut one = (**setup).clone();
-                one.cell.gap_j = ev(g);
-                Arc::new(one)
-            }
-            _ => {
-                let setup = Arc::new(s.cell.to_physics()?);
-                let mut template = (*setup).clone();
-                template.cell.gap_j = 0.0;
-                self.setup = Some((s.cell.clone(), Arc::new(template)));
-                // the curve belongs to the previous cell
-                self.curve = None;
-                setup
-            }
-        };
-
-        let curve_key = (s.view.curve_from_ev, s.view.curve_to_ev);
-        let curve = match &self.curve {
-            Some((k, c)) if *k == curve_key => c.clone(),
-            _ => {
-                let c = Arc::new(efficiency_curve(&setup, s.view.curve_from_ev, s.view.curve_to_ev));
-                self.curve_runs += 1;
-                self.curve = Some((curve_key, c.clone()));
-                c
-            }
-        };
-
-        let (axis, quantity) = (s.view.spectrum_axis, s.view.spectrum_quantity);
-        let spectrum = match &self.spectrum {
-            Some(((spec, a, q), v)) if *spec == s.cell.spectrum && *a == axis && *q == quantity => v.clone(),
-            _ => {
-                let v = Arc::new(spectrum_view(
-                    &setup.light.source,
-                    &s.cell.spectrum,
-                    axis,
-                    quantity,
-                    SpectrumDetail::Plot,
-                ));
-                self.spectrum = Some(((s.cell.spectrum.clone(), axis, quantity), v.clone()));
-                v
-            }
-        };
-
-        let result = solve_cell(&setup.light, &setup.cell);
-        let report = CellReport::from(&result);
-        let jv = jv_curve(&setup.light, &setup.cell, JV_POINTS).into_iter().map(|(v, j)| (v, j / 10.0)).collect();
-        let src = &setup.light.source;
-        let absorbed_power_fraction = ratio(src.power_above(setup.cell.gap_j), spectrum.total_power);
-        let absorbed_photon_fraction = ratio(src.photon_flux_above(setup.cell.gap_j), spectrum.total_photons);
-        Ok(Computed {
-            gap_ev: s.cell.gap_ev,
-            view: s.view.clone(),
-            setup,
-            result,
-            report,
-            jv,
-            curve,
-            spectrum,
-            absorbed_power_fraction,
-            absorbed_photon_fraction,
-        })
-    }
-}
-
-fn ratio(a: f64, b: f64) -> f64 {
-    if b > 0.0 && a.is_finite() {
-        (a / b).clamp(0.0, 1.0)
-    } else {
-        0.0
-    }
-}
-
-/// The band gaps of the efficiency curve over [from, to] eV.
-pub fn curve_gaps(from: f64, to: f64) -> Vec<f64> {
-    let span = to - from;
-    let n = ((span / CURVE_MIN_STEP_EV).round() as usize + 1).clamp(2, CURVE_MAX_POINTS);
-    (0..n).map(|i| from + span * i as f64 / (n - 1) as f64).collect()
-}
-
-fn efficiency_curve(setup: &CellSetup, from: f64, to: f64) -> Curve {
-    let gaps_ev = curve_gaps(from, to);
-    let gaps_j: Vec<f64> = gaps_ev.iter().map(|g| ev(*g)).collect();
-    let results = sweep(&setup.light, &setup.cell, &gaps_j);
-    let mut best = best_of(&results);
-    // refine between the neighbours of the best grid point (golden section)
-    if let Some(b) = best {
-        let step = ev((to - from) / (gaps_ev.len() - 1) as f64);
-        let (mut lo, mut hi) = ((b.gap_j - step).max(ev(from)), (b.gap_j + step).min(ev(to)));
-        let eval = |g: f64| {
-            let cell = crate::physics::junction::Cell { gap_j: g, ..setup.cell };
-            solve_cell(&setup.light, &cell)
-        };
-        let phi = 0.618_033_988_749_895;
-        let mut a = hi - phi * (hi - lo);
-        let mut c = lo + phi * (hi - lo);
-        let mut ra = eval(a);
-        let mut rc = eval(c);
-        for _ in 0..40 {
-            if ra.efficiency > rc.efficiency {
-                hi = c;
-                c = a;
-                rc = ra;
-                a = hi - phi * (hi - lo);
-                ra = eval(a);
-            } else {
-                lo = a;
-                a = c;
-                ra = rc;
-                c = lo + phi * (hi - lo);
-                rc = eval(c);
-            }
-            if hi - lo < ev(1e-7) {
-                break;
-            }
-        }
-        let r = if ra.efficiency > rc.efficiency { ra } else { rc };
-        if r.efficiency >= b.efficiency {
-            best = Some(r);
-        }
-    }
-    Curve { gaps_ev, results, best, from_ev: from, to_ev: to }
-}
-
 /// Plot coordinate (nm or eV) of a photon energy [J].
 pub fn x_of_energy(axis: PlotAxis, e_j: f64) -> f64 {
     match axis {
@@ -318,7 +118,7 @@ fn window(src: &Source, spec: &SourceSpec, axis: PlotAxis) -> (f64, f64) {
             let kt = crate::physics::constants::BOLTZMANN * temp_k;
             match axis {
                 PlotAxis::Wavelength => {
-                    let peak = 2.897_771_955e-3 / temp_k;
+                    let peak = crate::physics::planck::peak_wavelength(*temp_k);
                     (HC / (5.0 * peak), HC / (0.25 * peak))
                 }
                 PlotAxis::PhotonEnergy => (0.02 * kt, 12.0 * kt),

@@ -6,17 +6,14 @@
 //! Tick positions and labels are computed here (not left to plotters) and the label areas
 //! are sized from measured label widths, so no label is ever cut off.
 
-pub mod efficiency;
-pub mod jv;
 pub mod measure;
 pub mod render;
-pub mod spectrum;
 
 use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
-use super::fmt::{axis_exponent, field, fixed, nice_step, nice_ticks, superscript, ticks_with_step, Ticks};
+use crate::view::format::{axis_exponent, field, fixed, nice_step, nice_ticks, superscript, ticks_with_step, Ticks};
 
 /// Something that draws itself as a plot on any backend (the page's canvas, a PNG, an
 /// SVG) and says where its axes landed.

@@ -4,14 +4,14 @@ use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
-use super::{
+use crate::app::widgets::plot::{
     draw_boxed_text, draw_caption, draw_legend_row, draw_tag, err, palette::*, tick_target, AxisSpec, Frame, Look,
 };
-use crate::app::engine::Computed;
-use crate::app::fmt::{fixed, gap_ev};
 use crate::physics::constants::to_ev;
+use crate::view::cell::CellView;
+use crate::view::format::{fixed, gap_ev};
 
-pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, look: &Look) -> Result<Frame, String> {
+pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &CellView, look: &Look) -> Result<Frame, String> {
     root.fill(&WHITE).map_err(err)?;
     draw_caption(root, look)?;
     let (w, h) = root.dim_in_pixel();
@@ -22,7 +22,7 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, loo
     let emax = if emax > 0.0 { emax } else { 1.0 };
     let x = AxisSpec::new(curve.from_ev, curve.to_ev, tick_target(look, w, 90.0), "Band gap", "eV", false);
     let y = AxisSpec::new(0.0, emax * 1.22, tick_target(look, h, 55.0), "Limiting efficiency", "%", true);
-    let (mut chart, frame) = super::chart(root, look, &x, &y, true)?;
+    let (mut chart, frame) = crate::app::widgets::plot::chart(root, look, &x, &y, true)?;
 
     chart
         .draw_series(LineSeries::new(

@@ -1,42 +1,11 @@
 //! Where plots are drawn: the page's canvases, PNG files and SVG files.
 
-use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters_canvas::CanvasBackend;
 use wasm_bindgen::JsCast;
 use web_sys::HtmlCanvasElement;
 
-use super::{efficiency, err, jv, spectrum, Drawing, Frame, Look};
-use crate::app::engine::Computed;
-
-/// The three plots.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum PlotKind {
-    Spectrum,
-    Efficiency,
-    Jv,
-}
-
-impl PlotKind {
-    pub const ALL: [PlotKind; 3] = [PlotKind::Spectrum, PlotKind::Efficiency, PlotKind::Jv];
-
-    /// The test hook and file-name part.
-    pub fn slug(self) -> &'static str {
-        match self {
-            PlotKind::Spectrum => "spectrum",
-            PlotKind::Efficiency => "efficiency",
-            PlotKind::Jv => "jv",
-        }
-    }
-
-    pub fn index(self) -> usize {
-        match self {
-            PlotKind::Spectrum => 0,
-            PlotKind::Efficiency => 1,
-            PlotKind::Jv => 2,
-        }
-    }
-}
+use super::{err, Drawing, Frame, Look};
 
 /// Size of exported PNG files [px] and the scale of their type.
 pub const PNG_SIZE: (u32, u32) = (1600, 1000);
@@ -44,22 +13,6 @@ pub const PNG_SCALE: f64 = 2.0;
 /// Size of exported SVG files [user units] and the scale of their type.
 pub const SVG_SIZE: (u32, u32) = (1000, 625);
 pub const SVG_SCALE: f64 = 1.25;
-
-/// One of the cell panel's plots of one result.
-pub struct CellPlot<'a> {
-    pub kind: PlotKind,
-    pub c: &'a Computed,
-}
-
-impl Drawing for CellPlot<'_> {
-    fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String> {
-        match self.kind {
-            PlotKind::Spectrum => spectrum::draw(root, self.c, look),
-            PlotKind::Efficiency => efficiency::draw(root, self.c, look),
-            PlotKind::Jv => jv::draw(root, self.c, look),
-        }
-    }
-}
 
 fn device_pixel_ratio() -> f64 {
     web_sys::window()

@@ -5,14 +5,14 @@ use plotters::element::DashedPathElement;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
-use super::{
+use crate::app::widgets::plot::{
     draw_boxed_text, draw_caption, draw_legend_row, err, frame_of, margins, palette::*, tick_target, AxisSpec, Frame,
     Look,
 };
-use crate::app::engine::Computed;
-use crate::app::fmt::sig;
+use crate::view::cell::CellView;
+use crate::view::format::sig;
 
-pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, look: &Look) -> Result<Frame, String> {
+pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &CellView, look: &Look) -> Result<Frame, String> {
     root.fill(&WHITE).map_err(err)?;
     draw_caption(root, look)?;
     let (w, h) = root.dim_in_pixel();
@@ -27,7 +27,7 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Computed, loo
     let m = margins(look, &x, &y, Some(&y2));
     let tick = look.px(5.0);
 
-    let mut chart = super::builder(root, &m)
+    let mut chart = crate::app::widgets::plot::builder(root, &m)
         .right_y_label_area_size(m.right_area)
         .build_cartesian_2d(x.coord(), y.coord())
         .map_err(err)?

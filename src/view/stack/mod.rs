@@ -6,7 +6,6 @@
 use std::cell::RefCell;
 use std::sync::Arc;
 
-use crate::app::engine::{same_but_gap, spectrum_view, SpectrumDetail, SpectrumView};
 use crate::physics::absorber::{solve_absorber, Absorptance};
 use crate::physics::constants::{ev, to_ev};
 use crate::physics::junction::Cell;
@@ -15,6 +14,9 @@ use crate::physics::stack::{solve_stack, StackResult};
 use crate::report::stack::{AbsorberReport, LossReport, StackReport};
 use crate::scenario::stack::{check_gaps, AbsorberSpec};
 use crate::scenario::{CellScenario, CellSetup, PlotAxis, PlotQuantity, Scenario, SourceSpec};
+use crate::view::cell::same_but_gap;
+use crate::view::format::field;
+use crate::view::spectrum::{spectrum_view, SpectrumDetail, SpectrumView};
 
 /// Points of the loss curve against band gap.
 pub const LOSS_POINTS: usize = 251;
@@ -163,9 +165,7 @@ fn urbach_curve(a: &Absorptance, gap_j: f64, urbach_j: f64) -> Vec<(f64, f64)> {
 pub fn absorber_view(s: &Scenario) -> Result<Option<AbsorberView>, String> {
     let (kind, name) = match &s.stack.absorber {
         AbsorberSpec::Step => return Ok(None),
-        AbsorberSpec::Urbach { urbach_mev } => {
-            ("urbach", format!("Urbach tail of {} meV", crate::app::fmt::field(*urbach_mev, 6)))
-        }
+        AbsorberSpec::Urbach { urbach_mev } => ("urbach", format!("Urbach tail of {} meV", field(*urbach_mev, 6))),
         AbsorberSpec::Measured(t) => ("measured", t.name.clone()),
     };
     let setup = setup_of(&s.cell)?;
@@ -181,4 +181,21 @@ pub fn absorber_view(s: &Scenario) -> Result<Option<AbsorberView>, String> {
         Absorptance::Step { .. } => Vec::new(),
     };
     Ok(Some(AbsorberView { kind, name, measured, step, points, warnings }))
+}
+pub mod map;
+
+/// One line describing the stack's light and cells, for exported figures and files; `what`
+/// names the plot.
+pub fn caption(s: &Scenario, what: &str) -> String {
+    let cell = &s.cell;
+    let mut parts = vec![
+        crate::view::cell::csv::source_label(&cell.spectrum),
+        format!("{} sun{}", field(cell.concentration, 6), if cell.concentration == 1.0 { "" } else { "s" }),
+        format!("cells {} K", field(cell.cell_temp_k, 6)),
+    ];
+    if cell.ere != 1.0 {
+        parts.push(format!("ERE {}", field(cell.ere, 4)));
+    }
+    parts.push(what.to_string());
+    format!("Glowgap · {} · detailed-balance limit", parts.join(" · "))
 }

@@ -7,14 +7,14 @@
 
 use std::sync::Arc;
 
-use super::profile::{as_points, EDITOR_RANGE_UM};
-use crate::app::engine::display_value;
 use crate::physics::constants::HC;
-use crate::physics::planck::radiance_per_wavelength;
+use crate::physics::planck::{exitance_per_wavelength, peak_wavelength};
 use crate::physics::radiator::{evaluate, Emitter, Evaluation, Parts, Sky};
 use crate::report::radiator::RadiatorReport;
 use crate::scenario::radiator::{EmitterSpec, RadiatorScenario, SkySpec};
 use crate::scenario::{PlotAxis, PlotQuantity, SourceSpec};
+use crate::view::spectrum::display_value;
+use points::{as_points, EDITOR_RANGE_UM};
 
 /// Temperatures of the P_net(T) curve: settled, and while dragging.
 pub const CURVE_POINTS: usize = 161;
@@ -55,7 +55,7 @@ pub struct ProfileView {
 
 /// Everything the panel shows for one radiator scenario.
 #[derive(Debug, Clone)]
-pub struct RadComputed {
+pub struct RadiatorView {
     pub scenario: RadiatorScenario,
     pub report: RadiatorReport,
     pub warnings: Vec<String>,
@@ -72,7 +72,7 @@ pub struct RadComputed {
     pub sky: Sky,
 }
 
-impl RadComputed {
+impl RadiatorView {
     /// Normal emissivity at `l_um`.
     pub fn eps_at(&self, l_um: f64) -> f64 {
         self.emitter.normal(l_um * 1e-6)
@@ -81,13 +81,13 @@ impl RadComputed {
 
 /// Caches between renders.
 #[derive(Default)]
-pub struct RadEngine {
+pub struct RadiatorCache {
     /// the last scenario evaluated, its evaluation and warnings
     last: Option<(RadiatorScenario, Evaluated)>,
     /// background: keyed by sky, ambient, sun, surface temperature and range
     background: Option<(BackgroundKey, Arc<Background>)>,
     /// the last result, for redraws that change nothing computed (a point chosen, a resize)
-    result: Option<((bool, SourceSpec), Arc<RadComputed>)>,
+    result: Option<((bool, SourceSpec), Arc<RadiatorView>)>,
 }
 
 /// An evaluation with the warnings, emitter and sky it was made from.
@@ -158,9 +158,17 @@ fn background(sky: &Sky, ambient_k: f64, sun: &SourceSpec, surface_k: f64, range
         }
         Err(_) => (vec![0.0; x.len()], 0.0, sun.label()),
     };
-    // exitance pi B_lambda, per um
-    let bb = x.iter().map(|v| std::f64::consts::PI * radiance_per_wavelength(lambda_m(*v), surface_k) * 1e-6).collect();
-    let (bb, bb_peak) = normalized(bb);
+    // exitance pi B_lambda per um, over its value at Wien's peak (or at the window's edge
+    // nearest to the peak, when the peak lies outside the editor's span)
+    let per_um = |l_m: f64| exitance_per_wavelength(l_m, surface_k) * 1e-6;
+    let peak_m = peak_wavelength(surface_k).clamp(lambda_m(a), lambda_m(b));
+    let bb_peak = per_um(peak_m);
+    let bb = if bb_peak > 0.0 && bb_peak.is_finite() {
+        x.iter().map(|v| per_um(lambda_m(*v)) / bb_peak).collect()
+    } else {
+        vec![0.0; x.len()]
+    };
+    let bb_peak = if bb_peak.is_finite() { bb_peak } else { 0.0 };
     Background { x, sky: sky_t, sun: sun_rel, sun_peak, sun_name, bb, bb_peak }
 }
 
@@ -169,7 +177,7 @@ pub fn curve_temps(from: f64, to: f64, n: usize) -> Vec<f64> {
     (0..n).map(|i| from + (to - from) * i as f64 / (n - 1) as f64).collect()
 }
 
-impl RadEngine {
+impl RadiatorCache {
     /// Compute everything for `sc`, the curve coarse when `coarse`. Errors are the
     /// scenario's own messages.
     pub fn compute(
@@ -177,7 +185,7 @@ impl RadEngine {
         sc: &RadiatorScenario,
         coarse: bool,
         sun_shown: &SourceSpec,
-    ) -> Result<Arc<RadComputed>, String> {
+    ) -> Result<Arc<RadiatorView>, String> {
         if let Some(((c, sun), r)) = &self.result {
             if *c == coarse && sun == sun_shown && r.scenario == *sc {
                 return Ok(r.clone());
@@ -193,7 +201,7 @@ impl RadEngine {
         sc: &RadiatorScenario,
         coarse: bool,
         sun_shown: &SourceSpec,
-    ) -> Result<RadComputed, String> {
+    ) -> Result<RadiatorView, String> {
         let (ev, warnings, emitter, sky) = match &self.last {
             Some((k, done)) if k == sc => done.clone(),
             _ => {
@@ -231,7 +239,7 @@ impl RadEngine {
         let eps = xs.iter().map(|v| emitter.normal(10f64.powf(*v) * 1e-6)).collect();
         let editable = matches!(sc.emitter, EmitterSpec::Points { .. });
         let handles = as_points(&sc.emitter).unwrap_or_default();
-        Ok(RadComputed {
+        Ok(RadiatorView {
             scenario: sc.clone(),
             report,
             warnings,
@@ -245,3 +253,26 @@ impl RadEngine {
         })
     }
 }
+
+/// The bars of the balance chart, in order.
+pub const BALANCE_BARS: [&str; 5] = ["emitted", "from sky", "from sun", "from air", "net"];
+
+/// Each bar's (start, end) [W/m²]: the waterfall from 0 up by the emitted power, down by each
+/// gain, and the net power from 0.
+pub fn balance_steps(c: &RadiatorView) -> [(f64, f64); 5] {
+    let r = &c.report;
+    let e = r.emitted_w_m2;
+    let after_sky = e - r.sky_absorbed_w_m2;
+    let after_sun = after_sky - r.sun_absorbed_w_m2;
+    let net = r.net_w_m2;
+    [(0.0, e), (e, after_sky), (after_sky, after_sun), (after_sun, net), (0.0, net)]
+}
+
+/// The signed amount each bar stands for, as its label shows it.
+pub fn balance_amounts(c: &RadiatorView) -> [f64; 5] {
+    let r = &c.report;
+    [r.emitted_w_m2, -r.sky_absorbed_w_m2, -r.sun_absorbed_w_m2, -r.parasitic_w_m2, r.net_w_m2]
+}
+
+pub mod csv;
+pub mod points;

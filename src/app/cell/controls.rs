@@ -5,320 +5,23 @@
 //! use. Fields follow the scenario when it changes elsewhere (a drag, a key, a file), except
 //! while the user is typing a value that already matches.
 
-use std::cell::Cell;
 use std::rc::Rc;
 
 use leptos::ev;
 use leptos::html;
 use leptos::prelude::*;
 
-use super::fmt;
-use super::import;
-use super::state::{ev_of_nm, tidy, Ctx};
+use crate::app::state::Ctx;
+use crate::app::widgets::fields::{drop_zone, gap_keys, number_field, plain_parse, Field};
 use crate::physics::constants::MAX_CONCENTRATION;
 use crate::physics::junction::{Emission, JvModel};
 use crate::scenario::{Scenario, SourceSpec, CELL_TEMP_RANGE_K};
+use crate::view::format as fmt;
+use crate::view::input::{ev_of_nm, parse_gap, parse_number, thousands, tidy};
 
 /// Band-gap starting points: (label, eV). Typical room-temperature values.
 pub const ABSORBERS: [(&str, f64); 7] =
     [("Ge", 0.66), ("c-Si", 1.12), ("CIGS", 1.15), ("InP", 1.34), ("GaAs", 1.42), ("CdTe", 1.50), ("MAPbI₃", 1.60)];
-
-/// Read a number as people type it: spaces ignored, a lone decimal comma accepted.
-pub fn parse_number(text: &str) -> Option<f64> {
-    let t: String = text.trim().chars().filter(|c| !c.is_whitespace() && *c != '_').collect();
-    if t.is_empty() {
-        return None;
-    }
-    let t = if !t.contains('.') && t.matches(',').count() == 1 { t.replace(',', ".") } else { t.replace(',', "") };
-    t.parse::<f64>().ok()
-}
-
-/// A band gap typed as "1.42", "1.42 eV", "873 nm" or "0.873 µm"; returns eV.
-pub fn parse_gap(text: &str) -> Result<f64, String> {
-    let t = text.trim().to_lowercase();
-    let (num, unit) = match t.find(|c: char| c.is_alphabetic() || c == 'µ') {
-        Some(i) => (t[..i].trim(), t[i..].trim()),
-        None => (t.as_str(), ""),
-    };
-    let v = parse_number(num)
-        .ok_or_else(|| format!("'{}' is not a band gap; type e.g. 1.34, 1.34 eV or 925 nm", text.trim()))?;
-    match unit {
-        "" | "ev" => Ok(v),
-        "mev" => Ok(v / 1000.0),
-        "nm" => positive_wavelength(v, text).map(ev_of_nm),
-        "um" | "µm" | "μm" | "micron" | "microns" => positive_wavelength(v, text).map(|u| ev_of_nm(u * 1000.0)),
-        _ => Err(format!("'{unit}' is not a unit for the band gap; use eV, nm or µm (e.g. 1.34 eV or 925 nm)")),
-    }
-}
-
-fn positive_wavelength(v: f64, text: &str) -> Result<f64, String> {
-    if v > 0.0 && v.is_finite() {
-        Ok(v)
-    } else {
-        Err(format!("the wavelength '{}' must be a positive number, e.g. 925 nm", text.trim()))
-    }
-}
-
-/// A key handler of a field; returns whether it handled the key.
-pub type KeyHandler = Rc<dyn Fn(&web_sys::KeyboardEvent, &web_sys::HtmlInputElement) -> bool>;
-
-/// What a numeric field needs to know.
-pub struct Field {
-    pub label: &'static str,
-    pub unit: &'static str,
-    pub hook: &'static str,
-    pub hint: Option<String>,
-    /// an example value for messages
-    pub example: &'static str,
-    pub value: Memo<f64>,
-    pub show: fn(f64) -> String,
-    pub parse: fn(&str) -> Result<f64, String>,
-}
-
-fn plain_parse(text: &str) -> Result<f64, String> {
-    parse_number(text).ok_or_else(|| format!("'{}' is not a number", text.trim()))
-}
-
-fn same(a: f64, b: f64) -> bool {
-    a == b || (a - b).abs() <= 1e-12 * a.abs().max(b.abs())
-}
-
-fn is_focused(el: &web_sys::HtmlInputElement) -> bool {
-    el.matches(":focus").unwrap_or(false)
-}
-
-/// Steps of the band gap by key [eV]: 1 meV, 10 meV with Shift.
-pub fn key_step(ev: &web_sys::KeyboardEvent) -> f64 {
-    if ev.shift_key() {
-        0.010
-    } else {
-        0.001
-    }
-}
-
-/// Arrow keys on a band-gap field: Up/Down always step the gap, Left/Right only while the
-/// user is not typing in the field (there they move the caret). `step(d)` applies a step of
-/// `d` eV (1 meV, 10 meV with Shift) and says whether it was taken. Returns the handler and
-/// the typing flag, which the field's focus-in should clear.
-pub fn gap_keys(step: Rc<dyn Fn(f64) -> bool>) -> (KeyHandler, Rc<Cell<bool>>) {
-    let typing = Rc::new(Cell::new(false));
-    let t = typing.clone();
-    let handler: KeyHandler = Rc::new(move |ev, _el| {
-        let dir = match ev.key().as_str() {
-            "ArrowUp" => 1.0,
-            "ArrowDown" => -1.0,
-            "ArrowRight" if !t.get() => 1.0,
-            "ArrowLeft" if !t.get() => -1.0,
-            "Enter" | "Escape" => {
-                t.set(false);
-                return false;
-            }
-            k if k.chars().count() == 1 || k == "Backspace" || k == "Delete" => {
-                t.set(true);
-                return false;
-            }
-            _ => return false,
-        };
-        step(dir * key_step(ev));
-        true
-    });
-    (handler, typing)
-}
-
-fn still_using(value: String, unit: &str) -> String {
-    let unit = if value == "1" && unit == "suns" { "sun" } else { unit };
-    if unit.is_empty() {
-        format!("Still using {value}.")
-    } else {
-        format!("Still using {value} {unit}.")
-    }
-}
-
-/// A bare numeric input: what it edits and how it reads and shows values. Messages go to
-/// the error line of `hook`.
-pub struct NumberInput {
-    pub hook: &'static str,
-    /// its `data-control` hook
-    pub control: String,
-    pub id: Option<String>,
-    /// an accessible name, when no <label> names it
-    pub aria_label: Option<String>,
-    pub describedby: String,
-    pub unit: &'static str,
-    /// an example value for messages
-    pub example: &'static str,
-    pub value: Memo<f64>,
-    pub show: fn(f64) -> String,
-    pub parse: fn(&str) -> Result<f64, String>,
-}
-
-/// A numeric input that follows the scenario, commits as the user types when the text is a
-/// usable value, and otherwise says under `hook` what is wrong while the last good value
-/// stays in use. `commit` returns whether the value was taken; `on_key` may handle a key
-/// (returns true when it did).
-pub fn numeric_input(
-    ctx: Ctx,
-    f: NumberInput,
-    commit: Rc<dyn Fn(f64) -> bool>,
-    on_key: Option<KeyHandler>,
-) -> impl IntoView {
-    let input = NodeRef::<html::Input>::new();
-    let NumberInput { hook, control, id, aria_label, describedby, unit, example, value, show, parse } = f;
-
-    // follow the scenario
-    Effect::new(move |_| {
-        let v = value.get();
-        if let Some(el) = input.get() {
-            let typed = parse(&el.value()).ok();
-            if is_focused(&el) && typed.is_some_and(|t| same(t, v)) {
-                return;
-            }
-            el.set_value(&show(v));
-        }
-    });
-
-    let on_input = move |ev: ev::Event| {
-        let text = event_target_value(&ev);
-        match parse(&text) {
-            Ok(v) => {
-                if !commit(v) {
-                    let still = still_using(show(value.get_untracked()), unit);
-                    ctx.errors.update(|e| {
-                        if let Some(m) = e.get_mut(hook) {
-                            if !m.contains("Still using") {
-                                m.push(' ');
-                                m.push_str(&still);
-                            }
-                        }
-                    });
-                }
-            }
-            Err(msg) => {
-                let shown = if text.trim().is_empty() {
-                    format!("Type a value, e.g. {example} {unit}")
-                } else {
-                    super::state::sentence(&msg)
-                };
-                let shown = format!("{}.", shown.trim_end_matches('.'));
-                ctx.set_error(hook, format!("{shown} {}", still_using(show(value.get_untracked()), unit)));
-            }
-        }
-    };
-    let on_change = move |_ev: ev::Event| {
-        // tidy the text once the user is done, if it holds the value in use
-        if let Some(el) = input.get_untracked() {
-            if let Ok(t) = parse(&el.value()) {
-                let v = value.get_untracked();
-                if same(t, v) {
-                    el.set_value(&show(v));
-                }
-            }
-        }
-    };
-    let on_keydown = move |ev: ev::KeyboardEvent| {
-        if let (Some(k), Some(el)) = (&on_key, input.get_untracked()) {
-            if k(&ev, &el) {
-                ev.prevent_default();
-            }
-        }
-    };
-    view! {
-        <input
-            id=id
-            type="text"
-            inputmode="decimal"
-            autocomplete="off"
-            spellcheck="false"
-            data-control=control
-            value=show(value.get_untracked())
-            node_ref=input
-            aria-label=aria_label
-            aria-describedby=describedby
-            aria-invalid=move || if ctx.error_of(hook).is_some() { "true" } else { "false" }
-            on:input=on_input
-            on:change=on_change
-            on:keydown=on_keydown
-        />
-    }
-}
-
-/// A labelled numeric input with its unit, hint and message line (see [`numeric_input`]).
-pub fn number_field(ctx: Ctx, f: Field, commit: Rc<dyn Fn(f64) -> bool>, on_key: Option<KeyHandler>) -> impl IntoView {
-    let Field { label, unit, hook, hint, example, value, show, parse } = f;
-    let id = format!("f-{hook}");
-    let err_id = format!("e-{hook}");
-    let hint_id = format!("h-{hook}");
-    let describedby = if hint.is_some() { format!("{hint_id} {err_id}") } else { err_id.clone() };
-    let input = NumberInput {
-        hook,
-        control: hook.to_string(),
-        id: Some(id.clone()),
-        aria_label: None,
-        describedby,
-        unit,
-        example,
-        value,
-        show,
-        parse,
-    };
-    view! {
-        <div class="field" class:has-error=move || ctx.error_of(hook).is_some()>
-            <label for=id>{label}</label>
-            <div class="input-unit">
-                {numeric_input(ctx, input, commit, on_key)}
-                <span class="unit" aria-hidden="true">{unit}</span>
-            </div>
-            {hint.map(|h| view! { <p class="hint" id=hint_id>{h}</p> })}
-            <p class="field-error" id=err_id data-error=hook aria-live="polite">{move || ctx.error_of(hook)}</p>
-        </div>
-    }
-}
-
-/// A file button that also takes a dropped file: `control` is the input's hook, `hint` the
-/// line under it (which should carry the id named in `describedby`).
-pub fn drop_zone(
-    control: &'static str,
-    accept: &'static str,
-    describedby: &'static str,
-    button: &'static str,
-    hint: AnyView,
-    on_file: Rc<dyn Fn(web_sys::File)>,
-) -> impl IntoView {
-    let file_input = NodeRef::<html::Input>::new();
-    let over = RwSignal::new(false);
-    let take = on_file.clone();
-    let on_change = move |_ev: ev::Event| {
-        if let Some(el) = file_input.get_untracked() {
-            if let Some(f) = import::take_file(&el) {
-                take(f);
-            }
-        }
-    };
-    let on_drop = move |ev: ev::DragEvent| {
-        ev.prevent_default();
-        ev.stop_propagation();
-        over.set(false);
-        if let Some(f) = import::dropped_file(&ev) {
-            on_file(f);
-        }
-    };
-    view! {
-        <div
-            class="drop-zone"
-            class:over=move || over.get()
-            on:dragover=move |ev: ev::DragEvent| { ev.prevent_default(); over.set(true); }
-            on:dragleave=move |_| over.set(false)
-            on:drop=on_drop
-        >
-            <label class="file-button">
-                <input type="file" data-control=control accept=accept node_ref=file_input on:change=on_change aria-describedby=describedby />
-                <span>{button}</span>
-            </label>
-            <span class="drop-note">"or drop it here"</span>
-            {hint}
-        </div>
-    }
-}
 
 /// The value of the source <select> for a source.
 fn source_key(s: &SourceSpec) -> &'static str {
@@ -410,7 +113,7 @@ pub fn source_panel(ctx: Ctx) -> impl IntoView {
         "e-spectrum h-spectrum-file",
         "Load a spectrum file…",
         spectrum_hint.into_any(),
-        Rc::new(move |f| import::open_spectrum(ctx, f)),
+        Rc::new(move |f| crate::app::import::open_spectrum(ctx, f)),
     );
     let info = move || {
         ctx.computed.with(|c| {
@@ -555,7 +258,8 @@ pub fn cell_panel(ctx: Ctx) -> impl IntoView {
     };
     let warnings = move || {
         ctx.computed.with(|c| {
-            c.as_ref().map(|c| c.setup.warnings.iter().map(|w| super::state::sentence(w)).collect::<Vec<_>>().join(" "))
+            c.as_ref()
+                .map(|c| c.setup.warnings.iter().map(|w| crate::app::state::sentence(w)).collect::<Vec<_>>().join(" "))
         })
     };
 
@@ -647,19 +351,6 @@ pub fn cell_panel(ctx: Ctx) -> impl IntoView {
             </fieldset>
         </section>
     }
-}
-
-/// A whole number with thousands separators.
-pub fn thousands(v: f64) -> String {
-    let s = format!("{:.0}", v);
-    let mut out = String::new();
-    for (i, c) in s.chars().enumerate() {
-        if i > 0 && (s.len() - i) % 3 == 0 {
-            out.push(',');
-        }
-        out.push(c);
-    }
-    out
 }
 
 fn round_sig(v: f64, sig: i32) -> f64 {

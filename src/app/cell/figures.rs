@@ -1,0 +1,65 @@
+//! The headline figures, the notices across the top, and the cautions.
+
+use leptos::prelude::*;
+
+use crate::app::state::Ctx;
+use crate::app::widgets::notices::caution_footer;
+use crate::report::CELL_METRICS;
+use crate::view::format::{fixed, gap_ev};
+use crate::view::input::ev_of_nm;
+
+pub fn figures(ctx: Ctx) -> impl IntoView {
+    let cards = CELL_METRICS
+        .iter()
+        .map(|(hook, label, _unit)| {
+            let hook = *hook;
+            let text =
+                move || ctx.computed.with(|c| c.as_ref().map(|c| c.report.display(hook)).unwrap_or_else(|| "—".into()));
+            view! {
+                <div class="figure" class:lead=hook == "efficiency">
+                    <span class="fig-label">{*label}</span>
+                    <span class="fig-value" data-metric=hook>{text}</span>
+                </div>
+            }
+        })
+        .collect_view();
+    let summary = move || {
+        ctx.computed.with(|c| {
+            c.as_ref().map(|c| {
+                format!(
+                    "Band gap {} eV (absorption edge {} nm) · {} · {} sun{}",
+                    gap_ev(c.gap_ev),
+                    fixed(ev_of_nm(1.0) / c.gap_ev, 1),
+                    c.spectrum.name,
+                    crate::view::format::field(c.setup.light.concentration, 6),
+                    if c.setup.light.concentration == 1.0 { "" } else { "s" }
+                )
+            })
+        })
+    };
+    let error = move || ctx.compute_error.get();
+    view! {
+        <section class="figures-block" aria-labelledby="fig-h">
+            <h2 id="fig-h" class="visually-hidden">"Headline figures"</h2>
+            <div class="figures">{cards}</div>
+            <p class="summary">{summary}</p>
+            <p class="compute-error" role="alert" hidden=move || error().is_none()>{error}</p>
+            <p class="caution-inline">
+                "Detailed-balance limits of an ideal single-junction cell: upper bounds set by physics, not predictions of a real device."
+            </p>
+        </section>
+    }
+}
+
+pub fn cautions() -> impl IntoView {
+    caution_footer(&[
+        (
+            "Limits, not predictions. ",
+            "Every figure here is a detailed-balance limit for an ideal step absorber (every photon above the gap absorbed, only radiative loss scaled by the ERE). Real cells fall short of it.",
+        ),
+        (
+            "Concentrated light is dangerous. ",
+            "Concentrated sunlight can burn skin, start fires and damage eyes within moments. Defer to local codes and licensed practice for any real optics.",
+        ),
+    ])
+}

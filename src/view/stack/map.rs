@@ -1,0 +1,243 @@
+//! The two-junction map as the stack panel shows it: efficiencies in percent on the grid of
+//! (top gap, bottom gap), the grid's best point, the current-matching line, contour levels
+//! and their marching-squares segments, and the map's CSV. Computing the grid is
+//! `physics::stack::map`'s; scheduling it between frames is the page's.
+//!
+//! Architecture invariant: pure functions of the map's numbers; no clock, no drawing.
+
+use std::fmt::Write;
+
+use crate::physics::constants::{ev, to_ev};
+use crate::physics::stack::map::matched_bottom_gap;
+use crate::physics::stack::Connection;
+use crate::scenario::stack::StackScenario;
+use crate::scenario::CellSetup;
+use crate::view::format::nice_step;
+
+/// Where the map's computation stands.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub enum MapStatus {
+    #[default]
+    Idle,
+    /// fraction of the rows done
+    Computing(f64),
+    Ready,
+    Failed(String),
+}
+
+/// A computed map in display units.
+#[derive(Debug, Clone)]
+pub struct MapData {
+    /// which computation made it (the page's drawing of it is cached by this)
+    pub id: u64,
+    pub connection: Connection,
+    /// top-cell gaps [eV] (rows, the y axis), ascending
+    pub tops_ev: Vec<f64>,
+    /// bottom-cell gaps [eV] (columns, the x axis), ascending
+    pub bottoms_ev: Vec<f64>,
+    /// efficiency [%] of row i, column k at i * bottoms_ev.len() + k; NaN where the bottom
+    /// gap is not below the top gap
+    pub eff: Vec<f64>,
+    /// the best grid point: (top gap [eV], bottom gap [eV], efficiency [%])
+    pub best: Option<(f64, f64, f64)>,
+    /// the best of the grid's best few local maxima, each refined to the local optimum near
+    /// it (may lie off the map when the grid's best is on its edge), once found: (top,
+    /// bottom [eV], efficiency [%])
+    pub refined: Option<(f64, f64, f64)>,
+    /// time spent refining [ms]
+    pub refine_ms: f64,
+    /// (bottom gap, top gap) [eV] where the two subcells' photocurrents are equal
+    pub matched: Vec<(f64, f64)>,
+    /// time spent computing and from request to result [ms]
+    pub compute_ms: f64,
+    pub elapsed_ms: f64,
+    pub source: String,
+}
+
+impl MapData {
+    pub fn at(&self, i: usize, k: usize) -> f64 {
+        self.eff.get(i * self.bottoms_ev.len() + k).copied().unwrap_or(f64::NAN)
+    }
+    /// (smallest, largest) efficiency of the stacks on the map [%].
+    pub fn range(&self) -> (f64, f64) {
+        self.eff
+            .iter()
+            .filter(|e| e.is_finite())
+            .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), &e| (a.min(e), b.max(e)))
+    }
+    /// The grid point nearest to (bottom, top) [eV].
+    pub fn nearest(&self, bottom: f64, top: f64) -> Option<(usize, usize)> {
+        let idx = |xs: &[f64], v: f64| -> Option<usize> {
+            let n = xs.len();
+            if n < 2 {
+                return None;
+            }
+            let t = (v - xs[0]) / (xs[n - 1] - xs[0]) * (n - 1) as f64;
+            (t >= -0.5 && t <= n as f64 - 0.5).then(|| (t.round().max(0.0) as usize).min(n - 1))
+        };
+        Some((idx(&self.tops_ev, top)?, idx(&self.bottoms_ev, bottom)?))
+    }
+}
+
+/// The design as the map shows it: the top and bottom gaps of a two-junction stack.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Design {
+    /// (top, bottom) [eV] for a two-junction stack
+    pub pair: Option<(f64, f64)>,
+    pub junctions: usize,
+}
+
+impl Design {
+    pub fn of(st: &StackScenario) -> Design {
+        let pair = (st.gaps_ev.len() == 2).then(|| (st.gaps_ev[0], st.gaps_ev[1]));
+        Design { pair, junctions: st.gaps_ev.len() }
+    }
+}
+
+/// Contour levels [%] for a map spanning efficiencies up to `hi`.
+pub fn levels(lo: f64, hi: f64) -> Vec<f64> {
+    if !(hi > lo) {
+        return Vec::new();
+    }
+    let (step, _, _) = nice_step(hi - lo, 7);
+    let first = (lo / step).floor() as i64 + 1;
+    (first..).map(|k| k as f64 * step).take_while(|v| *v < hi).collect()
+}
+
+/// Line segments where the grid crosses `level` (marching squares), in (x = bottom gap,
+/// y = top gap) [eV]. Squares with a corner that is not a stack are skipped.
+pub fn contour(m: &MapData, level: f64) -> Vec<[(f64, f64); 2]> {
+    let (nt, nb) = (m.tops_ev.len(), m.bottoms_ev.len());
+    let mut out = Vec::new();
+    for i in 0..nt.saturating_sub(1) {
+        for k in 0..nb.saturating_sub(1) {
+            // corners counter-clockwise from (k, i)
+            let c = [(k, i), (k + 1, i), (k + 1, i + 1), (k, i + 1)];
+            let v: Vec<f64> = c.iter().map(|&(kk, ii)| m.at(ii, kk)).collect();
+            if v.iter().any(|x| !x.is_finite()) {
+                continue;
+            }
+            let p = |j: usize| (m.bottoms_ev[c[j].0], m.tops_ev[c[j].1]);
+            // crossing on the edge from corner a to corner b
+            let cross = |a: usize, b: usize| {
+                let t = (level - v[a]) / (v[b] - v[a]);
+                let (pa, pb) = (p(a), p(b));
+                (pa.0 + t * (pb.0 - pa.0), pa.1 + t * (pb.1 - pa.1))
+            };
+            let edges: Vec<(f64, f64)> = (0..4)
+                .filter(|&j| (v[j] >= level) != (v[(j + 1) % 4] >= level))
+                .map(|j| cross(j, (j + 1) % 4))
+                .collect();
+            match edges.len() {
+                2 => out.push([edges[0], edges[1]]),
+                4 => {
+                    // a saddle: the centre value decides how the crossings pair up
+                    let centre = v.iter().sum::<f64>() / 4.0;
+                    if (centre >= level) == (v[0] >= level) {
+                        out.push([edges[0], edges[3]]);
+                        out.push([edges[1], edges[2]]);
+                    } else {
+                        out.push([edges[0], edges[1]]);
+                        out.push([edges[2], edges[3]]);
+                    }
+                }
+                _ => {}
+            }
+        }
+    }
+    out
+}
+
+/// The map as a CSV table: a comment header (what it is, the grid's best and the refined
+/// optimum) and one row per grid point, top gap first; efficiency empty off the stacks.
+pub fn map_csv(m: &MapData, what: &str) -> String {
+    let mut out = String::new();
+    let _ = writeln!(out, "# Glowgap: {what}");
+    let _ = writeln!(
+        out,
+        "# efficiency of every two-junction stack of the grid; empty where the bottom gap is not below the top gap"
+    );
+    let _ = writeln!(out, "# Detailed-balance limits of an ideal stack: upper bounds, not predictions of a device.");
+    if let Some((t, b, e)) = m.best {
+        let _ = writeln!(out, "# best point of the grid: top {t:.6} eV, bottom {b:.6} eV, {e:.4} %");
+    }
+    if let Some((t, b, e)) = m.refined {
+        let _ = writeln!(
+            out,
+            "# optimum refined from the grid's best local maxima (simplex): top {t:.6} eV, bottom {b:.6} eV, {e:.4} %"
+        );
+    }
+    let _ = writeln!(out, "top gap (eV),bottom gap (eV),efficiency (%)");
+    for (i, t) in m.tops_ev.iter().enumerate() {
+        for (k, b) in m.bottoms_ev.iter().enumerate() {
+            let e = m.at(i, k);
+            let e = if e.is_finite() { format!("{e:.4}") } else { String::new() };
+            let _ = writeln!(out, "{t:.6},{b:.6},{e}");
+        }
+    }
+    out
+}
+
+/// What a finished grid computation produced, before it becomes [`MapData`].
+pub struct Grid<'a> {
+    /// which computation made it
+    pub id: u64,
+    pub connection: Connection,
+    /// the light and cells it was computed for (the current-matching line needs the source)
+    pub setup: &'a CellSetup,
+    /// top-cell gaps [J] (rows), bottom-cell gaps [J] (columns), ascending
+    pub tops_j: &'a [f64],
+    pub bottoms_j: &'a [f64],
+    /// efficiency (fraction) of row i, column k at i * bottoms_j.len() + k
+    pub efficiency: &'a [f64],
+    /// time spent computing and from request to result [ms]
+    pub compute_ms: f64,
+    pub elapsed_ms: f64,
+}
+
+impl MapData {
+    /// The map in display units: gaps in eV, efficiency in percent (NaN where the bottom gap
+    /// is not below the top gap), its best grid point and the current-matching line.
+    pub fn from_grid(g: &Grid) -> MapData {
+        let tops_ev: Vec<f64> = g.tops_j.iter().map(|v| to_ev(*v)).collect();
+        let bottoms_ev: Vec<f64> = g.bottoms_j.iter().map(|v| to_ev(*v)).collect();
+        let nb = bottoms_ev.len().max(1);
+        let eff: Vec<f64> = g
+            .efficiency
+            .iter()
+            .enumerate()
+            .map(|(idx, e)| if g.bottoms_j[idx % nb] < g.tops_j[idx / nb] { e * 100.0 } else { f64::NAN })
+            .collect();
+        let best = eff
+            .iter()
+            .enumerate()
+            .filter(|(_, e)| e.is_finite())
+            .max_by(|a, b| a.1.total_cmp(b.1))
+            .map(|(idx, e)| (tops_ev[idx / nb], bottoms_ev[idx % nb], *e));
+        let matched = matched_line(g.setup, &tops_ev, &bottoms_ev);
+        MapData {
+            id: g.id,
+            connection: g.connection,
+            tops_ev,
+            bottoms_ev,
+            eff,
+            best,
+            refined: None,
+            refine_ms: 0.0,
+            matched,
+            compute_ms: g.compute_ms,
+            elapsed_ms: g.elapsed_ms,
+            source: g.setup.light.source.name(),
+        }
+    }
+}
+
+/// (bottom gap, top gap) [eV] along the current-matching line, one point per top gap of the
+/// map whose matching bottom gap lies within the map's bottom-gap range.
+pub fn matched_line(setup: &CellSetup, tops_ev: &[f64], bottoms_ev: &[f64]) -> Vec<(f64, f64)> {
+    let (Some(lo), Some(hi)) = (bottoms_ev.first(), bottoms_ev.last()) else {
+        return Vec::new();
+    };
+    let src = &setup.light.source;
+    tops_ev.iter().filter_map(|&t| matched_bottom_gap(src, ev(t), ev(*lo), ev(*hi)).map(|b| (to_ev(b), t))).collect()
+}
