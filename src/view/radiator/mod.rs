@@ -276,3 +276,33 @@ pub fn balance_amounts(c: &RadiatorView) -> [f64; 5] {
 
 pub mod csv;
 pub mod points;
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_page_shows_the_balance_the_cli_computes() {
+        let sc = RadiatorScenario::default();
+        let mut cache = RadiatorCache::default();
+        let v = cache.compute(&sc, false, &SourceSpec::Am15g).unwrap();
+        assert_eq!(v.curve.len(), CURVE_POINTS);
+        // the same scenario through the same physics call gives the same report
+        let p = sc.to_physics().unwrap();
+        let r = RadiatorReport::from(&evaluate(&p.emitter, &p.surroundings, p.surface_k));
+        assert_eq!(v.report.net_w_m2.to_bits(), r.net_w_m2.to_bits());
+        // a coarse curve while dragging, the settled one after
+        assert_eq!(cache.compute(&sc, true, &SourceSpec::Am15g).unwrap().curve.len(), CURVE_POINTS_COARSE);
+    }
+
+    #[test]
+    fn background_blackbody_peaks_at_one() {
+        // 300 K: Wien's peak near 9.66 um lies inside the editor's span, so the drawn curve
+        // reaches 1 there and nowhere exceeds it (normalized by the exact peak value)
+        let sky = Sky::Space;
+        let bg = background(&sky, 300.0, &SourceSpec::Am15g, 300.0, EDITOR_RANGE_UM);
+        let max = bg.bb.iter().copied().fold(0.0, f64::max);
+        assert!(max <= 1.0 + 1e-12 && max > 0.999, "{max}");
+        assert!(bg.bb_peak > 0.0 && bg.sun_peak > 0.0);
+    }
+}

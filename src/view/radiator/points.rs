@@ -84,7 +84,7 @@ fn round_sig(v: f64, sig: i32) -> f64 {
 }
 
 /// A point as the link keeps it: wavelength to 4 significant figures, emissivity to 0.001.
-pub fn tidy([l, e]: [f64; 2]) -> [f64; 2] {
+pub fn tidy_point([l, e]: [f64; 2]) -> [f64; 2] {
     [round_sig(l, 4), ((e * 1000.0).round() / 1000.0).clamp(0.0, 1.0)]
 }
 
@@ -147,7 +147,7 @@ pub fn as_points(spec: &EmitterSpec) -> Option<Vec<[f64; 2]>> {
         EmitterSpec::File { .. } => return None,
     };
     let pts: Vec<[f64; 2]> =
-        pts.into_iter().map(|[l, e]| tidy([l.clamp(WAVELENGTH_RANGE_UM.0, WAVELENGTH_RANGE_UM.1), e])).collect();
+        pts.into_iter().map(|[l, e]| tidy_point([l.clamp(WAVELENGTH_RANGE_UM.0, WAVELENGTH_RANGE_UM.1), e])).collect();
     Some(ascending(pts))
 }
 
@@ -169,7 +169,7 @@ pub fn move_point(points: &[[f64; 2]], i: usize, l: f64, e: f64, range: (f64, f6
         return out;
     }
     let raw = [l.clamp(lo, hi), e.clamp(0.0, 1.0)];
-    let mut p = if snap { snapped(raw) } else { tidy(raw) };
+    let mut p = if snap { snapped(raw) } else { tidy_point(raw) };
     // rounding may cross a neighbour: fall back to the finer value
     if !(p[0] >= lo && p[0] <= hi) {
         p[0] = round_sig(raw[0], 6).clamp(lo, hi);
@@ -193,7 +193,7 @@ pub fn insert_at(points: &[[f64; 2]], l: f64, e: f64) -> Result<(Vec<[f64; 2]>, 
     if points.len() >= MAX_POINTS {
         return Err(format!("A profile holds at most {MAX_POINTS} control points; remove one first."));
     }
-    let p = tidy([l.clamp(WAVELENGTH_RANGE_UM.0, WAVELENGTH_RANGE_UM.1), e]);
+    let p = tidy_point([l.clamp(WAVELENGTH_RANGE_UM.0, WAVELENGTH_RANGE_UM.1), e]);
     let i = points.partition_point(|q| q[0] < p[0]);
     let near = |q: &[f64; 2]| q[0] / p[0] < MIN_RATIO && p[0] / q[0] < MIN_RATIO;
     if points.get(i).is_some_and(near) || (i > 0 && near(&points[i - 1])) {
@@ -231,4 +231,77 @@ pub fn remove(points: &[[f64; 2]], i: usize) -> Result<Vec<[f64; 2]>, String> {
         out.remove(i);
     }
     Ok(out)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Every edit must give a profile the scenario accepts (ascending, in range, 0-1).
+    fn accepted(points: &[[f64; 2]]) {
+        let spec = EmitterSpec::Points { points: points.to_vec() };
+        assert!(spec.to_profile().is_ok(), "{points:?} refused: {:?}", spec.to_profile().err());
+        assert!(points.windows(2).all(|w| w[1][0] > w[0][0]), "not ascending: {points:?}");
+    }
+
+    #[test]
+    fn presets_are_valid_and_recognized() {
+        for (hook, _, _) in PRESETS {
+            let spec = preset(hook).unwrap();
+            assert!(spec.to_profile().is_ok(), "{hook}");
+            assert_eq!(preset_of(&spec), Some(hook));
+            accepted(&as_points(&spec).unwrap());
+        }
+        assert_eq!(preset("no-such-preset"), None);
+    }
+
+    #[test]
+    fn window_as_points_keeps_its_edges() {
+        let spec = preset("window").unwrap();
+        let pts = as_points(&spec).unwrap();
+        let profile = EmitterSpec::Points { points: pts }.to_profile().unwrap();
+        // inside the 8-13 um window the emissivity is 1, well outside it 0 (the preset's definition)
+        assert!((profile.at(10e-6) - 1.0).abs() < 1e-9);
+        assert!(profile.at(5e-6).abs() < 1e-9 && profile.at(20e-6).abs() < 1e-9);
+    }
+
+    #[test]
+    fn moves_stay_between_neighbours_and_in_range() {
+        let pts = vec![[1.0, 0.2], [5.0, 0.5], [10.0, 0.9]];
+        // dragged far past the right neighbour: stops just short of it
+        let m = move_point(&pts, 1, 50.0, 2.0, EDITOR_RANGE_UM, false);
+        accepted(&m);
+        // (rounded to 4 significant figures, so within 5e-4 relative of the limit)
+        assert!(m[1][0] < 10.0 && m[1][0] >= 10.0 / MIN_RATIO * (1.0 - 5e-4), "{m:?}");
+        assert_eq!(m[1][1], 1.0);
+        // the first point cannot leave the editor's range
+        let m = move_point(&pts, 0, 0.001, -1.0, EDITOR_RANGE_UM, false);
+        accepted(&m);
+        assert_eq!(m[0], [EDITOR_RANGE_UM.0, 0.0]);
+        // snapping: two significant figures, emissivity to 0.05
+        let m = move_point(&pts, 1, 5.4321, 0.537, EDITOR_RANGE_UM, true);
+        assert_eq!(m[1], [5.4, 0.55]);
+        // non-finite input leaves the points alone
+        assert_eq!(move_point(&pts, 1, f64::NAN, 0.5, EDITOR_RANGE_UM, false), pts);
+        // keys: one 1 % step right, one 0.01 step up
+        let k = step_point(&pts, 1, 1, 1, false, EDITOR_RANGE_UM);
+        assert_eq!(k[1], [5.05, 0.51]);
+    }
+
+    #[test]
+    fn insert_and_remove() {
+        let pts = vec![[1.0, 0.2], [4.0, 0.6]];
+        let (p, i) = insert_at(&pts, 2.0, 0.4).unwrap();
+        accepted(&p);
+        assert_eq!((i, p[1]), (1, [2.0, 0.4]));
+        assert!(insert_at(&pts, 1.001, 0.3).unwrap_err().contains("already a control point"));
+        // after the first: midway on the log axis, mean emissivity
+        let (p, i) = insert_after(&pts, 0, EDITOR_RANGE_UM).unwrap();
+        assert_eq!((i, p[1]), (1, [2.0, 0.4]));
+        let full: Vec<[f64; 2]> = (0..MAX_POINTS).map(|k| [0.5 * 1.05f64.powi(k as i32), 0.5]).collect();
+        assert!(insert_at(&full, 49.0, 0.5).unwrap_err().contains("at most"));
+        let r = remove(&pts, 0).unwrap();
+        assert_eq!(r, vec![[4.0, 0.6]]);
+        assert!(remove(&r, 0).unwrap_err().contains("at least one"));
+    }
 }

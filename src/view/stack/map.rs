@@ -241,3 +241,106 @@ pub fn matched_line(setup: &CellSetup, tops_ev: &[f64], bottoms_ev: &[f64]) -> V
     let src = &setup.light.source;
     tops_ev.iter().filter_map(|&t| matched_bottom_gap(src, ev(t), ev(*lo), ev(*hi)).map(|b| (to_ev(b), t))).collect()
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::scenario::{CellScenario, SourceSpec};
+
+    /// A map whose efficiency is the plane bottom + top [%] (a stack only where bottom < top).
+    fn plane() -> MapData {
+        let tops_ev: Vec<f64> = (0..11).map(|i| 1.0 + 0.1 * i as f64).collect();
+        let bottoms_ev = tops_ev.clone();
+        let mut eff = Vec::new();
+        for t in &tops_ev {
+            for b in &bottoms_ev {
+                eff.push(if b < t { b + t } else { f64::NAN });
+            }
+        }
+        MapData {
+            id: 1,
+            connection: Connection::Series,
+            tops_ev,
+            bottoms_ev,
+            eff,
+            best: None,
+            refined: None,
+            refine_ms: 0.0,
+            matched: Vec::new(),
+            compute_ms: 0.0,
+            elapsed_ms: 0.0,
+            source: "test".into(),
+        }
+    }
+
+    #[test]
+    fn contours_of_a_plane_lie_on_its_level_line() {
+        // marching squares interpolates linearly along edges, so on a linear field every
+        // crossing is exact (to rounding): bottom + top = level
+        let m = plane();
+        let segs = contour(&m, 3.55);
+        assert!(!segs.is_empty());
+        for [a, b] in &segs {
+            assert!((a.0 + a.1 - 3.55).abs() < 1e-12 && (b.0 + b.1 - 3.55).abs() < 1e-12, "{a:?} {b:?}");
+            // only where both ends are stacks (bottom below top)
+            assert!(a.0 < a.1 && b.0 < b.1);
+        }
+        // a level above every value has no contour
+        assert!(contour(&m, 10.0).is_empty());
+    }
+
+    #[test]
+    fn levels_are_round_and_inside() {
+        let l = levels(10.0, 45.7);
+        assert_eq!(l, vec![15.0, 20.0, 25.0, 30.0, 35.0, 40.0, 45.0]);
+        assert!(levels(5.0, 5.0).is_empty());
+        assert!(levels(f64::NAN, 1.0).is_empty());
+    }
+
+    #[test]
+    fn csv_has_every_grid_point_and_blanks_off_the_stacks() {
+        let mut m = plane();
+        m.best = Some((2.0, 1.9, 3.9));
+        let csv = map_csv(&m, "test map");
+        let rows: Vec<&str> = csv.lines().filter(|l| !l.starts_with('#')).collect();
+        assert_eq!(rows[0], "top gap (eV),bottom gap (eV),efficiency (%)");
+        assert_eq!(rows.len(), 1 + 11 * 11);
+        assert!(csv.contains("# best point of the grid: top 2.000000 eV, bottom 1.900000 eV, 3.9000 %"));
+        // top 1.0, bottom 1.0 is not a stack: empty efficiency
+        assert_eq!(rows[1], "1.000000,1.000000,");
+        // top 1.1, bottom 1.0: 2.1 %
+        assert_eq!(rows[12], "1.100000,1.000000,2.1000");
+    }
+
+    #[test]
+    fn grid_in_display_units_and_the_matched_line() {
+        let cell = CellScenario { spectrum: SourceSpec::Blackbody { temp_k: 6000.0 }, ..CellScenario::default() };
+        let setup = cell.to_physics().unwrap();
+        let tops_j: Vec<f64> = [1.6, 1.8].iter().map(|v| ev(*v)).collect();
+        let bottoms_j: Vec<f64> = [0.8, 1.0, 1.7].iter().map(|v| ev(*v)).collect();
+        let efficiency = [0.40, 0.42, 0.30, 0.41, 0.44, 0.35];
+        let m = MapData::from_grid(&Grid {
+            id: 7,
+            connection: Connection::Series,
+            setup: &setup,
+            tops_j: &tops_j,
+            bottoms_j: &bottoms_j,
+            efficiency: &efficiency,
+            compute_ms: 1.0,
+            elapsed_ms: 2.0,
+        });
+        // percent; NaN where the bottom gap (1.7) is not below the top gap (1.6)
+        assert!((m.at(0, 1) - 42.0).abs() < 1e-12);
+        assert!(m.at(0, 2).is_nan() && (m.at(1, 2) - 35.0).abs() < 1e-12);
+        let (t, b, e) = m.best.unwrap();
+        assert!((t - 1.8).abs() < 1e-12 && (b - 1.0).abs() < 1e-12 && (e - 44.0).abs() < 1e-12);
+        // current matching (definition): photons between the gaps = photons above the top gap
+        let src = &setup.light.source;
+        assert!(!m.matched.is_empty());
+        for (b, t) in &m.matched {
+            let above_top = src.photon_flux_above(ev(*t));
+            let between = src.photon_flux_between(ev(*b), ev(*t));
+            assert!((between / above_top - 1.0).abs() < 1e-9, "{b} {t}");
+        }
+    }
+}
