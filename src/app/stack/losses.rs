@@ -103,9 +103,9 @@ impl Drawing for LossPlot<'_> {
                 let p = percents(r);
                 let mut c = [0.0; 6];
                 let mut s = 0.0;
-                for j in 0..6 {
-                    s += p[j];
-                    c[j] = s;
+                for (cj, pj) in c.iter_mut().zip(p.iter()) {
+                    s += pj;
+                    *cj = s;
                 }
                 c
             })
@@ -133,15 +133,15 @@ impl Drawing for LossPlot<'_> {
             let fs = look.size(11.5);
             let mut lx = left + look.px(8.0);
             let ly = bottom - look.px(14.0);
-            for j in 0..6 {
+            for (colour, short) in colours::LOSS.iter().zip(SHORT) {
                 root.draw(&Rectangle::new(
                     [(lx, ly - look.px(5.0)), (lx + look.px(12.0), ly + look.px(5.0))],
-                    colours::LOSS[j].filled(),
+                    colour.filled(),
                 ))
                 .map_err(err)?;
                 let style = look.text(fs, &palette::INK).pos(Pos::new(HPos::Left, VPos::Center));
-                root.draw_text(SHORT[j], &style, (lx + look.px(16.0), ly)).map_err(err)?;
-                lx += look.px(24.0) + crate::app::widgets::plot::measure::text_width(SHORT[j], fs) as i32;
+                root.draw_text(short, &style, (lx + look.px(16.0), ly)).map_err(err)?;
+                lx += look.px(24.0) + crate::app::widgets::plot::measure::text_width(short, fs) as i32;
             }
         }
         Ok(frame)

@@ -301,6 +301,7 @@ fn finish(job: &Job) -> MapData {
 const MATCHED: RGBColor = RGBColor(246, 168, 52);
 
 /// A polyline [backend px] cut into dashes `on` long with gaps `off` long.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // `!(len > 0.0)` also skips a NaN length
 fn dashes(points: &[(f64, f64)], on: f64, off: f64) -> Vec<Vec<(i32, i32)>> {
     let mut out = Vec::new();
     let mut cur: Vec<(i32, i32)> = Vec::new();

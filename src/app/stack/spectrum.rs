@@ -52,6 +52,7 @@ fn band_x(sv: &SpectrumView, lo_ev: f64, hi_ev: f64) -> (f64, f64) {
 }
 
 /// The spectrum's points over [a, b], with interpolated end points.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // `!(b > a)` also refuses NaN ends
 fn band_points(sv: &SpectrumView, a: f64, b: f64) -> Vec<(f64, f64)> {
     let (a, b) = (a.max(sv.x_lo), b.min(sv.x_hi));
     if !(b > a) {

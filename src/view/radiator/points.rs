@@ -89,6 +89,7 @@ pub fn tidy_point([l, e]: [f64; 2]) -> [f64; 2] {
 }
 
 /// Make points strictly ascending (a later point at the same wavelength is dropped).
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // `!(b > a)` also drops a NaN wavelength
 fn ascending(mut pts: Vec<[f64; 2]>) -> Vec<[f64; 2]> {
     pts.sort_by(|a, b| a[0].total_cmp(&b[0]));
     pts.dedup_by(|b, a| !(b[0] > a[0]));
@@ -98,6 +99,7 @@ fn ascending(mut pts: Vec<[f64; 2]>) -> Vec<[f64; 2]> {
 /// Any profile as control points that draw (nearly) the same curve: a grey profile as two
 /// points, a window with short ramps at its edges, a measured table sampled at
 /// logarithmically spaced wavelengths. `None` for a file not yet read.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // `!(hi > lo)` also catches NaN table ends
 pub fn as_points(spec: &EmitterSpec) -> Option<Vec<[f64; 2]>> {
     let (r0, r1) = EDITOR_RANGE_UM;
     let pts = match spec {
@@ -158,6 +160,7 @@ fn snapped([l, e]: [f64; 2]) -> [f64; 2] {
 
 /// Point `i` moved to (`l` um, `e`), kept between its neighbours and in `range` [um],
 /// emissivity clamped to 0-1, snapped when `snap`.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // `!(hi >= lo)` also refuses NaN bounds
 pub fn move_point(points: &[[f64; 2]], i: usize, l: f64, e: f64, range: (f64, f64), snap: bool) -> Vec<[f64; 2]> {
     let mut out = points.to_vec();
     if i >= out.len() || !l.is_finite() || !e.is_finite() {

@@ -95,6 +95,7 @@ impl Design {
 }
 
 /// Contour levels [%] for a map spanning efficiencies up to `hi`.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // `!(hi > lo)` also refuses NaN bounds
 pub fn levels(lo: f64, hi: f64) -> Vec<f64> {
     if !(hi > lo) {
         return Vec::new();

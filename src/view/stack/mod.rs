@@ -56,14 +56,20 @@ pub struct AbsorberView {
     pub warnings: Vec<String>,
 }
 
+/// What the plotted spectrum was drawn for: the source, the plot's axis and quantity.
+type SpectrumKey = (SourceSpec, PlotAxis, PlotQuantity);
+
 #[derive(Default)]
 struct Caches {
     /// the cell scenario (its gap ignored) and its physics inputs
     setup: Option<(CellScenario, Arc<CellSetup>)>,
-    spectrum: Option<((SourceSpec, PlotAxis, PlotQuantity), Arc<SpectrumView>)>,
+    spectrum: Option<(SpectrumKey, Arc<SpectrumView>)>,
     /// the loss curve for a cell scenario (gap ignored) and a gap range
-    losses: Option<(CellScenario, (f64, f64), Arc<Vec<LossReport>>)>,
+    losses: Option<(CellScenario, (f64, f64), LossCurve)>,
 }
+
+/// The loss breakdown against band gap, ascending.
+type LossCurve = Arc<Vec<LossReport>>;
 
 thread_local! {
     static CACHES: RefCell<Caches> = RefCell::new(Caches::default());
