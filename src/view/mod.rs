@@ -5,3 +5,5 @@
 //! Architecture invariant: `view` imports `scenario`, `physics`, `report` and `formats`,
 //! never `app` or `cli`, and no web crate; `app` draws what `view` returns and computes no
 //! physics of its own.
+
+pub mod hints;

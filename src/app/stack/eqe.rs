@@ -18,6 +18,7 @@ use crate::app::import::{read_then, stem};
 use crate::app::plots::{chart, err, palette, tick_target, AxisSpec, Drawing, Frame, Look};
 use crate::app::state::{ev_of_nm, sentence, Ctx};
 use crate::formats::eqe_csv::parse_eqe_csv;
+use crate::formats::TableKind;
 use crate::report::stack::AbsorberReport;
 use crate::scenario::stack::{AbsorberSpec, EqeTableSpec};
 
@@ -36,7 +37,10 @@ pub fn set_absorber(ctx: Ctx, hook: &'static str, spec: AbsorberSpec) -> bool {
 /// absorptance is chosen.
 pub fn open_eqe(ctx: Ctx, kept: RwSignal<Option<EqeTableSpec>>, file: web_sys::File) {
     read_then(file, move |name, text| {
-        let outcome = text.and_then(|t| parse_eqe_csv(&t, &stem(&name)).map_err(|e| e.to_string()));
+        let outcome = text.and_then(|t| {
+            parse_eqe_csv(&t, &stem(&name))
+                .map_err(|e| crate::view::hints::page_message(&e, TableKind::QuantumEfficiency))
+        });
         match outcome {
             Ok(table) => {
                 let spec = EqeTableSpec::from_table(&table);
