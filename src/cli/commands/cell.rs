@@ -19,8 +19,8 @@ pub const COMMAND: Command = Command {
         max_positional: 0,
     },
     about: "one cell: efficiency, Jsc, Voc, fill factor and maximum power point at one band gap",
-    usage: "cell --gap EV [SOURCE AND CELL OPTIONS] [--eqe file:PATH | --urbach MEV [--measured-voc V]]\n\
-            [--json | --link]",
+    usage: "cell --gap EV [SOURCE AND CELL OPTIONS] [--json | --link]\n\
+            [--eqe file:PATH | --urbach MEV [--measured-voc V]]",
     docs: &[
         OptionDoc {
             name: "gap",
