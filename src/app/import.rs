@@ -8,7 +8,9 @@ use super::share::apply_scenario;
 use crate::app::state::{sentence, validate, Ctx, Notice};
 use crate::codec::from_json;
 use crate::formats::spectrum_csv::{parse_spectrum_csv, ColumnHints};
+use crate::formats::TableKind;
 use crate::scenario::{SourceSpec, TableSpec};
+use crate::view::hints::page_message;
 
 /// Largest file read [bytes].
 pub const MAX_FILE_BYTES: f64 = 32.0 * 1024.0 * 1024.0;
@@ -74,7 +76,7 @@ pub fn use_spectrum_text(ctx: Ctx, file_name: &str, text: &str) {
         }
         Err(e) => ctx.set_error(
             "spectrum",
-            format!("'{file_name}' was not loaded — {e}. Fix the file and load it again; the previous spectrum is still in use."),
+            format!("'{file_name}' was not loaded — {}. Fix the file and load it again; the previous spectrum is still in use.", page_message(&e, TableKind::Spectrum)),
         ),
     }
 }

@@ -1,5 +1,9 @@
 //! A small, strict option parser: `--name value` or `--name=value`, flags without values,
-//! and one error line for anything unexpected.
+//! and one error line for anything unexpected; and the description of a command (its
+//! options and their help) that the parser and the help share.
+//!
+//! Architecture invariant: imports nothing of the cli; a command's [`Spec`] is the one list
+//! of the options it parses and the options its help describes.
 
 use std::collections::BTreeMap;
 
@@ -22,7 +26,22 @@ pub struct Spec {
     pub max_positional: usize,
 }
 
+/// The help of one option: `--name ARG  text`. `text` states the unit and the default (or
+/// that the option is required); further lines of `text` are indented under the first.
+pub struct OptionDoc {
+    /// without the leading dashes
+    pub name: &'static str,
+    /// the value's placeholder, empty for a flag
+    pub arg: &'static str,
+    pub text: &'static str,
+}
+
 impl Spec {
+    /// Every option, valued first, without dashes.
+    pub fn options(&self) -> impl Iterator<Item = &'static str> {
+        self.valued.iter().chain(self.flags.iter()).copied()
+    }
+
     fn accepted(&self) -> String {
         let mut all: Vec<String> = self.valued.iter().map(|v| format!("--{v}")).collect();
         all.extend(self.flags.iter().map(|f| format!("--{f}")));

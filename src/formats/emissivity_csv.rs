@@ -3,7 +3,7 @@
 //!
 //! # Layout
 //!
-//! The same as spectrum files (see [`super::spectrum_csv`]): the spectral coordinate in
+//! The same as every data file (see [`super::table`]): the spectral coordinate in
 //! column 0, values in the following columns, commas, semicolons, tabs or spaces, `#`
 //! comments, an optional header line. The header names the axis unit and what the values
 //! are, e.g. `wavelength_um,reflectance`, `Wavenumber (cm-1); Emissivity` or
@@ -16,82 +16,16 @@
 //! * an opaque sample has transmittance 0, so absorptance A = 1 - R and, by Kirchhoff's
 //!   law, emissivity eps = A: a reflectance column becomes eps = 1 - R, an absorptance
 //!   column is taken as it is.
+//!
+//! Architecture invariant: messages name no option or control; what would fix a file is the
+//! error's [`Hint`] (the axis unit, what the column holds, the value column, or the other
+//! table's input), worded by each front end.
 
-use std::fmt;
-
-use super::spectrum_csv::{
-    axis_unit_from_name, check_distinct, name_words, quoted, scan_table, AxisUnit, CsvError, TablePoints, TableWords,
-    MAX_DATA_ROWS,
+use super::table::{
+    check_distinct, check_value_column, quoted, scan_table, Hint, TableError, TableKind, TablePoints, MAX_DATA_ROWS,
 };
+use super::units::{axis_unit_from_name, AxisUnit, OpticalQuantity, ValueKind};
 use crate::physics::constants::HC;
-
-/// What a column of an optical table measures.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum OpticalQuantity {
-    Emissivity,
-    Absorptance,
-    Reflectance,
-    Transmittance,
-}
-
-impl OpticalQuantity {
-    pub fn label(self) -> &'static str {
-        match self {
-            OpticalQuantity::Emissivity => "emissivity",
-            OpticalQuantity::Absorptance => "absorptance",
-            OpticalQuantity::Reflectance => "reflectance",
-            OpticalQuantity::Transmittance => "transmittance",
-        }
-    }
-
-    /// Recognise the quantity in a word: emissivity/emittance, absorptance/absorptivity (not
-    /// absorbance, which is a logarithm), reflectance/reflectivity,
-    /// transmittance/transmissivity/transmission. Case is ignored.
-    pub fn from_word(word: &str) -> Option<OpticalQuantity> {
-        let w = word.to_lowercase();
-        if w.starts_with("emissiv") || w.starts_with("emitt") {
-            Some(OpticalQuantity::Emissivity)
-        } else if w.starts_with("absorpt") {
-            Some(OpticalQuantity::Absorptance)
-        } else if w.starts_with("reflect") {
-            Some(OpticalQuantity::Reflectance)
-        } else if w.starts_with("transmi") {
-            Some(OpticalQuantity::Transmittance)
-        } else {
-            None
-        }
-    }
-}
-
-impl fmt::Display for OpticalQuantity {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        f.write_str(self.label())
-    }
-}
-
-/// A value column: what it measures and whether in percent.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub struct ValueKind {
-    pub quantity: OpticalQuantity,
-    pub percent: bool,
-}
-
-impl ValueKind {
-    /// Read `reflectance`, `emissivity%`, `absorptance (%)`, `transmittance percent`, ...
-    pub fn parse(text: &str) -> Option<ValueKind> {
-        let t = text.trim();
-        let lower = t.to_lowercase();
-        let percent = lower.contains('%') || lower.contains("percent");
-        let quantity =
-            lower.split(|c: char| !c.is_alphabetic()).filter(|w| !w.is_empty()).find_map(OpticalQuantity::from_word)?;
-        Some(ValueKind { quantity, percent })
-    }
-
-    /// The column header's kind, if its name says one.
-    fn from_name(name: &str) -> Option<ValueKind> {
-        ValueKind::parse(name).or_else(|| name_words(name).into_iter().find_map(ValueKind::parse))
-    }
-}
 
 /// Units, quantity and column chosen by the caller; each `Some` overrides the header.
 #[derive(Debug, Clone, Copy, Default, PartialEq, Eq)]
@@ -101,40 +35,6 @@ pub struct OpticalHints {
     /// the value column, counting the axis as 0; default 1
     pub column: Option<usize>,
 }
-
-/// The names of the options that set [`OpticalHints`], for messages.
-pub(crate) struct OptionNames {
-    pub axis: &'static str,
-    pub values: &'static str,
-    pub column: &'static str,
-    pub words: TableWords,
-}
-
-/// Options of an emitter file on the command line.
-pub(crate) const EMITTER_OPTIONS: OptionNames = OptionNames {
-    axis: "--emitter-axis",
-    values: "--emitter-values",
-    column: "--emitter-column",
-    words: TableWords {
-        column_hint: "(choose it with --emitter-column, counting the axis as 0)",
-        unit_options: "--emitter-axis and --emitter-values",
-        values: "emissivities, absorptances and reflectances",
-        table: "an emissivity table",
-    },
-};
-
-/// Options of a sky transmittance file on the command line.
-pub(crate) const SKY_OPTIONS: OptionNames = OptionNames {
-    axis: "--sky-axis",
-    values: "--sky-values",
-    column: "--sky-column",
-    words: TableWords {
-        column_hint: "(choose it with --sky-column, counting the axis as 0)",
-        unit_options: "--sky-axis and --sky-values",
-        values: "transmittances",
-        table: "a transmittance table",
-    },
-};
 
 /// A table of fractions against wavelength, read from a file.
 #[derive(Debug, Clone, PartialEq)]
@@ -147,99 +47,84 @@ pub struct OpticalTable {
     pub values: Vec<f64>,
 }
 
-const AXIS_HELP: &str = "nm, um or cm-1";
+/// The axis units advertised for optical tables (an eV axis is read too).
+const AXIS_HINT: Hint =
+    Hint::AxisUnit { accepted: &[AxisUnit::Nanometre, AxisUnit::Micrometre, AxisUnit::PerCentimetre] };
 
-fn header_example(opts: &OptionNames) -> &'static str {
-    if opts.words.values == SKY_OPTIONS.words.values {
-        "'wavelength_um,transmittance' or 'Wavenumber (cm-1); Transmittance (%)'"
-    } else {
-        "'wavelength_um,reflectance' or 'Wavenumber (cm-1); Emissivity (%)'"
-    }
-}
+/// What an emitter file may hold.
+const EMITTER_QUANTITIES: &[OpticalQuantity] =
+    &[OpticalQuantity::Emissivity, OpticalQuantity::Absorptance, OpticalQuantity::Reflectance];
+
+/// What a sky file may hold.
+const SKY_QUANTITIES: &[OpticalQuantity] = &[OpticalQuantity::Transmittance];
 
 /// Read a table of emissivity (or absorptance, or reflectance converted to 1 - R) of an
 /// opaque emitter.
-pub fn parse_emissivity_csv(text: &str, hints: &OpticalHints, name: &str) -> Result<OpticalTable, CsvError> {
-    read_optical(
-        text,
-        hints,
-        name,
-        &EMITTER_OPTIONS,
-        &[OpticalQuantity::Emissivity, OpticalQuantity::Absorptance, OpticalQuantity::Reflectance],
-    )
+pub fn parse_emissivity_csv(text: &str, hints: &OpticalHints, name: &str) -> Result<OpticalTable, TableError> {
+    read_optical(text, hints, name, TableKind::Emissivity, EMITTER_QUANTITIES)
 }
 
 /// Read a table of the sky's zenith transmittance.
-pub fn parse_transmittance_csv(text: &str, hints: &OpticalHints, name: &str) -> Result<OpticalTable, CsvError> {
-    read_optical(text, hints, name, &SKY_OPTIONS, &[OpticalQuantity::Transmittance])
+pub fn parse_transmittance_csv(text: &str, hints: &OpticalHints, name: &str) -> Result<OpticalTable, TableError> {
+    read_optical(text, hints, name, TableKind::Transmittance, SKY_QUANTITIES)
 }
 
 fn read_optical(
     text: &str,
     hints: &OpticalHints,
     name: &str,
-    opts: &OptionNames,
-    accepted: &[OpticalQuantity],
-) -> Result<OpticalTable, CsvError> {
-    let words = &opts.words;
+    kind_of_table: TableKind,
+    accepted: &'static [OpticalQuantity],
+) -> Result<OpticalTable, TableError> {
     let value_col = hints.column.unwrap_or(1);
-    if value_col == 0 {
-        return Err(CsvError::general(format!(
-            "{} 0 would read the axis as values; columns count from the axis (0), so the first \
-             value column is {} 1",
-            opts.column, opts.column
-        )));
-    }
+    check_value_column(value_col)?;
     let scan = scan_table(text, MAX_DATA_ROWS)?;
-    scan.check_header_width(hints.axis.is_none() || hints.value.is_none(), words)?;
-    let at_header = |msg: String| match scan.header_line {
-        Some(h) => CsvError::at(h, msg),
-        None => CsvError::general(msg),
-    };
+    scan.check_header_width(hints.axis.is_none() || hints.value.is_none())?;
+    let at_header = |msg: String| TableError::maybe_at(scan.header_line, msg);
     let value_name = scan.names.get(value_col).map(String::as_str);
     let axis_unit = match hints.axis.or_else(|| scan.names.first().and_then(|n| axis_unit_from_name(n))) {
         Some(u) => u,
         None => {
-            return Err(at_header(format!(
-                "the unit of the spectral axis (column 0) is not given; name it in a header line such as {} \
-                 or give {} UNIT ({AXIS_HELP})",
-                header_example(opts),
-                opts.axis
-            )))
+            let why =
+                if scan.header_line.is_some() { "the header does not name it" } else { "the file has no header line" };
+            return Err(
+                at_header(format!("the unit of the spectral axis (column 0) is not given: {why}")).with_hint(AXIS_HINT)
+            );
         }
     };
     let accepted_list = accepted.iter().map(|q| q.label()).collect::<Vec<_>>().join(", ");
+    let value_hint = Hint::ValueKind { accepted };
     let kind = match hints.value.or_else(|| value_name.and_then(ValueKind::from_name)) {
         Some(k) => k,
         None => {
             let named = value_name.map(|n| format!(" (the header calls it {})", quoted(n))).unwrap_or_default();
             return Err(at_header(format!(
-                "column {value_col} does not say what it holds{named}; name it {accepted_list} in the header, \
-                 with '%' for percent, e.g. {}, or give {} KIND",
-                header_example(opts),
-                opts.values
-            )));
+                "column {value_col} does not say what it holds{named}; it must hold {accepted_list}"
+            ))
+            .with_hint(value_hint));
         }
     };
     if !accepted.contains(&kind.quantity) && hints.value.is_some() {
-        return Err(CsvError::general(format!(
-            "{} says the values are {}, but this file must hold {accepted_list}",
-            opts.values, kind.quantity
-        )));
+        return Err(TableError::general(format!(
+            "the values are set to be {}, but this file must hold {accepted_list}",
+            kind.quantity
+        ))
+        .with_hint(value_hint));
     }
     if !accepted.contains(&kind.quantity) {
-        let fix = if kind.quantity == OpticalQuantity::Transmittance {
-            "an opaque emitter has no transmittance; a sky transmittance goes to --sky file:PATH"
+        let (why, other) = if kind.quantity == OpticalQuantity::Transmittance {
+            ("an opaque emitter has no transmittance", TableKind::Transmittance)
         } else {
-            "a sky file holds the zenith transmittance of the atmosphere; an emitter's data goes to --emitter file:PATH"
+            ("a sky file holds the zenith transmittance of the atmosphere", TableKind::Emissivity)
         };
         return Err(at_header(format!(
-            "column {value_col} holds {}, but this file must hold {accepted_list}: {fix}",
+            "column {value_col} holds {}, but this file must hold {accepted_list}: {why}",
             kind.quantity
-        )));
+        ))
+        .with_hint(Hint::OtherTable(other)));
     }
 
-    let TablePoints { xs, ys, line_of } = scan.read_points(value_col, words)?;
+    let TablePoints { xs, ys, line_of } = scan.read_points(value_col, kind_of_table)?;
     let per = if kind.percent { 100.0 } else { 1.0 };
     let mut rows: Vec<(f64, f64, usize)> = Vec::with_capacity(xs.len());
     for ((x, y), &line) in xs.iter().zip(&ys).zip(&line_of) {
@@ -251,7 +136,7 @@ fn read_optical(
             } else {
                 format!("if the column is in percent, say so in its header, e.g. '{} (%)'", kind.quantity)
             };
-            return Err(CsvError::at(
+            return Err(TableError::at(
                 line,
                 format!(
                     "the {} {as_written} exceeds {}; values lie from 0 to {}: {hint}",
@@ -272,15 +157,15 @@ fn read_optical(
             AxisUnit::Electronvolt => HC / si,
         };
         if !(lambda.is_finite() && lambda > 0.0) {
-            return Err(CsvError::at(
+            return Err(TableError::at(
                 line,
                 format!(
                     "the axis value is out of range once converted from {} to a wavelength; check the \
-                     axis unit ({})",
+                     axis unit",
                     axis_unit.label(),
-                    opts.axis
                 ),
-            ));
+            )
+            .with_hint(AXIS_HINT));
         }
         rows.push((lambda, value, line));
     }
@@ -309,7 +194,7 @@ fn read_optical(
 mod tests {
     use super::*;
 
-    fn emis(text: &str) -> Result<OpticalTable, CsvError> {
+    fn emis(text: &str) -> Result<OpticalTable, TableError> {
         parse_emissivity_csv(text, &OpticalHints::default(), "t.csv")
     }
 
@@ -332,16 +217,21 @@ mod tests {
         let e = emis("wavelength_um,value\n1,0.5\n2,0.5\n").unwrap_err();
         assert_eq!(e.line, Some(1));
         assert!(e.message.contains("emissivity, absorptance, reflectance"), "{e}");
+        assert_eq!(e.hint, Some(Hint::ValueKind { accepted: EMITTER_QUANTITIES }));
         let e = emis("wavelength_um,emissivity\n1,0.5\n2,45\n").unwrap_err();
         assert_eq!(e.line, Some(3));
         assert!(e.message.contains("percent"), "{e}");
         let e = emis("wavelength_um,transmittance\n1,0.5\n2,0.5\n").unwrap_err();
-        assert!(e.message.contains("--sky file"), "{e}");
+        assert_eq!(e.hint, Some(Hint::OtherTable(TableKind::Transmittance)));
         let e = emis("1,0.5\n2,0.5\n").unwrap_err();
-        assert!(e.message.contains("--emitter-axis"), "{e}");
+        assert!(e.message.contains("no header line"), "{e}");
+        assert!(matches!(e.hint, Some(Hint::AxisUnit { .. })));
         let e = parse_transmittance_csv("wavelength_um,emissivity\n1,0.5\n2,0.5\n", &OpticalHints::default(), "s")
             .unwrap_err();
-        assert!(e.message.contains("--emitter file"), "{e}");
+        assert_eq!(e.hint, Some(Hint::OtherTable(TableKind::Emissivity)));
+        let e = parse_emissivity_csv("1,0.5\n2,0.5\n", &OpticalHints { column: Some(0), ..Default::default() }, "z")
+            .unwrap_err();
+        assert_eq!(e.hint, Some(Hint::ValueColumn));
     }
 
     #[test]

@@ -2,18 +2,19 @@
 //! (EQE) as a fraction or in percent, or a spectral response in A/W (or mA/W), against
 //! wavelength, photon energy or wavenumber.
 //!
-//! The layout is that of spectrum files (see [`super::spectrum_csv`]: separators, comments,
+//! The layout is that of every data file (see [`super::table`]: separators, comments,
 //! ascending or descending axis, errors naming the line), read by the same scanner. The
 //! header must name both units, e.g. `wavelength_nm,eqe_percent`,
 //! `Wavelength (nm), EQE (%)`, `energy (eV), EQE (fraction)` or `lambda [nm]; SR [A/W]`;
 //! the value is column 1. A spectral response is converted point by point with
 //! EQE = h c SR / (q lambda) = SR E / q (E the photon energy). The result is an
 //! [`AbsorptanceTable`] on the file's axis, linear between its points, zero outside.
+//!
+//! Architecture invariant: units come from the header only (no option can give them), so
+//! every message says which header would fix the file and names no option or control.
 
-use super::spectrum_csv::{
-    axis_unit_from_name, bracket_contents, check_distinct, compact_unit_text, name_words, quoted, scan_table, CsvError,
-    TablePoints, TableWords, MAX_DATA_ROWS,
-};
+use super::table::{check_distinct, quoted, scan_table, TableError, TableKind, TablePoints, MAX_DATA_ROWS};
+use super::units::{axis_unit_from_name, bracket_contents, compact_unit_text, name_words};
 use crate::physics::absorber::AbsorptanceTable;
 use crate::physics::constants::CHARGE;
 use std::fmt;
@@ -86,29 +87,23 @@ fn response_unit_from_name(name: &str) -> Option<ResponseUnit> {
     name.contains('%').then_some(ResponseUnit::Percent)
 }
 
-const EQE_WORDS: TableWords = TableWords {
-    column_hint: "(the quantum efficiency must be in column 1, right after the axis)",
-    unit_options: "a header such as 'wavelength_nm,eqe_percent'",
-    values: "quantum efficiencies",
-    table: "a quantum-efficiency table",
-};
-
 const EQE_HEADER_EXAMPLE: &str = "'wavelength_nm,eqe_percent', 'Wavelength (nm), EQE (fraction)', \
 'energy (eV), EQE (%)' or 'wavelength (nm), SR (A/W)'";
 
 /// Read a quantum-efficiency table (see the module documentation). `name` names it.
-pub fn parse_eqe_csv(text: &str, name: &str) -> Result<AbsorptanceTable, CsvError> {
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting checks: `!(x > 0.0)` also refuses NaN
+pub fn parse_eqe_csv(text: &str, name: &str) -> Result<AbsorptanceTable, TableError> {
     let scan = scan_table(text, MAX_DATA_ROWS)?;
-    scan.check_header_width(true, &EQE_WORDS)?;
+    scan.check_header_width(true)?;
     let Some(header_line) = scan.header_line else {
-        return Err(CsvError::general(format!(
+        return Err(TableError::general(format!(
             "a quantum-efficiency file needs a header line that names the units, e.g. {EQE_HEADER_EXAMPLE} \
              (a header must not start with '#', '%' or '//', which mark comments)"
         )));
     };
     let axis_name = scan.names.first().map(String::as_str).unwrap_or("");
     let Some(axis_unit) = axis_unit_from_name(axis_name) else {
-        return Err(CsvError::at(
+        return Err(TableError::at(
             header_line,
             format!(
                 "the unit of the spectral axis is missing: column 0 is named {} with no recognised unit; \
@@ -119,7 +114,7 @@ pub fn parse_eqe_csv(text: &str, name: &str) -> Result<AbsorptanceTable, CsvErro
     };
     let value_name = scan.names.get(1).map(String::as_str).unwrap_or("");
     let Some(unit) = response_unit_from_name(value_name) else {
-        return Err(CsvError::at(
+        return Err(TableError::at(
             header_line,
             format!(
                 "the unit of the quantum efficiency is missing: column 1 is named {} with no recognised unit; \
@@ -128,14 +123,14 @@ pub fn parse_eqe_csv(text: &str, name: &str) -> Result<AbsorptanceTable, CsvErro
             ),
         ));
     };
-    let TablePoints { mut xs, ys, line_of } = scan.read_points(1, &EQE_WORDS)?;
+    let TablePoints { mut xs, ys, line_of } = scan.read_points(1, TableKind::QuantumEfficiency)?;
     let axis = axis_unit.axis();
     let mut eqe = Vec::with_capacity(ys.len());
     for ((x, y), &line) in xs.iter_mut().zip(&ys).zip(&line_of) {
         let raw = *x;
         *x = axis_unit.coordinate_to_si(raw);
         if !(x.is_finite() && *x > 0.0) {
-            return Err(CsvError::at(
+            return Err(TableError::at(
                 line,
                 format!(
                     "the axis value is out of the representable range once converted from {} to SI; check the axis unit",
@@ -150,7 +145,7 @@ pub fn parse_eqe_csv(text: &str, name: &str) -> Result<AbsorptanceTable, CsvErro
                 ResponseUnit::AmpsPerWatt => "; if the column is in mA/W, name it e.g. 'SR (mA/W)'",
                 _ => "",
             };
-            return Err(CsvError::at(
+            return Err(TableError::at(
                 line,
                 format!(
                     "the quantum efficiency {} ({}) is above 1 (100 %) here; a detailed-balance absorptance \
@@ -164,9 +159,9 @@ pub fn parse_eqe_csv(text: &str, name: &str) -> Result<AbsorptanceTable, CsvErro
     }
     check_distinct(&xs, &line_of)?;
     if !eqe.iter().any(|&q| q > 0.0) {
-        return Err(CsvError::general(
+        return Err(TableError::general(
             "every quantum efficiency in the file is 0; a cell needs some response to absorb light",
         ));
     }
-    AbsorptanceTable::new(name, axis, xs, eqe).map_err(|e| CsvError::general(format!("the table is not usable: {e}")))
+    AbsorptanceTable::new(name, axis, xs, eqe).map_err(|e| TableError::general(format!("the table is not usable: {e}")))
 }

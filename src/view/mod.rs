@@ -9,6 +9,7 @@
 pub mod cell;
 pub mod export;
 pub mod format;
+pub mod hints;
 pub mod input;
 pub mod radiator;
 pub mod spectrum;

@@ -8,7 +8,9 @@ use crate::app::import::{read_then, stem};
 use crate::app::radiator::state::RadState;
 use crate::app::state::Ctx;
 use crate::formats::emissivity_csv::{parse_emissivity_csv, parse_transmittance_csv, OpticalHints, OpticalTable};
+use crate::formats::TableKind;
 use crate::scenario::radiator::{EmissivityTable, EmitterSpec, SkySpec, TransmittanceTable};
+use crate::view::hints::page_message;
 
 /// Make `apply(table)` the scenario's, or say under `hook` why the file cannot be used.
 fn use_table(
@@ -49,8 +51,10 @@ pub fn open_emissivity(ctx: Ctx, rad: RadState, file: web_sys::File) {
 }
 
 pub fn use_emissivity_text(ctx: Ctx, rad: RadState, file_name: &str, text: Result<String, String>) {
-    let parsed = text
-        .and_then(|t| parse_emissivity_csv(&t, &OpticalHints::default(), &stem(file_name)).map_err(|e| e.to_string()));
+    let parsed = text.and_then(|t| {
+        parse_emissivity_csv(&t, &OpticalHints::default(), &stem(file_name))
+            .map_err(|e| page_message(&e, TableKind::Emissivity))
+    });
     let used = use_table(ctx, "emissivity-file", file_name, parsed, "emissivity profile", |s, t| {
         s.radiator.emitter =
             EmitterSpec::Table(EmissivityTable { name: t.name, wavelength_m: t.wavelength_m, emissivity: t.values });
@@ -65,7 +69,8 @@ pub fn use_emissivity_text(ctx: Ctx, rad: RadState, file_name: &str, text: Resul
 pub fn open_sky(ctx: Ctx, file: web_sys::File) {
     read_then(file, move |name, text| {
         let parsed = text.and_then(|t| {
-            parse_transmittance_csv(&t, &OpticalHints::default(), &stem(&name)).map_err(|e| e.to_string())
+            parse_transmittance_csv(&t, &OpticalHints::default(), &stem(&name))
+                .map_err(|e| page_message(&e, TableKind::Transmittance))
         });
         if use_table(ctx, "sky-file", &name, parsed, "sky transmittance", |s, t| {
             s.radiator.sky = SkySpec::Table(TransmittanceTable {

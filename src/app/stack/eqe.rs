@@ -16,6 +16,7 @@ use crate::app::state::{sentence, Ctx};
 use crate::app::widgets::fields::{drop_zone, number_field, Field};
 use crate::app::widgets::plot::{chart, err, palette, tick_target, AxisSpec, Drawing, Frame, Look};
 use crate::formats::eqe_csv::parse_eqe_csv;
+use crate::formats::TableKind;
 use crate::report::stack::AbsorberReport;
 use crate::scenario::stack::{AbsorberSpec, EqeTableSpec};
 use crate::view::format::{self as fmt, fixed};
@@ -37,7 +38,10 @@ pub fn set_absorber(ctx: Ctx, hook: &'static str, spec: AbsorberSpec) -> bool {
 /// absorptance is chosen.
 pub fn open_eqe(ctx: Ctx, kept: RwSignal<Option<EqeTableSpec>>, file: web_sys::File) {
     read_then(file, move |name, text| {
-        let outcome = text.and_then(|t| parse_eqe_csv(&t, &stem(&name)).map_err(|e| e.to_string()));
+        let outcome = text.and_then(|t| {
+            parse_eqe_csv(&t, &stem(&name))
+                .map_err(|e| crate::view::hints::page_message(&e, TableKind::QuantumEfficiency))
+        });
         match outcome {
             Ok(table) => {
                 let spec = EqeTableSpec::from_table(&table);

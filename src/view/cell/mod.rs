@@ -4,11 +4,13 @@
 //! or its band-gap range change; the plotted spectrum only when the source or the plot's
 //! axis and quantity change.
 
+pub mod csv;
+
 use std::sync::Arc;
 
 use super::spectrum::{spectrum_view, SpectrumDetail, SpectrumView};
 use crate::physics::constants::ev;
-use crate::physics::junction::{best_of, jv_curve, solve_cell, sweep, CellResult};
+use crate::physics::junction::{best_gap, jv_curve, solve_cell, sweep, CellResult};
 use crate::report::CellReport;
 use crate::scenario::{
     CellScenario, CellSetup, PlotAxis, PlotQuantity, Scenario, SourceSpec, ViewSettings, GAP_RANGE_EV,
@@ -168,51 +170,15 @@ fn efficiency_curve(setup: &CellSetup, from: f64, to: f64) -> Curve {
     let gaps_ev = curve_gaps(from, to);
     let gaps_j: Vec<f64> = gaps_ev.iter().map(|g| ev(*g)).collect();
     let results = sweep(&setup.light, &setup.cell, &gaps_j);
-    let mut best = best_of(&results);
-    // refine between the neighbours of the best grid point (golden section)
-    if let Some(b) = best {
-        let step = ev((to - from) / (gaps_ev.len() - 1) as f64);
-        let (mut lo, mut hi) = ((b.gap_j - step).max(ev(from)), (b.gap_j + step).min(ev(to)));
-        let eval = |g: f64| {
-            let cell = crate::physics::junction::Cell { gap_j: g, ..setup.cell };
-            solve_cell(&setup.light, &cell)
-        };
-        let phi = 0.618_033_988_749_895;
-        let mut a = hi - phi * (hi - lo);
-        let mut c = lo + phi * (hi - lo);
-        let mut ra = eval(a);
-        let mut rc = eval(c);
-        for _ in 0..40 {
-            if ra.efficiency > rc.efficiency {
-                hi = c;
-                c = a;
-                rc = ra;
-                a = hi - phi * (hi - lo);
-                ra = eval(a);
-            } else {
-                lo = a;
-                a = c;
-                ra = rc;
-                c = lo + phi * (hi - lo);
-                rc = eval(c);
-            }
-            if hi - lo < ev(1e-7) {
-                break;
-            }
-        }
-        let r = if ra.efficiency > rc.efficiency { ra } else { rc };
-        if r.efficiency >= b.efficiency {
-            best = Some(r);
-        }
-    }
+    // the grid's best refined between its neighbours: the same search as `glowgap sweep --best`
+    let best = best_gap(&setup.light, &setup.cell, &results);
     Curve { gaps_ev, results, best, from_ev: from, to_ev: to }
 }
-pub mod csv;
 
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::physics::junction::Cell;
+    use crate::physics::junction::{best_of, Cell};
 
     #[test]
     fn the_page_shows_the_solvers_figures() {

@@ -1,0 +1,118 @@
+//! `glowgap cell`: one cell at one band gap; with `--eqe` or `--urbach`, a measured or
+//! modelled absorptance and its reciprocity limits.
+//!
+//! Architecture invariant: imports only `cli::args` and `cli::shared` of the cli.
+
+use crate::cli::args::{OptionDoc, Parsed, Spec};
+use crate::cli::shared::files::read_eqe_file;
+use crate::cli::shared::options::{apply_common, with_light_and_cell_options};
+use crate::cli::shared::output::{print_cell, warn, write_absorber_cell};
+use crate::cli::shared::{Command, Failure, Out};
+use crate::scenario::stack::{AbsorberSpec, EqeTableSpec, StackScenario};
+use crate::scenario::{CellScenario, Scenario};
+
+pub const COMMAND: Command = Command {
+    spec: Spec {
+        command: "cell",
+        valued: with_light_and_cell_options!("gap", "eqe", "urbach", "measured-voc"),
+        flags: &["json", "link"],
+        max_positional: 0,
+    },
+    about: "one cell: efficiency, Jsc, Voc, fill factor and maximum power point at one band gap",
+    usage: "cell --gap EV [SOURCE AND CELL OPTIONS] [--json | --link]\n\
+            [--eqe file:PATH | --urbach MEV [--measured-voc V]]",
+    docs: &[
+        OptionDoc {
+            name: "gap",
+            arg: "EV",
+            text: "band gap in eV (0.01 to 20), required; with --eqe the table sets the edge",
+        },
+        OptionDoc {
+            name: "eqe",
+            arg: "file:PATH",
+            text: "a measured EQE (header with units: wavelength_nm,eqe_percent; fraction, %, A/W\n\
+                   or mA/W); Jsc, J0 and Voc by reciprocity (default: an ideal step at --gap)",
+        },
+        OptionDoc {
+            name: "urbach",
+            arg: "MEV",
+            text: "an exponential absorption tail below the gap, Urbach energy in meV (default: none)",
+        },
+        OptionDoc {
+            name: "measured-voc",
+            arg: "V",
+            text: "with --eqe or --urbach: the ERE and Voc loss that a measured Voc in V implies\n\
+                   (default: none)",
+        },
+    ],
+    run,
+};
+
+fn run(args: &[String], out: Out) -> Result<(), Failure> {
+    let p = COMMAND.spec.parse(args)?;
+    let mut sc = CellScenario { gap_ev: cell_gap(&p)?, ..Default::default() };
+    apply_common(&p, &mut sc)?;
+    if wants_absorber(&p) {
+        return cell_with_absorber(&p, sc, out);
+    }
+    if p.flag("link") {
+        let setup = sc.to_physics()?; // refuse to link a scenario that cannot be computed
+        warn(&setup.warnings);
+        // the share-link fragment of this scenario, to append to the app's address
+        let scenario = Scenario { cell: sc, ..Default::default() };
+        writeln!(out, "{}", crate::codec::encode_fragment(&scenario))?;
+        return Ok(());
+    }
+    print_cell(&sc, p.flag("json"), out)
+}
+
+/// The `--gap`: required, except with `--eqe`, whose table sets the edge (the scenario then
+/// keeps its default gap, which a measured absorptance does not use).
+fn cell_gap(p: &Parsed) -> Result<f64, String> {
+    match p.number("gap", "band gap", "eV")? {
+        Some(g) => Ok(g),
+        None if p.text("eqe").is_some() => Ok(CellScenario::default().gap_ev),
+        None => p.required_number("gap", "band gap", "eV", "cell"),
+    }
+}
+
+/// Whether a measured or modelled absorptance was asked for.
+fn wants_absorber(p: &Parsed) -> bool {
+    p.text("eqe").is_some() || p.text("urbach").is_some() || p.text("measured-voc").is_some()
+}
+
+/// `glowgap cell ... --eqe file:PATH | --urbach MEV [--measured-voc V]`: `sc` holds the
+/// cell options already applied.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting checks: `!(x > 0.0)` also refuses NaN
+fn cell_with_absorber(p: &Parsed, sc: CellScenario, out: Out) -> Result<(), Failure> {
+    let absorber = match (p.text("eqe"), p.number("urbach", "Urbach energy", "meV")?) {
+        (Some(_), Some(_)) => {
+            return Err(Failure::Usage(
+                "give one of --eqe (a measured absorptance) and --urbach (a modelled tail), not both".into(),
+            ))
+        }
+        (Some(f), None) => AbsorberSpec::Measured(EqeTableSpec::from_table(&read_eqe_file(f, "--eqe")?)),
+        (None, Some(u)) => AbsorberSpec::Urbach { urbach_mev: u },
+        (None, None) => AbsorberSpec::Step,
+    };
+    if !absorber.is_step() && p.text("approx").is_some_and(|a| a.eq_ignore_ascii_case("exact")) {
+        return Err(Failure::Usage(
+            "--approx exact applies to step cells; with --eqe or --urbach the J-V follows reciprocity, J0 (e^(qV/kT) - 1), so leave --approx out"
+                .into(),
+        ));
+    }
+    let measured = p.number("measured-voc", "measured open-circuit voltage", "V")?;
+    if let Some(v) = measured {
+        if !(v > 0.0) {
+            return Err(Failure::Usage(format!(
+                "--measured-voc {v} must be a positive voltage in V, e.g. --measured-voc 1.1"
+            )));
+        }
+    }
+    let scenario = Scenario { cell: sc, stack: StackScenario { absorber, ..Default::default() }, ..Default::default() };
+    if p.flag("link") {
+        writeln!(out, "{}", crate::codec::encode_fragment(&scenario))?;
+        return Ok(());
+    }
+    write_absorber_cell(&scenario, measured, p.flag("json"), out)
+}

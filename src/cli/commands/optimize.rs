@@ -1,0 +1,120 @@
+//! `glowgap optimize`: the best band gaps of a stack of 1 to 6 junctions, optionally with
+//! one gap held fixed.
+//!
+//! Architecture invariant: imports only `cli::args` and `cli::shared` of the cli.
+
+use crate::cli::args::{OptionDoc, Spec};
+use crate::cli::shared::options::{apply_common, connection, with_light_and_cell_options};
+use crate::cli::shared::output::{connection_words, print_json, warn, write_stack_table};
+use crate::cli::shared::{Command, Failure, Out};
+use crate::physics::stack::optimize::{optimize as run_optimizer, FixAt};
+use crate::physics::stack::{solve_stack, Connection, StackResult};
+use crate::report::stack::OptimumReport;
+use crate::scenario::stack::OptimizeSettings;
+use crate::scenario::CellScenario;
+
+pub const COMMAND: Command = Command {
+    spec: Spec {
+        command: "optimize",
+        valued: with_light_and_cell_options!("junctions", "connection", "fix", "fix-at", "from", "to"),
+        flags: &["json"],
+        max_positional: 0,
+    },
+    about: "the best band gaps of a stack of 1 to 6 junctions",
+    usage: "optimize --junctions N [--connection C] [--fix EV [--fix-at any|top|bottom]]\n\
+            [--from EV --to EV] [SOURCE AND CELL OPTIONS] [--json]",
+    docs: &[
+        OptionDoc { name: "junctions", arg: "N", text: "number of junctions, 1 to 6, required" },
+        OptionDoc {
+            name: "fix",
+            arg: "EV",
+            text: "hold one band gap fixed, in eV, e.g. 1.12 for Si (default: every gap free)",
+        },
+        OptionDoc {
+            name: "fix-at",
+            arg: "WHERE",
+            text: "with --fix: which subcell has the fixed gap, any (default) | top | bottom",
+        },
+        OptionDoc { name: "from", arg: "EV", text: "lowest band gap searched, in eV, default 0.2" },
+        OptionDoc { name: "to", arg: "EV", text: "highest band gap searched, in eV, default 4.5" },
+    ],
+    run,
+};
+
+/// `glowgap optimize --junctions N [--connection ...] [--fix EV [--fix-at any|top|bottom]]
+/// [--from EV --to EV] [SOURCE AND CELL OPTIONS] [--json]`
+fn run(args: &[String], out: Out) -> Result<(), Failure> {
+    let p = COMMAND.spec.parse(args)?;
+    let n = p.required_number("junctions", "number of junctions", "1 to 6", "optimize")?;
+    if !((1.0..=6.0).contains(&n) && n.fract() == 0.0) {
+        return Err(Failure::Usage(format!("--junctions {n} is not usable; give a whole number from 1 to 6")));
+    }
+    let mut settings = OptimizeSettings {
+        junctions: n as usize,
+        fix_ev: p.number("fix", "fixed band gap", "eV")?,
+        ..Default::default()
+    };
+    if let Some(a) = p.text("fix-at") {
+        if settings.fix_ev.is_none() {
+            return Err(Failure::Usage("--fix-at applies only with --fix EV (the gap held fixed)".into()));
+        }
+        settings.fix_at = match a.trim().to_ascii_lowercase().as_str() {
+            "any" => FixAt::Any,
+            "top" => FixAt::Top,
+            "bottom" => FixAt::Bottom,
+            _ => return Err(Failure::Usage(format!("--fix-at '{a}' is not known; use any (default), top or bottom"))),
+        };
+    }
+    if let Some(a) = p.number("from", "lowest gap searched", "eV")? {
+        settings.from_ev = a;
+    }
+    if let Some(b) = p.number("to", "highest gap searched", "eV")? {
+        settings.to_ev = b;
+    }
+    let conn = connection(&p)?;
+    let mut sc = CellScenario::default();
+    apply_common(&p, &mut sc)?;
+    let setup = sc.to_physics()?;
+    warn(&setup.warnings);
+    let problem = settings.to_problem(&setup.light, &setup.cell, conn)?;
+    let best = run_optimizer(&problem);
+    let stack_r = if best.gaps_j.len() >= 2 {
+        solve_stack(&setup.light, &setup.cell, &best.gaps_j, conn)
+    } else {
+        one_cell_stack(&setup, &best.gaps_j, conn)
+    };
+    let report = OptimumReport::new(&best, conn, settings.fix_ev, &stack_r);
+    if p.flag("json") {
+        return print_json(out, &report);
+    }
+    let gaps: Vec<String> = report.gaps_ev.iter().map(|g| format!("{g:.4}")).collect();
+    writeln!(out, "{:<28} {} junction(s), {}", "Best stack", report.junctions, connection_words(conn))?;
+    if let Some(f) = settings.fix_ev {
+        writeln!(
+            out,
+            "{:<28} {f} eV ({})",
+            "Fixed gap",
+            match settings.fix_at {
+                FixAt::Any => "anywhere",
+                FixAt::Top => "top cell",
+                FixAt::Bottom => "bottom cell",
+            }
+        )?;
+    }
+    writeln!(out, "{:<28} {} eV", "Gaps (top first)", gaps.join(", "))?;
+    writeln!(out, "{:<28} {:.3} %", "Efficiency", report.efficiency * 100.0)?;
+    writeln!(out, "{:<28} {}", "Evaluations", report.evaluations)?;
+    writeln!(out)?;
+    write_stack_table(out, &report.stack, &setup.light.source.name(), &sc)?;
+    Ok(())
+}
+
+/// A one-junction "stack" (the single-junction optimum) in the stack result shape.
+fn one_cell_stack(setup: &crate::scenario::CellSetup, gaps_j: &[f64], connection: Connection) -> StackResult {
+    let Some(&g) = gaps_j.first() else {
+        return StackResult { connection, input: setup.light.input_power(), ..Default::default() };
+    };
+    let mut r = solve_stack(&setup.light, &setup.cell, &[g], Connection::Independent);
+    r.connection = connection;
+    r
+}

@@ -1,0 +1,254 @@
+//! Data files read from disk into the tables a scenario carries: spectra, optical tables
+//! (emissivity, sky transmittance) and quantum efficiencies; and the command line's wording
+//! of what would fix a file a reader refused ([`cli_fix`]).
+//!
+//! Architecture invariant: the readers (`formats`) say what is wrong and which setting would
+//! fix it; this module alone turns that setting into the option of this command line.
+
+use crate::cli::args::Parsed;
+use crate::formats::emissivity_csv::{parse_emissivity_csv, parse_transmittance_csv, OpticalHints, OpticalTable};
+use crate::formats::eqe_csv::parse_eqe_csv;
+use crate::formats::spectrum_csv::{parse_spectrum_csv, ColumnHints};
+use crate::formats::units::{AxisUnit, ValueKind, ValueUnit};
+use crate::formats::{Hint, TableError, TableKind};
+use crate::physics::absorber::AbsorptanceTable;
+use crate::scenario::radiator::{EmissivityTable, EmitterSpec, RadiatorScenario, SkySpec, TransmittanceTable};
+use crate::scenario::{SourceSpec, TableSpec};
+
+/// A kind of data file and the prefix of the options that describe it (`--{prefix}-axis`,
+/// `--{prefix}-values`, `--{prefix}-column`); `None` when only the header can.
+#[derive(Clone, Copy)]
+pub struct FileOptions {
+    pub prefix: Option<&'static str>,
+    pub kind: TableKind,
+}
+
+/// `--spectrum file:PATH` (and `--sun file:PATH`).
+pub const SPECTRUM_FILE: FileOptions = FileOptions { prefix: Some("spectrum"), kind: TableKind::Spectrum };
+/// A spectrum file no option describes (`mismatch --reference file:PATH`).
+pub const HEADER_ONLY_SPECTRUM: FileOptions = FileOptions { prefix: None, kind: TableKind::Spectrum };
+/// `--emitter file:PATH`, `--solar file:PATH`.
+pub const EMITTER_FILE: FileOptions = FileOptions { prefix: Some("emitter"), kind: TableKind::Emissivity };
+/// `--sky file:PATH`.
+pub const SKY_FILE: FileOptions = FileOptions { prefix: Some("sky"), kind: TableKind::Transmittance };
+/// `--eqe`, `--test-eqe`, `--ref-eqe`: units only from the header.
+pub const EQE_FILE: FileOptions = FileOptions { prefix: None, kind: TableKind::QuantumEfficiency };
+
+/// An axis unit as this command line's options write it.
+fn axis_option_label(u: AxisUnit) -> &'static str {
+    match u {
+        AxisUnit::PerCentimetre => "cm-1",
+        other => other.label(),
+    }
+}
+
+/// What would fix a file, worded as this command line's options for `file`.
+pub fn cli_fix(hint: Hint, file: FileOptions) -> String {
+    let example = file.kind.example_header();
+    let Some(p) = file.prefix else {
+        return match hint {
+            Hint::ValueColumn => "the values must be in column 1, right after the axis".into(),
+            Hint::OtherTable(other) => other_table(other),
+            _ => format!("write a header line such as '{example}'"),
+        };
+    };
+    match hint {
+        Hint::AxisUnit { accepted } => {
+            let units: Vec<&str> = accepted.iter().map(|u| axis_option_label(*u)).collect();
+            format!("put the unit in the header, e.g. '{example}', or give --{p}-axis {}", units.join("|"))
+        }
+        Hint::ValueUnit => format!(
+            "put the unit in the header, e.g. '{example}', or give --{p}-values UNIT, e.g. W/m2/nm or photons/m2/s/eV"
+        ),
+        Hint::Units => format!("write the units in the header, e.g. '{example}', or give --{p}-axis and --{p}-values"),
+        Hint::ValueColumn => format!("choose the value column with --{p}-column N (1 = the first after the axis)"),
+        Hint::ValueKind { accepted } => {
+            let kinds: Vec<&str> = accepted.iter().map(|q| q.label()).collect();
+            format!(
+                "name it in the header, e.g. '{example}', with '%' for percent, or give --{p}-values {} \
+                 (with % for percent)",
+                kinds.join("|")
+            )
+        }
+        Hint::OtherTable(other) => other_table(other),
+    }
+}
+
+fn other_table(kind: TableKind) -> String {
+    match kind {
+        TableKind::Transmittance => "a sky transmittance goes to --sky file:PATH".into(),
+        TableKind::Emissivity => "an emitter's data goes to --emitter file:PATH".into(),
+        TableKind::Spectrum => "a spectrum goes to --spectrum file:PATH".into(),
+        TableKind::QuantumEfficiency => "a quantum efficiency goes to --eqe file:PATH".into(),
+    }
+}
+
+/// `what 'path': line N: message; fix`.
+pub fn file_error(what: &str, path: &str, e: &TableError, file: FileOptions) -> String {
+    match e.hint {
+        Some(h) => format!("{what} '{path}': {e}; {}", cli_fix(h, file)),
+        None => format!("{what} '{path}': {e}"),
+    }
+}
+
+pub fn io_reason(e: &std::io::Error) -> String {
+    match e.kind() {
+        std::io::ErrorKind::NotFound => "no such file; check the path".into(),
+        std::io::ErrorKind::PermissionDenied => "permission denied".into(),
+        _ => e.to_string(),
+    }
+}
+
+/// The text of a data file and its name (the file name without folders).
+fn read_text(path: &str, what: &str) -> Result<(String, String), String> {
+    let bytes = std::fs::read(path).map_err(|e| format!("cannot read {what} '{path}': {}", io_reason(&e)))?;
+    let name =
+        std::path::Path::new(path).file_name().map_or_else(|| path.to_string(), |n| n.to_string_lossy().into_owned());
+    Ok((String::from_utf8_lossy(&bytes).into_owned(), name))
+}
+
+/// A column option (`--{prefix}-column N`), 1 or more.
+fn column_option(p: &Parsed, name: &str) -> Result<Option<usize>, String> {
+    p.text(name)
+        .map(|c| {
+            c.trim().parse::<usize>().ok().filter(|n| *n >= 1).ok_or_else(|| {
+                format!("--{name} '{c}' is not a column number; give 1 for the first value column after the axis")
+            })
+        })
+        .transpose()
+}
+
+/// Read and parse a spectrum file into a table carried by the scenario; `p` holds the
+/// `--spectrum-axis/-values/-column` options.
+pub fn read_spectrum_file(path: &str, p: &Parsed) -> Result<SourceSpec, String> {
+    read_spectrum_as(path, p, SPECTRUM_FILE)
+}
+
+/// [`read_spectrum_file`], for a file that `file`'s options describe.
+pub fn read_spectrum_as(path: &str, p: &Parsed, file: FileOptions) -> Result<SourceSpec, String> {
+    let mut hints = ColumnHints::default();
+    if let Some(a) = p.text("spectrum-axis") {
+        hints.axis = Some(
+            AxisUnit::parse(a).ok_or_else(|| format!("--spectrum-axis '{a}' is not known; use nm, um, eV or cm-1"))?,
+        );
+    }
+    if let Some(v) = p.text("spectrum-values") {
+        hints.value = Some(ValueUnit::parse(v).ok_or_else(|| {
+            format!("--spectrum-values '{v}' is not known; use e.g. W/m2/nm, W/m2/um, W/m2/eV, W/m2/cm-1 or photons/m2/s/nm")
+        })?);
+    }
+    hints.column = column_option(p, "spectrum-column")?;
+    let (text, name) = read_text(path, "spectrum file")?;
+    let s = parse_spectrum_csv(&text, &hints, &name).map_err(|e| file_error("spectrum file", path, &e, file))?;
+    Ok(SourceSpec::Table(TableSpec {
+        name,
+        axis: s.axis(),
+        quantity: s.quantity(),
+        x: s.coordinates().to_vec(),
+        y: s.values().to_vec(),
+    }))
+}
+
+/// An optical table of `file` (emitter or sky), with its `--{prefix}-*` options from `p`.
+fn read_optical_file(path: &str, file: FileOptions, p: &Parsed) -> Result<OpticalTable, String> {
+    let prefix = file.prefix.unwrap_or_default();
+    let sky = file.kind == TableKind::Transmittance;
+    let what = if sky { "sky transmittance file" } else { "emissivity file" };
+    let mut hints = OpticalHints::default();
+    if let Some(a) = p.text(&format!("{prefix}-axis")) {
+        hints.axis =
+            Some(AxisUnit::parse(a).ok_or_else(|| format!("--{prefix}-axis '{a}' is not known; use nm, um or cm-1"))?);
+    }
+    if let Some(v) = p.text(&format!("{prefix}-values")) {
+        let kinds = if sky {
+            "transmittance or transmittance%"
+        } else {
+            "emissivity, absorptance or reflectance, with % for percent"
+        };
+        hints.value =
+            Some(ValueKind::parse(v).ok_or_else(|| format!("--{prefix}-values '{v}' is not known; use {kinds}"))?);
+    }
+    hints.column = column_option(p, &format!("{prefix}-column"))?;
+    let (text, name) = read_text(path, what)?;
+    let parsed =
+        if sky { parse_transmittance_csv(&text, &hints, &name) } else { parse_emissivity_csv(&text, &hints, &name) };
+    parsed.map_err(|e| file_error(what, path, &e, file))
+}
+
+/// Read every `file:` part of a radiator scenario into a table it carries; `p` holds the
+/// file options (`--emitter-*`, `--sky-*`, `--spectrum-*` for the sun).
+pub fn resolve_radiator_files(sc: &mut RadiatorScenario, p: &Parsed) -> Result<(), String> {
+    let emitter_hints = ["emitter-axis", "emitter-values", "emitter-column"].iter().any(|o| p.text(o).is_some());
+    let sky_hints = ["sky-axis", "sky-values", "sky-column"].iter().any(|o| p.text(o).is_some());
+    let emitter_file = matches!(sc.emitter, EmitterSpec::File { .. })
+        || matches!(sc.solar_band.as_ref().map(|s| &s.profile), Some(EmitterSpec::File { .. }));
+    if emitter_hints && !emitter_file {
+        return Err("--emitter-axis, --emitter-values and --emitter-column apply only to --emitter file:PATH or --solar file:PATH".into());
+    }
+    if sky_hints && !matches!(sc.sky, SkySpec::File { .. }) {
+        return Err("--sky-axis, --sky-values and --sky-column apply only to --sky file:PATH".into());
+    }
+    let sun_hints = ["spectrum-axis", "spectrum-values", "spectrum-column"].iter().any(|o| p.text(o).is_some());
+    if sun_hints && !matches!(sc.sun, Some(SourceSpec::File { .. })) {
+        return Err("--spectrum-axis, --spectrum-values and --spectrum-column apply only to --sun file:PATH".into());
+    }
+    if let EmitterSpec::File { path } = &sc.emitter {
+        sc.emitter = emissivity_table(read_optical_file(path, EMITTER_FILE, p)?);
+    }
+    if let Some(s) = &mut sc.solar_band {
+        if let EmitterSpec::File { path } = &s.profile {
+            s.profile = emissivity_table(read_optical_file(path, EMITTER_FILE, p)?);
+        }
+    }
+    if let SkySpec::File { path } = &sc.sky {
+        let t = read_optical_file(path, SKY_FILE, p)?;
+        sc.sky =
+            SkySpec::Table(TransmittanceTable { name: t.name, wavelength_m: t.wavelength_m, transmittance: t.values });
+    }
+    if let Some(SourceSpec::File { path }) = &sc.sun {
+        sc.sun = Some(read_spectrum_file(path, p)?);
+    }
+    Ok(())
+}
+
+fn emissivity_table(t: OpticalTable) -> EmitterSpec {
+    EmitterSpec::Table(EmissivityTable { name: t.name, wavelength_m: t.wavelength_m, emissivity: t.values })
+}
+
+/// An EQE file given to `option` as `file:PATH` (or a bare path).
+pub fn read_eqe_file(spec: &str, option: &str) -> Result<AbsorptanceTable, String> {
+    let path = match (spec.get(..5), spec.get(5..)) {
+        (Some(prefix), Some(rest)) if prefix.eq_ignore_ascii_case("file:") => rest,
+        _ => spec,
+    };
+    if path.trim().is_empty() {
+        return Err(format!("{option} needs a file, e.g. {option} file:eqe.csv"));
+    }
+    let what = "quantum-efficiency file";
+    let (text, name) = read_text(path, what)?;
+    parse_eqe_csv(&text, &name).map_err(|e| file_error(what, path, &e, EQE_FILE))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn headerless_spectrum_names_the_axis_option() {
+        let e = parse_spectrum_csv("400,1\n500,1\n", &ColumnHints::default(), "x").unwrap_err();
+        let text = file_error("spectrum file", "x.csv", &e, SPECTRUM_FILE);
+        assert!(text.contains("--spectrum-axis nm|um|eV|cm-1"), "{text}");
+        let text = file_error("spectrum file", "x.csv", &e, HEADER_ONLY_SPECTRUM);
+        assert!(!text.contains("--") && text.contains("header line"), "{text}");
+    }
+
+    #[test]
+    fn each_file_option_is_named_by_its_prefix() {
+        let column = cli_fix(Hint::ValueColumn, SKY_FILE);
+        assert!(column.contains("--sky-column"), "{column}");
+        let kind =
+            cli_fix(Hint::ValueKind { accepted: &[crate::formats::units::OpticalQuantity::Reflectance] }, EMITTER_FILE);
+        assert!(kind.contains("--emitter-values reflectance"), "{kind}");
+        assert!(cli_fix(Hint::Units, EMITTER_FILE).contains("--emitter-axis and --emitter-values"));
+    }
+}

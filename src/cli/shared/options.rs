@@ -1,0 +1,115 @@
+//! Options several commands share: the light source and the cell (applied onto a
+//! `CellScenario`), the connection and gap list of stacks, and the help of each.
+//!
+//! Architecture invariant: options become scenario values here and are checked by the
+//! scenario (`to_physics`), never by range checks of their own.
+
+use super::files::read_spectrum_file;
+use crate::cli::args::{OptionDoc, Parsed};
+use crate::physics::junction::{Emission, JvModel};
+use crate::physics::stack::Connection;
+use crate::scenario::{CellScenario, SourceSpec};
+
+/// The valued options of a command followed by the light-source and cell options that
+/// [`apply_common`] reads, so that every command accepts exactly the options it applies.
+macro_rules! with_light_and_cell_options {
+    ($($own:expr),* $(,)?) => {
+        &[$($own,)* "spectrum", "spectrum-axis", "spectrum-values", "spectrum-column",
+          "concentration", "cell-temp", "ere", "emission", "approx"]
+    };
+}
+pub(crate) use with_light_and_cell_options;
+
+/// Help of the options more than one command accepts, in one place.
+pub const SHARED_DOCS: &[OptionDoc] = &[
+    OptionDoc { name: "spectrum", arg: "SPEC", text: "am1.5g (default) | am1.5d | am0 | blackbody:K | file:PATH" },
+    OptionDoc {
+        name: "spectrum-axis",
+        arg: "UNIT",
+        text: "axis unit of a spectrum file without one in its header: nm | um | eV | cm-1\n\
+               (default: the unit the header names)",
+    },
+    OptionDoc {
+        name: "spectrum-values",
+        arg: "UNIT",
+        text: "value unit of a spectrum file, e.g. W/m2/nm or photons/m2/s/eV\n\
+               (default: the unit the header names)",
+    },
+    OptionDoc {
+        name: "spectrum-column",
+        arg: "N",
+        text: "which value column of a multi-column file, 1 (default) = the first after the axis",
+    },
+    OptionDoc { name: "concentration", arg: "X", text: "suns, 1 (default) up to the sun-disc limit (about 46,239)" },
+    OptionDoc { name: "cell-temp", arg: "K", text: "cell temperature in K, default 300" },
+    OptionDoc { name: "ere", arg: "F", text: "external radiative efficiency, a fraction in (0, 1], default 1" },
+    OptionDoc { name: "emission", arg: "SIDE", text: "front (default, perfect back mirror) | both" },
+    OptionDoc { name: "approx", arg: "MODEL", text: "exact (default, generalized Planck) | boltzmann" },
+    OptionDoc {
+        name: "connection",
+        arg: "C",
+        text: "series (default, two-terminal, one current) | independent (multi-terminal)",
+    },
+    OptionDoc { name: "json", arg: "", text: "print JSON instead of the table (default: a table)" },
+    OptionDoc {
+        name: "link",
+        arg: "",
+        text: "print the scenario's share-link fragment (#g1.…) to append to the app's address,\n\
+               instead of the figures",
+    },
+    OptionDoc { name: "csv", arg: "", text: "print CSV with a header line instead of the table" },
+];
+
+/// Options shared by the cell commands, applied onto a scenario.
+pub fn apply_common(p: &Parsed, sc: &mut CellScenario) -> Result<(), String> {
+    if let Some(s) = p.text("spectrum") {
+        sc.spectrum = SourceSpec::parse(s)?;
+    }
+    if let Some(x) = p.number("concentration", "concentration", "suns")? {
+        sc.concentration = x;
+    }
+    if let Some(t) = p.number("cell-temp", "cell temperature", "K")? {
+        sc.cell_temp_k = t;
+    }
+    if let Some(e) = p.number("ere", "external radiative efficiency", "a fraction above 0, at most 1")? {
+        sc.ere = e;
+    }
+    if let Some(e) = p.text("emission") {
+        sc.emission = match e.to_ascii_lowercase().as_str() {
+            "front" => Emission::Front,
+            "both" => Emission::Both,
+            _ => return Err(format!("--emission '{e}' is not known; use front (perfect back mirror) or both")),
+        };
+    }
+    if let Some(a) = p.text("approx") {
+        sc.approx = match a.to_ascii_lowercase().as_str() {
+            "exact" => JvModel::Exact,
+            "boltzmann" => JvModel::Boltzmann,
+            _ => return Err(format!("--approx '{a}' is not known; use exact or boltzmann")),
+        };
+    }
+    let has_hints =
+        p.text("spectrum-axis").is_some() || p.text("spectrum-values").is_some() || p.text("spectrum-column").is_some();
+    if let SourceSpec::File { path } = &sc.spectrum {
+        sc.spectrum = read_spectrum_file(path, p)?;
+    } else if has_hints {
+        return Err(
+            "--spectrum-axis, --spectrum-values and --spectrum-column apply only to --spectrum file:PATH".into()
+        );
+    }
+    Ok(())
+}
+
+/// `--connection series|independent`.
+pub fn connection(p: &Parsed) -> Result<Connection, String> {
+    match p.text("connection").map(|c| c.trim().to_ascii_lowercase()) {
+        None => Ok(Connection::Series),
+        Some(c) => match c.as_str() {
+            "series" | "two-terminal" | "2t" => Ok(Connection::Series),
+            "independent" | "multi-terminal" | "4t" => Ok(Connection::Independent),
+            _ => Err(format!(
+                "--connection '{c}' is not known; use series (two-terminal, one current) or independent (multi-terminal)"
+            )),
+        },
+    }
+}

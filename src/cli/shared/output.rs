@@ -1,0 +1,272 @@
+//! The writers of results: cell, stack, measured-cell and radiator figures as the aligned
+//! tables the commands print (labels and display text from `report`, as the page shows
+//! them), JSON lines, and warnings on stderr.
+//!
+//! Architecture invariant: every figure printed here comes from a `report` type, so the
+//! table, the JSON and the page cannot disagree; evaluation goes through the scenario's own
+//! `to_physics`.
+
+use super::{Failure, Out};
+use crate::physics::absorber::{ere_from_voc, solve_absorber};
+use crate::physics::junction::{solve_cell, Emission, JvModel};
+use crate::physics::radiator::evaluate;
+use crate::physics::stack::Connection;
+use crate::report::radiator::RadiatorReport;
+use crate::report::stack::{AbsorberReport, StackReport};
+use crate::report::CellReport;
+use crate::scenario::radiator::{AngularSpec, RadiatorScenario};
+use crate::scenario::stack::AbsorberSpec;
+use crate::scenario::{CellScenario, Scenario};
+
+/// Warnings on stderr, one line each.
+pub fn warn(warnings: &[String]) {
+    for w in warnings {
+        eprintln!("glowgap: warning: {w}");
+    }
+}
+
+/// A value as one line of JSON.
+pub fn print_json<T: serde::Serialize>(out: Out, v: &T) -> Result<(), Failure> {
+    serde_json::to_writer(&mut *out, v).map_err(|_| Failure::Output)?;
+    writeln!(out)?;
+    Ok(())
+}
+
+/// Solve the cell of `sc` (a step absorptance) and print it: JSON with `json`, else a table.
+pub fn print_cell(sc: &CellScenario, json: bool, out: Out) -> Result<(), Failure> {
+    let setup = sc.to_physics()?;
+    warn(&setup.warnings);
+    let report = CellReport::from(&solve_cell(&setup.light, &setup.cell));
+    if json {
+        return print_json(out, &report);
+    }
+    write_cell_table(out, &report, &setup.light.source.name(), sc)?;
+    Ok(())
+}
+
+/// The cell's figures as a table.
+pub fn write_cell_table(out: Out, r: &CellReport, source: &str, sc: &CellScenario) -> std::io::Result<()> {
+    writeln!(out, "{:<28} {:.4} eV", "Band gap", r.gap_ev)?;
+    writeln!(out, "{:<28} {} at {}", "Source", source, suns(sc.concentration))?;
+    writeln!(out, "{:<28} {}", "Cell", cell_line(sc))?;
+    for (hook, label, _) in crate::report::CELL_METRICS {
+        writeln!(out, "{:<28} {}", label, r.display(hook))?;
+    }
+    writeln!(out, "{:<28} {:.2} W/m²", "Maximum power", r.pmax_w_m2)?;
+    Ok(())
+}
+
+pub fn suns(x: f64) -> String {
+    if x == 1.0 {
+        "1 sun".into()
+    } else {
+        format!("{x} suns")
+    }
+}
+
+pub fn cell_line(sc: &CellScenario) -> String {
+    format!(
+        "{} K, ERE {}, {} emission, {} J-V",
+        sc.cell_temp_k,
+        sc.ere,
+        match sc.emission {
+            Emission::Front => "front",
+            Emission::Both => "two-face",
+        },
+        match sc.approx {
+            JvModel::Exact => "exact",
+            JvModel::Boltzmann => "Boltzmann",
+        }
+    )
+}
+
+pub fn connection_words(c: Connection) -> &'static str {
+    match c {
+        Connection::Series => "series (two-terminal)",
+        Connection::Independent => "independent (multi-terminal)",
+    }
+}
+
+/// The report with the gaps as the user typed them (eV to J and back may change the last
+/// digit).
+pub fn with_gaps_as_given(mut r: StackReport, gaps_ev: &[f64]) -> StackReport {
+    for (i, s) in r.subcells.iter_mut().enumerate() {
+        s.gap_ev = gaps_ev.get(i).copied().unwrap_or(s.gap_ev);
+        s.upper_gap_ev = if i == 0 { None } else { gaps_ev.get(i - 1).copied().or(s.upper_gap_ev) };
+    }
+    r
+}
+
+/// The stack as a table.
+pub fn write_stack_table(out: Out, r: &StackReport, source: &str, sc: &CellScenario) -> std::io::Result<()> {
+    writeln!(out, "{:<28} {} junctions, {}", "Stack", r.subcells.len(), connection_words(r.connection))?;
+    writeln!(out, "{:<28} {} at {}", "Source", source, suns(sc.concentration))?;
+    writeln!(out, "{:<28} {}", "Cells", cell_line(sc))?;
+    // the headline figures as the stack panel shows them (report::stack::STACK_METRICS)
+    writeln!(out, "{:<28} {}", "Efficiency", r.display("stack-efficiency"))?;
+    writeln!(out, "{:<28} {}", "Open-circuit voltage Voc", r.display("stack-voc"))?;
+    writeln!(out, "{:<28} {}", r.label("stack-jsc"), r.display("stack-jsc"))?;
+    writeln!(out, "{:<28} {}", "Maximum power", r.display("stack-pmax"))?;
+    writeln!(out, "{:<28} {}", "Incident power", r.display("stack-input"))?;
+    writeln!(out)?;
+    writeln!(
+        out,
+        "{:>9} {:>9} {:>12} {:>13} {:>8} {:>12} {:>8} {:>10} {:>13}",
+        "subcell",
+        "gap (eV)",
+        "band to (eV)",
+        "Jsc (mA/cm²)",
+        "Voc (V)",
+        "J (mA/cm²)",
+        "V (V)",
+        "P (W/m²)",
+        "excess Jsc"
+    )?;
+    for (i, s) in r.subcells.iter().enumerate() {
+        let name = if i == 0 { format!("{} top", i + 1) } else { format!("{}", i + 1) };
+        let upper = s.upper_gap_ev.map(|u| format!("{u:.4}")).unwrap_or_else(|| "-".into());
+        writeln!(
+            out,
+            "{:>9} {:>9.4} {:>12} {:>13.4} {:>8.4} {:>12.4} {:>8.4} {:>10.3} {:>13.4}",
+            name, s.gap_ev, upper, s.jsc_ma_cm2, s.voc_v, s.j_ma_cm2, s.v_v, s.pmax_w_m2, s.excess_jsc_ma_cm2
+        )?;
+    }
+    if let Some(l) = r.limiting_subcell {
+        writeln!(out, "limiting subcell (smallest Jsc): {l}{}", if l == 1 { " (top)" } else { "" })?;
+    }
+    Ok(())
+}
+
+/// The cell of `scenario` with the scenario's absorptance.
+pub fn write_absorber_cell(
+    scenario: &Scenario,
+    measured_voc: Option<f64>,
+    json: bool,
+    out: Out,
+) -> Result<(), Failure> {
+    let sc = &scenario.cell;
+    let mut setup = sc.to_physics()?;
+    let a = scenario.stack.absorber.to_physics(sc.gap_ev, sc.cell_temp_k, &mut setup.warnings)?;
+    warn(&setup.warnings);
+    let r = solve_absorber(&setup.light, &a, &setup.cell);
+    let kind = match &scenario.stack.absorber {
+        AbsorberSpec::Step => "step",
+        AbsorberSpec::Urbach { .. } => "urbach",
+        AbsorberSpec::Measured(_) => "measured",
+    };
+    let mut report = AbsorberReport::new(&r, kind);
+    if let Some(v) = measured_voc {
+        report.measured_voc_v = Some(v);
+        report.ere_from_voc = ere_from_voc(r.cell.jsc, r.ln_j0, sc.cell_temp_k, v);
+        report.measured_nonrad_voc_loss_v = Some(r.voc_rad - v);
+        if v > r.voc_rad {
+            warn(&[format!(
+                "the measured Voc {v} V is above the radiative limit {:.4} V of this absorptance; check the EQE, the spectrum and the cell temperature",
+                r.voc_rad
+            )]);
+        }
+    }
+    if json {
+        return print_json(out, &report);
+    }
+    // a non-step absorptance follows the reciprocity law J0 (e^(qV/kT) - 1), the Boltzmann form
+    let shown = if scenario.stack.absorber.is_step() {
+        sc.clone()
+    } else {
+        CellScenario { approx: JvModel::Boltzmann, ..sc.clone() }
+    };
+    write_cell_table(out, &report.cell, &setup.light.source.name(), &shown)?;
+    let what = match &scenario.stack.absorber {
+        AbsorberSpec::Step => "step at the band gap".to_string(),
+        AbsorberSpec::Urbach { urbach_mev } => {
+            format!("step with an Urbach tail of {urbach_mev} meV (reciprocity J-V)")
+        }
+        AbsorberSpec::Measured(t) => {
+            format!("measured EQE '{}' (reciprocity J-V; gap shown: half-maximum edge)", t.name)
+        }
+    };
+    writeln!(out, "{:<28} {}", "Absorptance", what)?;
+    match report.log10_j0_rad_ma_cm2 {
+        Some(l) => writeln!(out, "{:<28} 10^{:.3} mA/cm²", "Radiative dark current J0", l)?,
+        None => writeln!(out, "{:<28} 0 mA/cm²", "Radiative dark current J0")?,
+    }
+    writeln!(out, "{:<28} {:.4} V", "Radiative-limit Voc", report.voc_rad_v)?;
+    writeln!(out, "{:<28} {:.4} V", "Non-radiative Voc loss", report.nonrad_voc_loss_v)?;
+    if let (Some(v), Some(loss)) = (report.measured_voc_v, report.measured_nonrad_voc_loss_v) {
+        writeln!(
+            out,
+            "{:<28} {v:.4} V: loss {loss:.4} V, ERE {}",
+            "Measured Voc",
+            report.ere_from_voc.map(|e| format!("{e:.3e}")).unwrap_or_else(|| "-".into())
+        )?;
+    }
+    Ok(())
+}
+
+/// Evaluate a radiator scenario and print it: JSON with `json`, else a table; with a curve
+/// step [K], also P_net(T) over the scenario's curve range.
+pub fn print_radiator(sc: &RadiatorScenario, json: bool, curve_step: Option<f64>, out: Out) -> Result<(), Failure> {
+    let setup = sc.to_physics()?;
+    warn(&setup.warnings);
+    let ev = evaluate(&setup.emitter, &setup.surroundings, setup.surface_k);
+    let report = RadiatorReport::from(&ev);
+    let curve = match curve_step {
+        Some(step) => {
+            let n = ((sc.curve_to_k - sc.curve_from_k) / step).round() as usize + 1;
+            let temps: Vec<f64> = (0..n).map(|i| (sc.curve_from_k + step * i as f64).min(sc.curve_to_k)).collect();
+            ev.balance.curve(&temps)
+        }
+        None => Vec::new(),
+    };
+    if json && curve_step.is_none() {
+        serde_json::to_writer(&mut *out, &report).map_err(|_| Failure::Output)?;
+        writeln!(out)?;
+        return Ok(());
+    }
+    if json {
+        let mut v = serde_json::to_value(&report).map_err(|_| Failure::Output)?;
+        {
+            let pts: Vec<serde_json::Value> = curve
+                .iter()
+                .map(|c| serde_json::json!({"temp_k": c.temp_k, "net_w_m2": c.net, "emitted_w_m2": c.emitted}))
+                .collect();
+            v["curve"] = serde_json::Value::Array(pts);
+        }
+        serde_json::to_writer(&mut *out, &v).map_err(|_| Failure::Output)?;
+        writeln!(out)?;
+        return Ok(());
+    }
+    let sun = match &sc.sun {
+        None => "none (night)".to_string(),
+        Some(s) => {
+            let name = s.to_source().map(|src| src.name()).unwrap_or_else(|_| s.label());
+            let scale = if sc.sun_scale == 1.0 { String::new() } else { format!(" x {}", sc.sun_scale) };
+            format!("{name}{scale} at {} deg from zenith", sc.sun_zenith_deg)
+        }
+    };
+    let mut emitter = sc.emitter.label();
+    if let Some(s) = &sc.solar_band {
+        emitter.push_str(&format!("; below {} um: {}", s.below_um, s.profile.label()));
+    }
+    if let AngularSpec::CutOff { angle_deg, beyond } = sc.angular {
+        emitter.push_str(&format!("; {beyond} beyond {angle_deg} deg"));
+    }
+    let mut rows: Vec<(String, String)> = vec![
+        ("Emitter".into(), emitter),
+        ("Sky".into(), sc.sky.label()),
+        ("Sun".into(), sun),
+        ("Convection h_c".into(), format!("{} W/m²K", sc.h_c_w_m2k)),
+    ];
+    rows.extend(report.rows());
+    for (label, value) in rows {
+        writeln!(out, "{label:<32} {value}")?;
+    }
+    if !curve.is_empty() {
+        writeln!(out)?;
+        writeln!(out, "{:>10} {:>14} {:>14}", "T (K)", "P_net (W/m²)", "emitted (W/m²)")?;
+        for c in &curve {
+            writeln!(out, "{:>10.2} {:>14.3} {:>14.3}", c.temp_k, c.net, c.emitted)?;
+        }
+    }
+    Ok(())
+}
