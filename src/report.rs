@@ -44,66 +44,117 @@ impl From<&CellResult> for CellReport {
     }
 }
 
-/// The headline figures, in display order: (hook name, label, unit).
-pub const CELL_METRICS: [(&str, &str, &str); 7] = [
-    ("efficiency", "Efficiency", "%"),
-    ("jsc", "Short-circuit current Jsc", "mA/cm²"),
-    ("voc", "Open-circuit voltage Voc", "V"),
-    ("ff", "Fill factor", ""),
-    ("vmp", "Voltage at max power Vmp", "V"),
-    ("jmp", "Current at max power Jmp", "mA/cm²"),
-    ("input-power", "Incident power", "W/m²"),
-];
+/// A figure of a single cell, as the page and the table show it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum CellMetric {
+    Efficiency,
+    Jsc,
+    Voc,
+    Ff,
+    Vmp,
+    Jmp,
+    InputPower,
+    Pmax,
+}
 
-impl CellReport {
-    /// The value of a headline figure in its display unit (efficiency in %).
-    pub fn metric(&self, hook: &str) -> f64 {
-        match hook {
-            "efficiency" => self.efficiency * 100.0,
-            "jsc" => self.jsc_ma_cm2,
-            "voc" => self.voc_v,
-            "ff" => self.ff,
-            "vmp" => self.vmp_v,
-            "jmp" => self.jmp_ma_cm2,
-            "input-power" => self.input_w_m2,
-            "pmax" => self.pmax_w_m2,
-            _ => f64::NAN,
+impl CellMetric {
+    /// The headline figures, in display order.
+    pub const HEADLINE: [CellMetric; 7] = [
+        CellMetric::Efficiency,
+        CellMetric::Jsc,
+        CellMetric::Voc,
+        CellMetric::Ff,
+        CellMetric::Vmp,
+        CellMetric::Jmp,
+        CellMetric::InputPower,
+    ];
+
+    /// The page's `data-metric` hook.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            CellMetric::Efficiency => "efficiency",
+            CellMetric::Jsc => "jsc",
+            CellMetric::Voc => "voc",
+            CellMetric::Ff => "ff",
+            CellMetric::Vmp => "vmp",
+            CellMetric::Jmp => "jmp",
+            CellMetric::InputPower => "input-power",
+            CellMetric::Pmax => "pmax",
         }
     }
 
-    /// A headline figure as displayed, number and unit, e.g. "33.68 %".
-    pub fn display(&self, hook: &str) -> String {
-        let v = self.metric(hook);
-        let unit = CELL_METRICS.iter().find(|m| m.0 == hook).map(|m| m.2).unwrap_or("");
-        let digits = display_decimals(hook, v);
-        if unit.is_empty() {
-            format!("{v:.digits$}")
-        } else {
-            format!("{v:.digits$} {unit}")
+    /// The label beside the figure.
+    pub fn label(self) -> &'static str {
+        match self {
+            CellMetric::Efficiency => "Efficiency",
+            CellMetric::Jsc => "Short-circuit current Jsc",
+            CellMetric::Voc => "Open-circuit voltage Voc",
+            CellMetric::Ff => "Fill factor",
+            CellMetric::Vmp => "Voltage at max power Vmp",
+            CellMetric::Jmp => "Current at max power Jmp",
+            CellMetric::InputPower => "Incident power",
+            CellMetric::Pmax => "Maximum power",
+        }
+    }
+
+    /// The display unit ("" for the fill factor).
+    pub fn unit(self) -> &'static str {
+        match self {
+            CellMetric::Efficiency => "%",
+            CellMetric::Jsc | CellMetric::Jmp => "mA/cm²",
+            CellMetric::Voc | CellMetric::Vmp => "V",
+            CellMetric::Ff => "",
+            CellMetric::InputPower | CellMetric::Pmax => "W/m²",
+        }
+    }
+
+    /// Decimal places shown for the value `v`: enough to see a 1 meV change of gap.
+    pub fn decimals(self, v: f64) -> usize {
+        match self {
+            CellMetric::Efficiency => 2,
+            CellMetric::Jsc | CellMetric::Jmp => {
+                if v.abs() < 0.1 {
+                    5
+                } else {
+                    3
+                }
+            }
+            CellMetric::Voc | CellMetric::Vmp | CellMetric::Ff => 4,
+            CellMetric::InputPower => {
+                if v.abs() >= 1e5 {
+                    0
+                } else {
+                    1
+                }
+            }
+            CellMetric::Pmax => 4,
         }
     }
 }
 
-/// Decimal places shown for each figure: enough to see a 1 meV change of gap.
-pub fn display_decimals(hook: &str, v: f64) -> usize {
-    match hook {
-        "efficiency" => 2,
-        "jsc" | "jmp" => {
-            if v.abs() < 0.1 {
-                5
-            } else {
-                3
-            }
+impl CellReport {
+    /// The value of a figure in its display unit (efficiency in %).
+    pub fn metric(&self, m: CellMetric) -> f64 {
+        match m {
+            CellMetric::Efficiency => self.efficiency * 100.0,
+            CellMetric::Jsc => self.jsc_ma_cm2,
+            CellMetric::Voc => self.voc_v,
+            CellMetric::Ff => self.ff,
+            CellMetric::Vmp => self.vmp_v,
+            CellMetric::Jmp => self.jmp_ma_cm2,
+            CellMetric::InputPower => self.input_w_m2,
+            CellMetric::Pmax => self.pmax_w_m2,
         }
-        "voc" | "vmp" => 4,
-        "ff" => 4,
-        "input-power" => {
-            if v.abs() >= 1e5 {
-                0
-            } else {
-                1
-            }
+    }
+
+    /// A figure as displayed, number and unit, e.g. "33.68 %".
+    pub fn display(&self, m: CellMetric) -> String {
+        let v = self.metric(m);
+        let digits = m.decimals(v);
+        if m.unit().is_empty() {
+            format!("{v:.digits$}")
+        } else {
+            format!("{v:.digits$} {}", m.unit())
         }
-        _ => 4,
     }
 }

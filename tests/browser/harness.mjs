@@ -76,7 +76,7 @@ export async function readMetrics(page, hooks) {
 /** The headline figures as the page shows them. */
 export const figures = (page) => readMetrics(page, METRICS);
 
-// CLI table labels of the headline figures (src/report.rs CELL_METRICS)
+// CLI table labels of the headline figures (src/report.rs CellMetric::label)
 const LABELS = {
   'Efficiency': 'efficiency', 'Short-circuit current Jsc': 'jsc', 'Open-circuit voltage Voc': 'voc',
   'Fill factor': 'ff', 'Voltage at max power Vmp': 'vmp', 'Current at max power Jmp': 'jmp',

@@ -1,6 +1,7 @@
 //! A plot on the page: its header (title, view choices, downloads), its canvas with the
 //! band-gap drag and keys, and the hover read-out.
 
+use crate::report::CellMetric;
 use std::rc::Rc;
 
 use leptos::html;
@@ -67,8 +68,8 @@ fn hover_of(kind: PlotKind, frame: &Frame, c: &CellView, x_css: f64, y_css: f64,
                 Some((frame.css_of_x(g), frame.css_of_y(r.efficiency * 100.0))),
                 vec![
                     format!("Eg {} eV · {} nm", fixed(g, 3), fixed(ev_of_nm(1.0) / g, 1)),
-                    format!("efficiency {}", r.display("efficiency")),
-                    format!("Jsc {} · Voc {}", r.display("jsc"), r.display("voc")),
+                    format!("efficiency {}", r.display(CellMetric::Efficiency)),
+                    format!("Jsc {} · Voc {}", r.display(CellMetric::Jsc), r.display(CellMetric::Voc)),
                     "click or drag to move the gap here".into(),
                 ],
             )
@@ -203,7 +204,7 @@ fn legend(ctx: Ctx, kind: PlotKind) -> impl IntoView {
                 PlotKind::Jv => view! {
                     <span class="key"><i class="k-line k-spectrum"></i>"J–V (left axis)"</span>
                     <span class="key"><i class="k-line k-power"></i>"P–V (right axis)"</span>
-                    <span class="key"><i class="k-dot"></i>{format!("max power point: {} at {}", c.report.display("jmp"), c.report.display("vmp"))}</span>
+                    <span class="key"><i class="k-dot"></i>{format!("max power point: {} at {}", c.report.display(CellMetric::Jmp), c.report.display(CellMetric::Vmp))}</span>
                 }
                 .into_any(),
             })

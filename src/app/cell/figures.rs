@@ -4,21 +4,20 @@ use leptos::prelude::*;
 
 use crate::app::state::Ctx;
 use crate::app::widgets::notices::caution_footer;
-use crate::report::CELL_METRICS;
+use crate::report::CellMetric;
 use crate::view::format::{fixed, gap_ev};
 use crate::view::input::ev_of_nm;
 
 pub fn figures(ctx: Ctx) -> impl IntoView {
-    let cards = CELL_METRICS
-        .iter()
-        .map(|(hook, label, _unit)| {
-            let hook = *hook;
+    let cards = CellMetric::HEADLINE
+        .into_iter()
+        .map(|m| {
             let text =
-                move || ctx.computed.with(|c| c.as_ref().map(|c| c.report.display(hook)).unwrap_or_else(|| "—".into()));
+                move || ctx.computed.with(|c| c.as_ref().map(|c| c.report.display(m)).unwrap_or_else(|| "—".into()));
             view! {
-                <div class="figure" class:lead=hook == "efficiency">
-                    <span class="fig-label">{*label}</span>
-                    <span class="fig-value" data-metric=hook>{text}</span>
+                <div class="figure" class:lead=m == CellMetric::Efficiency>
+                    <span class="fig-label">{m.label()}</span>
+                    <span class="fig-value" data-metric=m.as_str()>{text}</span>
                 </div>
             }
         })

@@ -3,6 +3,7 @@
 //! reciprocity (radiative, and with the cell's ERE) are shown next to those of an ideal step
 //! at the same absorption edge, with the absorptance itself against the step.
 
+use crate::report::CellMetric;
 use std::rc::Rc;
 
 use leptos::html;
@@ -105,16 +106,21 @@ fn rows(a: &AbsorberView, ere: f64) -> Vec<(String, &'static str, String, String
     let (s, m): (&AbsorberReport, &AbsorberReport) = (&a.step, &a.measured);
     let v = |x: f64| format!("{} V", fixed(x, 4));
     vec![
-        ("Jsc".into(), "eqe-jsc", s.cell.display("jsc"), m.cell.display("jsc")),
+        ("Jsc".into(), "eqe-jsc", s.cell.display(CellMetric::Jsc), m.cell.display(CellMetric::Jsc)),
         ("Voc, radiative limit".into(), "eqe-voc-rad", v(s.voc_rad_v), v(m.voc_rad_v)),
         (
             format!("Voc at ERE {}", crate::view::format::field(ere, 4)),
             "eqe-voc",
-            s.cell.display("voc"),
-            m.cell.display("voc"),
+            s.cell.display(CellMetric::Voc),
+            m.cell.display(CellMetric::Voc),
         ),
         ("Non-radiative Voc loss".into(), "eqe-nonrad-loss", v(s.nonrad_voc_loss_v), v(m.nonrad_voc_loss_v)),
-        ("Efficiency limit".into(), "eqe-efficiency", s.cell.display("efficiency"), m.cell.display("efficiency")),
+        (
+            "Efficiency limit".into(),
+            "eqe-efficiency",
+            s.cell.display(CellMetric::Efficiency),
+            m.cell.display(CellMetric::Efficiency),
+        ),
     ]
 }
 

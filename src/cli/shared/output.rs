@@ -49,8 +49,8 @@ pub fn write_cell_table(out: Out, r: &CellReport, source: &str, sc: &CellScenari
     writeln!(out, "{:<28} {:.4} eV", "Band gap", r.gap_ev)?;
     writeln!(out, "{:<28} {} at {}", "Source", source, suns(sc.concentration))?;
     writeln!(out, "{:<28} {}", "Cell", cell_line(sc))?;
-    for (hook, label, _) in crate::report::CELL_METRICS {
-        writeln!(out, "{:<28} {}", label, r.display(hook))?;
+    for m in crate::report::CellMetric::HEADLINE {
+        writeln!(out, "{:<28} {}", m.label(), r.display(m))?;
     }
     writeln!(out, "{:<28} {:.2} W/m²", "Maximum power", r.pmax_w_m2)?;
     Ok(())

@@ -4,6 +4,7 @@
 //! Architecture invariant: figures come from `report::CellReport`, numbers are written by
 //! `view::format::csv_num`, so the files and the page show the same values.
 
+use crate::report::CellMetric;
 use std::fmt::Write;
 
 use super::CellView;
@@ -43,7 +44,7 @@ pub fn caption(s: &Scenario, c: &CellView) -> String {
     if cell.approx == JvModel::Boltzmann {
         parts.push("Boltzmann approximation".into());
     }
-    parts.push(format!("Eg {} eV: {}", gap_ev(cell.gap_ev), c.report.display("efficiency")));
+    parts.push(format!("Eg {} eV: {}", gap_ev(cell.gap_ev), c.report.display(CellMetric::Efficiency)));
     format!("Glowgap · {} · detailed-balance limit", parts.join(" · "))
 }
 
@@ -159,11 +160,11 @@ pub fn jv_csv(s: &Scenario, c: &CellView) -> String {
     let _ = writeln!(
         out,
         "# Jsc {} · Voc {} · FF {} · Vmp {} · Jmp {}",
-        r.display("jsc"),
-        r.display("voc"),
-        r.display("ff"),
-        r.display("vmp"),
-        r.display("jmp")
+        r.display(CellMetric::Jsc),
+        r.display(CellMetric::Voc),
+        r.display(CellMetric::Ff),
+        r.display(CellMetric::Vmp),
+        r.display(CellMetric::Jmp)
     );
     let _ = writeln!(out, "voltage (V),current density (mA/cm2),power density (mW/cm2)");
     for (v, j) in &c.jv {
