@@ -62,62 +62,115 @@ impl From<&Evaluation> for RadiatorReport {
     }
 }
 
-/// The radiator's headline figures, in display order: (hook name, label). The page shows
-/// them under these `data-metric` hooks; [`RadiatorReport::display`] formats each.
-pub const RADIATOR_METRICS: [(&str, &str); 6] = [
-    ("net-power", "Net cooling power"),
-    ("steady-temp", "Steady temperature"),
-    ("solar-reflectance", "Solar reflectance (AM1.5G)"),
-    ("thermal-emittance", "Thermal emittance"),
-    ("window-emissivity", "8-13 um emissivity"),
-    ("sky-emissivity", "Sky broadband emissivity"),
-];
+/// A figure of the radiator's balance, as the page and the table show it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum RadiatorMetric {
+    NetPower,
+    Emitted,
+    SkyAbsorbed,
+    SunAbsorbed,
+    Parasitic,
+    SteadyTemp,
+    SurfaceTemp,
+    AmbientTemp,
+    SkyEmissivity,
+    SolarReflectance,
+    ThermalEmittance,
+    HemisphericalEmittance,
+    WindowEmissivity,
+}
 
-/// The terms of the balance, in the order they add up to the net power: (hook, label).
-pub const RADIATOR_PARTS: [(&str, &str); 4] = [
-    ("emitted", "Emitted"),
-    ("sky-absorbed", "Absorbed from the sky"),
-    ("sun-absorbed", "Absorbed from the sun"),
-    ("parasitic", "Gained from the air"),
-];
+impl RadiatorMetric {
+    /// The headline figures, in display order.
+    pub const HEADLINE: [RadiatorMetric; 6] = [
+        RadiatorMetric::NetPower,
+        RadiatorMetric::SteadyTemp,
+        RadiatorMetric::SolarReflectance,
+        RadiatorMetric::ThermalEmittance,
+        RadiatorMetric::WindowEmissivity,
+        RadiatorMetric::SkyEmissivity,
+    ];
+
+    /// The terms of the balance, in the order they add up to the net power.
+    pub const PARTS: [RadiatorMetric; 4] =
+        [RadiatorMetric::Emitted, RadiatorMetric::SkyAbsorbed, RadiatorMetric::SunAbsorbed, RadiatorMetric::Parasitic];
+
+    /// The page's `data-metric` hook.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            RadiatorMetric::NetPower => "net-power",
+            RadiatorMetric::Emitted => "emitted",
+            RadiatorMetric::SkyAbsorbed => "sky-absorbed",
+            RadiatorMetric::SunAbsorbed => "sun-absorbed",
+            RadiatorMetric::Parasitic => "parasitic",
+            RadiatorMetric::SteadyTemp => "steady-temp",
+            RadiatorMetric::SurfaceTemp => "surface-temp",
+            RadiatorMetric::AmbientTemp => "ambient-temp",
+            RadiatorMetric::SkyEmissivity => "sky-emissivity",
+            RadiatorMetric::SolarReflectance => "solar-reflectance",
+            RadiatorMetric::ThermalEmittance => "thermal-emittance",
+            RadiatorMetric::HemisphericalEmittance => "hemispherical-emittance",
+            RadiatorMetric::WindowEmissivity => "window-emissivity",
+        }
+    }
+
+    /// The label beside the figure.
+    pub fn label(self) -> &'static str {
+        match self {
+            RadiatorMetric::NetPower => "Net cooling power",
+            RadiatorMetric::Emitted => "Emitted",
+            RadiatorMetric::SkyAbsorbed => "Absorbed from the sky",
+            RadiatorMetric::SunAbsorbed => "Absorbed from the sun",
+            RadiatorMetric::Parasitic => "Gained from the air",
+            RadiatorMetric::SteadyTemp => "Steady temperature",
+            RadiatorMetric::SurfaceTemp => "Surface temperature",
+            RadiatorMetric::AmbientTemp => "Ambient temperature",
+            RadiatorMetric::SkyEmissivity => "Sky broadband emissivity",
+            RadiatorMetric::SolarReflectance => "Solar reflectance (AM1.5G)",
+            RadiatorMetric::ThermalEmittance => "Thermal emittance",
+            RadiatorMetric::HemisphericalEmittance => "Hemispherical emittance",
+            RadiatorMetric::WindowEmissivity => "8-13 um emissivity",
+        }
+    }
+}
 
 impl RadiatorReport {
-    /// The value of a figure in its display unit (W/m², K or a fraction); NaN for an unknown
-    /// hook or a steady temperature that does not exist.
-    pub fn metric(&self, hook: &str) -> f64 {
-        match hook {
-            "net-power" => self.net_w_m2,
-            "emitted" => self.emitted_w_m2,
-            "sky-absorbed" => self.sky_absorbed_w_m2,
-            "sun-absorbed" => self.sun_absorbed_w_m2,
-            "parasitic" => self.parasitic_w_m2,
-            "steady-temp" => self.steady_temp_k.unwrap_or(f64::NAN),
-            "surface-temp" => self.surface_temp_k,
-            "ambient-temp" => self.ambient_temp_k,
-            "sky-emissivity" => self.sky_emissivity,
-            "solar-reflectance" => self.solar_reflectance,
-            "thermal-emittance" => self.thermal_emittance,
-            "hemispherical-emittance" => self.hemispherical_emittance,
-            "window-emissivity" => self.window_emissivity,
-            _ => f64::NAN,
+    /// The value of a figure in its display unit (W/m², K or a fraction); NaN for a steady
+    /// temperature that does not exist.
+    pub fn metric(&self, m: RadiatorMetric) -> f64 {
+        match m {
+            RadiatorMetric::NetPower => self.net_w_m2,
+            RadiatorMetric::Emitted => self.emitted_w_m2,
+            RadiatorMetric::SkyAbsorbed => self.sky_absorbed_w_m2,
+            RadiatorMetric::SunAbsorbed => self.sun_absorbed_w_m2,
+            RadiatorMetric::Parasitic => self.parasitic_w_m2,
+            RadiatorMetric::SteadyTemp => self.steady_temp_k.unwrap_or(f64::NAN),
+            RadiatorMetric::SurfaceTemp => self.surface_temp_k,
+            RadiatorMetric::AmbientTemp => self.ambient_temp_k,
+            RadiatorMetric::SkyEmissivity => self.sky_emissivity,
+            RadiatorMetric::SolarReflectance => self.solar_reflectance,
+            RadiatorMetric::ThermalEmittance => self.thermal_emittance,
+            RadiatorMetric::HemisphericalEmittance => self.hemispherical_emittance,
+            RadiatorMetric::WindowEmissivity => self.window_emissivity,
         }
     }
 
     /// A figure as displayed, number and unit: powers "140.57 W/m²", temperatures
     /// "262.36 K", fractions "0.9500"; a missing steady temperature reads "none" or
     /// "none in range" (see [`RadiatorReport::steady_note`] for why).
-    pub fn display(&self, hook: &str) -> String {
-        match hook {
-            "net-power" | "emitted" | "sky-absorbed" | "sun-absorbed" | "parasitic" => {
-                format!("{:.2} W/m²", self.metric(hook))
+    pub fn display(&self, m: RadiatorMetric) -> String {
+        use RadiatorMetric as M;
+        match m {
+            M::NetPower | M::Emitted | M::SkyAbsorbed | M::SunAbsorbed | M::Parasitic => {
+                format!("{:.2} W/m²", self.metric(m))
             }
-            "steady-temp" => match self.steady_temp_k {
+            M::SteadyTemp => match self.steady_temp_k {
                 Some(t) => format!("{t:.2} K"),
                 None if self.steady_status == "undefined" => "none".into(),
                 None => "none in range".into(),
             },
-            "surface-temp" | "ambient-temp" => format!("{:.2} K", self.metric(hook)),
-            _ => format!("{:.4}", self.metric(hook)),
+            M::SurfaceTemp | M::AmbientTemp => format!("{:.2} K", self.metric(m)),
+            _ => format!("{:.4}", self.metric(m)),
         }
     }
 
@@ -142,8 +195,8 @@ impl RadiatorReport {
     /// the reason there is none.
     pub fn steady_text(&self) -> String {
         match self.steady_temp_k {
-            Some(_) => format!("{} ({})", self.display("steady-temp"), self.steady_note()),
-            None => format!("{}: {}", self.display("steady-temp"), self.steady_note()),
+            Some(_) => format!("{} ({})", self.display(RadiatorMetric::SteadyTemp), self.steady_note()),
+            None => format!("{}: {}", self.display(RadiatorMetric::SteadyTemp), self.steady_note()),
         }
     }
 
@@ -153,19 +206,23 @@ impl RadiatorReport {
         vec![
             (
                 "Ambient / surface".into(),
-                format!("{} / {}", self.display("ambient-temp"), self.display("surface-temp")),
+                format!(
+                    "{} / {}",
+                    self.display(RadiatorMetric::AmbientTemp),
+                    self.display(RadiatorMetric::SurfaceTemp)
+                ),
             ),
-            ("Sky broadband emissivity".into(), self.display("sky-emissivity")),
-            ("Emitted".into(), self.display("emitted")),
-            ("Absorbed from the sky".into(), self.display("sky-absorbed")),
-            ("Absorbed from the sun".into(), self.display("sun-absorbed")),
-            ("Gained from the air".into(), self.display("parasitic")),
-            ("Net cooling power".into(), self.display("net-power")),
+            ("Sky broadband emissivity".into(), self.display(RadiatorMetric::SkyEmissivity)),
+            ("Emitted".into(), self.display(RadiatorMetric::Emitted)),
+            ("Absorbed from the sky".into(), self.display(RadiatorMetric::SkyAbsorbed)),
+            ("Absorbed from the sun".into(), self.display(RadiatorMetric::SunAbsorbed)),
+            ("Gained from the air".into(), self.display(RadiatorMetric::Parasitic)),
+            ("Net cooling power".into(), self.display(RadiatorMetric::NetPower)),
             ("Steady temperature".into(), self.steady_text()),
-            ("Solar reflectance (AM1.5G)".into(), self.display("solar-reflectance")),
-            (format!("Thermal emittance ({t:.0} K)"), self.display("thermal-emittance")),
-            (format!("Hemispherical emittance ({t:.0} K)"), self.display("hemispherical-emittance")),
-            (format!("8-13 um emissivity ({t:.0} K)"), self.display("window-emissivity")),
+            ("Solar reflectance (AM1.5G)".into(), self.display(RadiatorMetric::SolarReflectance)),
+            (format!("Thermal emittance ({t:.0} K)"), self.display(RadiatorMetric::ThermalEmittance)),
+            (format!("Hemispherical emittance ({t:.0} K)"), self.display(RadiatorMetric::HemisphericalEmittance)),
+            (format!("8-13 um emissivity ({t:.0} K)"), self.display(RadiatorMetric::WindowEmissivity)),
         ]
     }
 }
@@ -196,25 +253,25 @@ mod tests {
     #[test]
     fn the_page_figures_are_the_table_rows() {
         let r = report(Some(262.3604), "found");
-        assert_eq!(r.display("net-power"), "140.57 W/m²");
-        assert_eq!(r.display("steady-temp"), "262.36 K");
-        assert_eq!(r.display("solar-reflectance"), "0.0000");
-        assert_eq!(r.display("window-emissivity"), "1.0000");
+        assert_eq!(r.display(RadiatorMetric::NetPower), "140.57 W/m²");
+        assert_eq!(r.display(RadiatorMetric::SteadyTemp), "262.36 K");
+        assert_eq!(r.display(RadiatorMetric::SolarReflectance), "0.0000");
+        assert_eq!(r.display(RadiatorMetric::WindowEmissivity), "1.0000");
         assert_eq!(r.steady_text(), "262.36 K (37.64 K below ambient)");
         let rows = r.rows();
         let row = |label: &str| rows.iter().find(|(l, _)| l == label).map(|(_, v)| v.clone()).unwrap();
-        assert_eq!(row("Net cooling power"), r.display("net-power"));
-        assert_eq!(row("Thermal emittance (300 K)"), r.display("thermal-emittance"));
+        assert_eq!(row("Net cooling power"), r.display(RadiatorMetric::NetPower));
+        assert_eq!(row("Thermal emittance (300 K)"), r.display(RadiatorMetric::ThermalEmittance));
         assert_eq!(row("Ambient / surface"), "300.00 K / 300.00 K");
-        for (hook, _) in RADIATOR_METRICS.iter().chain(RADIATOR_PARTS.iter()) {
-            assert!(!r.display(hook).contains("NaN"), "{hook}");
+        for m in RadiatorMetric::HEADLINE.iter().chain(RadiatorMetric::PARTS.iter()) {
+            assert!(!r.display(*m).contains("NaN"), "{m:?}");
         }
     }
 
     #[test]
     fn a_missing_steady_temperature_says_why() {
         let r = report(None, "below-range");
-        assert_eq!(r.display("steady-temp"), "none in range");
+        assert_eq!(r.display(RadiatorMetric::SteadyTemp), "none in range");
         assert_eq!(r.steady_text(), format!("none in range: still cooling at {} K", STEADY_SEARCH_K.0));
         let r = report(None, "undefined");
         assert_eq!(r.steady_text(), "none: the surface exchanges no heat (emissivity 0, h_c 0)");

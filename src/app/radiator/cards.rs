@@ -1,6 +1,7 @@
 //! The balance waterfall and the P_net(T) plot as cards: their read-outs and downloads (the
 //! editor's card, which also edits, is in [`super::editor`]).
 
+use crate::report::radiator::RadiatorMetric;
 use std::rc::Rc;
 
 use leptos::html;
@@ -11,7 +12,7 @@ use crate::view::export::ExportKind;
 use super::export;
 use crate::app::radiator::state::{RadState, Slot};
 use crate::app::widgets::card::{plot_card, range_input, Card, Hover, PlotBehaviour};
-use crate::report::radiator::RADIATOR_PARTS;
+
 use crate::view::format::fixed;
 use crate::view::radiator::{balance_amounts, balance_steps, BALANCE_BARS};
 use crate::view::spectrum::nearest;
@@ -42,9 +43,9 @@ impl PlotBehaviour for ReadOut {
         match self.slot {
             Slot::Balance => {
                 let i = (f.x_at_css(x).floor().max(0.0) as usize).min(BALANCE_BARS.len() - 1);
-                let (label, value) = match RADIATOR_PARTS.get(i) {
-                    Some((hook, label)) => (*label, r.display(hook)),
-                    None => ("Net cooling power", r.display("net-power")),
+                let (label, value) = match RadiatorMetric::PARTS.get(i) {
+                    Some(m) => (m.label(), r.display(*m)),
+                    None => ("Net cooling power", r.display(RadiatorMetric::NetPower)),
                 };
                 let (a, b) = balance_steps(&c)[i];
                 let dot = Some((f.css_of_x(i as f64 + 0.5), f.css_of_y(a.max(b))));
@@ -91,14 +92,14 @@ fn balance_legend(rad: RadState) -> impl IntoView {
     move || {
         rad.computed.with(|c| {
             let c = c.as_ref()?;
-            let net = c.report.display("net-power");
+            let net = c.report.display(RadiatorMetric::NetPower);
             let key = if c.report.net_w_m2 >= 0.0 { "k-fill k-net" } else { "k-fill k-net-warms" };
             Some(view! {
                 <span class="key"><i class="k-fill k-emitted"></i>"emitted"</span>
                 <span class="key"><i class="k-fill k-sky"></i>"absorbed from the sky"</span>
                 <span class="key"><i class="k-fill k-absorbed"></i>"absorbed from the sun"</span>
                 <span class="key"><i class="k-fill k-air"></i>"from the air"</span>
-                <span class="key"><i class=key></i>{format!("net {net} at {}", c.report.display("surface-temp"))}</span>
+                <span class="key"><i class=key></i>{format!("net {net} at {}", c.report.display(RadiatorMetric::SurfaceTemp))}</span>
             })
         })
     }
@@ -112,7 +113,7 @@ fn curve_legend(rad: RadState) -> impl IntoView {
             Some(view! {
                 <span class="key"><i class="k-line k-curve"></i>"P_net(T): above zero the surface cools"</span>
                 <span class="key"><i class="k-diamond"></i>{format!("steady: {}", r.steady_text())}</span>
-                <span class="key"><i class="k-line k-ambient"></i>{format!("ambient {}", r.display("ambient-temp"))}</span>
+                <span class="key"><i class="k-line k-ambient"></i>{format!("ambient {}", r.display(RadiatorMetric::AmbientTemp))}</span>
             })
         })
     }

@@ -5,45 +5,44 @@ use leptos::prelude::*;
 
 use crate::app::radiator::state::RadState;
 use crate::app::widgets::notices::caution_footer;
-use crate::report::radiator::{RADIATOR_METRICS, RADIATOR_PARTS};
+use crate::report::radiator::RadiatorMetric;
 
 pub fn figures(rad: RadState) -> impl IntoView {
-    let text = move |hook: &'static str| {
-        move || rad.computed.with(|c| c.as_ref().map(|c| c.report.display(hook)).unwrap_or_else(|| "—".into()))
+    let text = move |m: RadiatorMetric| {
+        move || rad.computed.with(|c| c.as_ref().map(|c| c.report.display(m)).unwrap_or_else(|| "—".into()))
     };
-    let label = move |hook: &'static str, base: &'static str| {
+    let label = move |m: RadiatorMetric, base: &'static str| {
         move || {
             let t = rad.computed.with(|c| c.as_ref().map(|c| c.report.surface_temp_k));
-            match (hook, t) {
-                ("thermal-emittance" | "window-emissivity", Some(t)) => {
+            match (m, t) {
+                (RadiatorMetric::ThermalEmittance | RadiatorMetric::WindowEmissivity, Some(t)) => {
                     format!("{} ({t:.0}\u{a0}K)", base.replace("8-13 um", "8–13 µm"))
                 }
                 _ => base.to_string(),
             }
         }
     };
-    let cards = RADIATOR_METRICS
-        .iter()
-        .map(|(hook, base)| {
-            let hook = *hook;
-            let note = (hook == "steady-temp").then(|| {
+    let cards = RadiatorMetric::HEADLINE
+        .into_iter()
+        .map(|m| {
+            let (hook, base) = (m.as_str(), m.label());
+            let note = (m == RadiatorMetric::SteadyTemp).then(|| {
                 view! { <span class="fig-note" data-note="steady-temp">{move || rad.computed.with(|c| c.as_ref().map(|c| c.report.steady_note()))}</span> }
             });
             view! {
-                <div class="figure" class:lead=hook == "net-power">
-                    <span class="fig-label">{label(hook, base)}</span>
-                    <span class="fig-value" data-metric=hook>{text(hook)}</span>
+                <div class="figure" class:lead=m == RadiatorMetric::NetPower>
+                    <span class="fig-label">{label(m, base)}</span>
+                    <span class="fig-value" data-metric=hook>{text(m)}</span>
                     {note}
                 </div>
             }
         })
         .collect_view();
-    let parts = RADIATOR_PARTS
-        .iter()
-        .map(|(hook, label)| {
-            let hook = *hook;
+    let parts = RadiatorMetric::PARTS
+        .into_iter()
+        .map(|m| {
             view! {
-                <span class="part"><span class="part-label">{*label}</span> <span class="part-value" data-metric=hook>{text(hook)}</span></span>
+                <span class="part"><span class="part-label">{m.label()}</span> <span class="part-value" data-metric=m.as_str()>{text(m)}</span></span>
             }
         })
         .collect_view();
@@ -60,7 +59,7 @@ pub fn figures(rad: RadState) -> impl IntoView {
             c.as_ref().map(|c| {
                 let r = &c.report;
                 let sun = if c.scenario.sun.is_some() { "in sunlight" } else { "at night" };
-                format!("Balance at a surface temperature of {} under ambient air at {}, {sun}; P_net > 0 means the surface loses heat.", r.display("surface-temp"), r.display("ambient-temp"))
+                format!("Balance at a surface temperature of {} under ambient air at {}, {sun}; P_net > 0 means the surface loses heat.", r.display(RadiatorMetric::SurfaceTemp), r.display(RadiatorMetric::AmbientTemp))
             })
         })
     };

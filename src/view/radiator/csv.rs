@@ -4,10 +4,10 @@
 //! Architecture invariant: figures come from `report::radiator::RadiatorReport`, numbers are
 //! written by `view::format::csv_num`.
 
+use crate::report::radiator::RadiatorMetric;
 use std::fmt::Write;
 
 use super::{balance_amounts, RadiatorView, BALANCE_BARS};
-use crate::report::radiator::RADIATOR_PARTS;
 use crate::scenario::radiator::SkySpec;
 use crate::view::format::{csv_num, field};
 
@@ -35,8 +35,8 @@ pub fn caption(c: &RadiatorView) -> String {
         shown(sc.emitter.label()),
         field(sc.ambient_k, 6),
         field(sc.h_c_w_m2k, 6),
-        r.display("net-power"),
-        r.display("surface-temp"),
+        r.display(RadiatorMetric::NetPower),
+        r.display(RadiatorMetric::SurfaceTemp),
     )
 }
 
@@ -82,8 +82,8 @@ pub fn balance_csv(c: &RadiatorView) -> String {
     let _ = writeln!(out, "# P_net = emitted - absorbed from the sky - absorbed from the sun - gained from the air");
     let _ = writeln!(out, "term,power_W_m2,contribution_to_net_W_m2");
     let amounts = balance_amounts(c);
-    for (i, (hook, label)) in RADIATOR_PARTS.iter().enumerate() {
-        let _ = writeln!(out, "{label},{},{}", csv_num(c.report.metric(hook)), csv_num(amounts[i]));
+    for (m, amount) in RadiatorMetric::PARTS.iter().zip(amounts) {
+        let _ = writeln!(out, "{},{},{}", m.label(), csv_num(c.report.metric(*m)), csv_num(amount));
     }
     let _ =
         writeln!(out, "Net cooling power,{},{}", csv_num(c.report.net_w_m2), csv_num(amounts[BALANCE_BARS.len() - 1]));

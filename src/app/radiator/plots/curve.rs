@@ -1,6 +1,7 @@
 //! Net cooling power against surface temperature, with zero, the ambient temperature, the
 //! surface temperature of the balance and the steady temperature (P_net = 0) marked.
 
+use crate::report::radiator::RadiatorMetric;
 use plotters::coord::Shift;
 use plotters::element::DashedPathElement;
 use plotters::prelude::*;
@@ -64,12 +65,21 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadiatorView,
             let s = look.px(6.0);
             plot.draw(&Polygon::new(vec![(px, py - s), (px + s, py), (px, py + s), (px - s, py)], BEST.filled()))
                 .map_err(err)?;
-            draw_tag(&plot, look, &format!("steady {}", r.display("steady-temp")), px, top, left, right, &BEST)?;
+            draw_tag(
+                &plot,
+                look,
+                &format!("steady {}", r.display(RadiatorMetric::SteadyTemp)),
+                px,
+                top,
+                left,
+                right,
+                &BEST,
+            )?;
         }
         _ => {
             let text = match r.steady_temp_k {
-                Some(t) if t < from => format!("steady {} — below this range ◂", r.display("steady-temp")),
-                Some(_) => format!("steady {} — above this range ▸", r.display("steady-temp")),
+                Some(t) if t < from => format!("steady {} — below this range ◂", r.display(RadiatorMetric::SteadyTemp)),
+                Some(_) => format!("steady {} — above this range ▸", r.display(RadiatorMetric::SteadyTemp)),
                 None => format!("steady temperature: {}", r.steady_text()),
             };
             let right_side = r.steady_temp_k.is_some_and(|t| t > to);
@@ -100,7 +110,7 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadiatorView,
             ly + look.px(20.0),
             &AIR,
             false,
-            &format!("ambient {}", r.display("ambient-temp")),
+            &format!("ambient {}", r.display(RadiatorMetric::AmbientTemp)),
         )?;
         draw_legend_row(
             &plot,
@@ -109,7 +119,7 @@ pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &RadiatorView,
             ly + look.px(40.0),
             &EMITTED,
             false,
-            &format!("balance at {}: {}", r.display("surface-temp"), r.display("net-power")),
+            &format!("balance at {}: {}", r.display(RadiatorMetric::SurfaceTemp), r.display(RadiatorMetric::NetPower)),
         )?;
     }
     Ok(frame)
