@@ -4,7 +4,7 @@
 //! Flow: controls and plots edit the scenario signal ([`state::Ctx::edit`] checks every
 //! edit); the panel in front (the cell, [`radiator`] or [`stack`], chosen by the tab bar
 //! and kept in the scenario's view settings) has one effect that computes (with caches
-//! such as [`engine::CellCache`]) and redraws its canvases; one effect of the page writes the
+//! such as [`crate::view::cell::CellCache`]) and redraws its canvases; one effect of the page writes the
 //! link and the saved state ([`share`]) after every change.
 
 pub mod cell;

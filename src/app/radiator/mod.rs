@@ -4,11 +4,11 @@
 //! cooling power, its parts, the steady temperature, the figures of merit and P_net(T).
 //!
 //! Flow: edits go through [`crate::app::state::Ctx::edit`] like the cell panel's, so the
-//! radiator is part of the one scenario in the link. One effect computes ([`engine`], the
+//! radiator is part of the one scenario in the link. One effect computes ([`crate::view::radiator::RadiatorCache`], the
 //! same evaluation as `glowgap eval --radiator`), draws the three canvases and then
 //! publishes the result in [`state::RadState::computed`] for the figures and read-outs.
 //!
-//! * [`profile`]: presets, profiles as control points, the point edits;
+//! * [`crate::view::radiator::points`]: presets, profiles as control points, the point edits;
 //! * [`editor`]: the editor's pointer and keys, the table of points;
 //! * [`controls`]: surface, sky and air, sun; [`import`]: measured tables;
 //! * [`figures`]: headline figures and cautions; [`cards`]: the two read-only plots;

@@ -1,5 +1,5 @@
 //! The radiator's three plots, drawn with the shared axis, tick and label code of
-//! [`crate::app::plots`]: the emissivity editor over the sky, sun and blackbody curves, the
+//! [`crate::app::widgets::plot`]: the emissivity editor over the sky, sun and blackbody curves, the
 //! parts of the balance as a waterfall, and P_net against surface temperature.
 
 pub mod balance;
