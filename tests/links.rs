@@ -10,17 +10,16 @@
 mod common;
 
 use glowgap::codec;
-use glowgap::physics::junction::{Emission, JvModel};
-use glowgap::physics::spectrum::{Axis, Quantity};
-use glowgap::physics::stack::optimize::FixAt;
-use glowgap::physics::stack::Connection;
 use glowgap::scenario::radiator::{
     AngularSpec, EmissivityTable, EmitterSpec, RadiatorScenario, SkySpec, SolarBandSpec, TransmittanceTable,
 };
 use glowgap::scenario::stack::{
     AbsorberSpec, EqeTableSpec, MapSettings, MismatchSettings, OptimizeSettings, StackScenario,
 };
-use glowgap::scenario::{CellScenario, Panel, PlotAxis, PlotQuantity, Scenario, SourceSpec, TableSpec, ViewSettings};
+use glowgap::scenario::{
+    Axis, CellScenario, Connection, Emission, FixAt, JvModel, Panel, PlotAxis, PlotQuantity, Quantity, Scenario,
+    SourceSpec, TableSpec, ViewSettings,
+};
 use serde_json::Value;
 use std::path::{Path, PathBuf};
 

@@ -16,7 +16,7 @@ use super::fmt;
 use super::import;
 use super::state::{ev_of_nm, tidy, Ctx};
 use crate::physics::constants::MAX_CONCENTRATION;
-use crate::physics::junction::{Emission, JvModel};
+use crate::scenario::{Emission, JvModel};
 use crate::scenario::{Scenario, SourceSpec, CELL_TEMP_RANGE_K};
 
 /// Band-gap starting points: (label, eV). Typical room-temperature values.

@@ -9,8 +9,8 @@ use super::fmt::{csv_num, fixed, gap_ev};
 use super::plots::render::{png_data_url, svg_text, CellPlot, PlotKind};
 use crate::codec::to_json;
 use crate::physics::constants::{to_ev, HC};
-use crate::physics::junction::{Emission, JvModel};
 use crate::report::CellReport;
+use crate::scenario::{Emission, JvModel};
 use crate::scenario::{PlotAxis, PlotQuantity, Scenario, SourceSpec};
 
 /// Short human name of a source.

@@ -4,9 +4,9 @@
 use super::args::{Parsed, Spec};
 use crate::formats::spectrum_csv::{parse_spectrum_csv, AxisUnit, ColumnHints, ValueUnit};
 use crate::physics::constants::ev;
-use crate::physics::junction::{best_of, solve_cell, sweep, Cell, CellResult, Emission, JvModel};
+use crate::physics::junction::{best_of, solve_cell, sweep, Cell, CellResult};
 use crate::report::CellReport;
-use crate::scenario::{CellScenario, SourceSpec, TableSpec, GAP_RANGE_EV};
+use crate::scenario::{CellScenario, Emission, JvModel, SourceSpec, TableSpec, GAP_RANGE_EV};
 use std::io::Write;
 
 pub enum Failure {
@@ -142,8 +142,8 @@ pub fn read_spectrum_file(path: &str, p: &Parsed) -> Result<SourceSpec, String> 
     let s = parse_spectrum_csv(&text, &hints, &name).map_err(|e| format!("spectrum file '{path}': {e}"))?;
     Ok(SourceSpec::Table(TableSpec {
         name,
-        axis: s.axis(),
-        quantity: s.quantity(),
+        axis: s.axis().into(),
+        quantity: s.quantity().into(),
         x: s.coordinates().to_vec(),
         y: s.values().to_vec(),
     }))

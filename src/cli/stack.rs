@@ -8,14 +8,13 @@ use super::commands::{apply_common, io_reason, load_scenario, read_spectrum_file
 use crate::formats::eqe_csv::parse_eqe_csv;
 use crate::physics::absorber::{ere_from_voc, solve_absorber, AbsorptanceTable};
 use crate::physics::constants::ev;
-use crate::physics::junction::{Emission, JvModel};
 use crate::physics::losses::{loss_breakdown, loss_sweep};
 use crate::physics::mismatch::mismatch_factor;
-use crate::physics::stack::optimize::{optimize as run_optimizer, FixAt};
+use crate::physics::stack::optimize::optimize as run_optimizer;
 use crate::physics::stack::{solve_stack, Connection, StackResult};
 use crate::report::stack::{AbsorberReport, LossReport, MismatchReport, OptimumReport, StackReport};
 use crate::scenario::stack::{AbsorberSpec, EqeTableSpec, MismatchSettings, OptimizeSettings, StackScenario};
-use crate::scenario::{CellScenario, Scenario, SourceSpec, GAP_RANGE_EV};
+use crate::scenario::{CellScenario, Emission, FixAt, JvModel, Scenario, SourceSpec, GAP_RANGE_EV};
 use std::io::Write;
 
 type Out<'a> = &'a mut dyn Write;
@@ -106,7 +105,7 @@ fn with_gaps_as_given(mut r: StackReport, gaps_ev: &[f64]) -> StackReport {
 
 /// The stack as a table.
 fn write_stack_table(out: Out, r: &StackReport, source: &str, sc: &CellScenario) -> std::io::Result<()> {
-    writeln!(out, "{:<28} {} junctions, {}", "Stack", r.subcells.len(), connection_words(r.connection))?;
+    writeln!(out, "{:<28} {} junctions, {}", "Stack", r.subcells.len(), connection_words(r.connection.into()))?;
     writeln!(out, "{:<28} {} at {}", "Source", source, suns(sc.concentration))?;
     writeln!(out, "{:<28} {}", "Cells", cell_line(sc))?;
     // the headline figures as the stack panel shows them (report::stack::STACK_METRICS)
@@ -148,7 +147,8 @@ fn write_stack_table(out: Out, r: &StackReport, source: &str, sc: &CellScenario)
 pub fn stack(args: &[String], out: Out) -> Result<(), Failure> {
     let spec = Spec { command: "stack", valued: STACK_VALUED, flags: &["json", "link"], max_positional: 0 };
     let p = spec.parse(args)?;
-    let st = StackScenario { gaps_ev: gap_list(&p, "stack")?, connection: connection(&p)?, ..Default::default() };
+    let st =
+        StackScenario { gaps_ev: gap_list(&p, "stack")?, connection: connection(&p)?.into(), ..Default::default() };
     let mut sc = CellScenario {
         gap_ev: st.gaps_ev.first().copied().unwrap_or(1.34).clamp(GAP_RANGE_EV.0, GAP_RANGE_EV.1),
         ..Default::default()

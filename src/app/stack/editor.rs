@@ -10,9 +10,9 @@ use super::{colours, edit_stack, set_gaps, StackCtx, GAP_HOOKS};
 use crate::app::controls::{gap_keys, number_field, parse_gap, Field};
 use crate::app::fmt;
 use crate::app::state::tidy;
-use crate::physics::junction::{Emission, JvModel};
-use crate::physics::stack::{Connection, MAX_JUNCTIONS};
+use crate::physics::stack::MAX_JUNCTIONS;
 use crate::report::stack::{StackReport, STACK_METRICS};
+use crate::scenario::{Connection, Emission, JvModel};
 use crate::scenario::{Panel, GAP_RANGE_EV};
 
 /// Labels of the gap fields, top first.

@@ -18,9 +18,9 @@ use crate::app::controls::{gap_keys, number_field, parse_gap, thousands, Field};
 use crate::app::engine::same_but_gap;
 use crate::app::fmt::{self, fixed, gap_ev};
 use crate::app::state::{mark, sentence, tidy, Ctx};
-use crate::physics::stack::optimize::FixAt;
-use crate::physics::stack::Connection;
 use crate::scenario::stack::{check_gaps, OptimizeSettings};
+use crate::scenario::Connection;
+use crate::scenario::FixAt;
 use crate::scenario::{CellScenario, Scenario};
 
 /// Where the search stands.
