@@ -1,8 +1,6 @@
 //! Share links and scenario files: random round trips and hostile inputs.
 
 use glowgap::codec::*;
-use glowgap::physics::junction::{Emission, JvModel};
-use glowgap::physics::spectrum::{Axis, Quantity};
 use glowgap::scenario::*;
 use proptest::prelude::*;
 

@@ -639,7 +639,7 @@ fn stack_scenarios_round_trip_and_old_links_still_load() {
     let mut s = Scenario {
         stack: StackScenario {
             gaps_ev: vec![1.9, 1.37, 0.93],
-            connection: Connection::Independent,
+            connection: glowgap::scenario::Connection::Independent,
             ..Default::default()
         },
         ..Default::default()

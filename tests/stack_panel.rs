@@ -180,8 +180,12 @@ fn refine_refuses_what_it_cannot_use() {
 
 #[test]
 fn search_settings_are_checked_once_and_say_how_to_fix_them() {
-    let two =
-        |fix_ev: Option<f64>, fix_at: FixAt| OptimizeSettings { junctions: 2, fix_ev, fix_at, ..Default::default() };
+    let two = |fix_ev: Option<f64>, fix_at: FixAt| OptimizeSettings {
+        junctions: 2,
+        fix_ev,
+        fix_at: fix_at.into(),
+        ..Default::default()
+    };
     // off, or a usable fixed gap: the fixed gap in J, where it was asked
     assert_eq!(two(None, FixAt::Bottom).check().unwrap(), None);
     assert_eq!(two(Some(1.12), FixAt::Bottom).check().unwrap(), Some(FixedGap { gap_j: ev(1.12), at: FixAt::Bottom }));
@@ -213,11 +217,11 @@ fn the_fixed_gap_and_the_urbach_tail_go_through_the_link() {
     use glowgap::scenario::Scenario;
     let mut s = Scenario::default();
     s.stack.optimize.fix_ev = Some(1.12);
-    s.stack.optimize.fix_at = FixAt::Bottom;
+    s.stack.optimize.fix_at = glowgap::scenario::FixAt::Bottom;
     s.stack.absorber = AbsorberSpec::Urbach { urbach_mev: 15.0 };
     let back = decode_link(&encode_fragment(&s)).unwrap();
     assert_eq!(back, s);
-    assert_eq!(back.stack.optimize.fix_at, FixAt::Bottom);
+    assert_eq!(back.stack.optimize.fix_at, glowgap::scenario::FixAt::Bottom);
     // the Urbach energy's range and its message come from the scenario
     let e = AbsorberSpec::Urbach { urbach_mev: 500.0 }.to_physics(1.34, 300.0, &mut Vec::new()).unwrap_err();
     assert!(e.contains("meV") && e.contains("give a value from"), "{e}");

@@ -65,7 +65,7 @@ pub fn use_spectrum_text(ctx: Ctx, file_name: &str, text: &str) {
     let name = stem(file_name);
     match parse_spectrum_csv(text, &ColumnHints::default(), &name) {
         Ok(sp) => {
-            let table = TableSpec { name: name.clone(), axis: sp.axis(), quantity: sp.quantity(), x: sp.coordinates().to_vec(), y: sp.values().to_vec() };
+            let table = TableSpec { name: name.clone(), axis: sp.axis().into(), quantity: sp.quantity().into(), x: sp.coordinates().to_vec(), y: sp.values().to_vec() };
             let spec = SourceSpec::Table(table.clone());
             if ctx.edit("spectrum", move |s| s.cell.spectrum = spec) {
                 ctx.user_table.set(Some(table));

@@ -25,11 +25,9 @@
 use super::constants::{thermal_energy, CHARGE, PHOTON_FLUX_PREFACTOR};
 use super::sources::Source;
 use super::special::{lambert_w_of_exp, lambert_w_of_exp_rough, scaled_bose2};
-use serde::{Deserialize, Serialize};
 
 /// Which faces of the cell emit.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize, Default)]
-#[serde(rename_all = "kebab-case")]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub enum Emission {
     /// The front face only (a perfect mirror behind the cell). Default.
     #[default]
@@ -48,8 +46,7 @@ impl Emission {
 }
 
 /// How the J-V curve is computed.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize, Default)]
-#[serde(rename_all = "kebab-case")]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub enum JvModel {
     /// The generalized Planck law with chemical potential qV. Default.
     #[default]
@@ -79,7 +76,7 @@ impl Cell {
 }
 
 /// The figures of merit of one cell under one illumination. SI units.
-#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct CellResult {
     /// band gap [J]
     pub gap_j: f64,

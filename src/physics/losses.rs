@@ -32,10 +32,9 @@
 use super::constants::{thermal_energy, CHARGE, SUN_DILUTION, SUN_EFFECTIVE_TEMPERATURE};
 use super::junction::{solve_cell, sweep, Cell, CellResult, Illumination};
 use super::sources::Source;
-use serde::Serialize;
 
 /// The loss parts of one cell [W m^-2]; they add up to `input`.
-#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct LossBreakdown {
     /// band gap [J]
     pub gap_j: f64,

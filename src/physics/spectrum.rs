@@ -13,11 +13,9 @@
 //! y_E = y_lambda * lambda^2 / (hc); per wavelength to per wavenumber, y = y_lambda * lambda^2.
 
 use super::constants::HC;
-use serde::{Deserialize, Serialize};
 
 /// The independent variable of a table, stored in SI.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "kebab-case")]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Axis {
     /// wavelength [m]
     Wavelength,
@@ -62,8 +60,7 @@ impl Axis {
 }
 
 /// What a table's values measure, per unit of its axis.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "kebab-case")]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Quantity {
     /// spectral irradiance [W m^-2 per axis unit]
     Irradiance,

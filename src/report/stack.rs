@@ -8,7 +8,8 @@ use crate::physics::constants::to_ev;
 use crate::physics::losses::LossBreakdown;
 use crate::physics::mismatch::Mismatch;
 use crate::physics::stack::optimize::Optimum;
-use crate::physics::stack::{Connection, StackResult};
+use crate::physics::stack::StackResult;
+use crate::scenario::Connection;
 use serde::Serialize;
 
 /// One subcell.
@@ -51,7 +52,7 @@ impl From<&StackResult> for StackReport {
     fn from(r: &StackResult) -> Self {
         let ma = |a: f64| a / A_PER_M2_PER_MA_PER_CM2;
         StackReport {
-            connection: r.connection,
+            connection: r.connection.into(),
             efficiency: r.efficiency,
             voc_v: r.voc,
             jsc_ma_cm2: ma(r.jsc),
@@ -140,10 +141,17 @@ pub struct OptimumReport {
 }
 
 impl OptimumReport {
-    pub fn new(o: &Optimum, connection: Connection, fixed_ev: Option<f64>, stack: &StackResult) -> OptimumReport {
+    /// The report of optimum `o` for stacks wired as `connection` (the scenario's or the
+    /// physics value), holding `fixed_ev` [eV] fixed, with `stack` the full stack there.
+    pub fn new(
+        o: &Optimum,
+        connection: impl Into<Connection>,
+        fixed_ev: Option<f64>,
+        stack: &StackResult,
+    ) -> OptimumReport {
         OptimumReport {
             junctions: o.gaps_j.len(),
-            connection,
+            connection: connection.into(),
             gaps_ev: o.gaps_j.iter().map(|&g| to_ev(g)).collect(),
             efficiency: o.efficiency,
             evaluations: o.evaluations,

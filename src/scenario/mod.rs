@@ -5,13 +5,16 @@
 //! which also checks every value and says what to do about a bad one.
 
 use crate::physics::constants::{ev, MAX_CONCENTRATION};
-use crate::physics::junction::{Cell, Emission, Illumination, JvModel};
+use crate::physics::junction::{Cell, Illumination};
 use crate::physics::sources::Source;
-use crate::physics::spectrum::{Axis, Quantity, Spectrum};
+use crate::physics::spectrum::Spectrum;
 use serde::{Deserialize, Serialize};
 
+mod choices;
 pub mod radiator;
 pub mod stack;
+
+pub use choices::{Axis, Connection, Emission, FixAt, JvModel, Quantity};
 
 /// Where the light comes from.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -105,8 +108,8 @@ impl SourceSpec {
                 let s = Spectrum::new(
                     t.name.clone(),
                     format!("user table '{}'", t.name),
-                    t.axis,
-                    t.quantity,
+                    t.axis.into(),
+                    t.quantity.into(),
                     t.x.clone(),
                     t.y.clone(),
                 )
@@ -191,8 +194,8 @@ impl CellScenario {
                 gap_j: ev(self.gap_ev),
                 temp_k: self.cell_temp_k,
                 ere: self.ere,
-                emission: self.emission,
-                model: self.approx,
+                emission: self.emission.into(),
+                model: self.approx.into(),
             },
             warnings,
         })

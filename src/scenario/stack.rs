@@ -8,13 +8,12 @@
 //! fractions); [`StackScenario::to_physics`] and its siblings check every value once and say
 //! what is accepted.
 
-use super::{CellScenario, CellSetup, SourceSpec, GAP_RANGE_EV};
+use super::{Axis, CellScenario, CellSetup, Connection, FixAt, SourceSpec, GAP_RANGE_EV};
 use crate::physics::absorber::{Absorptance, AbsorptanceTable};
 use crate::physics::constants::{ev, thermal_energy};
 use crate::physics::junction::{Cell, Illumination};
-use crate::physics::spectrum::Axis;
-use crate::physics::stack::optimize::{FixAt, FixedGap, Problem, SEARCH_RANGE_EV};
-use crate::physics::stack::{Connection, MAX_JUNCTIONS};
+use crate::physics::stack::optimize::{FixedGap, Problem, SEARCH_RANGE_EV};
+use crate::physics::stack::{Connection as PhysicsConnection, MAX_JUNCTIONS};
 use serde::{Deserialize, Serialize};
 use std::sync::Arc;
 
@@ -110,12 +109,17 @@ pub struct EqeTableSpec {
 impl EqeTableSpec {
     /// The table as stored in a scenario.
     pub fn from_table(t: &AbsorptanceTable) -> EqeTableSpec {
-        EqeTableSpec { name: t.name.clone(), axis: t.axis(), x: t.coordinates().to_vec(), eqe: t.values().to_vec() }
+        EqeTableSpec {
+            name: t.name.clone(),
+            axis: t.axis().into(),
+            x: t.coordinates().to_vec(),
+            eqe: t.values().to_vec(),
+        }
     }
 
     /// Check and build the physics table.
     pub fn to_table(&self) -> Result<Arc<AbsorptanceTable>, String> {
-        AbsorptanceTable::new(self.name.clone(), self.axis, self.x.clone(), self.eqe.clone())
+        AbsorptanceTable::new(self.name.clone(), self.axis.into(), self.x.clone(), self.eqe.clone())
             .map(Arc::new)
             .map_err(|e| format!("the quantum efficiency '{}' is not usable: {e}", self.name))
     }
@@ -191,7 +195,7 @@ pub struct StackSetup {
     pub cell: Cell,
     /// [J], top first
     pub gaps_j: Vec<f64>,
-    pub connection: Connection,
+    pub connection: PhysicsConnection,
     pub warnings: Vec<String>,
 }
 
@@ -235,24 +239,24 @@ impl StackScenario {
     pub fn to_physics(&self, cell: &CellScenario) -> Result<StackSetup, String> {
         let gaps_j = check_gaps(&self.gaps_ev)?;
         let CellSetup { light, cell, warnings } = cell.to_physics()?;
-        Ok(StackSetup { light, cell, gaps_j, connection: self.connection, warnings })
+        Ok(StackSetup { light, cell, gaps_j, connection: self.connection.into(), warnings })
     }
 }
 
 impl OptimizeSettings {
     /// Check the settings and build the optimizer's problem under `light`, subcells like
-    /// `cell` (its gap unused).
+    /// `cell` (its gap unused), wired as `connection` (the scenario's or the physics value).
     pub fn to_problem<'a>(
         &self,
         light: &'a Illumination,
         cell: &Cell,
-        connection: Connection,
+        connection: impl Into<PhysicsConnection>,
     ) -> Result<Problem<'a>, String> {
         let fixed = self.check()?;
         Ok(Problem {
             light,
             cell: *cell,
-            connection,
+            connection: connection.into(),
             junctions: self.junctions,
             fixed,
             range_j: (ev(self.from_ev), ev(self.to_ev)),
@@ -303,7 +307,7 @@ impl OptimizeSettings {
                         if self.fix_at == FixAt::Top { "top" } else { "bottom" }
                     ));
                 }
-                Some(FixedGap { gap_j: ev(f), at: self.fix_at })
+                Some(FixedGap { gap_j: ev(f), at: self.fix_at.into() })
             }
         };
         Ok(fixed)

@@ -14,7 +14,7 @@ use leptos::prelude::*;
 use crate::app::state::Ctx;
 use crate::app::widgets::fields::{drop_zone, gap_keys, number_field, plain_parse, Field};
 use crate::physics::constants::MAX_CONCENTRATION;
-use crate::physics::junction::{Emission, JvModel};
+use crate::scenario::{Emission, JvModel};
 use crate::scenario::{Scenario, SourceSpec, CELL_TEMP_RANGE_K};
 use crate::view::format as fmt;
 use crate::view::input::{ev_of_nm, parse_gap, parse_number, thousands, tidy};

@@ -8,9 +8,9 @@ use leptos::prelude::*;
 
 use super::{colours, edit_stack, set_gaps, StackCtx, GAP_HOOKS};
 use crate::app::widgets::fields::{gap_keys, number_field, Field};
-use crate::physics::junction::{Emission, JvModel};
-use crate::physics::stack::{Connection, MAX_JUNCTIONS};
+use crate::physics::stack::MAX_JUNCTIONS;
 use crate::report::stack::{StackReport, STACK_METRICS};
+use crate::scenario::{Connection, Emission, JvModel};
 use crate::scenario::{Panel, GAP_RANGE_EV};
 use crate::view::format as fmt;
 use crate::view::input::parse_gap;

@@ -50,7 +50,9 @@ struct MapKey {
 
 impl MapKey {
     fn matches(&self, s: &Scenario) -> bool {
-        same_but_gap(&self.cell, &s.cell) && self.connection == s.stack.connection && self.settings == s.stack.map
+        same_but_gap(&self.cell, &s.cell)
+            && self.connection == s.stack.connection.to_physics()
+            && self.settings == s.stack.map
     }
 }
 
@@ -132,7 +134,11 @@ fn begin(sc: StackCtx, s: &Scenario) {
         let n = tops_j.len() * bottoms_j.len();
         m.job = Some(Job {
             id,
-            key: MapKey { cell: s.cell.clone(), connection: s.stack.connection, settings: s.stack.map.clone() },
+            key: MapKey {
+                cell: s.cell.clone(),
+                connection: s.stack.connection.to_physics(),
+                settings: s.stack.map.clone(),
+            },
             setup,
             tops_j,
             bottoms_j,

@@ -7,11 +7,12 @@ use crate::cli::args::{OptionDoc, Spec};
 use crate::cli::shared::options::{apply_common, connection, with_light_and_cell_options};
 use crate::cli::shared::output::{connection_words, print_json, warn, write_stack_table};
 use crate::cli::shared::{Command, Failure, Out};
-use crate::physics::stack::optimize::{optimize as run_optimizer, FixAt};
-use crate::physics::stack::{solve_stack, Connection, StackResult};
+use crate::physics::stack::optimize::optimize as run_optimizer;
+use crate::physics::stack::{solve_stack, StackResult};
 use crate::report::stack::OptimumReport;
 use crate::scenario::stack::OptimizeSettings;
 use crate::scenario::CellScenario;
+use crate::scenario::{Connection, FixAt};
 
 pub const COMMAND: Command = Command {
     spec: Spec {
@@ -79,7 +80,7 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     let problem = settings.to_problem(&setup.light, &setup.cell, conn)?;
     let best = run_optimizer(&problem);
     let stack_r = if best.gaps_j.len() >= 2 {
-        solve_stack(&setup.light, &setup.cell, &best.gaps_j, conn)
+        solve_stack(&setup.light, &setup.cell, &best.gaps_j, conn.into())
     } else {
         one_cell_stack(&setup, &best.gaps_j, conn)
     };
@@ -112,9 +113,9 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
 /// A one-junction "stack" (the single-junction optimum) in the stack result shape.
 fn one_cell_stack(setup: &crate::scenario::CellSetup, gaps_j: &[f64], connection: Connection) -> StackResult {
     let Some(&g) = gaps_j.first() else {
-        return StackResult { connection, input: setup.light.input_power(), ..Default::default() };
+        return StackResult { connection: connection.into(), input: setup.light.input_power(), ..Default::default() };
     };
-    let mut r = solve_stack(&setup.light, &setup.cell, &[g], Connection::Independent);
-    r.connection = connection;
+    let mut r = solve_stack(&setup.light, &setup.cell, &[g], Connection::Independent.into());
+    r.connection = connection.into();
     r
 }

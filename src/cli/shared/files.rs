@@ -142,8 +142,8 @@ pub fn read_spectrum_as(path: &str, p: &Parsed, file: FileOptions) -> Result<Sou
     let s = parse_spectrum_csv(&text, &hints, &name).map_err(|e| file_error("spectrum file", path, &e, file))?;
     Ok(SourceSpec::Table(TableSpec {
         name,
-        axis: s.axis(),
-        quantity: s.quantity(),
+        axis: s.axis().into(),
+        quantity: s.quantity().into(),
         x: s.coordinates().to_vec(),
         y: s.values().to_vec(),
     }))

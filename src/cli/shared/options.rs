@@ -6,9 +6,8 @@
 
 use super::files::read_spectrum_file;
 use crate::cli::args::{OptionDoc, Parsed};
-use crate::physics::junction::{Emission, JvModel};
-use crate::physics::stack::Connection;
 use crate::scenario::{CellScenario, SourceSpec};
+use crate::scenario::{Connection, Emission, JvModel};
 
 /// The valued options of a command followed by the light-source and cell options that
 /// [`apply_common`] reads, so that every command accepts exactly the options it applies.

@@ -8,15 +8,15 @@
 
 use super::{Failure, Out};
 use crate::physics::absorber::{ere_from_voc, solve_absorber};
-use crate::physics::junction::{solve_cell, Emission, JvModel};
+use crate::physics::junction::solve_cell;
 use crate::physics::radiator::evaluate;
-use crate::physics::stack::Connection;
 use crate::report::radiator::RadiatorReport;
 use crate::report::stack::{AbsorberReport, StackReport};
 use crate::report::CellReport;
 use crate::scenario::radiator::{AngularSpec, RadiatorScenario};
 use crate::scenario::stack::AbsorberSpec;
 use crate::scenario::{CellScenario, Scenario};
+use crate::scenario::{Connection, Emission, JvModel};
 
 /// Warnings on stderr, one line each.
 pub fn warn(warnings: &[String]) {

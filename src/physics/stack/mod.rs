@@ -29,14 +29,12 @@ pub mod optimize;
 pub mod series;
 
 use super::junction::{Cell, Diode, Illumination, ThermalPrefactor};
-use serde::{Deserialize, Serialize};
 
 /// The most junctions a stack may have.
 pub const MAX_JUNCTIONS: usize = 6;
 
 /// How the subcells are wired.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize, Default)]
-#[serde(rename_all = "kebab-case")]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub enum Connection {
     /// Two-terminal: one current through every subcell. Default.
     #[default]
@@ -55,7 +53,7 @@ impl Connection {
 }
 
 /// One subcell's figures. SI units.
-#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct SubcellResult {
     /// band gap [J]
     pub gap_j: f64,
@@ -77,7 +75,7 @@ pub struct SubcellResult {
 }
 
 /// The figures of a stack. SI units.
-#[derive(Debug, Clone, PartialEq, Default, Serialize)]
+#[derive(Debug, Clone, PartialEq, Default)]
 pub struct StackResult {
     pub connection: Connection,
     /// subcells, top first

@@ -18,11 +18,9 @@
 use super::{stack_efficiency, Connection, MAX_JUNCTIONS};
 use crate::physics::constants::CHARGE;
 use crate::physics::junction::{Cell, Illumination};
-use serde::{Deserialize, Serialize};
 
 /// Where a fixed gap must sit in the stack.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize, Default)]
-#[serde(rename_all = "kebab-case")]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub enum FixAt {
     /// anywhere: the other gaps may lie above or below it. Default.
     #[default]

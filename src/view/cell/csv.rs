@@ -9,8 +9,8 @@ use std::fmt::Write;
 
 use super::CellView;
 use crate::physics::constants::{to_ev, HC};
-use crate::physics::junction::{Emission, JvModel};
 use crate::report::CellReport;
+use crate::scenario::{Emission, JvModel};
 use crate::scenario::{PlotAxis, PlotQuantity, Scenario, SourceSpec};
 use crate::view::format::{csv_num, field, fixed, gap_ev};
 use crate::view::spectrum::{spectrum_view, SpectrumDetail};

@@ -111,7 +111,7 @@ fn spectrum_of(setup: &CellSetup, s: &Scenario) -> Arc<SpectrumView> {
 pub fn stack_view(s: &Scenario) -> Result<StackView, String> {
     let gaps_j = check_gaps(&s.stack.gaps_ev)?;
     let setup = setup_of(&s.cell)?;
-    let result = solve_stack(&setup.light, &setup.cell, &gaps_j, s.stack.connection);
+    let result = solve_stack(&setup.light, &setup.cell, &gaps_j, s.stack.connection.to_physics());
     let mut report = StackReport::from(&result);
     // show the gaps as typed (eV to J and back may change the last digit)
     for (i, sub) in report.subcells.iter_mut().enumerate() {
