@@ -68,6 +68,7 @@ pub fn source_temperature(source: &Source) -> f64 {
 }
 
 /// The breakdown for a solved cell `r` (from `solve_cell` for `cell` under `light`).
+#[allow(clippy::neg_cmp_op_on_partial_ord, clippy::nonminimal_bool)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
 pub fn breakdown_of(light: &Illumination, cell: &Cell, r: &CellResult) -> LossBreakdown {
     let input = light.input_power();
     let ts = source_temperature(&light.source);

@@ -17,10 +17,11 @@ pub mod stack;
 pub use choices::{Axis, Connection, Emission, FixAt, JvModel, Quantity};
 
 /// Where the light comes from.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, Default)]
 #[serde(tag = "type", rename_all = "kebab-case")]
 pub enum SourceSpec {
-    /// ASTM G173-03 global tilt (AM1.5G).
+    /// ASTM G173-03 global tilt (AM1.5G), the default.
+    #[default]
     #[serde(rename = "am1.5g")]
     Am15g,
     /// ASTM G173-03 direct + circumsolar (AM1.5D).
@@ -45,12 +46,6 @@ pub struct TableSpec {
     pub quantity: Quantity,
     pub x: Vec<f64>,
     pub y: Vec<f64>,
-}
-
-impl Default for SourceSpec {
-    fn default() -> Self {
-        SourceSpec::Am15g
-    }
 }
 
 impl SourceSpec {
@@ -205,6 +200,7 @@ impl CellScenario {
 /// Concentration rules: at least 1; at most the etendue limit of the sun's disc (about
 /// 46,200) for sunlight; beyond it only a warning for a user spectrum, which need not be
 /// sunlight.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
 pub fn check_concentration(x: f64, source: &Source, warnings: &mut Vec<String>) -> Result<(), String> {
     if x.is_nan() || !(x >= 1.0) || x == f64::INFINITY {
         return Err(format!(

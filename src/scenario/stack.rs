@@ -201,6 +201,7 @@ pub struct StackSetup {
 
 /// Check a list of gaps [eV] given top first: 2 to 6 of them, each in the accepted range,
 /// strictly descending. Returns them in J.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
 pub fn check_gaps(gaps_ev: &[f64]) -> Result<Vec<f64>, String> {
     let example = "e.g. 1.8,1.1 (top cell first)";
     if gaps_ev.len() < 2 || gaps_ev.len() > MAX_JUNCTIONS {

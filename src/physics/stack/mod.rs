@@ -135,6 +135,7 @@ pub fn subcell_diodes(light: &Illumination, template: &Cell, gaps_j: &[f64]) -> 
 /// Solve a stack with band gaps `gaps_j` [J], top first (strictly descending), under
 /// `light`, every subcell like `template` (temperature, ERE, emission, J-V model).
 /// An invalid stack (see [`gaps_are_valid`]) or cell gives zero power, never NaN.
+#[allow(clippy::neg_cmp_op_on_partial_ord, clippy::nonminimal_bool)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
 pub fn solve_stack(light: &Illumination, template: &Cell, gaps_j: &[f64], connection: Connection) -> StackResult {
     let input = light.input_power();
     let empty = StackResult { connection, input, ..Default::default() };
@@ -186,6 +187,7 @@ pub fn solve_stack(light: &Illumination, template: &Cell, gaps_j: &[f64], connec
 }
 
 /// The efficiency alone (no per-subcell figures): what the optimizer and the map evaluate.
+#[allow(clippy::neg_cmp_op_on_partial_ord, clippy::nonminimal_bool)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
 pub fn stack_efficiency(light: &Illumination, template: &Cell, gaps_j: &[f64], connection: Connection) -> f64 {
     let input = light.input_power();
     if !gaps_are_valid(gaps_j)
