@@ -105,6 +105,11 @@ fn open_reads_links_fragments_urls_and_files_and_returns_warnings() {
     s.cell.concentration = 1e5;
     let (_, warnings) = codec::open(&codec::encode_fragment(&s)).unwrap();
     assert!(warnings.iter().any(|w| w.contains("exceeds the limit for the sun's disc")), "{warnings:?}");
+    // decode alone does not check: a front end may resolve file references first
+    let mut bad = Scenario::default();
+    bad.cell.gap_ev = 25.0;
+    assert_eq!(codec::decode(&codec::to_json(&bad)).unwrap(), bad);
+    assert!(codec::open(&codec::to_json(&bad)).is_err());
     // nothing, garbage
     assert!(codec::open("  ").unwrap_err().0.contains("nothing to open"));
     assert!(codec::open("#g1.@@@").unwrap_err().0.contains("garbled"));
