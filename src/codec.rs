@@ -4,7 +4,11 @@
 //!
 //! Decoding never trusts its input: the compressed size and the decoded size are capped,
 //! the version is checked before the body is read, and every failure says what was wrong
-//! with the link and what the user can do.
+//! with the link and what the user can do. [`open`] is the one way in for people's links and
+//! files: decode, then check the whole scenario.
+//!
+//! Architecture invariant: every front end opens links and files through [`open`], so a
+//! scenario that opens is one every panel can compute.
 
 use crate::scenario::Scenario;
 use serde::{Deserialize, Serialize};
@@ -135,6 +139,32 @@ pub fn decode_link(link: &str) -> Result<Scenario, LinkError> {
     let text = std::str::from_utf8(&json)
         .map_err(|_| LinkError("the link's data is not text; copy the whole link again".into()))?;
     from_json(text)
+}
+
+/// Open a scenario from what a person gives: a share link (a whole URL, or its fragment with
+/// or without the '#') or the text of a scenario file (JSON, a leading byte-order mark
+/// allowed). The scenario is decoded ([`decode`]) and then checked as a whole
+/// ([`Scenario::check`]), so what opens can be computed in every panel. Returns the scenario
+/// and the warnings worth showing; the error says what is wrong with the link or file, or
+/// which setting is out of range.
+pub fn open(text: &str) -> Result<(Scenario, Vec<String>), LinkError> {
+    let scenario = decode(text)?;
+    let warnings = scenario.check_with_warnings().map_err(LinkError)?;
+    Ok((scenario, warnings))
+}
+
+/// Decode a share link, a fragment or a scenario file's text, as [`open`] does, without
+/// checking the values: for a front end that must first replace `file:` references in a
+/// scenario file by the tables they name, then call [`Scenario::check_with_warnings`].
+pub fn decode(text: &str) -> Result<Scenario, LinkError> {
+    let t = text.trim_start_matches('\u{feff}').trim();
+    if t.is_empty() {
+        Err(LinkError("there is nothing to open; give a share link or a scenario file".into()))
+    } else if t.starts_with('{') {
+        from_json(t)
+    } else {
+        decode_link(t)
+    }
 }
 
 const B64: &[u8; 64] = b"ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789-_";

@@ -291,6 +291,17 @@ fn every_recorded_link_and_file_decodes_and_survives_re_encoding() {
 }
 
 #[test]
+fn every_recorded_scenario_passes_the_whole_check_and_opens() {
+    for case in all_cases() {
+        let link = read(&dir().join(format!("{}.link", case.name)));
+        let (s, _) = codec::open(&link).unwrap_or_else(|e| panic!("{}: {e}", case.name));
+        assert_eq!(s.check(), Ok(()), "{}", case.name);
+        let file = read(&dir().join(format!("{}.scenario.json", case.name)));
+        assert_eq!(codec::open(&file).unwrap().0, s, "{}", case.name);
+    }
+}
+
+#[test]
 fn the_built_scenarios_are_the_recorded_ones() {
     for (name, scenario) in page_scenarios() {
         let link = read(&dir().join(format!("{name}.link")));

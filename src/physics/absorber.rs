@@ -55,7 +55,7 @@ pub struct AbsorptanceTable {
 impl AbsorptanceTable {
     /// Check and build. `x` in SI (m, J or m^-1), strictly ascending and positive; `a` in
     /// [0, 1]; at least two points.
-    #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn new(name: impl Into<String>, axis: Axis, x: Vec<f64>, a: Vec<f64>) -> Result<AbsorptanceTable, String> {
         if x.len() != a.len() || x.len() < 2 {
             return Err(format!(
@@ -118,7 +118,7 @@ impl AbsorptanceTable {
     /// A band gap to show for the table [J]: the lowest photon energy at which the
     /// absorptance reaches half its maximum (linear interpolation between points). A
     /// reporting convention only; the physics uses the whole table.
-    #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn half_maximum_edge_j(&self) -> f64 {
         let e = self.energies_j();
         let a: Vec<f64> = e.iter().map(|&x| self.at_energy(x)).collect();
@@ -210,7 +210,7 @@ fn gauss_nodes(a: f64, b: f64) -> impl Iterator<Item = (f64, f64)> {
 }
 
 /// Split the ascending cut points into panels no wider than `max_width` in `width(a, b)`.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 fn panels(cuts: &[f64], max_width: f64, width: impl Fn(f64, f64) -> f64) -> Vec<(f64, f64)> {
     let mut out = Vec::new();
     for w in cuts.windows(2) {
@@ -244,7 +244,7 @@ fn cut_points(lo: f64, hi: f64, inner: impl IntoIterator<Item = f64>) -> Vec<f64
 /// integral_{lo}^{hi} w(E) Phi_src(E) dE at one sun [s^-1 m^-2], for a weight `w` that is
 /// smooth between the energies `breaks_j` and varies on the scale `scale_j` (panels are no
 /// wider than half of it; infinity for piecewise-linear weights). `hi` must be finite.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn weighted_photon_flux(
     source: &Source,
     lo_j: f64,
@@ -331,7 +331,7 @@ pub fn photocurrent(light: &Illumination, a: &Absorptance) -> f64 {
 /// `temp_k` the cell temperature [K], `emission` the emitting faces (g).
 #[allow(clippy::nonminimal_bool)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
 pub fn ln_dark_current(a: &Absorptance, temp_k: f64, emission: Emission) -> f64 {
-    if !a.is_valid() || !(temp_k > 0.0 && temp_k.is_finite()) {
+    if !(a.is_valid() && temp_k > 0.0 && temp_k.is_finite()) {
         return f64::NEG_INFINITY;
     }
     let kt = thermal_energy(temp_k);
@@ -408,7 +408,7 @@ fn ln_one_plus_exp(l: f64) -> f64 {
 /// Figures of an ideal diode J = Jsc - (J0/ERE)(e^(qV/kT) - 1) given ln J0: Voc from the
 /// closed form, the maximum power point from e^m (1 + m) = 1 + ERE Jsc/J0, i.e.
 /// 1 + m_mp = W(e^(1 + m_oc)) (Lambert W), J_mp = (Jsc + J0/ERE) m_mp / (1 + m_mp).
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 fn reciprocity_diode(jsc: f64, ln_j0: f64, kt: f64, ere: f64, gap_j: f64, input: f64) -> (CellResult, f64) {
     let empty = CellResult { gap_j, input, jsc: jsc.max(0.0), ..Default::default() };
     if !(jsc > 0.0) || ln_j0.is_nan() || !(ere > 0.0) {
@@ -446,7 +446,7 @@ fn reciprocity_diode(jsc: f64, ln_j0: f64, kt: f64, ere: f64, gap_j: f64, input:
 pub fn solve_reciprocity(light: &Illumination, a: &Absorptance, cell: &Cell) -> AbsorberResult {
     let input = light.input_power();
     let gap_j = if a.is_valid() { a.edge_j() } else { 0.0 };
-    if !a.is_valid() || !(cell.temp_k > 0.0 && cell.temp_k.is_finite()) || !(cell.ere > 0.0) {
+    if !(a.is_valid() && cell.temp_k > 0.0 && cell.temp_k.is_finite() && cell.ere > 0.0) {
         return AbsorberResult {
             cell: CellResult { gap_j, input, ..Default::default() },
             ln_j0: f64::NEG_INFINITY,
@@ -488,7 +488,7 @@ pub fn solve_absorber(light: &Illumination, a: &Absorptance, cell: &Cell) -> Abs
 /// mean the measured Voc exceeds the radiative limit. None if the inputs cannot give one.
 #[allow(clippy::nonminimal_bool)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
 pub fn ere_from_voc(jsc: f64, ln_j0: f64, temp_k: f64, voc: f64) -> Option<f64> {
-    if !(jsc > 0.0 && voc > 0.0 && temp_k > 0.0) || !ln_j0.is_finite() {
+    if !(jsc > 0.0 && voc > 0.0 && temp_k > 0.0 && ln_j0.is_finite()) {
         return None;
     }
     let m = voc * CHARGE / thermal_energy(temp_k);

@@ -202,7 +202,7 @@ impl Diode {
 
     /// Current density J(V) [A m^-2] at voltage `v` [V]. For V at or beyond the band gap
     /// (where the exact law has its pole) it returns -infinity, never NaN.
-    #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn current(&self, v: f64) -> f64 {
         let m = v * CHARGE / self.kt;
         if self.model == JvModel::Exact && !(m < self.x0) {
@@ -272,7 +272,7 @@ impl Diode {
     }
 
     /// Solve for the figures of merit. `input` [W m^-2] is the incident power.
-    #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn solve(&self, gap_j: f64, input: f64) -> CellResult {
         if !(self.jsc > 0.0) {
             return CellResult { gap_j, input, ..Default::default() };
@@ -363,7 +363,7 @@ impl Diode {
 
     /// J(m) = Jsc - (R(m) - R(0))/ERE [A m^-2] at reduced voltage m, with dJ/dm and d2J/dm2.
     /// At or beyond the gap of the exact model all three are -infinity, never NaN.
-    #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn current_at_reduced(&self, m: f64) -> (f64, f64, f64) {
         if self.model == JvModel::Exact && !(m < self.x0) {
             return (f64::NEG_INFINITY, f64::NEG_INFINITY, f64::NEG_INFINITY);
@@ -530,7 +530,7 @@ impl Illumination {
 }
 
 /// Solve one cell with a step absorptance.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn solve_cell(light: &Illumination, cell: &Cell) -> CellResult {
     if !(cell.gap_j > 0.0) || !(cell.temp_k > 0.0) || !(cell.ere > 0.0) || !cell.gap_j.is_finite() {
         return CellResult { gap_j: cell.gap_j, input: light.input_power(), ..Default::default() };
@@ -541,7 +541,7 @@ pub fn solve_cell(light: &Illumination, cell: &Cell) -> CellResult {
 }
 
 /// The cell's J-V curve from 0 to Voc, `points` samples: (V [V], J [A m^-2]).
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn jv_curve(light: &Illumination, cell: &Cell, points: usize) -> Vec<(f64, f64)> {
     let r = solve_cell(light, cell);
     if !(r.jsc > 0.0) {
@@ -551,7 +551,7 @@ pub fn jv_curve(light: &Illumination, cell: &Cell, points: usize) -> Vec<(f64, f
 }
 
 /// Solve the same cell at every band gap in `gaps_j` [J].
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn sweep(light: &Illumination, template: &Cell, gaps_j: &[f64]) -> Vec<CellResult> {
     let input = light.input_power();
     let valid = template.temp_k > 0.0 && template.ere > 0.0;

@@ -74,7 +74,7 @@ pub fn breakdown_of(light: &Illumination, cell: &Cell, r: &CellResult) -> LossBr
     let ts = source_temperature(&light.source);
     let etendue_ratio = cell.emission.faces() / (light.concentration * SUN_DILUTION);
     let mut out = LossBreakdown { gap_j: cell.gap_j, input, source_temp_k: ts, etendue_ratio, ..Default::default() };
-    if !(input > 0.0) || !(cell.gap_j > 0.0 && cell.gap_j.is_finite()) || !(cell.temp_k > 0.0) {
+    if !(input > 0.0 && cell.gap_j > 0.0 && cell.gap_j.is_finite() && cell.temp_k > 0.0) {
         out.below_gap = input.max(0.0);
         return out;
     }

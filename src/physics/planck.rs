@@ -16,7 +16,7 @@ use std::f64::consts::PI;
 /// prefactor * x^p / (e^x - 1) computed as exp(ln prefactor + p ln x - x - ln(1 - e^-x)) when
 /// the direct product could overflow or underflow; directly otherwise.
 #[inline]
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 fn bose_weighted(prefactor: f64, base: f64, power: i32, x: f64) -> f64 {
     if !(x > 0.0) || !(base > 0.0) || !(prefactor > 0.0) {
         return 0.0;
@@ -36,7 +36,7 @@ fn bose_weighted(prefactor: f64, base: f64, power: i32, x: f64) -> f64 {
 /// Spectral radiance per unit wavelength B_lambda [W m^-2 sr^-1 m^-1].
 /// `lambda_m`: wavelength [m]; `temp_k`: temperature [K].
 /// B_lambda = 2 h c^2 / lambda^5 / (exp(hc / (lambda k T)) - 1).
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn radiance_per_wavelength(lambda_m: f64, temp_k: f64) -> f64 {
     if !(lambda_m > 0.0) || !(temp_k > 0.0) {
         return 0.0;
@@ -49,7 +49,7 @@ pub fn radiance_per_wavelength(lambda_m: f64, temp_k: f64) -> f64 {
 /// Spectral radiance per unit frequency B_nu [W m^-2 sr^-1 Hz^-1].
 /// `nu_hz`: frequency [Hz]; `temp_k`: temperature [K].
 /// B_nu = 2 h nu^3 / c^2 / (exp(h nu / kT) - 1).
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn radiance_per_frequency(nu_hz: f64, temp_k: f64) -> f64 {
     if !(nu_hz > 0.0) || !(temp_k > 0.0) {
         return 0.0;
@@ -61,7 +61,7 @@ pub fn radiance_per_frequency(nu_hz: f64, temp_k: f64) -> f64 {
 /// Spectral radiance per unit wavenumber B_nutilde [W m^-2 sr^-1 (m^-1)^-1].
 /// `wavenumber_per_m`: wavenumber [m^-1] (1 cm^-1 = 100 m^-1); `temp_k` [K].
 /// B = 2 h c^2 nutilde^3 / (exp(h c nutilde / kT) - 1).
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn radiance_per_wavenumber(wavenumber_per_m: f64, temp_k: f64) -> f64 {
     if !(wavenumber_per_m > 0.0) || !(temp_k > 0.0) {
         return 0.0;
@@ -73,7 +73,7 @@ pub fn radiance_per_wavenumber(wavenumber_per_m: f64, temp_k: f64) -> f64 {
 /// Spectral radiance per unit photon energy B_E [W m^-2 sr^-1 J^-1].
 /// `energy_j`: photon energy [J]; `temp_k` [K].
 /// B_E = 2 E^3 / (h^3 c^2) / (exp(E / kT) - 1).
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn radiance_per_energy(energy_j: f64, temp_k: f64) -> f64 {
     if !(energy_j > 0.0) || !(temp_k > 0.0) {
         return 0.0;
@@ -84,7 +84,7 @@ pub fn radiance_per_energy(energy_j: f64, temp_k: f64) -> f64 {
 
 /// Spectral photon radiance per unit wavelength [photons s^-1 m^-2 sr^-1 m^-1]:
 /// B_lambda / (hc / lambda).
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn photon_radiance_per_wavelength(lambda_m: f64, temp_k: f64) -> f64 {
     if !(lambda_m > 0.0) || !(temp_k > 0.0) {
         return 0.0;
@@ -104,7 +104,7 @@ pub fn photon_radiance_per_energy(energy_j: f64, temp_k: f64) -> f64 {
 /// [photons s^-1 m^-2 sr^-1 J^-1]: 2 E^2 / (h^3 c^2) / (exp((E - mu)/kT) - 1).
 /// Defined for E > mu; returns +inf at or below E = mu (the law has a pole there), never NaN.
 /// Wurfel 1982, eq. 11.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn generalized_photon_radiance_per_energy(energy_j: f64, temp_k: f64, mu_j: f64) -> f64 {
     if !(energy_j > 0.0) || !(temp_k > 0.0) {
         return 0.0;
@@ -124,7 +124,7 @@ pub fn hemispherical_photon_flux_per_energy(energy_j: f64, temp_k: f64, mu_j: f6
 
 /// PHOTON_FLUX_PREFACTOR (kT)^p * band, in logarithms where the product would leave the f64
 /// range: tiny results go to 0, enormous ones saturate at f64::MAX instead of inf or NaN.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 fn scaled_by_power_of_kt(band: f64, kt: f64, p: i32) -> f64 {
     if !(band > 0.0) {
         return 0.0;
@@ -161,7 +161,7 @@ pub fn peak_wavelength(temp_k: f64) -> f64 {
 
 /// Total hemispherical emissive power of a black surface, sigma T^4 [W m^-2]
 /// (Stefan 1879, Boltzmann 1884). `temp_k` [K].
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn stefan_boltzmann(temp_k: f64) -> f64 {
     if !(temp_k > 0.0) {
         return 0.0;
@@ -173,7 +173,7 @@ pub fn stefan_boltzmann(temp_k: f64) -> f64 {
 /// Fraction of sigma T^4 emitted at wavelengths below lambda, F(0 -> lambda T)
 /// (dimensionless), as a function of the product `lambda_t_m_k` = lambda T [m K].
 /// F = (15 / pi^4) integral_{x}^{inf} x^3 / (e^x - 1) dx, x = hc / (lambda k T).
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn band_fraction_below(lambda_t_m_k: f64) -> f64 {
     if !(lambda_t_m_k > 0.0) {
         return 0.0;
@@ -188,7 +188,7 @@ pub fn band_fraction_below(lambda_t_m_k: f64) -> f64 {
 /// Hemispherical emissive power of a black surface at `temp_k` [K] between photon energies
 /// `e1_j` and `e2_j` [J] (either order; `f64::INFINITY` allowed) [W m^-2]:
 /// 2 pi (kT)^4 / (h^3 c^2) * integral_{x1}^{x2} x^3 / (e^x - 1) dx.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn band_power_energy(e1_j: f64, e2_j: f64, temp_k: f64) -> f64 {
     if !(temp_k > 0.0) {
         return 0.0;
@@ -201,7 +201,7 @@ pub fn band_power_energy(e1_j: f64, e2_j: f64, temp_k: f64) -> f64 {
 /// Hemispherical photon flux of a black surface at `temp_k` [K] between photon energies
 /// `e1_j` and `e2_j` [J] [photons s^-1 m^-2]:
 /// 2 pi (kT)^3 / (h^3 c^2) * integral_{x1}^{x2} x^2 / (e^x - 1) dx.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn band_photon_flux_energy(e1_j: f64, e2_j: f64, temp_k: f64) -> f64 {
     if !(temp_k > 0.0) {
         return 0.0;

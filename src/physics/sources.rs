@@ -142,7 +142,7 @@ impl Source {
     }
 
     /// Spectral irradiance per unit photon energy at `e_j` [W m^-2 J^-1], for plots.
-    #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn irradiance_per_energy(&self, e_j: f64) -> f64 {
         match self {
             Source::Table { spectrum, .. } => {

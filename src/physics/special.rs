@@ -19,7 +19,7 @@ use std::f64::consts::PI;
 pub const ZETA2: f64 = PI * PI / 6.0;
 pub const ZETA3: f64 = 1.202_056_903_159_594_3;
 pub const ZETA4: f64 = PI * PI * PI * PI / 90.0;
-pub const ZETA5: f64 = 1.036_927_755_143_37; // zeta(5) = 1.036 927 755 143 369 926..., to f64 precision
+pub const ZETA5: f64 = 1.036_927_755_143_37; // zeta(5) = 1.0369277551433699..., the nearest f64
 
 /// Bernoulli numbers B_0 .. B_30 (A&S table 23.2); odd ones past B_1 are zero.
 const BERNOULLI: [f64; 31] = [
@@ -408,7 +408,7 @@ pub fn lambert_w_of_exp(y: f64) -> f64 {
 
 /// W(e^y) to about 1e-7 relative for y > 2 (one Halley step from the asymptotic start), the
 /// full [`lambert_w_of_exp`] elsewhere. A starting point for iterations that refine further.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn lambert_w_of_exp_rough(y: f64) -> f64 {
     if !(y > 8.0) || !y.is_finite() {
         return lambert_w_of_exp(y);
@@ -436,7 +436,7 @@ const EULER_GAMMA: f64 = 0.577_215_664_901_532_9;
 ///   64, 490, 1986).
 ///
 /// Negative x and NaN give 1/2 (the x = 0 value); beyond x = 745 e^-x underflows to 0.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn exp_integral_3(x: f64) -> f64 {
     if !(x > 0.0) {
         return 0.5;

@@ -241,7 +241,7 @@ impl Spectrum {
     /// Photon flux above each energy in `energies` [J] [s^-1 m^-2]. For sorted energies
     /// (the usual sweep) the search walks the table once instead of bisecting per query;
     /// unsorted input falls back to bisection. Same values as [`Spectrum::photon_flux_above`].
-    #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn photon_flux_above_many(&self, energies: &[f64]) -> Vec<f64> {
         let total = self.total_photon_flux();
         let n = self.x.len();
@@ -306,7 +306,7 @@ impl Spectrum {
     }
 
     /// Integral of the piecewise-linear density from the first point to coordinate `u`.
-    #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     fn cumulative_at(&self, u: f64, density: &[f64], cum: &[f64]) -> f64 {
         let n = self.x.len();
         if !(u > self.x[0]) {
@@ -325,7 +325,7 @@ impl Spectrum {
 
     /// The density (in the native quantity) linearly interpolated at coordinate `u`; zero
     /// outside the table.
-    #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn value_at(&self, u: f64) -> f64 {
         let n = self.x.len();
         if !(u >= self.x[0]) || u > self.x[n - 1] {

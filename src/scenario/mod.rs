@@ -3,6 +3,11 @@
 //! address bar and local storage, and scenario files hold. Everything is in the units a
 //! practitioner types (eV, K, suns); conversion to SI happens in [`CellScenario::to_physics`],
 //! which also checks every value and says what to do about a bad one.
+//!
+//! Architecture invariant: every accepted range lives here, in the parts' `check` and
+//! `to_physics` functions and the per-field checks ([`check_gap_ev`], [`check_gap_range`],
+//! [`stack::check_gaps`]); [`Scenario::check`] checks every part at once. Front ends call
+//! these and never keep their own copy of a range.
 
 use crate::physics::constants::{ev, MAX_CONCENTRATION};
 use crate::physics::junction::{Cell, Illumination};
@@ -20,7 +25,7 @@ pub use choices::{Axis, Connection, Emission, FixAt, JvModel, Quantity};
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize, Default)]
 #[serde(tag = "type", rename_all = "kebab-case")]
 pub enum SourceSpec {
-    /// ASTM G173-03 global tilt (AM1.5G), the default.
+    /// ASTM G173-03 global tilt (AM1.5G). Default.
     #[default]
     #[serde(rename = "am1.5g")]
     Am15g,
@@ -169,10 +174,48 @@ fn check_range(what: &str, v: f64, lo: f64, hi: f64, unit: &str, hint: &str) -> 
     Ok(())
 }
 
+/// Check a band gap [eV] against [`GAP_RANGE_EV`]. The one gap check: the cell, the stack,
+/// the optimizer's fixed gap, the page's fast gap edits and the command line's gap options
+/// all use it.
+pub fn check_gap_ev(gap_ev: f64) -> Result<(), String> {
+    check_gap_setting("band gap", gap_ev, "e.g. 1.34")
+}
+
+/// Check the band gap [eV] of the setting `what` (e.g. "fixed gap") against
+/// [`GAP_RANGE_EV`]; `hint` is an example for the message.
+pub fn check_gap_setting(what: &str, gap_ev: f64, hint: &str) -> Result<(), String> {
+    let (lo, hi) = GAP_RANGE_EV;
+    if gap_ev.is_nan() {
+        return Err(format!("the {what} is not a number; give a band gap from {lo} to {hi} eV ({hint})"));
+    }
+    if !(lo..=hi).contains(&gap_ev) {
+        return Err(format!("the {what} {gap_ev} eV is out of range; give a band gap from {lo} to {hi} eV ({hint})"));
+    }
+    Ok(())
+}
+
+/// Check a range of band gaps `from_ev`-`to_ev` [eV] (the efficiency curve, the optimizer's
+/// search, a map axis): both finite, inside [`GAP_RANGE_EV`], the lower first. `what` names
+/// the setting, e.g. "search range".
+pub fn check_gap_range(what: &str, from_ev: f64, to_ev: f64) -> Result<(), String> {
+    let (lo, hi) = GAP_RANGE_EV;
+    if !(from_ev.is_finite() && to_ev.is_finite() && from_ev >= lo && to_ev <= hi && from_ev < to_ev) {
+        return Err(format!(
+            "the {what} {from_ev}-{to_ev} eV is not usable; give two band gaps from {lo} to {hi} eV, the lower first"
+        ));
+    }
+    Ok(())
+}
+
 impl CellScenario {
+    /// Check the band gap [eV] alone, for edits that change nothing else.
+    pub fn check_gap(gap_ev: f64) -> Result<(), String> {
+        check_gap_ev(gap_ev)
+    }
+
     /// Check every value and convert to SI physics inputs.
     pub fn to_physics(&self) -> Result<CellSetup, String> {
-        check_range("band gap", self.gap_ev, GAP_RANGE_EV.0, GAP_RANGE_EV.1, "eV", "e.g. 1.34")?;
+        check_gap_ev(self.gap_ev)?;
         check_range("cell temperature", self.cell_temp_k, CELL_TEMP_RANGE_K.0, CELL_TEMP_RANGE_K.1, "K", "e.g. 300")?;
         if self.ere.is_nan() || !(self.ere > 0.0 && self.ere <= 1.0) {
             return Err(format!(
@@ -200,7 +243,7 @@ impl CellScenario {
 /// Concentration rules: at least 1; at most the etendue limit of the sun's disc (about
 /// 46,200) for sunlight; beyond it only a warning for a user spectrum, which need not be
 /// sunlight.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn check_concentration(x: f64, source: &Source, warnings: &mut Vec<String>) -> Result<(), String> {
     if x.is_nan() || !(x >= 1.0) || x == f64::INFINITY {
         return Err(format!(
@@ -278,15 +321,9 @@ impl Default for ViewSettings {
 }
 
 impl ViewSettings {
+    /// Check the efficiency curve's band-gap range.
     pub fn check(&self) -> Result<(), String> {
-        let (a, b) = (self.curve_from_ev, self.curve_to_ev);
-        if !(a.is_finite() && b.is_finite() && a >= GAP_RANGE_EV.0 && b <= GAP_RANGE_EV.1 && a < b) {
-            return Err(format!(
-                "the efficiency-curve range {a}-{b} eV is not usable; give two band gaps from {} to {} eV, the lower first",
-                GAP_RANGE_EV.0, GAP_RANGE_EV.1
-            ));
-        }
-        Ok(())
+        check_gap_range("efficiency-curve range", self.curve_from_ev, self.curve_to_ev)
     }
 }
 
@@ -298,4 +335,25 @@ pub struct Scenario {
     pub view: ViewSettings,
     pub radiator: radiator::RadiatorScenario,
     pub stack: stack::StackScenario,
+}
+
+impl Scenario {
+    /// Check every part (view, cell, radiator, stack with its optimizer, map, absorber and
+    /// mismatch inputs), as computing each panel would, so that a link or file one panel
+    /// could not compute is refused as a whole. The message names the setting and says what
+    /// is accepted.
+    pub fn check(&self) -> Result<(), String> {
+        self.check_with_warnings().map(drop)
+    }
+
+    /// [`Scenario::check`], returning the warnings worth showing when every part is usable
+    /// (e.g. a concentration beyond the sun-disc limit for a user spectrum, a sky outside the
+    /// clear-sky model's calibration, an Urbach tail wider than kT).
+    pub fn check_with_warnings(&self) -> Result<Vec<String>, String> {
+        self.view.check()?;
+        let mut warnings = self.cell.to_physics()?.warnings;
+        warnings.extend(self.radiator.to_physics()?.warnings);
+        warnings.extend(self.stack.check(&self.cell)?);
+        Ok(warnings)
+    }
 }

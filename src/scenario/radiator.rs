@@ -223,7 +223,7 @@ fn check_wavelength(what: &str, v: f64) -> Result<(), String> {
 }
 
 /// Checks shared by measured tables: at least two points, finite, ascending, fractions.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 fn check_table(kind: &str, name: &str, wavelength_m: &[f64], values: &[f64]) -> Result<(), String> {
     if wavelength_m.len() != values.len() || wavelength_m.len() < 2 {
         return Err(format!("the {kind} table '{name}' needs at least two points, each with a wavelength and a value"));
@@ -332,7 +332,7 @@ impl EmitterSpec {
     }
 
     /// Check the values and build the physics profile.
-    #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn to_profile(&self) -> Result<Profile, String> {
         match self {
             EmitterSpec::Blackbody => Ok(Profile::blackbody()),
@@ -442,7 +442,7 @@ impl RadiatorScenario {
     }
 
     /// Check every value and convert to SI physics inputs.
-    #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn to_physics(&self) -> Result<RadiatorSetup, String> {
         let mut warnings = Vec::new();
         check_range("ambient temperature", self.ambient_k, AMBIENT_RANGE_K.0, AMBIENT_RANGE_K.1, "K", "e.g. 300")?;

@@ -8,7 +8,9 @@
 //! fractions); [`StackScenario::to_physics`] and its siblings check every value once and say
 //! what is accepted.
 
-use super::{Axis, CellScenario, CellSetup, Connection, FixAt, SourceSpec, GAP_RANGE_EV};
+use super::{
+    check_gap_ev, check_gap_range, check_gap_setting, Axis, CellScenario, CellSetup, Connection, FixAt, SourceSpec,
+};
 use crate::physics::absorber::{Absorptance, AbsorptanceTable};
 use crate::physics::constants::{ev, thermal_energy};
 use crate::physics::junction::{Cell, Illumination};
@@ -201,7 +203,7 @@ pub struct StackSetup {
 
 /// Check a list of gaps [eV] given top first: 2 to 6 of them, each in the accepted range,
 /// strictly descending. Returns them in J.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn check_gaps(gaps_ev: &[f64]) -> Result<Vec<f64>, String> {
     let example = "e.g. 1.8,1.1 (top cell first)";
     if gaps_ev.len() < 2 || gaps_ev.len() > MAX_JUNCTIONS {
@@ -211,14 +213,7 @@ pub fn check_gaps(gaps_ev: &[f64]) -> Result<Vec<f64>, String> {
         ));
     }
     for (i, g) in gaps_ev.iter().enumerate() {
-        if !(g.is_finite() && *g >= GAP_RANGE_EV.0 && *g <= GAP_RANGE_EV.1) {
-            return Err(format!(
-                "band gap {} ({g} eV) is out of range; each gap must be from {} to {} eV",
-                i + 1,
-                GAP_RANGE_EV.0,
-                GAP_RANGE_EV.1
-            ));
-        }
+        check_gap_ev(*g).map_err(|e| format!("subcell {}: {e}", i + 1))?;
     }
     for (i, w) in gaps_ev.windows(2).enumerate() {
         if !(w[0] > w[1]) {
@@ -236,6 +231,19 @@ pub fn check_gaps(gaps_ev: &[f64]) -> Result<Vec<f64>, String> {
 }
 
 impl StackScenario {
+    /// Check every setting of the stack panel under the cell panel's `cell`: the gaps, the
+    /// optimizer's settings, the map's axes, the single cell's absorptance and any mismatch
+    /// inputs. Returns the warnings worth showing.
+    pub fn check(&self, cell: &CellScenario) -> Result<Vec<String>, String> {
+        check_gaps(&self.gaps_ev)?;
+        self.optimize.check()?;
+        self.map.check()?;
+        let mut warnings = Vec::new();
+        self.absorber.to_physics(cell.gap_ev, cell.cell_temp_k, &mut warnings)?;
+        self.mismatch.check()?;
+        Ok(warnings)
+    }
+
     /// Check the stack and build its physics inputs under the cell panel's light and cell.
     pub fn to_physics(&self, cell: &CellScenario) -> Result<StackSetup, String> {
         let gaps_j = check_gaps(&self.gaps_ev)?;
@@ -275,21 +283,11 @@ impl OptimizeSettings {
             ));
         }
         let (a, b) = (self.from_ev, self.to_ev);
-        if !(a.is_finite() && b.is_finite() && a >= GAP_RANGE_EV.0 && b <= GAP_RANGE_EV.1 && a < b) {
-            return Err(format!(
-                "the search range {a}-{b} eV is not usable; give two band gaps from {} to {} eV, the lower first",
-                GAP_RANGE_EV.0, GAP_RANGE_EV.1
-            ));
-        }
+        check_gap_range("search range", a, b)?;
         let fixed = match self.fix_ev {
             None => None,
             Some(f) => {
-                if !(f.is_finite() && f >= GAP_RANGE_EV.0 && f <= GAP_RANGE_EV.1) {
-                    return Err(format!(
-                        "the fixed gap {f} eV is out of range; give a band gap from {} to {} eV (e.g. 1.12 for silicon)",
-                        GAP_RANGE_EV.0, GAP_RANGE_EV.1
-                    ));
-                }
+                check_gap_setting("fixed gap", f, "e.g. 1.12 for silicon")?;
                 if self.junctions < 2 {
                     return Err(
                         "a fixed gap needs at least 2 junctions (it is the partner search); give --junctions 2 or more"
@@ -316,25 +314,22 @@ impl OptimizeSettings {
 }
 
 impl MapSettings {
-    /// Check the axes; returns (top gaps, bottom gaps) [J].
-    pub fn grid(&self) -> Result<(Vec<f64>, Vec<f64>), String> {
+    /// Check the number of points and both axes.
+    pub fn check(&self) -> Result<(), String> {
         if !(2..=MAX_MAP_POINTS).contains(&self.points) {
             return Err(format!("the map needs 2 to {MAX_MAP_POINTS} points along each axis, {} given", self.points));
         }
-        let axis = |what: &str, a: f64, b: f64| -> Result<Vec<f64>, String> {
-            if !(a.is_finite() && b.is_finite() && a >= GAP_RANGE_EV.0 && b <= GAP_RANGE_EV.1 && a < b) {
-                return Err(format!(
-                    "the map's {what} range {a}-{b} eV is not usable; give two band gaps from {} to {} eV, the lower first",
-                    GAP_RANGE_EV.0, GAP_RANGE_EV.1
-                ));
-            }
-            let n = self.points;
-            Ok((0..n).map(|i| ev(a + (b - a) * i as f64 / (n - 1) as f64)).collect())
-        };
-        Ok((
-            axis("top-gap", self.top_from_ev, self.top_to_ev)?,
-            axis("bottom-gap", self.bottom_from_ev, self.bottom_to_ev)?,
-        ))
+        check_gap_range("map's top-gap range", self.top_from_ev, self.top_to_ev)?;
+        check_gap_range("map's bottom-gap range", self.bottom_from_ev, self.bottom_to_ev)
+    }
+
+    /// Check the axes; returns (top gaps, bottom gaps) [J].
+    pub fn grid(&self) -> Result<(Vec<f64>, Vec<f64>), String> {
+        self.check()?;
+        let n = self.points;
+        let axis =
+            |a: f64, b: f64| -> Vec<f64> { (0..n).map(|i| ev(a + (b - a) * i as f64 / (n - 1) as f64)).collect() };
+        Ok((axis(self.top_from_ev, self.top_to_ev), axis(self.bottom_from_ev, self.bottom_to_ev)))
     }
 }
 
@@ -348,6 +343,15 @@ pub struct MismatchSetup {
 }
 
 impl MismatchSettings {
+    /// Check the tables present and the reference spectrum (a missing table is not an error
+    /// here: the inputs may still be incomplete).
+    pub fn check(&self) -> Result<(), String> {
+        for t in [&self.test_eqe, &self.reference_eqe].into_iter().flatten() {
+            t.to_table()?;
+        }
+        self.reference_spectrum.to_source().map(drop)
+    }
+
     /// Check the inputs; `test_spectrum` is the cell panel's spectrum. `File` sources must
     /// have been read by the front end.
     pub fn to_physics(&self, test_spectrum: &SourceSpec) -> Result<MismatchSetup, String> {

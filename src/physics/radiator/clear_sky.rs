@@ -141,7 +141,7 @@ pub const BANDS: [AbsorberBand; 6] = [
 /// (Malkmus 1967): (beta/2) (sqrt(1 + 4x/beta) - 1), computed without cancellation as
 /// 2x / (1 + sqrt(1 + 4x/beta)).
 #[inline]
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn malkmus_optical_depth(x: f64, beta: f64) -> f64 {
     if !(x > 0.0) {
         return 0.0;
@@ -183,7 +183,7 @@ pub fn ground_vapour_pressure(pwv_m: f64, temp_k: f64) -> f64 {
 /// Zenith optical depth of the clear sky at wavelength `lambda_m` [m] for precipitable water
 /// `pwv_m` [m] (1 cm = 0.01 m) and ambient air temperature `ambient_k` [K]. Non-negative,
 /// finite for every finite input.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn zenith_optical_depth(lambda_m: f64, pwv_m: f64, ambient_k: f64) -> f64 {
     if !(lambda_m > 0.0) {
         return 0.0;

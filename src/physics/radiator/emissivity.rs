@@ -137,7 +137,7 @@ impl Profile {
 
 /// Linear interpolation of n points (x, y) at `x`, in ln x when `log_axis`; the end values
 /// beyond the ends; 0 for an empty table.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 fn interpolate(n: usize, point: impl Fn(usize) -> (f64, f64), x: f64, log_axis: bool) -> f64 {
     if n == 0 {
         return 0.0;

@@ -30,7 +30,7 @@ pub struct Transmittance {
 
 impl Transmittance {
     /// t at `lambda_m` [m]; 0 outside the table.
-    #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn at(&self, lambda_m: f64) -> f64 {
         let n = self.wavelength_m.len().min(self.transmittance.len());
         if n < 2 || !(lambda_m >= self.wavelength_m[0]) || lambda_m > self.wavelength_m[n - 1] {

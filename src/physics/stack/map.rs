@@ -71,7 +71,7 @@ fn columns(light: &Illumination, cell: &Cell, pre: &ThermalPrefactor, gaps_j: &[
 
 /// Efficiencies of every two-junction stack (top gap from `top_gaps_j`, bottom gap from
 /// `bottom_gaps_j`, both [J]) under `light`, with subcells like `template`.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn tandem_map(
     light: &Illumination,
     template: &Cell,

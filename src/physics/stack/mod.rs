@@ -139,7 +139,7 @@ pub fn subcell_diodes(light: &Illumination, template: &Cell, gaps_j: &[f64]) -> 
 pub fn solve_stack(light: &Illumination, template: &Cell, gaps_j: &[f64], connection: Connection) -> StackResult {
     let input = light.input_power();
     let empty = StackResult { connection, input, ..Default::default() };
-    if !gaps_are_valid(gaps_j) || !(template.temp_k > 0.0 && template.temp_k.is_finite()) || !(template.ere > 0.0) {
+    if !(gaps_are_valid(gaps_j) && template.temp_k > 0.0 && template.temp_k.is_finite() && template.ere > 0.0) {
         return empty;
     }
     let diodes = subcell_diodes(light, template, gaps_j);
@@ -190,10 +190,11 @@ pub fn solve_stack(light: &Illumination, template: &Cell, gaps_j: &[f64], connec
 #[allow(clippy::neg_cmp_op_on_partial_ord, clippy::nonminimal_bool)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
 pub fn stack_efficiency(light: &Illumination, template: &Cell, gaps_j: &[f64], connection: Connection) -> f64 {
     let input = light.input_power();
-    if !gaps_are_valid(gaps_j)
-        || !(input > 0.0)
-        || !(template.temp_k > 0.0 && template.temp_k.is_finite())
-        || !(template.ere > 0.0)
+    if !(gaps_are_valid(gaps_j)
+        && input > 0.0
+        && template.temp_k > 0.0
+        && template.temp_k.is_finite()
+        && template.ere > 0.0)
     {
         return 0.0;
     }

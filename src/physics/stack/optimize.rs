@@ -291,7 +291,7 @@ fn grid_2d(obj: &mut Objective, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
 /// the stack of top gap `tops_j[i]` and bottom gap `bottoms_j[k]` (both ascending, [J],
 /// `n` = `bottoms_j.len()`). Points whose bottom gap is not below the top gap, and values
 /// that are not finite, are no stacks. Each maximum is ([top, bottom], efficiency).
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn grid_maxima(tops_j: &[f64], bottoms_j: &[f64], eff: &[f64]) -> Vec<(Vec<f64>, f64)> {
     let (nt, nb) = (tops_j.len(), bottoms_j.len());
     if eff.len() != nt * nb {

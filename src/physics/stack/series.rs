@@ -58,7 +58,7 @@ pub fn max_power_near(diodes: &[Diode], hint: Option<SeriesHint>) -> (SeriesPoin
     solve(diodes, hint, false)
 }
 
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 fn solve(diodes: &[Diode], hint: Option<SeriesHint>, precise: bool) -> (SeriesPoint, Option<SeriesHint>) {
     let n = diodes.len();
     if n == 0 || n > MAX_JUNCTIONS {
