@@ -9,7 +9,7 @@ use std::sync::Arc;
 use leptos::prelude::*;
 
 use crate::app::widgets::plot::Frame;
-use crate::scenario::{Scenario, TableSpec, GAP_RANGE_EV};
+use crate::scenario::{Scenario, TableSpec};
 use crate::view::cell::CellView;
 
 /// A message across the top of the page.
@@ -57,9 +57,7 @@ pub struct Ctx {
 /// Check a whole scenario the way computing it would: every panel's part, so that a link
 /// or file that one panel could not compute is refused as a whole.
 pub fn validate(s: &Scenario) -> Result<(), String> {
-    s.view.check()?;
-    s.cell.to_physics()?;
-    s.radiator.to_physics().map(|_| ())
+    s.check()
 }
 
 /// A message for people: first letter upper case, ends with a full stop.
@@ -163,19 +161,16 @@ impl Ctx {
     /// changes, so only its range needs checking; the scenario is updated in place.
     pub fn set_gap(&self, hook: &'static str, gap_ev: f64) -> bool {
         mark("gg-edit");
-        let (lo, hi) = GAP_RANGE_EV;
-        if gap_ev.is_nan() || !(gap_ev >= lo && gap_ev <= hi) {
-            let mut msg = format!(
-                "The band gap {} eV is out of range; give a value from {lo} to {hi} eV (e.g. 1.34)",
-                crate::view::format::field(gap_ev, 6)
-            );
+        // the scenario's own range check; the page adds how to type a wavelength
+        if let Err(e) = crate::scenario::check_gap_ev(gap_ev) {
+            let mut msg = sentence(&e);
             if (100.0..=1e5).contains(&gap_ev) {
+                msg.pop();
                 msg.push_str(&format!(
-                    " — for a wavelength, type it with its unit, e.g. '{} nm'",
+                    " — for a wavelength, type it with its unit, e.g. '{} nm'.",
                     crate::view::format::field(gap_ev, 6)
                 ));
             }
-            msg.push('.');
             self.set_error(hook, msg);
             return false;
         }

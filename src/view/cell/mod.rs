@@ -12,9 +12,7 @@ use super::spectrum::{spectrum_view, SpectrumDetail, SpectrumView};
 use crate::physics::constants::ev;
 use crate::physics::junction::{best_gap, jv_curve, solve_cell, sweep, CellResult};
 use crate::report::CellReport;
-use crate::scenario::{
-    CellScenario, CellSetup, PlotAxis, PlotQuantity, Scenario, SourceSpec, ViewSettings, GAP_RANGE_EV,
-};
+use crate::scenario::{CellScenario, CellSetup, PlotAxis, PlotQuantity, Scenario, SourceSpec, ViewSettings};
 
 /// Most band gaps computed for the efficiency curve.
 pub const CURVE_MAX_POINTS: usize = 1001;
@@ -81,15 +79,10 @@ impl CellCache {
         s.view.check()?;
         let setup = match &self.setup {
             Some((k, setup)) if same_but_gap(k, &s.cell) => {
-                // only the gap changed: check it the way the scenario does
-                let (lo, hi) = GAP_RANGE_EV;
-                let g = s.cell.gap_ev;
-                if g.is_nan() || !(g >= lo && g <= hi) {
-                    // the full check gives the standard message
-                    s.cell.to_physics()?;
-                }
+                // only the gap changed: the scenario's own check of that one field
+                crate::scenario::check_gap_ev(s.cell.gap_ev)?;
                 let mut one = (**setup).clone();
-                one.cell.gap_j = ev(g);
+                one.cell.gap_j = ev(s.cell.gap_ev);
                 Arc::new(one)
             }
             _ => {
