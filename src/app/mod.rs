@@ -23,7 +23,6 @@ use leptos::html;
 use leptos::prelude::*;
 
 use crate::scenario::Panel;
-use crate::view::cell::CellCache;
 use state::Ctx;
 
 /// Start the app (called from `main` on wasm32).
@@ -158,10 +157,10 @@ fn App() -> impl IntoView {
         ctx.notify(n);
     }
     provide_context(ctx);
-    let rad = radiator::RadState::new(ctx);
+    let rad = radiator::RadiatorState::new(ctx);
     provide_context(rad);
     let persist = share::Persist::new(hold);
-    let engine = StoredValue::new_local(Rc::new(RefCell::new(CellCache::default())));
+    provide_context(cell::state::CellState::new(ctx));
     let panel = Memo::new(move |_| ctx.scenario.with(|s| s.view.panel));
 
     // the link and the saved state follow every change, whichever panel made it: after the
@@ -249,7 +248,7 @@ fn App() -> impl IntoView {
         Panel::Stack => "Detailed-balance limits of multi-junction stacks",
     };
     let body = move || match panel.get() {
-        Panel::Cell => cell::cell_panel(ctx, engine).into_any(),
+        Panel::Cell => view! { <cell::CellPanel /> }.into_any(),
         Panel::Radiator => view! { <radiator::RadiatorPanel /> }.into_any(),
         Panel::Stack => view! { <stack::StackPanel /> }.into_any(),
     };

@@ -4,13 +4,10 @@
 //! one in place and says, next to the control, what is wrong.
 
 use std::collections::BTreeMap;
-use std::sync::Arc;
 
 use leptos::prelude::*;
 
-use crate::app::widgets::plot::Frame;
 use crate::scenario::{Scenario, TableSpec};
-use crate::view::cell::CellView;
 
 /// A message across the top of the page.
 #[derive(Debug, Clone, PartialEq)]
@@ -34,9 +31,6 @@ pub enum NoticeAction {
 #[derive(Clone, Copy)]
 pub struct Ctx {
     pub scenario: RwSignal<Scenario>,
-    pub computed: RwSignal<Option<Arc<CellView>>>,
-    /// why the scenario cannot be computed (should not happen: edits are checked)
-    pub compute_error: RwSignal<Option<String>>,
     /// messages next to controls, by control hook
     pub errors: RwSignal<BTreeMap<&'static str, String>>,
     pub notices: RwSignal<Vec<Notice>>,
@@ -46,10 +40,6 @@ pub struct Ctx {
     pub bb_temp: RwSignal<f64>,
     /// bumped when the window size changes, to redraw the plots
     pub layout: RwSignal<u32>,
-    /// where each plot's axes landed, for the pointer
-    pub frames: RwSignal<[Frame; 3]>,
-    /// a problem drawing a plot, by plot index
-    pub plot_errors: RwSignal<[Option<String>; 3]>,
     /// a line of status beside the link and file buttons
     pub status: RwSignal<Option<String>>,
 }
@@ -85,15 +75,11 @@ impl Ctx {
         };
         Ctx {
             scenario: RwSignal::new(initial),
-            computed: RwSignal::new(None),
-            compute_error: RwSignal::new(None),
             errors: RwSignal::new(BTreeMap::new()),
             notices: RwSignal::new(Vec::new()),
             user_table: RwSignal::new(user_table),
             bb_temp: RwSignal::new(bb),
             layout: RwSignal::new(0),
-            frames: RwSignal::new([Frame::default(); 3]),
-            plot_errors: RwSignal::new([None, None, None]),
             status: RwSignal::new(None),
         }
     }

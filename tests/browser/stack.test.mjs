@@ -204,35 +204,6 @@ test('optimize runs in the background with progress, ends no worse than the desi
   await context.close();
 });
 
-test('an EQE file gives its Jsc and Voc limits next to the ideal step; a bad file is refused beside its button', async () => {
-  const { context, page } = await fresh();
-  await openStack(page);
-  const input = page.locator('[data-control="eqe-file"]');
-  await input.setInputFiles({ name: 'broken.csv', mimeType: 'text/csv', buffer: Buffer.from('wavelength_nm,eqe_percent\n400,50\n500,abc\n') });
-  const err = page.locator('[data-error="eqe-file"]');
-  await err.waitFor({ state: 'visible' });
-  assert.match(await err.innerText(), /line 3/i);
-
-  // a flat 90 % EQE from 300 to 800 nm, falling to 0 at 850 nm
-  const rows = ['wavelength_nm,eqe_percent'];
-  for (let nm = 300; nm <= 800; nm += 10) rows.push(`${nm},90`);
-  rows.push('825,45', '850,0');
-  await edit(page, () => input.setInputFiles({ name: 'flat.csv', mimeType: 'text/csv', buffer: Buffer.from(rows.join('\n') + '\n') }));
-  const cell = page.locator('[data-metric="eqe-jsc"]');
-  await cell.waitFor();
-  assert.equal(await err.isVisible(), false);
-  // glowgap eval LINK shows the cell with this absorptance: the same Jsc, Voc and efficiency
-  const cli = cliFigures(page.url());
-  assert.equal(await cell.innerText(), cli.jsc);
-  assert.equal(await page.locator('[data-metric="eqe-voc"]').innerText(), cli.voc);
-  assert.equal(await page.locator('[data-metric="eqe-efficiency"]').innerText(), cli.efficiency);
-  // 90 % of the light collected: less current than the ideal step at the same edge
-  assert.ok(parseFloat(await cell.innerText()) < parseFloat(await page.locator('[data-metric="eqe-jsc-step"]').innerText()));
-  await page.locator('[data-plot="eqe"]').waitFor({ state: 'visible' });
-  assert.deepEqual(page.errors, []);
-  await context.close();
-});
-
 /** The CSS-px position on the page of (bottom, top) gaps [eV] on the map. */
 async function mapPoint(page, bottom, top) {
   const map = page.locator('[data-plot="tandem-map"]');
@@ -308,70 +279,6 @@ test('holding one gap fixed: checked with a message that says how to fix it, kep
   await edit(page, () => choice.selectOption('off'));
   assert.equal(await field.isVisible(), false);
   assert.doesNotMatch(await page.locator('.search-section .hint').first().innerText(), /held at/);
-  assert.deepEqual(page.errors, []);
-  await context.close();
-});
-
-test('an Urbach tail: its Jsc and Voc limits next to the ideal step, checked range, carried by the link', async () => {
-  const { context, page } = await fresh();
-  await openStack(page);
-  await edit(page, () => page.locator('[data-control="absorber-urbach"]').check());
-  const field = page.locator('[data-control="urbach"]');
-  await field.waitFor({ state: 'visible' });
-  assert.equal(await field.inputValue(), '15');
-  const jsc = page.locator('[data-metric="eqe-jsc"]');
-  await jsc.waitFor();
-  assert.match(await page.locator('[data-info="eqe-name"]').innerText(), /Urbach tail of 15 meV below the 1\.340 eV gap/);
-  // glowgap eval LINK shows the cell with this absorptance: the same Jsc, Voc and efficiency
-  let cli = cliFigures(page.url());
-  assert.equal(await jsc.innerText(), cli.jsc);
-  assert.equal(await page.locator('[data-metric="eqe-voc"]').innerText(), cli.voc);
-  assert.equal(await page.locator('[data-metric="eqe-efficiency"]').innerText(), cli.efficiency);
-  // Urbach, Phys. Rev. 92, 1324 (1953): a(E) = exp((E - Eg)/Eu) below the gap, full above, so
-  // the tail absorbs everything the step does and more (Jsc above the step's); by reciprocity
-  // (Rau, Phys. Rev. B 76, 085303, 2007) it also emits more, so its radiative Voc is lower
-  const num = async (hook) => parseFloat(await page.locator(`[data-metric="${hook}"]`).innerText());
-  assert.ok((await num('eqe-jsc')) > (await num('eqe-jsc-step')), 'tail Jsc above the step');
-  assert.ok((await num('eqe-voc-rad')) < (await num('eqe-voc-rad-step')), 'tail Voc below the step');
-  const at15 = await jsc.innerText();
-
-  // bad input: the scenario's range and units, how to fix it; the tail in use stays
-  const err = page.locator('[data-error="urbach"]');
-  await field.fill('500');
-  await err.waitFor({ state: 'visible' });
-  assert.match(await err.innerText(), /Urbach energy 500 meV is out of range; give a value from 0\.1 to 200 meV.*Still using 15 meV/);
-  await field.fill('wide');
-  await page.waitForFunction(() => /not an Urbach energy/.test(document.querySelector('[data-error="urbach"]').textContent));
-  assert.equal(await jsc.innerText(), at15);
-
-  // a wider tail absorbs more still
-  await edit(page, () => field.fill('25'));
-  await page.waitForFunction((j) => document.querySelector('[data-metric="eqe-jsc"]').textContent !== j, at15);
-  assert.ok(parseFloat(await jsc.innerText()) > parseFloat(at15));
-  cli = cliFigures(page.url());
-  assert.equal(await jsc.innerText(), cli.jsc);
-  await page.locator('[data-plot="eqe"]').waitFor({ state: 'visible' });
-  await page.locator('.eqe-section').scrollIntoViewIfNeeded();
-  await page.locator('.eqe-section').screenshot({ path: artifact('stack-urbach.png') });
-
-  const link = page.url();
-  const figs = await stackFigures(page);
-  await reopened(link, figs, async (p) => {
-    assert.equal(await p.locator('[data-control="absorber-urbach"]').isChecked(), true);
-    assert.equal(await p.locator('[data-control="urbach"]').inputValue(), '25');
-    assert.equal(await p.locator('[data-metric="eqe-jsc"]').innerText(), cli.jsc);
-  });
-
-  // back to the ideal step: no comparison; the tail's width is offered again
-  await edit(page, () => page.locator('[data-control="absorber-step"]').check());
-  await page.waitForFunction(() => !document.querySelector('[data-metric="eqe-jsc"]'));
-  await edit(page, () => page.locator('[data-control="absorber-urbach"]').check());
-  assert.equal(await field.inputValue(), '25');
-  // a measured EQE needs a file first
-  await page.locator('[data-control="absorber-measured"]').click();
-  await page.locator('[data-error="absorber"]').waitFor({ state: 'visible' });
-  assert.match(await page.locator('[data-error="absorber"]').innerText(), /Load an EQE file first/);
-  assert.equal(await page.locator('[data-control="absorber-urbach"]').isChecked(), true);
   assert.deepEqual(page.errors, []);
   await context.close();
 });

@@ -8,6 +8,7 @@ use leptos::html;
 use leptos::prelude::*;
 
 use super::plots::{CellPlot, PlotKind};
+use super::state::CellState;
 use crate::app::state::Ctx;
 use crate::app::widgets::card::{plot_card as card, range_input, Card, Hover, PlotBehaviour};
 use crate::app::widgets::export::offer;
@@ -135,7 +136,8 @@ fn toggle<T: Copy + PartialEq + Send + Sync + 'static>(
     view! { <div class="seg" role="group" aria-label=label data-control=hook>{buttons}</div> }
 }
 
-fn header_tools(ctx: Ctx, kind: PlotKind) -> impl IntoView {
+fn header_tools(cs: CellState, kind: PlotKind) -> impl IntoView {
+    let ctx = cs.ctx;
     match kind {
         PlotKind::Spectrum => view! {
             <div class="plot-tools">
@@ -144,18 +146,19 @@ fn header_tools(ctx: Ctx, kind: PlotKind) -> impl IntoView {
             </div>
         }
         .into_any(),
-        PlotKind::Efficiency => range_tools(ctx).into_any(),
+        PlotKind::Efficiency => range_tools(cs).into_any(),
         PlotKind::Jv => ().into_any(),
     }
 }
 
-fn range_tools(ctx: Ctx) -> impl IntoView {
+fn range_tools(cs: CellState) -> impl IntoView {
+    let ctx = cs.ctx;
     let from = Memo::new(move |_| ctx.scenario.with(|s| s.view.curve_from_ev));
     let to = Memo::new(move |_| ctx.scenario.with(|s| s.view.curve_to_ev));
     let bad = |text: &str| {
         format!("'{text}' is not a band gap; type a number of eV, e.g. 0.5. The plotted range is unchanged.")
     };
-    let best = move || ctx.computed.with(|c| c.as_ref().and_then(|c| c.curve.best.map(|b| to_ev(b.gap_j))));
+    let best = move || cs.computed.with(|c| c.as_ref().and_then(|c| c.curve.best.map(|b| to_ev(b.gap_j))));
     view! {
         <div class="plot-tools">
             {range_input(ctx, "curve-from", "curve-range", "from", "eV", from, |s, v| s.view.curve_from_ev = v, bad)}
@@ -177,9 +180,9 @@ fn range_tools(ctx: Ctx) -> impl IntoView {
     }
 }
 
-fn legend(ctx: Ctx, kind: PlotKind) -> impl IntoView {
+fn legend(cs: CellState, kind: PlotKind) -> impl IntoView {
     move || {
-        ctx.computed.with(|c| {
+        cs.computed.with(|c| {
             let c = c.as_ref()?;
             Some(match kind {
                 PlotKind::Spectrum => view! {
@@ -214,22 +217,22 @@ fn legend(ctx: Ctx, kind: PlotKind) -> impl IntoView {
 
 /// What the cell's plots do with the pointer and keys: drag or step the band gap.
 struct CellCard {
-    ctx: Ctx,
+    cs: CellState,
     kind: PlotKind,
 }
 
 impl CellCard {
     fn frame(&self) -> Frame {
-        self.ctx.frames.with_untracked(|f| f[self.kind.index()])
+        self.cs.frames.with_untracked(|f| f[self.kind.index()])
     }
     fn draggable(&self) -> bool {
         self.kind != PlotKind::Jv
     }
     fn move_to(&self, x_css: f64) {
         let f = self.frame();
-        let g = self.ctx.computed.with_untracked(|c| c.as_ref().and_then(|c| gap_at(self.kind, &f, c, x_css)));
+        let g = self.cs.computed.with_untracked(|c| c.as_ref().and_then(|c| gap_at(self.kind, &f, c, x_css)));
         if let Some(g) = g {
-            self.ctx.set_gap("gap", g);
+            self.cs.ctx.set_gap("gap", g);
         }
     }
 }
@@ -237,7 +240,7 @@ impl CellCard {
 impl PlotBehaviour for CellCard {
     fn hover(&self, x: f64, y: f64, width: f64) -> Option<Hover> {
         let f = self.frame();
-        self.ctx.computed.with_untracked(|c| c.as_ref().and_then(|c| hover_of(self.kind, &f, c, x, y, width)))
+        self.cs.computed.with_untracked(|c| c.as_ref().and_then(|c| hover_of(self.kind, &f, c, x, y, width)))
     }
 
     fn press(&self, x: f64, y: f64) -> bool {
@@ -256,7 +259,7 @@ impl PlotBehaviour for CellCard {
         if !self.draggable() {
             return false;
         }
-        let ctx = self.ctx;
+        let ctx = self.cs.ctx;
         let step = crate::app::widgets::fields::key_step(ev);
         // on a wavelength axis, right means longer wavelengths: a smaller gap
         let right = ctx.scenario.with_untracked(|s| {
@@ -278,8 +281,8 @@ impl PlotBehaviour for CellCard {
     }
 
     fn save(&self, kind: ExportKind) -> Result<(), String> {
-        let s = self.ctx.scenario.get_untracked();
-        let c = self.ctx.computed.get_untracked().ok_or("nothing has been computed yet")?;
+        let s = self.cs.ctx.scenario.get_untracked();
+        let c = self.cs.computed.get_untracked().ok_or("nothing has been computed yet")?;
         let plot = CellPlot { kind: self.kind, c: &c };
         let csv = || match self.kind {
             PlotKind::Spectrum => csv::spectrum_csv(&s, &c),
@@ -290,7 +293,8 @@ impl PlotBehaviour for CellCard {
     }
 }
 
-pub fn plot_card(ctx: Ctx, kind: PlotKind, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+pub fn plot_card(cs: CellState, kind: PlotKind, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+    let ctx = cs.ctx;
     let i = kind.index();
     let draggable = kind != PlotKind::Jv;
     let note = (kind == PlotKind::Efficiency).then(|| view! {
@@ -305,13 +309,13 @@ pub fn plot_card(ctx: Ctx, kind: PlotKind, canvas: NodeRef<html::Canvas>) -> imp
             interactive: draggable,
             wrap_class: if draggable { "draggable" } else { "" },
             control: None,
-            tools: header_tools(ctx, kind).into_any(),
-            legend: legend(ctx, kind).into_any(),
+            tools: header_tools(cs, kind).into_any(),
+            legend: legend(cs, kind).into_any(),
             note: note.into_any(),
             footer: ().into_any(),
             canvas,
-            plot_error: Signal::derive(move || ctx.plot_errors.with(|e| e[i].clone())),
+            plot_error: Signal::derive(move || cs.plot_errors.with(|e| e[i].clone())),
         },
-        Rc::new(CellCard { ctx, kind }),
+        Rc::new(CellCard { cs, kind }),
     )
 }

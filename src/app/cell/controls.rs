@@ -11,6 +11,7 @@ use leptos::ev;
 use leptos::html;
 use leptos::prelude::*;
 
+use super::state::CellState;
 use crate::app::state::Ctx;
 use crate::app::widgets::fields::{drop_zone, gap_keys, number_field, plain_parse, Field};
 use crate::physics::constants::MAX_CONCENTRATION;
@@ -34,7 +35,8 @@ fn source_key(s: &SourceSpec) -> &'static str {
     }
 }
 
-pub fn source_panel(ctx: Ctx) -> impl IntoView {
+pub fn source_panel(cs: CellState) -> impl IntoView {
+    let ctx = cs.ctx;
     let key = Memo::new(move |_| ctx.scenario.with(|s| source_key(&s.cell.spectrum)));
     let on_select = move |ev: ev::Event| {
         let v = event_target_value(&ev);
@@ -116,7 +118,7 @@ pub fn source_panel(ctx: Ctx) -> impl IntoView {
         Rc::new(move |f| crate::app::import::open_spectrum(ctx, f)),
     );
     let info = move || {
-        ctx.computed.with(|c| {
+        cs.computed.with(|c| {
             c.as_ref().map(|c| {
                 let p = c.setup.light.source.total_power();
                 let what = match &c.spectrum.name[..] {
@@ -151,7 +153,8 @@ pub fn source_panel(ctx: Ctx) -> impl IntoView {
     }
 }
 
-pub fn cell_panel(ctx: Ctx) -> impl IntoView {
+pub fn cell_panel(cs: CellState) -> impl IntoView {
+    let ctx = cs.ctx;
     let gap = Memo::new(move |_| ctx.scenario.with(|s| s.cell.gap_ev));
     let gap_nm = Memo::new(move |_| ctx.scenario.with(|s| ev_of_nm(1.0) / s.cell.gap_ev));
 
@@ -257,7 +260,7 @@ pub fn cell_panel(ctx: Ctx) -> impl IntoView {
         }
     };
     let warnings = move || {
-        ctx.computed.with(|c| {
+        cs.computed.with(|c| {
             c.as_ref()
                 .map(|c| c.setup.warnings.iter().map(|w| crate::app::state::sentence(w)).collect::<Vec<_>>().join(" "))
         })

@@ -2,18 +2,18 @@
 
 use leptos::prelude::*;
 
-use crate::app::state::Ctx;
+use super::state::CellState;
 use crate::app::widgets::notices::caution_footer;
 use crate::report::CellMetric;
 use crate::view::format::{fixed, gap_ev};
 use crate::view::input::ev_of_nm;
 
-pub fn figures(ctx: Ctx) -> impl IntoView {
+pub fn figures(cs: CellState) -> impl IntoView {
     let cards = CellMetric::HEADLINE
         .into_iter()
         .map(|m| {
             let text =
-                move || ctx.computed.with(|c| c.as_ref().map(|c| c.report.display(m)).unwrap_or_else(|| "—".into()));
+                move || cs.computed.with(|c| c.as_ref().map(|c| c.report.display(m)).unwrap_or_else(|| "—".into()));
             view! {
                 <div class="figure" class:lead=m == CellMetric::Efficiency>
                     <span class="fig-label">{m.label()}</span>
@@ -23,7 +23,7 @@ pub fn figures(ctx: Ctx) -> impl IntoView {
         })
         .collect_view();
     let summary = move || {
-        ctx.computed.with(|c| {
+        cs.computed.with(|c| {
             c.as_ref().map(|c| {
                 format!(
                     "Band gap {} eV (absorption edge {} nm) · {} · {} sun{}",
@@ -36,7 +36,7 @@ pub fn figures(ctx: Ctx) -> impl IntoView {
             })
         })
     };
-    let error = move || ctx.compute_error.get();
+    let error = move || cs.compute_error.get();
     view! {
         <section class="figures-block" aria-labelledby="fig-h">
             <h2 id="fig-h" class="visually-hidden">"Headline figures"</h2>

@@ -1,77 +1,116 @@
-//! The Solar cell panel: the light source and the cell's settings, the headline figures,
-//! and three plots (the spectrum with the gap, efficiency against band gap, the J-V curve).
-//! One effect computes the panel's view model ([`CellCache::compute`]) and redraws its
-//! canvases after every change of the scenario or of the layout.
+//! The Solar cell panel: the light source and the cell's settings, the cell's absorptance
+//! (ideal step, Urbach tail or a measured EQE, with its reciprocity limits), the headline
+//! figures, and the plots: the spectrum with the gap, efficiency against band gap, the J-V
+//! curve, and where the power goes. One effect computes the panel's view models
+//! ([`crate::view::cell::CellCache::compute`], [`crate::view::cell::losses::loss_view`],
+//! [`crate::view::cell::absorber::absorber_view`]) and redraws its canvases after every change
+//! of the scenario or of the layout.
 
+pub mod absorptance;
 pub mod cards;
 pub mod controls;
 pub mod figures;
+pub mod losses;
 pub mod plots;
+pub mod state;
 
-use std::cell::RefCell;
-use std::rc::Rc;
 use std::sync::Arc;
 
 use leptos::html;
 use leptos::prelude::*;
 
+use super::state::{count_render, mark, sentence};
 use super::watch_sizes;
-use super::widgets::plot::render::draw_on_canvas;
-use crate::app::state::{count_render, mark, sentence, Ctx};
-use crate::view::cell::CellCache;
+use super::widgets::plot::render::draw_into;
+use crate::view::cell::absorber::absorber_view;
+use crate::view::cell::losses::loss_view;
 use plots::{CellPlot, PlotKind};
+use state::{CellState, ABSORPTANCE, LOSSES, PLOTS};
 
-/// The solar-cell panel: its settings, figures and three plots.
-pub fn cell_panel(ctx: Ctx, engine: StoredValue<Rc<RefCell<CellCache>>, LocalStorage>) -> impl IntoView {
-    let canvases: [NodeRef<html::Canvas>; 3] = [NodeRef::new(), NodeRef::new(), NodeRef::new()];
+/// How the message on an absorptance that cannot be computed (from a link) begins.
+const ABSORBER_UNUSABLE: &str = "The cell's absorptance cannot be computed:";
+
+/// Solve and draw after every change of the scenario or the layout.
+fn render_effect(cs: CellState, canvases: [NodeRef<html::Canvas>; PLOTS]) {
+    let ctx = cs.ctx;
     Effect::new(move |_| {
         ctx.layout.track();
         let targets: Vec<_> = canvases.iter().map(|r| r.get()).collect();
-        let engine = engine.get_value();
-        let outcome = ctx.scenario.with(|s| engine.borrow_mut().compute(s));
+        let cache = cs.cache.get_value();
+        let mut frames = cs.frames.get_untracked();
+        let mut errors: [Option<String>; PLOTS] = Default::default();
+        let outcome = ctx.scenario.with(|s| cache.borrow_mut().compute(s));
         match outcome {
             Ok(c) => {
                 let c = Arc::new(c);
-                let mut frames = ctx.frames.get_untracked();
-                let mut errors: [Option<String>; 3] = [None, None, None];
                 for kind in PlotKind::ALL {
-                    if let Some(canvas) = &targets[kind.index()] {
-                        match draw_on_canvas(canvas, &CellPlot { kind, c: &c }) {
-                            Ok(Some(f)) => frames[kind.index()] = f,
-                            Ok(None) => {}
-                            Err(e) => errors[kind.index()] = Some(e),
-                        }
-                    }
+                    let i = kind.index();
+                    draw_into(i, &targets[i], &CellPlot { kind, c: &c }, &mut frames, &mut errors);
                 }
                 mark("gg-drawn");
-                ctx.frames.set(frames);
-                if ctx.plot_errors.with_untracked(|p| *p != errors) {
-                    ctx.plot_errors.set(errors);
-                }
-                ctx.computed.set(Some(c));
-                if ctx.compute_error.with_untracked(|e| e.is_some()) {
-                    ctx.compute_error.set(None);
+                cs.computed.set(Some(c));
+                if cs.compute_error.with_untracked(|e| e.is_some()) {
+                    cs.compute_error.set(None);
                 }
             }
-            Err(e) => ctx
+            Err(e) => cs
                 .compute_error
                 .set(Some(format!("{} The figures shown are from the last usable scenario.", sentence(&e)))),
+        }
+        match ctx.scenario.with(loss_view) {
+            Ok(l) => {
+                let l = Arc::new(l);
+                draw_into(LOSSES, &targets[LOSSES], &losses::LossPlot { l: &l }, &mut frames, &mut errors);
+                cs.losses.set(Some(l));
+            }
+            Err(e) => errors[LOSSES] = Some(sentence(&e)),
+        }
+        match ctx.scenario.with(absorber_view) {
+            Ok(a) => {
+                let a = a.map(Arc::new);
+                if let Some(a) = &a {
+                    let plot = absorptance::AbsorptancePlot { a };
+                    draw_into(ABSORPTANCE, &targets[ABSORPTANCE], &plot, &mut frames, &mut errors);
+                }
+                cs.absorber.set(a);
+                if ctx.errors.with_untracked(|m| m.get("absorber").is_some_and(|t| t.starts_with(ABSORBER_UNUSABLE))) {
+                    ctx.clear_error("absorber");
+                }
+            }
+            Err(e) => {
+                cs.absorber.set(None);
+                ctx.set_error("absorber", format!("{ABSORBER_UNUSABLE} {}", sentence(&e)));
+            }
+        }
+        cs.frames.set(frames);
+        if cs.plot_errors.with_untracked(|p| *p != errors) {
+            cs.plot_errors.set(errors);
         }
         count_render();
     });
     watch_sizes(ctx, canvases.to_vec());
+}
+
+/// The Solar cell tab's content.
+#[component]
+pub fn CellPanel() -> impl IntoView {
+    let cs = expect_context::<CellState>();
+    let canvases: [NodeRef<html::Canvas>; PLOTS] = std::array::from_fn(|_| NodeRef::new());
+    render_effect(cs, canvases);
     view! {
         <main class="layout">
             <aside class="panel" aria-label="Settings">
-                {controls::source_panel(ctx)}
-                {controls::cell_panel(ctx)}
+                {controls::source_panel(cs)}
+                {controls::cell_panel(cs)}
+                {absorptance::absorptance_section(cs, canvases[ABSORPTANCE])}
             </aside>
             <section class="results" aria-label="Results">
-                {figures::figures(ctx)}
+                {figures::figures(cs)}
                 <div class="plots">
-                    {cards::plot_card(ctx, PlotKind::Spectrum, canvases[0])}
-                    {cards::plot_card(ctx, PlotKind::Efficiency, canvases[1])}
-                    {cards::plot_card(ctx, PlotKind::Jv, canvases[2])}
+                    {cards::plot_card(cs, PlotKind::Spectrum, canvases[0])}
+                    {cards::plot_card(cs, PlotKind::Efficiency, canvases[1])}
+                    {cards::plot_card(cs, PlotKind::Jv, canvases[2])}
+                    {losses::losses_card(cs, canvases[LOSSES])}
                 </div>
             </section>
         </main>

@@ -10,7 +10,7 @@ use leptos::prelude::*;
 use crate::view::export::ExportKind;
 
 use super::export;
-use crate::app::radiator::state::{RadState, Slot};
+use crate::app::radiator::state::{RadiatorState, Slot};
 use crate::app::widgets::card::{plot_card, range_input, Card, Hover, PlotBehaviour};
 
 use crate::view::format::fixed;
@@ -28,7 +28,7 @@ const BAR_NOTES: [&str; 5] = [
 
 /// A read-only plot of the radiator: read-outs and downloads.
 struct ReadOut {
-    rad: RadState,
+    rad: RadiatorState,
     slot: Slot,
 }
 
@@ -88,7 +88,7 @@ impl PlotBehaviour for ReadOut {
     }
 }
 
-fn balance_legend(rad: RadState) -> impl IntoView {
+fn balance_legend(rad: RadiatorState) -> impl IntoView {
     move || {
         rad.computed.with(|c| {
             let c = c.as_ref()?;
@@ -105,7 +105,7 @@ fn balance_legend(rad: RadState) -> impl IntoView {
     }
 }
 
-fn curve_legend(rad: RadState) -> impl IntoView {
+fn curve_legend(rad: RadiatorState) -> impl IntoView {
     move || {
         rad.computed.with(|c| {
             let c = c.as_ref()?;
@@ -119,11 +119,11 @@ fn curve_legend(rad: RadState) -> impl IntoView {
     }
 }
 
-fn plot_error(rad: RadState, slot: Slot) -> Signal<Option<String>> {
+fn plot_error(rad: RadiatorState, slot: Slot) -> Signal<Option<String>> {
     Signal::derive(move || rad.plot_errors.with(|e| e[slot.index()].clone()))
 }
 
-pub fn balance_card(rad: RadState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+pub fn balance_card(rad: RadiatorState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
     plot_card(
         rad.ctx,
         Card {
@@ -144,7 +144,7 @@ pub fn balance_card(rad: RadState, canvas: NodeRef<html::Canvas>) -> impl IntoVi
     )
 }
 
-pub fn curve_card(rad: RadState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+pub fn curve_card(rad: RadiatorState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
     let ctx = rad.ctx;
     let from = Memo::new(move |_| ctx.scenario.with(|s| s.radiator.curve_from_k));
     let to = Memo::new(move |_| ctx.scenario.with(|s| s.radiator.curve_to_k));

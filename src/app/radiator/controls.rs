@@ -10,7 +10,7 @@ use leptos::html;
 use leptos::prelude::*;
 
 use super::import::{open_emissivity, open_sky};
-use crate::app::radiator::state::RadState;
+use crate::app::radiator::state::RadiatorState;
 use crate::app::state::Ctx;
 use crate::app::widgets::fields::{drop_zone, number_field, Field};
 use crate::scenario::radiator::{
@@ -102,7 +102,7 @@ fn sky_key(s: &SkySpec) -> &'static str {
 }
 
 /// The sky and the air around the surface.
-pub fn environment_section(rad: RadState) -> impl IntoView {
+pub fn environment_section(rad: RadiatorState) -> impl IntoView {
     let ctx = rad.ctx;
     let key = Memo::new(move |_| ctx.scenario.with(|s| sky_key(&s.radiator.sky)));
     let table_text = Signal::derive(move || {
@@ -261,7 +261,7 @@ fn sun_key(s: &SourceSpec) -> &'static str {
 }
 
 /// The sun: on or off, its spectrum, angle and scale.
-pub fn sun_section(rad: RadState) -> impl IntoView {
+pub fn sun_section(rad: RadiatorState) -> impl IntoView {
     let ctx = rad.ctx;
     let on = Memo::new(move |_| ctx.scenario.with(|s| s.radiator.sun.is_some()));
     let on_toggle = move |ev: ev::Event| {
@@ -335,7 +335,7 @@ pub fn sun_section(rad: RadState) -> impl IntoView {
 }
 
 /// The surface: presets, measured data, control points.
-pub fn surface_section(rad: RadState) -> impl IntoView {
+pub fn surface_section(rad: RadiatorState) -> impl IntoView {
     let ctx = rad.ctx;
     let current = Memo::new(move |_| ctx.scenario.with(|s| preset_of(&s.radiator.emitter)));
     let is_measured = Memo::new(move |_| ctx.scenario.with(|s| matches!(s.radiator.emitter, EmitterSpec::Table(_))));

@@ -13,7 +13,7 @@ use crate::view::export::ExportKind;
 
 use super::export;
 use super::plots::editor::PICK_RADIUS;
-use crate::app::radiator::state::{RadState, Slot};
+use crate::app::radiator::state::{RadiatorState, Slot};
 use crate::app::state::{mark, Ctx};
 use crate::app::widgets::card::{plot_card, Card, Hover, PlotBehaviour};
 use crate::app::widgets::fields::{numeric_input, NumberInput};
@@ -34,7 +34,7 @@ pub const KEY_HELP: &str = "Keys on the plot: ←/→ move the chosen point 1 % 
 
 /// Commit `points` as the profile under `hook`; says where the points came from when the
 /// profile was not made of points before.
-fn commit(rad: RadState, hook: &'static str, points: Vec<[f64; 2]>) -> bool {
+fn commit(rad: RadiatorState, hook: &'static str, points: Vec<[f64; 2]>) -> bool {
     mark("gg-edit");
     let ctx = rad.ctx;
     let before = ctx.scenario.with_untracked(|s| s.radiator.emitter.clone());
@@ -51,17 +51,17 @@ fn commit(rad: RadState, hook: &'static str, points: Vec<[f64; 2]>) -> bool {
 }
 
 /// The points to edit: the profile's own, or the ones it becomes.
-fn points_now(rad: RadState) -> Option<Vec<[f64; 2]>> {
+fn points_now(rad: RadiatorState) -> Option<Vec<[f64; 2]>> {
     rad.ctx.scenario.with_untracked(|s| as_points(&s.radiator.emitter))
 }
 
 /// The selected point, if it is still one of the points.
-fn selected(rad: RadState, n: usize) -> Option<usize> {
+fn selected(rad: RadiatorState, n: usize) -> Option<usize> {
     rad.selected.get_untracked().filter(|i| *i < n)
 }
 
 struct EditorCard {
-    rad: RadState,
+    rad: RadiatorState,
 }
 
 impl EditorCard {
@@ -277,7 +277,7 @@ impl PlotBehaviour for EditorCard {
 }
 
 /// A line saying which point the keys act on.
-fn selection_line(rad: RadState) -> impl IntoView {
+fn selection_line(rad: RadiatorState) -> impl IntoView {
     move || {
         let c = rad.computed.get()?;
         let i = rad.selected.get().filter(|i| *i < c.profile.handles.len())?;
@@ -292,7 +292,7 @@ fn selection_line(rad: RadState) -> impl IntoView {
     }
 }
 
-fn legend(rad: RadState) -> impl IntoView {
+fn legend(rad: RadiatorState) -> impl IntoView {
     move || {
         rad.computed.with(|c| {
             let c = c.as_ref()?;
@@ -307,7 +307,7 @@ fn legend(rad: RadState) -> impl IntoView {
     }
 }
 
-pub fn editor_card(rad: RadState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+pub fn editor_card(rad: RadiatorState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
     let ctx = rad.ctx;
     let tools = view! {
         <div class="plot-tools">
@@ -362,7 +362,7 @@ fn point_value(ctx: Ctx, i: usize, k: usize) -> Memo<f64> {
 }
 
 /// Set value `k` of point `i` to `v` (as typed: the scenario's checks say what is wrong).
-fn set_point(rad: RadState, i: usize, k: usize, v: f64) -> bool {
+fn set_point(rad: RadiatorState, i: usize, k: usize, v: f64) -> bool {
     let Some(mut pts) = rad.points() else { return false };
     let Some(p) = pts.get_mut(i) else { return false };
     p[k] = v;
@@ -378,7 +378,7 @@ fn parse_fraction(t: &str) -> Result<f64, String> {
         .ok_or_else(|| format!("'{}' is not an emissivity; type a fraction from 0 to 1, e.g. 0.95", t.trim()))
 }
 
-fn row(rad: RadState, i: usize) -> impl IntoView {
+fn row(rad: RadiatorState, i: usize) -> impl IntoView {
     let ctx = rad.ctx;
     let cell = |k: usize| {
         let (what, unit, example): (&str, &'static str, &'static str) =
@@ -422,7 +422,7 @@ fn row(rad: RadState, i: usize) -> impl IntoView {
 }
 
 /// The control points as a small table, with add and convert buttons.
-pub fn points_table(rad: RadState) -> impl IntoView {
+pub fn points_table(rad: RadiatorState) -> impl IntoView {
     let ctx = rad.ctx;
     let count = Memo::new(move |_| {
         ctx.scenario.with(|s| match &s.radiator.emitter {

@@ -3,11 +3,11 @@
 
 use leptos::prelude::*;
 
-use crate::app::radiator::state::RadState;
+use crate::app::radiator::state::RadiatorState;
 use crate::app::widgets::notices::caution_footer;
 use crate::report::radiator::RadiatorMetric;
 
-pub fn figures(rad: RadState) -> impl IntoView {
+pub fn figures(rad: RadiatorState) -> impl IntoView {
     let text = move |m: RadiatorMetric| {
         move || rad.computed.with(|c| c.as_ref().map(|c| c.report.display(m)).unwrap_or_else(|| "—".into()))
     };

@@ -5,7 +5,7 @@
 use leptos::prelude::*;
 
 use crate::app::import::{read_then, stem};
-use crate::app::radiator::state::RadState;
+use crate::app::radiator::state::RadiatorState;
 use crate::app::state::Ctx;
 use crate::formats::emissivity_csv::{parse_emissivity_csv, parse_transmittance_csv, OpticalHints, OpticalTable};
 use crate::formats::TableKind;
@@ -46,11 +46,11 @@ fn use_table(
 }
 
 /// Read a measured emissivity file and make it the profile.
-pub fn open_emissivity(ctx: Ctx, rad: RadState, file: web_sys::File) {
+pub fn open_emissivity(ctx: Ctx, rad: RadiatorState, file: web_sys::File) {
     read_then(file, move |name, text| use_emissivity_text(ctx, rad, &name, text));
 }
 
-pub fn use_emissivity_text(ctx: Ctx, rad: RadState, file_name: &str, text: Result<String, String>) {
+pub fn use_emissivity_text(ctx: Ctx, rad: RadiatorState, file_name: &str, text: Result<String, String>) {
     let parsed = text.and_then(|t| {
         parse_emissivity_csv(&t, &OpticalHints::default(), &stem(file_name))
             .map_err(|e| page_message(&e, TableKind::Emissivity))

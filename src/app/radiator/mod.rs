@@ -6,7 +6,7 @@
 //! Flow: edits go through [`crate::app::state::Ctx::edit`] like the cell panel's, so the
 //! radiator is part of the one scenario in the link. One effect computes ([`crate::view::radiator::RadiatorCache`], the
 //! same evaluation as `glowgap eval --radiator`), draws the three canvases and then
-//! publishes the result in [`state::RadState::computed`] for the figures and read-outs.
+//! publishes the result in [`state::RadiatorState::computed`] for the figures and read-outs.
 //!
 //! * [`crate::view::radiator::points`]: presets, profiles as control points, the point edits;
 //! * [`editor`]: the editor's pointer and keys, the table of points;
@@ -28,7 +28,7 @@ use std::sync::Arc;
 use leptos::html;
 use leptos::prelude::*;
 
-pub use state::RadState;
+pub use state::RadiatorState;
 
 use crate::app::state::{count_render, mark, sentence, Ctx};
 use crate::app::watch_sizes;
@@ -39,7 +39,7 @@ use state::Slot;
 /// Compute and redraw whenever the radiator's part of the scenario, the drag state, the
 /// chosen point or a canvas' size changes (the engine's caches make the last three cheap).
 /// The plots are drawn before the figures' text changes, so drawing forces no extra layout.
-fn render_effect(rad: RadState, canvases: [NodeRef<html::Canvas>; 3]) {
+fn render_effect(rad: RadiatorState, canvases: [NodeRef<html::Canvas>; 3]) {
     let ctx: Ctx = rad.ctx;
     let scenario = Memo::new(move |_| ctx.scenario.with(|s| s.radiator.clone()));
     Effect::new(move |_| {
@@ -102,7 +102,7 @@ fn render_effect(rad: RadState, canvases: [NodeRef<html::Canvas>; 3]) {
 /// The Radiator tab's content.
 #[component]
 pub fn RadiatorPanel() -> impl IntoView {
-    let rad = expect_context::<RadState>();
+    let rad = expect_context::<RadiatorState>();
     let canvases: [NodeRef<html::Canvas>; 3] = [NodeRef::new(), NodeRef::new(), NodeRef::new()];
     render_effect(rad, canvases);
     watch_sizes(rad.ctx, canvases.to_vec());

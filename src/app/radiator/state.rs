@@ -48,7 +48,7 @@ impl Slot {
 
 /// Shared handles of the radiator panel; all are cheap to copy.
 #[derive(Clone, Copy)]
-pub struct RadState {
+pub struct RadiatorState {
     pub ctx: Ctx,
     /// caches, kept while another panel is in front
     pub engine: StoredValue<Rc<RefCell<RadiatorCache>>, LocalStorage>,
@@ -75,9 +75,9 @@ pub struct RadState {
 /// Precipitable water offered first for the clear sky [cm]: a mid-latitude summer-ish sky.
 pub const DEFAULT_PWV_CM: f64 = 1.5;
 
-impl RadState {
-    pub fn new(ctx: Ctx) -> RadState {
-        let rad = RadState {
+impl RadiatorState {
+    pub fn new(ctx: Ctx) -> RadiatorState {
+        let rad = RadiatorState {
             ctx,
             engine: StoredValue::new_local(Rc::new(RefCell::new(RadiatorCache::default()))),
             computed: RwSignal::new(None),

@@ -6,7 +6,7 @@ use std::rc::Rc;
 use leptos::ev;
 use leptos::prelude::*;
 
-use super::{colours, edit_stack, set_gaps, StackCtx, GAP_HOOKS};
+use super::{colours, edit_stack, set_gaps, StackState, GAP_HOOKS};
 use crate::app::widgets::fields::{gap_keys, number_field, Field};
 use crate::physics::stack::MAX_JUNCTIONS;
 use crate::report::stack::{StackReport, STACK_METRICS};
@@ -42,7 +42,7 @@ pub fn resized(gaps: &[f64], n: usize) -> Vec<f64> {
 }
 
 /// One gap field with its colour, keys and message line.
-fn gap_field(sc: StackCtx, i: usize) -> impl IntoView {
+fn gap_field(sc: StackState, i: usize) -> impl IntoView {
     let ctx = sc.ctx;
     let hook = GAP_HOOKS[i];
     let value = Memo::new(move |_| ctx.scenario.with(|s| s.stack.gaps_ev.get(i).copied().unwrap_or(f64::NAN)));
@@ -78,7 +78,7 @@ fn gap_field(sc: StackCtx, i: usize) -> impl IntoView {
     }
 }
 
-pub fn editor_section(sc: StackCtx) -> impl IntoView {
+pub fn editor_section(sc: StackState) -> impl IntoView {
     let ctx = sc.ctx;
     let count = Memo::new(move |_| ctx.scenario.with(|s| s.stack.gaps_ev.len()));
     let connection = Memo::new(move |_| ctx.scenario.with(|s| s.stack.connection));
@@ -142,7 +142,7 @@ pub fn editor_section(sc: StackCtx) -> impl IntoView {
 }
 
 /// What the stack is seen under: the solar-cell panel's light and cell settings.
-pub fn conditions(sc: StackCtx) -> impl IntoView {
+pub fn conditions(sc: StackState) -> impl IntoView {
     let ctx = sc.ctx;
     let line = move || {
         ctx.scenario.with(|s| {
@@ -181,7 +181,7 @@ pub fn conditions(sc: StackCtx) -> impl IntoView {
 }
 
 /// The headline figures of the stack.
-pub fn figures(sc: StackCtx) -> impl IntoView {
+pub fn figures(sc: StackState) -> impl IntoView {
     let cards = STACK_METRICS[..4]
         .iter()
         .map(|(hook, _, _)| {
@@ -232,7 +232,7 @@ fn summary_line(r: &StackReport) -> String {
 }
 
 /// The per-subcell table.
-pub fn subcell_table(sc: StackCtx) -> impl IntoView {
+pub fn subcell_table(sc: StackState) -> impl IntoView {
     let ctx = sc.ctx;
     let series = move || sc.view.with(|v| v.as_ref().is_some_and(|v| v.report.connection == Connection::Series));
     let rows = move || {
@@ -318,7 +318,7 @@ pub fn subcell_table(sc: StackCtx) -> impl IntoView {
     }
 }
 
-pub fn cautions(sc: StackCtx) -> impl IntoView {
+pub fn cautions(sc: StackState) -> impl IntoView {
     let _ = sc;
     view! {
         <footer class="cautions">

@@ -20,7 +20,7 @@ use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
-use super::{colours, edit_stack, save_plot, set_gaps, StackCtx, MAP};
+use super::{colours, edit_stack, save_plot, set_gaps, StackState, MAP};
 use crate::app::widgets::card::{plot_card, Card, Hover, PlotBehaviour};
 use crate::app::widgets::plot::{
     boxed_text_rect, chart, draw_boxed_text, draw_caption, draw_legend_row, err, palette, tick_target, AxisSpec,
@@ -89,7 +89,7 @@ fn now() -> f64 {
 }
 
 /// Make sure the map of `s` is shown or being computed.
-pub fn ensure(sc: StackCtx, s: &Scenario) {
+pub fn ensure(sc: StackState, s: &Scenario) {
     let start = MAPS.with(|m| {
         let m = m.borrow();
         if let Some((k, d, _)) = &m.done {
@@ -116,8 +116,8 @@ pub fn ensure(sc: StackCtx, s: &Scenario) {
     }
 }
 
-fn begin(sc: StackCtx, s: &Scenario) {
-    let setup = crate::view::stack::setup_of(&s.cell);
+fn begin(sc: StackState, s: &Scenario) {
+    let setup = crate::view::cell::setup_of(&s.cell);
     let grid = s.stack.map.grid();
     let (setup, (tops_j, bottoms_j)) = match (setup, grid) {
         (Ok(a), Ok(b)) => (a, b),
@@ -161,7 +161,7 @@ pub fn stop() {
 }
 
 /// Compute rows for one slice; then yield to the page, or finish.
-fn pump(sc: StackCtx, id: u64) {
+fn pump(sc: StackState, id: u64) {
     let t0 = now();
     let finished = MAPS.with(|m| {
         let mut m = m.borrow_mut();
@@ -215,7 +215,7 @@ fn pump(sc: StackCtx, id: u64) {
 /// under the map's light, cells and connection, from first steps of one grid step, the gaps
 /// ranging over both axes. Then the map is shown again with the best of them (under a new
 /// id, so the cached drawing is redrawn once).
-fn refine_best(sc: StackCtx, id: u64) {
+fn refine_best(sc: StackState, id: u64) {
     let starts = MAPS.with(|m| {
         let m = m.borrow();
         let (_, data, _) = m.done.as_ref().filter(|d| d.1.id == id && d.1.refined.is_none() && m.job.is_none())?;
@@ -232,7 +232,7 @@ fn refine_best(sc: StackCtx, id: u64) {
 
 /// Polish start `k` of map `id`, keeping the best optimum so far; then the next in a turn
 /// of its own, or show the best.
-fn polish_next(sc: StackCtx, id: u64, starts: Rc<Vec<Vec<f64>>>, k: usize, best: Option<Optimum>, busy: f64) {
+fn polish_next(sc: StackState, id: u64, starts: Rc<Vec<Vec<f64>>>, k: usize, best: Option<Optimum>, busy: f64) {
     let t0 = now();
     let step = MAPS.with(|m| {
         let mut m = m.borrow_mut();
@@ -791,7 +791,7 @@ const MARKER_REACH_CSS: f64 = 7.0;
 
 /// Put a two-junction design at (top, bottom) [eV], rounded to `unit` [eV]; a design with
 /// another number of junctions is left alone with a message.
-fn place_design(sc: StackCtx, top: f64, bottom: f64, unit: f64) -> bool {
+fn place_design(sc: StackState, top: f64, bottom: f64, unit: f64) -> bool {
     let ctx = sc.ctx;
     let n = ctx.scenario.with_untracked(|s| s.stack.gaps_ev.len());
     if n != 2 {
@@ -815,7 +815,7 @@ fn on_marker(f: &Frame, p: Option<(f64, f64, f64)>, x: f64, y: f64) -> Option<(f
 
 /// What the map does with the pointer and keys.
 struct MapCard {
-    sc: StackCtx,
+    sc: StackState,
 }
 
 impl MapCard {
@@ -917,7 +917,7 @@ impl PlotBehaviour for MapCard {
     }
 }
 
-fn legend(sc: StackCtx) -> impl IntoView {
+fn legend(sc: StackState) -> impl IntoView {
     // each line follows the map on its own, so a new map or design changes only text
     let optimum = move || sc.map.with(|m| m.as_ref().and_then(|m| m.refined));
     let has_best = move || sc.map.with(|m| m.as_ref().is_some_and(|m| m.best.is_some()));
@@ -990,7 +990,7 @@ const STAR_KEY: &str = "10.0,1.6 12.3,7.6 18.7,8.0 13.7,12.0 15.4,18.2 10.0,14.7
 /// Grid sizes offered for the map (points along each axis).
 const RESOLUTIONS: [usize; 4] = [61, 121, 201, 301];
 
-fn resolution_tool(sc: StackCtx) -> impl IntoView {
+fn resolution_tool(sc: StackState) -> impl IntoView {
     let ctx = sc.ctx;
     let points = Memo::new(move |_| ctx.scenario.with(|s| s.stack.map.points));
     let on_change = move |ev: leptos::ev::Event| {
@@ -1017,7 +1017,7 @@ fn resolution_tool(sc: StackCtx) -> impl IntoView {
     }
 }
 
-pub fn map_card(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+pub fn map_card(sc: StackState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
     let ctx = sc.ctx;
     let progress = move || match sc.map_status.get() {
         MapStatus::Computing(f) => {

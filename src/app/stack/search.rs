@@ -12,7 +12,7 @@ use wasm_bindgen::closure::Closure;
 use wasm_bindgen::{JsCast, JsValue};
 
 use super::worker::SearchReply;
-use super::{set_gaps, StackCtx};
+use super::{set_gaps, StackState};
 use crate::app::state::{mark, sentence, Ctx};
 use crate::app::widgets::card::range_input;
 use crate::app::widgets::fields::{gap_keys, number_field, Field};
@@ -122,7 +122,7 @@ fn module_urls() -> Option<(String, String)> {
     Some((abs(&js)?, abs(&wasm)?))
 }
 
-fn new_worker(sc: StackCtx) -> Result<Runner, String> {
+fn new_worker(sc: StackState) -> Result<Runner, String> {
     let parts = js_sys::Array::of1(&JsValue::from_str(WORKER_SCRIPT));
     let opts = web_sys::BlobPropertyBag::new();
     opts.set_type("text/javascript");
@@ -161,7 +161,7 @@ fn new_worker(sc: StackCtx) -> Result<Runner, String> {
     Ok(Runner { worker, _on_message: on_message, _on_error: on_error, job: None })
 }
 
-fn fail(sc: StackCtx, text: String) {
+fn fail(sc: StackState, text: String) {
     stop();
     sc.search.try_set(SearchState::Failed(text));
 }
@@ -173,7 +173,7 @@ pub fn stop() {
     }
 }
 
-fn on_message(sc: StackCtx, m: Message) {
+fn on_message(sc: StackState, m: Message) {
     let current = RUNNER.with(|r| r.borrow().as_ref().and_then(|r| r.job.as_ref().map(|j| j.id)));
     if current != Some(m.id) {
         return;
@@ -205,7 +205,7 @@ fn on_message(sc: StackCtx, m: Message) {
 }
 
 /// Make the answer the design, if the search still fits the scenario.
-fn apply(sc: StackCtx, job: Started, r: SearchReply, elapsed: f64) -> Option<SearchState> {
+fn apply(sc: StackState, job: Started, r: SearchReply, elapsed: f64) -> Option<SearchState> {
     let ctx = sc.ctx;
     let still = ctx.scenario.try_with_untracked(|s| {
         same_but_gap(&s.cell, &job.cell)
@@ -256,7 +256,7 @@ fn apply(sc: StackCtx, job: Started, r: SearchReply, elapsed: f64) -> Option<Sea
 }
 
 /// Start a search for the current stack.
-pub fn start(sc: StackCtx) {
+pub fn start(sc: StackState) {
     let ctx = sc.ctx;
     if sc.search.with_untracked(|s| s.running()) {
         return;
@@ -265,7 +265,7 @@ pub fn start(sc: StackCtx) {
     let s: Scenario = ctx.scenario.get_untracked();
     // say what is wrong here rather than from the worker
     let checked = check_gaps(&s.stack.gaps_ev).and_then(|_| {
-        let setup = crate::view::stack::setup_of(&s.cell)?;
+        let setup = crate::view::cell::setup_of(&s.cell)?;
         let settings =
             crate::scenario::stack::OptimizeSettings { junctions: s.stack.gaps_ev.len(), ..s.stack.optimize.clone() };
         settings.to_problem(&setup.light, &setup.cell, s.stack.connection).map(|_| ())
@@ -320,7 +320,7 @@ pub fn start(sc: StackCtx) {
 }
 
 /// Cancel a running search.
-pub fn cancel(sc: StackCtx) {
+pub fn cancel(sc: StackState) {
     if sc.search.with_untracked(|s| s.running()) {
         stop();
         sc.search.set(SearchState::Cancelled);
@@ -371,7 +371,7 @@ fn fix_key(fix: (Option<f64>, FixAt)) -> &'static str {
 const FIRST_FIXED_EV: f64 = 1.12;
 
 /// "Hold one gap fixed": off, or a gap and where it sits.
-fn fixed_gap_control(sc: StackCtx) -> impl IntoView {
+fn fixed_gap_control(sc: StackState) -> impl IntoView {
     let ctx = sc.ctx;
     let fix = Memo::new(move |_| ctx.scenario.with(|s| (s.stack.optimize.fix_ev, s.stack.optimize.fix_at)));
     // the last gap held fixed, offered again when the choice is turned back on
@@ -450,7 +450,7 @@ fn fixed_gap_control(sc: StackCtx) -> impl IntoView {
     }
 }
 
-pub fn search_section(sc: StackCtx) -> impl IntoView {
+pub fn search_section(sc: StackState) -> impl IntoView {
     let ctx = sc.ctx;
     let running = move || sc.search.with(|s| s.running());
     let from = Memo::new(move |_| ctx.scenario.with(|s| s.stack.optimize.from_ev));

@@ -13,7 +13,7 @@ use crate::view::export::ExportKind;
 use plotters::coord::Shift;
 use plotters::prelude::*;
 
-use super::{colours, save_plot, set_gaps, StackCtx, SPECTRUM};
+use super::{colours, save_plot, set_gaps, StackState, SPECTRUM};
 use crate::app::cell::plots::spectrum::{axis_name, value_name};
 use crate::app::widgets::card::{plot_card, Card, Hover, PlotBehaviour};
 use crate::app::widgets::plot::{
@@ -214,7 +214,7 @@ fn spectrum_csv(v: &StackView, what: &str) -> String {
 
 /// What the spectrum plot does with the pointer and keys.
 struct SpectrumCard {
-    sc: StackCtx,
+    sc: StackState,
 }
 
 impl SpectrumCard {
@@ -331,7 +331,7 @@ impl PlotBehaviour for SpectrumCard {
     }
 }
 
-fn legend(sc: StackCtx) -> impl IntoView {
+fn legend(sc: StackState) -> impl IntoView {
     move || {
         sc.view.with(|v| {
             let v = v.as_ref()?;
@@ -355,7 +355,7 @@ fn legend(sc: StackCtx) -> impl IntoView {
     }
 }
 
-pub fn spectrum_card(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+pub fn spectrum_card(sc: StackState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
     let ctx = sc.ctx;
     let note = view! {
         <p class="field-error" data-error="stack-spectrum" aria-live="polite">{move || ctx.error_of("stack-spectrum")}</p>

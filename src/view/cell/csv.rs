@@ -48,6 +48,22 @@ pub fn caption(s: &Scenario, c: &CellView) -> String {
     format!("Glowgap · {} · detailed-balance limit", parts.join(" · "))
 }
 
+/// One line describing the light and the cell (`cells`: "cell" or "cells"), then `what`, for
+/// exported figures that show more than one gap.
+pub fn conditions_caption(s: &Scenario, cells: &str, what: &str) -> String {
+    let cell = &s.cell;
+    let mut parts = vec![
+        source_label(&cell.spectrum),
+        format!("{} sun{}", field(cell.concentration, 6), if cell.concentration == 1.0 { "" } else { "s" }),
+        format!("{cells} {} K", field(cell.cell_temp_k, 6)),
+    ];
+    if cell.ere != 1.0 {
+        parts.push(format!("ERE {}", field(cell.ere, 4)));
+    }
+    parts.push(what.to_string());
+    format!("Glowgap · {} · detailed-balance limit", parts.join(" · "))
+}
+
 fn comment_lines(out: &mut String, what: &str, s: &Scenario, c: &CellView) {
     let _ = writeln!(out, "# Glowgap: {what}");
     let _ = writeln!(out, "# {}", caption(s, c));

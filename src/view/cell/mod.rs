@@ -4,7 +4,9 @@
 //! or its band-gap range change; the plotted spectrum only when the source or the plot's
 //! axis and quantity change.
 
+pub mod absorber;
 pub mod csv;
+pub mod losses;
 
 use std::sync::Arc;
 
@@ -166,6 +168,28 @@ fn efficiency_curve(setup: &CellSetup, from: f64, to: f64) -> Curve {
     // the grid's best refined between its neighbours: the same search as `glowgap sweep --best`
     let best = best_gap(&setup.light, &setup.cell, &results);
     Curve { gaps_ev, results, best, from_ev: from, to_ev: to }
+}
+
+thread_local! {
+    /// the light and cell inputs of the last cell scenario asked for, its gap ignored
+    static SETUP: std::cell::RefCell<Option<(CellScenario, Arc<CellSetup>)>> = const { std::cell::RefCell::new(None) };
+}
+
+/// The light and cell inputs of `cell`, its gap ignored (cached).
+pub fn setup_of(cell: &CellScenario) -> Result<Arc<CellSetup>, String> {
+    SETUP.with(|c| {
+        let mut c = c.borrow_mut();
+        if let Some((k, s)) = &*c {
+            if same_but_gap(k, cell) {
+                return Ok(s.clone());
+            }
+        }
+        // the gap does not matter here; any valid one will do for the check
+        let probe = CellScenario { gap_ev: 1.34, ..cell.clone() };
+        let s = Arc::new(probe.to_physics()?);
+        *c = Some((cell.clone(), s.clone()));
+        Ok(s)
+    })
 }
 
 #[cfg(test)]

@@ -75,3 +75,39 @@ pub fn svg_text(plot: &impl Drawing, caption: String) -> Result<String, String> 
     }
     Ok(out)
 }
+
+/// Put where the axes landed on the canvas, in CSS px and axis units (tests aim with it).
+pub fn expose_frame(canvas: &web_sys::HtmlCanvasElement, f: &Frame) {
+    let text = format!(
+        "{{\"left\":{:.2},\"right\":{:.2},\"top\":{:.2},\"bottom\":{:.2},\"x\":[{},{}],\"y\":[{},{}]}}",
+        f.left / f.scale,
+        f.right / f.scale,
+        f.top / f.scale,
+        f.bottom / f.scale,
+        f.x_lo,
+        f.x_hi,
+        f.y_lo,
+        f.y_hi
+    );
+    let _ = canvas.set_attribute("data-frame", &text);
+}
+
+/// Draw `plot` on `canvas` (if it is on the page), recording its frame or its error.
+pub fn draw_into<const N: usize>(
+    i: usize,
+    canvas: &Option<web_sys::HtmlCanvasElement>,
+    plot: &impl Drawing,
+    frames: &mut [Frame; N],
+    errors: &mut [Option<String>; N],
+) {
+    if let Some(canvas) = canvas {
+        match draw_on_canvas(canvas, plot) {
+            Ok(Some(f)) => {
+                expose_frame(canvas, &f);
+                frames[i] = f
+            }
+            Ok(None) => {}
+            Err(e) => errors[i] = Some(e),
+        }
+    }
+}

@@ -11,7 +11,7 @@ use leptos::prelude::*;
 use plotters::coord::Shift;
 use plotters::prelude::*;
 
-use super::{edit_stack, StackCtx, EQE};
+use super::state::{CellState, ABSORPTANCE};
 use crate::app::import::{read_then, stem};
 use crate::app::state::{sentence, Ctx};
 use crate::app::widgets::fields::{drop_zone, number_field, Field};
@@ -20,9 +20,9 @@ use crate::formats::eqe_csv::parse_eqe_csv;
 use crate::formats::TableKind;
 use crate::report::stack::AbsorberReport;
 use crate::scenario::stack::{AbsorberSpec, EqeTableSpec};
+use crate::view::cell::absorber::AbsorberView;
 use crate::view::format::{self as fmt, fixed};
 use crate::view::input::{ev_of_nm, parse_number};
-use crate::view::stack::AbsorberView;
 
 /// Make `spec` the single cell's absorptance, if the scenario accepts it for the cell's gap
 /// and temperature; otherwise say why under `hook`.
@@ -32,7 +32,7 @@ pub fn set_absorber(ctx: Ctx, hook: &'static str, spec: AbsorberSpec) -> bool {
         ctx.set_error(hook, sentence(&e));
         return false;
     }
-    edit_stack(ctx, hook, move |st| st.absorber = spec)
+    ctx.edit(hook, move |s| s.stack.absorber = spec)
 }
 
 /// Read an EQE file and make it the measured cell; `kept` remembers it while another
@@ -66,11 +66,11 @@ pub fn open_eqe(ctx: Ctx, kept: RwSignal<Option<EqeTableSpec>>, file: web_sys::F
     });
 }
 
-pub struct EqePlot<'a> {
+pub struct AbsorptancePlot<'a> {
     pub a: &'a AbsorberView,
 }
 
-impl Drawing for EqePlot<'_> {
+impl Drawing for AbsorptancePlot<'_> {
     fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String> {
         root.fill(&WHITE).map_err(err)?;
         let (w, h) = root.dim_in_pixel();
@@ -142,8 +142,8 @@ fn kind_of(a: &AbsorberSpec) -> &'static str {
     }
 }
 
-pub fn eqe_section(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView {
-    let ctx = sc.ctx;
+pub fn absorptance_section(cs: CellState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+    let ctx = cs.ctx;
     let kind = Memo::new(move |_| ctx.scenario.with(|s| kind_of(&s.stack.absorber)));
     // what the other choices were, offered again when chosen again
     let kept_table = RwSignal::new(ctx.scenario.with_untracked(|s| match &s.stack.absorber {
@@ -237,10 +237,10 @@ pub fn eqe_section(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView
         hint.into_any(),
         Rc::new(move |f| open_eqe(ctx, kept_table, f)),
     );
-    let has = move || sc.absorber.with(|a| a.is_some());
+    let has = move || cs.absorber.with(|a| a.is_some());
     let table = move || {
         let ere = ctx.scenario.with(|s| s.cell.ere);
-        sc.absorber.with(|a| {
+        cs.absorber.with(|a| {
             let a = a.as_ref()?;
             let body = rows(a, ere)
                 .into_iter()
@@ -299,7 +299,7 @@ pub fn eqe_section(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView
             </div>
             <div class="plot-wrap eqe-plot" hidden=move || !has()>
                 <canvas data-plot="eqe" node_ref=canvas role="img" aria-label=plot_label></canvas>
-                <p class="plot-error" hidden=move || sc.plot_errors.with(|e| e[EQE].is_none())>{move || sc.plot_errors.with(|e| e[EQE].clone())}</p>
+                <p class="plot-error" hidden=move || cs.plot_errors.with(|e| e[ABSORPTANCE].is_none())>{move || cs.plot_errors.with(|e| e[ABSORPTANCE].clone())}</p>
             </div>
         </section>
     }

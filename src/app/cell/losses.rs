@@ -14,15 +14,17 @@ use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
-use super::{colours, save_plot, StackCtx, LOSSES};
+use super::state::{CellState, LOSSES};
+use crate::app::stack::colours;
 use crate::app::widgets::card::{plot_card, Card, Hover, PlotBehaviour};
+use crate::app::widgets::export::offer;
 use crate::app::widgets::plot::{
     chart, draw_caption, draw_tag, err, palette, tick_target, AxisSpec, Drawing, Frame, Look,
 };
 use crate::report::stack::LossReport;
+use crate::view::cell::losses::LossView;
 use crate::view::format::{csv_num, fixed, gap_ev};
 use crate::view::spectrum::nearest;
-use crate::view::stack::LossView;
 
 /// Short names of the parts, in the order of [`LossReport::parts`].
 const SHORT: [&str; 6] = ["below gap", "thermalization", "emission", "Carnot", "Boltzmann", "delivered"];
@@ -176,20 +178,20 @@ fn losses_csv(l: &LossView, what: &str) -> String {
 }
 
 struct LossCard {
-    sc: StackCtx,
+    cs: CellState,
 }
 
 impl LossCard {
     fn gap_at(&self, x: f64, y: f64) -> Option<f64> {
-        let f = self.sc.frame(LOSSES);
+        let f = self.cs.frame(LOSSES);
         (f.is_valid() && f.contains_css(x, y, 8.0)).then(|| (f.x_at_css(x) * 1000.0).round() / 1000.0)
     }
 }
 
 impl PlotBehaviour for LossCard {
     fn hover(&self, x: f64, y: f64, width: f64) -> Option<Hover> {
-        let l = self.sc.losses.get_untracked()?;
-        let f = self.sc.frame(LOSSES);
+        let l = self.cs.losses.get_untracked()?;
+        let f = self.cs.frame(LOSSES);
         if !f.is_valid() || !f.contains_css(x, y, 0.0) {
             return None;
         }
@@ -206,7 +208,7 @@ impl PlotBehaviour for LossCard {
     fn press(&self, x: f64, y: f64) -> bool {
         match self.gap_at(x, y) {
             Some(g) => {
-                self.sc.ctx.set_gap("gap", g);
+                self.cs.ctx.set_gap("gap", g);
                 true
             }
             None => false,
@@ -215,26 +217,22 @@ impl PlotBehaviour for LossCard {
 
     fn drag(&self, x: f64, y: f64) {
         if let Some(g) = self.gap_at(x, y) {
-            self.sc.ctx.set_gap("gap", g);
+            self.cs.ctx.set_gap("gap", g);
         }
     }
 
     fn save(&self, kind: ExportKind) -> Result<(), String> {
-        let l = self.sc.losses.get_untracked().ok_or("nothing has been computed yet")?;
-        save_plot(
-            self.sc,
-            "losses",
-            kind,
-            "where the power goes in a single-junction cell",
-            &LossPlot { l: &l },
-            |cap| losses_csv(&l, cap),
-        )
+        let l = self.cs.losses.get_untracked().ok_or("nothing has been computed yet")?;
+        let cap = self.cs.ctx.scenario.with_untracked(|s| {
+            crate::view::cell::csv::conditions_caption(s, "cell", "where the power goes in a single-junction cell")
+        });
+        offer(kind, "losses", &LossPlot { l: &l }, || cap.clone(), || losses_csv(&l, &cap))
     }
 }
 
-fn legend(sc: StackCtx) -> impl IntoView {
+fn legend(cs: CellState) -> impl IntoView {
     move || {
-        sc.losses.with(|l| {
+        cs.losses.with(|l| {
             let l = l.as_ref()?;
             let p = percents(&l.cell);
             Some(
@@ -249,8 +247,8 @@ fn legend(sc: StackCtx) -> impl IntoView {
     }
 }
 
-pub fn losses_card(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView {
-    let ctx = sc.ctx;
+pub fn losses_card(cs: CellState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+    let ctx = cs.ctx;
     let note = view! {
         <p class="hint loss-note">
             {move || ctx.scenario.with(|s| format!(
@@ -269,12 +267,12 @@ pub fn losses_card(sc: StackCtx, canvas: NodeRef<html::Canvas>) -> impl IntoView
             wrap_class: "draggable",
             control: None,
             tools: ().into_any(),
-            legend: legend(sc).into_any(),
+            legend: legend(cs).into_any(),
             note: ().into_any(),
             footer: note.into_any(),
             canvas,
-            plot_error: Signal::derive(move || sc.plot_errors.with(|e| e[LOSSES].clone())),
+            plot_error: Signal::derive(move || cs.plot_errors.with(|e| e[LOSSES].clone())),
         },
-        Rc::new(LossCard { sc }),
+        Rc::new(LossCard { cs }),
     )
 }
