@@ -1,11 +1,12 @@
 //! Files the user brings: spectrum tables and scenario files, from a file picker or a drop.
 //! A file that cannot be used changes nothing; the reason is shown next to its control.
 
+use crate::view::controls::Control;
 use leptos::prelude::*;
 use wasm_bindgen_futures::JsFuture;
 
 use super::share::apply_scenario;
-use crate::app::state::{sentence, validate, Ctx, Notice};
+use crate::app::state::{sentence, validate, Ctx, Notice, NoticeKind};
 use crate::codec::from_json;
 use crate::formats::spectrum_csv::{parse_spectrum_csv, ColumnHints};
 use crate::formats::TableKind;
@@ -55,9 +56,10 @@ pub fn stem(name: &str) -> String {
 pub fn open_spectrum(ctx: Ctx, file: web_sys::File) {
     read_then(file, move |name, text| match text {
         Ok(text) => use_spectrum_text(ctx, &name, &text),
-        Err(e) => {
-            ctx.set_error("spectrum", format!("'{name}' was not loaded: {e}. The previous spectrum is still in use."))
-        }
+        Err(e) => ctx.set_error(
+            Control::Spectrum,
+            format!("'{name}' was not loaded: {e}. The previous spectrum is still in use."),
+        ),
     });
 }
 
@@ -67,15 +69,15 @@ pub fn use_spectrum_text(ctx: Ctx, file_name: &str, text: &str) {
         Ok(sp) => {
             let table = TableSpec { name: name.clone(), axis: sp.axis().into(), quantity: sp.quantity().into(), x: sp.coordinates().to_vec(), y: sp.values().to_vec() };
             let spec = SourceSpec::Table(table.clone());
-            if ctx.edit("spectrum", move |s| s.cell.spectrum = spec) {
+            if ctx.edit(Control::Spectrum, move |s| s.cell.spectrum = spec) {
                 ctx.user_table.set(Some(table));
-                ctx.clear_error("spectrum");
-            } else if let Some(msg) = ctx.errors.with_untracked(|e| e.get("spectrum").cloned()) {
-                ctx.set_error("spectrum", format!("'{file_name}' was read but cannot be used: {msg} The previous spectrum is still in use."));
+                ctx.clear_error(Control::Spectrum);
+            } else if let Some(msg) = ctx.errors.with_untracked(|e| e.get(&Control::Spectrum).cloned()) {
+                ctx.set_error(Control::Spectrum, format!("'{file_name}' was read but cannot be used: {msg} The previous spectrum is still in use."));
             }
         }
         Err(e) => ctx.set_error(
-            "spectrum",
+            Control::Spectrum,
             format!("'{file_name}' was not loaded — {}. Fix the file and load it again; the previous spectrum is still in use.", page_message(&e, TableKind::Spectrum)),
         ),
     }
@@ -87,12 +89,12 @@ pub fn open_scenario(ctx: Ctx, file: web_sys::File) {
         let outcome = text.and_then(|text| from_json(&text).map_err(|e| e.0).and_then(|s| validate(&s).map(|_| s)));
         match outcome {
             Ok(s) => {
-                ctx.dismiss("file");
+                ctx.dismiss(NoticeKind::File);
                 apply_scenario(ctx, s);
                 ctx.status.set(Some(format!("Opened the scenario file '{name}'.")));
             }
             Err(e) => ctx.notify(Notice {
-                kind: "file",
+                kind: NoticeKind::File,
                 text: format!(
                     "The scenario file '{name}' could not be opened: {} Your current scenario is unchanged.",
                     sentence(&e)

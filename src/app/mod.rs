@@ -15,6 +15,7 @@ pub mod stack;
 pub mod state;
 pub mod widgets;
 
+use crate::view::controls::Control;
 use std::cell::{Cell, RefCell};
 use std::rc::Rc;
 
@@ -102,7 +103,7 @@ const PANELS: [(Panel, &str, &str); 3] =
 /// The tab bar that brings a panel to the front (arrow keys move between tabs).
 fn panel_tabs(ctx: Ctx, panel: Memo<Panel>) -> impl IntoView {
     let choose = move |p: Panel| {
-        ctx.edit("panel", |s| s.view.panel = p);
+        ctx.edit(Control::Panel, |s| s.view.panel = p);
     };
     let on_key = move |ev: ev::KeyboardEvent| {
         let i = PANELS.iter().position(|(p, _, _)| *p == panel.get_untracked()).unwrap_or(0);
@@ -280,7 +281,7 @@ fn App() -> impl IntoView {
             </div>
             {widgets::notices::notices(ctx)}
             {panel_tabs(ctx, panel)}
-            <p class="field-error tabs-error" data-error="panel" aria-live="polite">{move || ctx.error_of("panel")}</p>
+            <p class="field-error tabs-error" data-error=Control::Panel.as_str() aria-live="polite">{move || ctx.error_of(Control::Panel)}</p>
             <div id="panel-body" role="tabpanel" aria-labelledby=move || format!("tab-{}", PANELS.iter().find(|p| p.0 == panel.get()).map(|p| p.1).unwrap_or("cell"))>
                 {body}
             </div>

@@ -13,7 +13,7 @@ use std::time::Duration;
 use leptos::prelude::*;
 use wasm_bindgen::JsValue;
 
-use crate::app::state::{sentence, validate, Ctx, Notice, NoticeAction};
+use crate::app::state::{sentence, validate, Ctx, Notice, NoticeAction, NoticeKind};
 use crate::codec::{decode_link, encode_fragment, from_json, to_json, MAX_LINK_CHARS};
 use crate::scenario::{Scenario, SourceSpec};
 
@@ -59,7 +59,7 @@ pub fn opening() -> Opening {
             Ok(s) => {
                 if let Some(prev) = saved.filter(|p| *p != s) {
                     notices.push(Notice {
-                        kind: "restore",
+                        kind: NoticeKind::Restore,
                         text: "Opened the scenario in the link. The scenario you were last working on is kept: you can go back to it.".into(),
                         alert: false,
                         action: Some(NoticeAction::Restore(Box::new(prev), "Back to my last scenario")),
@@ -73,7 +73,7 @@ pub fn opening() -> Opening {
                     sentence(&e.0).trim_end_matches('.')
                 );
                 let action = saved.clone().map(|p| NoticeAction::Restore(Box::new(p), "Open my last saved scenario"));
-                notices.push(Notice { kind: "link", text, alert: true, action });
+                notices.push(Notice { kind: NoticeKind::Link, text, alert: true, action });
                 return Opening { scenario: Scenario::default(), notices, hold_storage: saved.is_some() };
             }
         }
@@ -86,7 +86,7 @@ pub fn opening() -> Opening {
                     let _ = st.set_item(UNREADABLE_KEY, &text);
                 }
                 notices.push(Notice {
-                    kind: "storage",
+                    kind: NoticeKind::Storage,
                     text: format!(
                         "Your last saved scenario could not be read ({}); starting from the default scenario. The unreadable copy was set aside in this browser's storage.",
                         e.0.trim_end_matches('.')
@@ -194,7 +194,7 @@ fn write_now(ctx: Ctx, p: &Persist) {
         if let Some(st) = storage() {
             if st.set_item(STORAGE_KEY, &to_json(s)).is_err() && !p.told_full.replace(true) {
                 ctx.notify(Notice {
-                    kind: "save",
+                    kind: NoticeKind::Save,
                     text: "This browser's storage is full or switched off, so the scenario is not saved here; the link in the address bar still holds it.".into(),
                     alert: false,
                     action: None,
@@ -212,11 +212,11 @@ pub fn on_hash_change(ctx: Ctx, p: &Persist) {
     }
     match decode_link(&hash).and_then(|s| validate(&s).map(|_| s).map_err(crate::codec::LinkError)) {
         Ok(s) => {
-            ctx.dismiss("link");
+            ctx.dismiss(NoticeKind::Link);
             apply_scenario(ctx, s);
         }
         Err(e) => ctx.notify(Notice {
-            kind: "link",
+            kind: NoticeKind::Link,
             text: format!(
                 "This link could not be opened: {}. Your current scenario is unchanged.",
                 sentence(&e.0).trim_end_matches('.')

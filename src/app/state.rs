@@ -3,6 +3,7 @@
 //! which checks the edited scenario as a whole and either commits it or leaves the current
 //! one in place and says, next to the control, what is wrong.
 
+use crate::view::controls::Control;
 use std::collections::BTreeMap;
 
 use leptos::prelude::*;
@@ -10,10 +11,37 @@ use leptos::prelude::*;
 use crate::scenario::{Scenario, TableSpec};
 
 /// A message across the top of the page.
+/// What a notice is about; one notice of each kind at a time.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum NoticeKind {
+    /// a link that could not be opened, or was opened over saved work
+    Link,
+    /// the browser's storage could not be read or written
+    Storage,
+    /// a file that could not be opened
+    File,
+    /// the scenario is too large to save
+    Save,
+    /// saved work that can be put back
+    Restore,
+}
+
+impl NoticeKind {
+    /// The `data-notice` hook.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            NoticeKind::Link => "link",
+            NoticeKind::Storage => "storage",
+            NoticeKind::File => "file",
+            NoticeKind::Save => "save",
+            NoticeKind::Restore => "restore",
+        }
+    }
+}
+
 #[derive(Debug, Clone, PartialEq)]
 pub struct Notice {
-    /// stable hook: "link", "storage", "file", "save", "restore"
-    pub kind: &'static str,
+    pub kind: NoticeKind,
     pub text: String,
     /// an alert (something went wrong) or a status line
     pub alert: bool,
@@ -32,7 +60,7 @@ pub enum NoticeAction {
 pub struct Ctx {
     pub scenario: RwSignal<Scenario>,
     /// messages next to controls, by control hook
-    pub errors: RwSignal<BTreeMap<&'static str, String>>,
+    pub errors: RwSignal<BTreeMap<Control, String>>,
     pub notices: RwSignal<Vec<Notice>>,
     /// the last spectrum the user loaded, kept while another source is in use
     pub user_table: RwSignal<Option<TableSpec>>,
@@ -84,29 +112,29 @@ impl Ctx {
         }
     }
 
-    pub fn set_error(&self, hook: &'static str, msg: String) {
+    pub fn set_error(&self, hook: Control, msg: String) {
         self.errors.update(|e| {
             e.insert(hook, msg);
         });
     }
 
-    pub fn clear_error(&self, hook: &'static str) {
-        if self.errors.with_untracked(|e| e.contains_key(hook)) {
+    pub fn clear_error(&self, hook: Control) {
+        if self.errors.with_untracked(|e| e.contains_key(&hook)) {
             self.errors.update(|e| {
-                e.remove(hook);
+                e.remove(&hook);
             });
         }
     }
 
     /// The message shown next to control `hook`, if any (reactive).
-    pub fn error_of(&self, hook: &'static str) -> Option<String> {
-        self.errors.with(|e| e.get(hook).cloned())
+    pub fn error_of(&self, hook: Control) -> Option<String> {
+        self.errors.with(|e| e.get(&hook).cloned())
     }
 
     /// Apply `f` to a copy of the scenario; commit it if it checks out, otherwise show the
     /// reason next to control `hook` and keep the current scenario. Returns whether the
     /// edit was committed.
-    pub fn edit(&self, hook: &'static str, f: impl FnOnce(&mut Scenario)) -> bool {
+    pub fn edit(&self, hook: Control, f: impl FnOnce(&mut Scenario)) -> bool {
         let mut next = self.scenario.get_untracked();
         f(&mut next);
         match validate(&next) {
@@ -129,7 +157,7 @@ impl Ctx {
     /// next to the control and keep the scenario.
     pub fn choose<T>(
         &self,
-        hook: &'static str,
+        hook: Control,
         value: Option<T>,
         missing: &str,
         apply: impl FnOnce(&mut Scenario, T),
@@ -145,7 +173,7 @@ impl Ctx {
 
     /// Move the band gap [eV] (from a drag, a key, a typed value or a preset). Only the gap
     /// changes, so only its range needs checking; the scenario is updated in place.
-    pub fn set_gap(&self, hook: &'static str, gap_ev: f64) -> bool {
+    pub fn set_gap(&self, hook: Control, gap_ev: f64) -> bool {
         mark("gg-edit");
         // the scenario's own range check; the page adds how to type a wavelength
         if let Err(e) = crate::scenario::check_gap_ev(gap_ev) {
@@ -160,8 +188,8 @@ impl Ctx {
             self.set_error(hook, msg);
             return false;
         }
-        self.clear_error("gap");
-        self.clear_error("gap-nm");
+        self.clear_error(Control::Gap);
+        self.clear_error(Control::GapNm);
         if self.scenario.with_untracked(|s| s.cell.gap_ev.to_bits() != gap_ev.to_bits()) {
             self.scenario.update(|s| s.cell.gap_ev = gap_ev);
         }
@@ -180,7 +208,7 @@ impl Ctx {
         });
     }
 
-    pub fn dismiss(&self, kind: &'static str) {
+    pub fn dismiss(&self, kind: NoticeKind) {
         self.notices.update(|v| v.retain(|o| o.kind != kind));
     }
 }

@@ -7,6 +7,7 @@
 //! physics of its own.
 
 pub mod cell;
+pub mod controls;
 pub mod export;
 pub mod format;
 pub mod hints;

@@ -4,6 +4,7 @@
 //! at the same absorption edge, with the absorptance itself against the step.
 
 use crate::report::CellMetric;
+use crate::view::controls::Control;
 use std::rc::Rc;
 
 use leptos::html;
@@ -20,13 +21,13 @@ use crate::formats::eqe_csv::parse_eqe_csv;
 use crate::formats::TableKind;
 use crate::report::stack::AbsorberReport;
 use crate::scenario::stack::{AbsorberSpec, EqeTableSpec};
-use crate::view::cell::absorber::AbsorberView;
+use crate::view::cell::absorber::{AbsorberKind, AbsorberView};
 use crate::view::format::{self as fmt, fixed};
 use crate::view::input::{ev_of_nm, parse_number};
 
 /// Make `spec` the single cell's absorptance, if the scenario accepts it for the cell's gap
 /// and temperature; otherwise say why under `hook`.
-pub fn set_absorber(ctx: Ctx, hook: &'static str, spec: AbsorberSpec) -> bool {
+pub fn set_absorber(ctx: Ctx, hook: Control, spec: AbsorberSpec) -> bool {
     let (gap, temp) = ctx.scenario.with_untracked(|s| (s.cell.gap_ev, s.cell.cell_temp_k));
     if let Err(e) = spec.to_physics(gap, temp, &mut Vec::new()) {
         ctx.set_error(hook, sentence(&e));
@@ -46,9 +47,9 @@ pub fn open_eqe(ctx: Ctx, kept: RwSignal<Option<EqeTableSpec>>, file: web_sys::F
         match outcome {
             Ok(table) => {
                 let spec = EqeTableSpec::from_table(&table);
-                if set_absorber(ctx, "eqe-file", AbsorberSpec::Measured(spec.clone())) {
+                if set_absorber(ctx, Control::EqeFile, AbsorberSpec::Measured(spec.clone())) {
                     kept.set(Some(spec));
-                    ctx.clear_error("absorber");
+                    ctx.clear_error(Control::Absorber);
                     ctx.status.set(Some(format!(
                         "Loaded the quantum efficiency '{name}' ({} points).",
                         table.coordinates().len()
@@ -56,7 +57,7 @@ pub fn open_eqe(ctx: Ctx, kept: RwSignal<Option<EqeTableSpec>>, file: web_sys::F
                 }
             }
             Err(e) => ctx.set_error(
-                "eqe-file",
+                Control::EqeFile,
                 format!(
                     "'{name}' was not loaded — {}. Fix the file and load it again; nothing else changed.",
                     sentence(&e).trim_end_matches('.')
@@ -78,7 +79,7 @@ impl Drawing for AbsorptancePlot<'_> {
         let (lo, hi) = pts.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), p| (a.min(p.0), b.max(p.0)));
         let (lo, hi) = if hi > lo { (lo, hi) } else { (300.0, 1200.0) };
         let x = AxisSpec::new(lo, hi, tick_target(look, w, 70.0), "Wavelength", "nm", false);
-        let what = if self.a.kind == "urbach" { "Absorptance" } else { "EQE" };
+        let what = if self.a.kind == AbsorberKind::Urbach { "Absorptance" } else { "EQE" };
         let y = AxisSpec::new(0.0, 105.0, tick_target(look, h, 40.0), what, "%", false);
         let (mut c, frame) = chart(root, look, &x, &y, true)?;
         // the ideal step at the same edge
@@ -162,21 +163,23 @@ pub fn absorptance_section(cs: CellState, canvas: NodeRef<html::Canvas>) -> impl
 
     let choose = move |value: &str| {
         let ok = match value {
-            "urbach" => set_absorber(ctx, "absorber", AbsorberSpec::Urbach { urbach_mev: last_urbach.get_untracked() }),
+            "urbach" => {
+                set_absorber(ctx, Control::Absorber, AbsorberSpec::Urbach { urbach_mev: last_urbach.get_untracked() })
+            }
             "measured" => match kept_table.get_untracked() {
-                Some(t) => set_absorber(ctx, "absorber", AbsorberSpec::Measured(t)),
+                Some(t) => set_absorber(ctx, Control::Absorber, AbsorberSpec::Measured(t)),
                 None => {
                     ctx.set_error(
-                        "absorber",
+                        Control::Absorber,
                         "Load an EQE file first (below); the current absorptance is still in use.".into(),
                     );
                     false
                 }
             },
-            _ => set_absorber(ctx, "absorber", AbsorberSpec::Step),
+            _ => set_absorber(ctx, Control::Absorber, AbsorberSpec::Step),
         };
         if ok {
-            ctx.clear_error("urbach");
+            ctx.clear_error(Control::Urbach);
         } else {
             refresh.update(|n| *n += 1);
         }
@@ -208,7 +211,7 @@ pub fn absorptance_section(cs: CellState, canvas: NodeRef<html::Canvas>) -> impl
     let urbach_field = Field {
         label: "Urbach energy",
         unit: "meV",
-        hook: "urbach",
+        hook: Control::Urbach,
         hint: Some("The width of the exponential absorption tail below the gap, e.g. 15 meV; absorption falls e-fold per Urbach energy.".into()),
         example: "15",
         value: Memo::new(move |_| urbach.get().unwrap_or_else(|| last_urbach.get())),
@@ -216,7 +219,7 @@ pub fn absorptance_section(cs: CellState, canvas: NodeRef<html::Canvas>) -> impl
         parse: |t| parse_number(t.trim().trim_end_matches("meV").trim_end_matches("mev")).ok_or_else(|| format!("'{}' is not an Urbach energy; type a number of meV, e.g. 15", t.trim())),
     };
     let urbach_commit: Rc<dyn Fn(f64) -> bool> = Rc::new(move |u| {
-        let ok = set_absorber(ctx, "urbach", AbsorberSpec::Urbach { urbach_mev: u });
+        let ok = set_absorber(ctx, Control::Urbach, AbsorberSpec::Urbach { urbach_mev: u });
         if ok {
             last_urbach.set(u);
         }
@@ -255,7 +258,7 @@ pub fn absorptance_section(cs: CellState, canvas: NodeRef<html::Canvas>) -> impl
                 })
                 .collect_view();
             let warnings = a.warnings.iter().map(|w| sentence(w)).collect::<Vec<_>>().join(" ");
-            let (name, column) = if a.kind == "urbach" {
+            let (name, column) = if a.kind == AbsorberKind::Urbach {
                 (format!("{} below the {} eV gap", a.name, fixed(a.step.cell.gap_ev, 3)), "Urbach tail")
             } else {
                 (format!("{} · edge (half maximum) {} eV", a.name, fixed(a.step.cell.gap_ev, 3)), "This EQE")
@@ -287,11 +290,11 @@ pub fn absorptance_section(cs: CellState, canvas: NodeRef<html::Canvas>) -> impl
             <fieldset class="choice">
                 <legend>"Absorptance"</legend>
                 {radios}
-                <p class="field-error" id="e-absorber" data-error="absorber" aria-live="polite">{move || ctx.error_of("absorber")}</p>
+                <p class="field-error" id="e-absorber" data-error=Control::Absorber.as_str() aria-live="polite">{move || ctx.error_of(Control::Absorber)}</p>
             </fieldset>
             <div class="sub-field" hidden=move || kind.get() != "urbach">{number_field(ctx, urbach_field, urbach_commit, None)}</div>
             {drop}
-            <p class="field-error" id="e-eqe-file" data-error="eqe-file" aria-live="polite">{move || ctx.error_of("eqe-file")}</p>
+            <p class="field-error" id="e-eqe-file" data-error=Control::EqeFile.as_str() aria-live="polite">{move || ctx.error_of(Control::EqeFile)}</p>
             {table}
             <div class="legend" hidden=move || !has()>
                 <span class="key"><i class="k-line k-spectrum"></i>{move || if kind.get() == "urbach" { "with the Urbach tail" } else { "measured EQE" }}</span>

@@ -2,6 +2,7 @@
 //! band-gap drag and keys, and the hover read-out.
 
 use crate::report::CellMetric;
+use crate::view::controls::Control;
 use std::rc::Rc;
 
 use leptos::html;
@@ -112,7 +113,7 @@ fn aria(kind: PlotKind) -> &'static str {
 fn toggle<T: Copy + PartialEq + Send + Sync + 'static>(
     ctx: Ctx,
     label: &'static str,
-    hook: &'static str,
+    hook: Control,
     options: [(T, &'static str, &'static str); 2],
     get: fn(&crate::scenario::ViewSettings) -> T,
     set: fn(&mut crate::scenario::ViewSettings, T),
@@ -133,7 +134,7 @@ fn toggle<T: Copy + PartialEq + Send + Sync + 'static>(
             }
         })
         .collect_view();
-    view! { <div class="seg" role="group" aria-label=label data-control=hook>{buttons}</div> }
+    view! { <div class="seg" role="group" aria-label=label data-control=hook.as_str()>{buttons}</div> }
 }
 
 fn header_tools(cs: CellState, kind: PlotKind) -> impl IntoView {
@@ -141,8 +142,8 @@ fn header_tools(cs: CellState, kind: PlotKind) -> impl IntoView {
     match kind {
         PlotKind::Spectrum => view! {
             <div class="plot-tools">
-                {toggle(ctx, "Spectral axis", "spectrum-axis", [(PlotAxis::Wavelength, "Wavelength", "wavelength"), (PlotAxis::PhotonEnergy, "Photon energy", "energy")], |v| v.spectrum_axis, |v, a| v.spectrum_axis = a)}
-                {toggle(ctx, "Plotted quantity", "spectrum-quantity", [(PlotQuantity::Irradiance, "Irradiance", "irradiance"), (PlotQuantity::PhotonFlux, "Photon flux", "photon-flux")], |v| v.spectrum_quantity, |v, q| v.spectrum_quantity = q)}
+                {toggle(ctx, "Spectral axis", Control::SpectrumAxis, [(PlotAxis::Wavelength, "Wavelength", "wavelength"), (PlotAxis::PhotonEnergy, "Photon energy", "energy")], |v| v.spectrum_axis, |v, a| v.spectrum_axis = a)}
+                {toggle(ctx, "Plotted quantity", Control::SpectrumQuantity, [(PlotQuantity::Irradiance, "Irradiance", "irradiance"), (PlotQuantity::PhotonFlux, "Photon flux", "photon-flux")], |v| v.spectrum_quantity, |v, q| v.spectrum_quantity = q)}
             </div>
         }
         .into_any(),
@@ -161,8 +162,8 @@ fn range_tools(cs: CellState) -> impl IntoView {
     let best = move || cs.computed.with(|c| c.as_ref().and_then(|c| c.curve.best.map(|b| to_ev(b.gap_j))));
     view! {
         <div class="plot-tools">
-            {range_input(ctx, "curve-from", "curve-range", "from", "eV", from, |s, v| s.view.curve_from_ev = v, bad)}
-            {range_input(ctx, "curve-to", "curve-range", "to", "eV", to, |s, v| s.view.curve_to_ev = v, bad)}
+            {range_input(ctx, "curve-from", Control::CurveRange, "from", "eV", from, |s, v| s.view.curve_from_ev = v, bad)}
+            {range_input(ctx, "curve-to", Control::CurveRange, "to", "eV", to, |s, v| s.view.curve_to_ev = v, bad)}
             <button
                 type="button"
                 class="small"
@@ -170,7 +171,7 @@ fn range_tools(cs: CellState) -> impl IntoView {
                 disabled=move || best().is_none()
                 on:click=move |_| {
                     if let Some(g) = best() {
-                        ctx.set_gap("gap", tidy(g));
+                        ctx.set_gap(Control::Gap, tidy(g));
                     }
                 }
             >
@@ -232,7 +233,7 @@ impl CellCard {
         let f = self.frame();
         let g = self.cs.computed.with_untracked(|c| c.as_ref().and_then(|c| gap_at(self.kind, &f, c, x_css)));
         if let Some(g) = g {
-            self.cs.ctx.set_gap("gap", g);
+            self.cs.ctx.set_gap(Control::Gap, g);
         }
     }
 }
@@ -276,7 +277,7 @@ impl PlotBehaviour for CellCard {
             "ArrowLeft" => -right,
             _ => return false,
         };
-        ctx.set_gap("gap", tidy(ctx.gap() + dir * step));
+        ctx.set_gap(Control::Gap, tidy(ctx.gap() + dir * step));
         true
     }
 
@@ -298,7 +299,7 @@ pub fn plot_card(cs: CellState, kind: PlotKind, canvas: NodeRef<html::Canvas>) -
     let i = kind.index();
     let draggable = kind != PlotKind::Jv;
     let note = (kind == PlotKind::Efficiency).then(|| view! {
-        <p class="field-error" id="e-curve-range" data-error="curve-range" aria-live="polite">{move || ctx.error_of("curve-range")}</p>
+        <p class="field-error" id="e-curve-range" data-error=Control::CurveRange.as_str() aria-live="polite">{move || ctx.error_of(Control::CurveRange)}</p>
     });
     card(
         ctx,

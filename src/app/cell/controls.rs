@@ -5,6 +5,7 @@
 //! use. Fields follow the scenario when it changes elsewhere (a drag, a key, a file), except
 //! while the user is typing a value that already matches.
 
+use crate::view::controls::Control;
 use std::rc::Rc;
 
 use leptos::ev;
@@ -49,7 +50,7 @@ pub fn source_panel(cs: CellState) -> impl IntoView {
             _ => None,
         };
         ctx.choose(
-            "spectrum",
+            Control::Spectrum,
             spec,
             "Load a spectrum file first (below); the current source is still in use.",
             |s, spec| s.cell.spectrum = spec,
@@ -87,7 +88,7 @@ pub fn source_panel(cs: CellState) -> impl IntoView {
     let bb_field = Field {
         label: "Sun temperature",
         unit: "K",
-        hook: "blackbody-temp",
+        hook: Control::BlackbodyTemp,
         hint: Some("Blackbody disc seen from 1 au; 5772 K matches the Sun's output.".into()),
         example: "5772",
         value: bb_value,
@@ -95,7 +96,7 @@ pub fn source_panel(cs: CellState) -> impl IntoView {
         parse: plain_parse,
     };
     let bb_commit: Rc<dyn Fn(f64) -> bool> = Rc::new(move |t| {
-        let ok = ctx.edit("blackbody-temp", |s| s.cell.spectrum = SourceSpec::Blackbody { temp_k: t });
+        let ok = ctx.edit(Control::BlackbodyTemp, |s| s.cell.spectrum = SourceSpec::Blackbody { temp_k: t });
         if ok {
             ctx.bb_temp.set(t);
         }
@@ -148,7 +149,7 @@ pub fn source_panel(cs: CellState) -> impl IntoView {
             </div>
             <div class="sub-field" hidden=move || key.get() != "blackbody">{bb_view}</div>
             {drop}
-            <p class="field-error" id="e-spectrum" data-error="spectrum" aria-live="polite">{move || ctx.error_of("spectrum")}</p>
+            <p class="field-error" id="e-spectrum" data-error=Control::Spectrum.as_str() aria-live="polite">{move || ctx.error_of(Control::Spectrum)}</p>
         </section>
     }
 }
@@ -159,18 +160,18 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
     let gap_nm = Memo::new(move |_| ctx.scenario.with(|s| ev_of_nm(1.0) / s.cell.gap_ev));
 
     // arrow keys on the gap field: Up/Down always; Left/Right unless the user is typing
-    let (gap_keys, typing) = gap_keys(Rc::new(move |d| ctx.set_gap("gap", tidy(ctx.gap() + d))));
+    let (gap_keys, typing) = gap_keys(Rc::new(move |d| ctx.set_gap(Control::Gap, tidy(ctx.gap() + d))));
     let gap_field = Field {
         label: "Band gap",
         unit: "eV",
-        hook: "gap",
+        hook: Control::Gap,
         hint: None,
         example: "1.34",
         value: gap,
         show: fmt::gap_ev,
         parse: parse_gap,
     };
-    let gap_commit: Rc<dyn Fn(f64) -> bool> = Rc::new(move |g| ctx.set_gap("gap", g));
+    let gap_commit: Rc<dyn Fn(f64) -> bool> = Rc::new(move |g| ctx.set_gap(Control::Gap, g));
     let gap_view = view! {
         <div on:focusin=move |_| typing.set(false)>{number_field(ctx, gap_field, gap_commit, Some(gap_keys))}</div>
     };
@@ -178,7 +179,7 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
     let nm_field = Field {
         label: "Absorption edge",
         unit: "nm",
-        hook: "gap-nm",
+        hook: Control::GapNm,
         hint: None,
         example: "925",
         value: gap_nm,
@@ -192,7 +193,7 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
             }
         },
     };
-    let nm_commit: Rc<dyn Fn(f64) -> bool> = Rc::new(move |nm| ctx.set_gap("gap-nm", ev_of_nm(nm)));
+    let nm_commit: Rc<dyn Fn(f64) -> bool> = Rc::new(move |nm| ctx.set_gap(Control::GapNm, ev_of_nm(nm)));
     let nm_view = number_field(ctx, nm_field, nm_commit, None);
 
     let presets = ABSORBERS
@@ -207,7 +208,7 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
                     data-preset=*name
                     aria-pressed=move || if pressed() { "true" } else { "false" }
                     title=format!("{name}: {} eV, a typical room-temperature value", fmt::fixed(g, 2))
-                    on:click=move |_| { ctx.set_gap("gap", g); }
+                    on:click=move |_| { ctx.set_gap(Control::Gap, g); }
                 >
                     <span class="chip-name">{*name}</span>
                     <span class="chip-value">{fmt::fixed(g, 2)}</span>
@@ -222,14 +223,14 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
         Field {
             label: "Cell temperature",
             unit: "K",
-            hook: "cell-temp",
+            hook: Control::CellTemp,
             hint: Some(format!("{} to {} K; 300 K is the usual reference.", CELL_TEMP_RANGE_K.0, CELL_TEMP_RANGE_K.1)),
             example: "300",
             value: temp,
             show: |v| fmt::field(v, 6),
             parse: plain_parse,
         },
-        Rc::new(move |t| ctx.edit("cell-temp", |s| s.cell.cell_temp_k = t)),
+        Rc::new(move |t| ctx.edit(Control::CellTemp, |s| s.cell.cell_temp_k = t)),
         None,
     );
 
@@ -239,7 +240,7 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
         Field {
             label: "Concentration",
             unit: "suns",
-            hook: "concentration",
+            hook: Control::Concentration,
             hint: Some(format!(
                 "1 (no concentration) up to {} suns, the limit for light from the sun's disc.",
                 thousands(MAX_CONCENTRATION)
@@ -249,14 +250,14 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
             show: |v| fmt::field(v, 6),
             parse: plain_parse,
         },
-        Rc::new(move |x| ctx.edit("concentration", |s| s.cell.concentration = x)),
+        Rc::new(move |x| ctx.edit(Control::Concentration, |s| s.cell.concentration = x)),
         None,
     );
     let slider_max = MAX_CONCENTRATION.log10();
     let on_slider = move |ev: ev::Event| {
         if let Some(v) = parse_number(&event_target_value(&ev)) {
             let x = if v >= slider_max - 5e-4 { MAX_CONCENTRATION } else { round_sig(10f64.powf(v), 3).max(1.0) };
-            ctx.edit("concentration", |s| s.cell.concentration = x);
+            ctx.edit(Control::Concentration, |s| s.cell.concentration = x);
         }
     };
     let warnings = move || {
@@ -272,24 +273,24 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
         Field {
             label: "External radiative efficiency (ERE)",
             unit: "",
-            hook: "ere",
+            hook: Control::Ere,
             hint: Some("A fraction above 0, at most 1. 1 is the radiative limit; 0.01 means 1 in 100 recombinations gives out a photon.".into()),
             example: "1",
             value: ere,
             show: |v| fmt::field(v, 6),
             parse: plain_parse,
         },
-        Rc::new(move |x| ctx.edit("ere", |s| s.cell.ere = x)),
+        Rc::new(move |x| ctx.edit(Control::Ere, |s| s.cell.ere = x)),
         None,
     );
 
     let emission = Memo::new(move |_| ctx.scenario.with(|s| s.cell.emission));
     let model = Memo::new(move |_| ctx.scenario.with(|s| s.cell.approx));
     let set_emission = move |e: Emission| {
-        ctx.edit("emission", |s| s.cell.emission = e);
+        ctx.edit(Control::Emission, |s| s.cell.emission = e);
     };
     let set_model = move |m: JvModel| {
-        ctx.edit("model", |s| s.cell.approx = m);
+        ctx.edit(Control::Model, |s| s.cell.approx = m);
     };
 
     view! {
@@ -318,7 +319,7 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
                         prop:value=move || format!("{:.4}", conc.get().max(1.0).log10())
                         on:input=on_slider
                     />
-                    <button type="button" class="small" data-action="max-concentration" title=format!("Set the limit for light from the sun's disc, {} suns", thousands(MAX_CONCENTRATION)) on:click=move |_| { ctx.edit("concentration", |s| s.cell.concentration = MAX_CONCENTRATION); }>
+                    <button type="button" class="small" data-action="max-concentration" title=format!("Set the limit for light from the sun's disc, {} suns", thousands(MAX_CONCENTRATION)) on:click=move |_| { ctx.edit(Control::Concentration, |s| s.cell.concentration = MAX_CONCENTRATION); }>
                         "Max"
                     </button>
                 </div>
@@ -338,7 +339,7 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
                     <input type="radio" name="emission" data-control="emission-both" prop:checked=move || emission.get() == Emission::Both on:change=move |_| set_emission(Emission::Both) />
                     "Both faces"
                 </label>
-                <p class="field-error" data-error="emission">{move || ctx.error_of("emission")}</p>
+                <p class="field-error" data-error=Control::Emission.as_str()>{move || ctx.error_of(Control::Emission)}</p>
             </fieldset>
             <fieldset class="choice">
                 <legend>"J–V model"</legend>
@@ -350,7 +351,7 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
                     <input type="radio" name="model" data-control="model-boltzmann" prop:checked=move || model.get() == JvModel::Boltzmann on:change=move |_| set_model(JvModel::Boltzmann) />
                     "Boltzmann approximation"
                 </label>
-                <p class="field-error" data-error="model">{move || ctx.error_of("model")}</p>
+                <p class="field-error" data-error=Control::Model.as_str()>{move || ctx.error_of(Control::Model)}</p>
             </fieldset>
         </section>
     }

@@ -3,6 +3,7 @@
 //! thermalization, emission, Carnot, Boltzmann, delivered). Clicking the areas moves the
 //! single cell's gap.
 
+use crate::view::controls::Control;
 use std::fmt::Write;
 use std::rc::Rc;
 
@@ -208,7 +209,7 @@ impl PlotBehaviour for LossCard {
     fn press(&self, x: f64, y: f64) -> bool {
         match self.gap_at(x, y) {
             Some(g) => {
-                self.cs.ctx.set_gap("gap", g);
+                self.cs.ctx.set_gap(Control::Gap, g);
                 true
             }
             None => false,
@@ -217,7 +218,7 @@ impl PlotBehaviour for LossCard {
 
     fn drag(&self, x: f64, y: f64) {
         if let Some(g) = self.gap_at(x, y) {
-            self.cs.ctx.set_gap("gap", g);
+            self.cs.ctx.set_gap(Control::Gap, g);
         }
     }
 

@@ -14,6 +14,7 @@ pub mod losses;
 pub mod plots;
 pub mod state;
 
+use crate::view::controls::Control;
 use std::sync::Arc;
 
 use leptos::html;
@@ -73,13 +74,16 @@ fn render_effect(cs: CellState, canvases: [NodeRef<html::Canvas>; PLOTS]) {
                     draw_into(ABSORPTANCE, &targets[ABSORPTANCE], &plot, &mut frames, &mut errors);
                 }
                 cs.absorber.set(a);
-                if ctx.errors.with_untracked(|m| m.get("absorber").is_some_and(|t| t.starts_with(ABSORBER_UNUSABLE))) {
-                    ctx.clear_error("absorber");
+                if ctx
+                    .errors
+                    .with_untracked(|m| m.get(&Control::Absorber).is_some_and(|t| t.starts_with(ABSORBER_UNUSABLE)))
+                {
+                    ctx.clear_error(Control::Absorber);
                 }
             }
             Err(e) => {
                 cs.absorber.set(None);
-                ctx.set_error("absorber", format!("{ABSORBER_UNUSABLE} {}", sentence(&e)));
+                ctx.set_error(Control::Absorber, format!("{ABSORBER_UNUSABLE} {}", sentence(&e)));
             }
         }
         cs.frames.set(frames);

@@ -2,6 +2,7 @@
 //! editor's card, which also edits, is in [`super::editor`]).
 
 use crate::report::radiator::RadiatorMetric;
+use crate::view::controls::Control;
 use std::rc::Rc;
 
 use leptos::html;
@@ -153,12 +154,12 @@ pub fn curve_card(rad: RadiatorState, canvas: NodeRef<html::Canvas>) -> impl Int
     };
     let tools = view! {
         <div class="plot-tools">
-            {range_input(ctx, "net-curve-from", "net-curve-range", "from", "K", from, |s, v| s.radiator.curve_from_k = v, bad)}
-            {range_input(ctx, "net-curve-to", "net-curve-range", "to", "K", to, |s, v| s.radiator.curve_to_k = v, bad)}
+            {range_input(ctx, "net-curve-from", Control::NetCurveRange, "from", "K", from, |s, v| s.radiator.curve_from_k = v, bad)}
+            {range_input(ctx, "net-curve-to", Control::NetCurveRange, "to", "K", to, |s, v| s.radiator.curve_to_k = v, bad)}
         </div>
     };
     let note = view! {
-        <p class="field-error" id="e-net-curve-range" data-error="net-curve-range" aria-live="polite">{move || ctx.error_of("net-curve-range")}</p>
+        <p class="field-error" id="e-net-curve-range" data-error=Control::NetCurveRange.as_str() aria-live="polite">{move || ctx.error_of(Control::NetCurveRange)}</p>
     };
     plot_card(
         ctx,

@@ -3,6 +3,7 @@
 //! the user types and otherwise say next to themselves what is wrong, keeping the last good
 //! value in use.
 
+use crate::view::controls::Control;
 use std::rc::Rc;
 
 use leptos::ev;
@@ -32,7 +33,7 @@ fn field(
     ctx: Ctx,
     label: &'static str,
     unit: &'static str,
-    hook: &'static str,
+    hook: Control,
     hint: String,
     example: &'static str,
     get: fn(&Scenario) -> f64,
@@ -50,7 +51,7 @@ fn field(
 /// A <select> whose options are (value, text, enabled); `choose` commits a value and
 /// returns whether it was taken. The select always shows the value `current` holds.
 fn select(
-    hook: &'static str,
+    hook: Control,
     label: &'static str,
     current: Memo<&'static str>,
     options: Vec<(&'static str, Signal<String>, Signal<bool>)>,
@@ -76,7 +77,7 @@ fn select(
         .collect_view();
     view! {
         <label for=id.clone()>{label}</label>
-        <select id=id data-control=hook node_ref=node on:change=on_change aria-describedby=format!("e-{hook}")>{opts}</select>
+        <select id=id data-control=hook.as_str() node_ref=node on:change=on_change aria-describedby=format!("e-{hook}")>{opts}</select>
     }
 }
 
@@ -88,8 +89,8 @@ fn always() -> Signal<bool> {
     Signal::stored(true)
 }
 
-fn error_line(ctx: Ctx, hook: &'static str) -> impl IntoView {
-    view! { <p class="field-error" id=format!("e-{hook}") data-error=hook aria-live="polite">{move || ctx.error_of(hook)}</p> }
+fn error_line(ctx: Ctx, hook: Control) -> impl IntoView {
+    view! { <p class="field-error" id=format!("e-{hook}") data-error=hook.as_str() aria-live="polite">{move || ctx.error_of(hook)}</p> }
 }
 
 fn sky_key(s: &SkySpec) -> &'static str {
@@ -126,7 +127,7 @@ pub fn environment_section(rad: RadiatorState) -> impl IntoView {
             _ => None,
         };
         ctx.choose(
-            "sky",
+            Control::Sky,
             spec,
             "Load a sky transmittance file first (below); the current sky is still in use.",
             |s, spec| s.radiator.sky = spec,
@@ -136,7 +137,7 @@ pub fn environment_section(rad: RadiatorState) -> impl IntoView {
         ctx,
         "Precipitable water",
         "cm",
-        "pwv",
+        Control::Pwv,
         format!("{} to {} cm; about 0.5 is a dry sky, 4 a humid one.", PWV_RANGE_CM.0, PWV_RANGE_CM.1),
         "1.5",
         |s| match s.radiator.sky {
@@ -151,7 +152,7 @@ pub fn environment_section(rad: RadiatorState) -> impl IntoView {
         Field {
             label: "or its dew point",
             unit: "°C",
-            hook: "dew",
+            hook: Control::Dew,
             hint: Some(format!(
                 "At the ground, {} to {} °C; sets the precipitable water above by Reitan's relation.",
                 DEW_POINT_RANGE_C.0, DEW_POINT_RANGE_C.1
@@ -170,7 +171,7 @@ pub fn environment_section(rad: RadiatorState) -> impl IntoView {
             },
         },
         Rc::new(move |v| match pwv_from_dew_point(v) {
-            Ok(pwv_cm) => ctx.edit("dew", |s| s.radiator.sky = SkySpec::Clear { pwv_cm }),
+            Ok(pwv_cm) => ctx.edit(Control::Dew, |s| s.radiator.sky = SkySpec::Clear { pwv_cm }),
             Err(_) => false,
         }),
         None,
@@ -193,7 +194,7 @@ pub fn environment_section(rad: RadiatorState) -> impl IntoView {
         ctx,
         "Ambient air temperature",
         "K",
-        "ambient",
+        Control::Ambient,
         format!(
             "{} to {} K (the clear sky: {} to {} K). The air also radiates as the sky.",
             AMBIENT_RANGE_K.0, AMBIENT_RANGE_K.1, CLEAR_SKY_AMBIENT_K.0, CLEAR_SKY_AMBIENT_K.1
@@ -207,7 +208,7 @@ pub fn environment_section(rad: RadiatorState) -> impl IntoView {
         ctx,
         "Surface temperature",
         "K",
-        "surface",
+        Control::Surface,
         "Where the balance and the figures of merit are evaluated.".into(),
         "300",
         |s| s.radiator.surface_temperature(),
@@ -215,13 +216,13 @@ pub fn environment_section(rad: RadiatorState) -> impl IntoView {
     );
     let on_at_ambient = move |ev: ev::Event| {
         let on = event_target_checked(&ev);
-        ctx.edit("surface", |s| s.radiator.surface_k = if on { None } else { Some(s.radiator.ambient_k) });
+        ctx.edit(Control::Surface, |s| s.radiator.surface_k = if on { None } else { Some(s.radiator.ambient_k) });
     };
     let hc = field(
         ctx,
         "Convection coefficient h_c",
         "W/m²K",
-        "hc",
+        Control::Hc,
         format!(
             "{} to {}; 0 for none (vacuum, a still enclosure), about 3-10 for still air to a light wind.",
             HC_RANGE.0, HC_RANGE.1
@@ -234,12 +235,12 @@ pub fn environment_section(rad: RadiatorState) -> impl IntoView {
         <section class="panel-section" aria-labelledby="env-h">
             <h2 id="env-h">"Sky and air"</h2>
             <div class="field">
-                {select("sky", "Sky model", key, options, choose)}
-                {error_line(ctx, "sky")}
+                {select(Control::Sky, "Sky model", key, options, choose)}
+                {error_line(ctx, Control::Sky)}
             </div>
             <div class="sub-field" hidden=move || key.get() != "clear">{pwv}{dew}</div>
             {sky_drop}
-            {error_line(ctx, "sky-file")}
+            {error_line(ctx, Control::SkyFile)}
             {ambient}
             <label class="check">
                 <input type="checkbox" data-control="surface-at-ambient" prop:checked=move || at_ambient.get() on:change=on_at_ambient />
@@ -267,7 +268,7 @@ pub fn sun_section(rad: RadiatorState) -> impl IntoView {
     let on_toggle = move |ev: ev::Event| {
         let want = event_target_checked(&ev);
         let spec = want.then(|| rad.last_sun.get_untracked());
-        ctx.edit("sun", move |s| s.radiator.sun = spec);
+        ctx.edit(Control::Sun, move |s| s.radiator.sun = spec);
     };
     let key =
         Memo::new(move |_| ctx.scenario.with(|s| sun_key(s.radiator.sun.as_ref().unwrap_or(&rad.last_sun.get()))));
@@ -287,14 +288,14 @@ pub fn sun_section(rad: RadiatorState) -> impl IntoView {
         };
         rad.last_sun.set(spec.clone());
         if on.get_untracked() {
-            ctx.edit("sun-spectrum", move |s| s.radiator.sun = Some(spec));
+            ctx.edit(Control::SunSpectrum, move |s| s.radiator.sun = Some(spec));
         }
     };
     let zenith = field(
         ctx,
         "Sun's zenith angle",
         "°",
-        "sun-zenith",
+        Control::SunZenith,
         "0 (overhead) to below 90°: the direction the surface's absorptance is read in (no effect on a Lambertian surface).".into(),
         "30",
         |s| s.radiator.sun_zenith_deg,
@@ -304,7 +305,7 @@ pub fn sun_section(rad: RadiatorState) -> impl IntoView {
         ctx,
         "Irradiance scale",
         "×",
-        "sun-scale",
+        Control::SunScale,
         format!(
             "{} to {} times the tabulated spectrum (1000 W/m² for AM1.5G at 1).",
             SUN_SCALE_RANGE.0, SUN_SCALE_RANGE.1
@@ -320,11 +321,11 @@ pub fn sun_section(rad: RadiatorState) -> impl IntoView {
                 <input type="checkbox" data-control="sun" prop:checked=move || on.get() on:change=on_toggle />
                 "Sunlit (off: night)"
             </label>
-            {error_line(ctx, "sun")}
+            {error_line(ctx, Control::Sun)}
             <div class="sun-fields" hidden=move || !on.get()>
                 <div class="field">
-                    {select("sun-spectrum", "Sun's spectrum", key, options, choose)}
-                    {error_line(ctx, "sun-spectrum")}
+                    {select(Control::SunSpectrum, "Sun's spectrum", key, options, choose)}
+                    {error_line(ctx, Control::SunSpectrum)}
                 </div>
                 {zenith}
                 {scale}
@@ -341,7 +342,7 @@ pub fn surface_section(rad: RadiatorState) -> impl IntoView {
     let is_measured = Memo::new(move |_| ctx.scenario.with(|s| matches!(s.radiator.emitter, EmitterSpec::Table(_))));
     let use_preset = move |hook: &'static str| {
         if let Some(spec) = preset(hook) {
-            if ctx.edit("emissivity-preset", move |s| s.radiator.emitter = spec) {
+            if ctx.edit(Control::EmissivityPreset, move |s| s.radiator.emitter = spec) {
                 rad.selected.set(None);
                 ctx.clear_error(super::editor::HOOK);
             }
@@ -377,7 +378,7 @@ pub fn surface_section(rad: RadiatorState) -> impl IntoView {
                     aria-pressed=move || if is_measured.get() { "true" } else { "false" }
                     on:click=move |_| {
                         let spec = EmitterSpec::Table(t.clone());
-                        ctx.edit("emissivity-preset", move |s| s.radiator.emitter = spec);
+                        ctx.edit(Control::EmissivityPreset, move |s| s.radiator.emitter = spec);
                     }
                 >
                     <span class="chip-name">{label}</span>
@@ -390,7 +391,7 @@ pub fn surface_section(rad: RadiatorState) -> impl IntoView {
         ctx,
         "Grey emissivity",
         "",
-        "grey-emissivity",
+        Control::GreyEmissivity,
         "A fraction from 0 to 1, the same at every wavelength.".into(),
         "0.9",
         |s| match s.radiator.emitter {
@@ -442,14 +443,14 @@ pub fn surface_section(rad: RadiatorState) -> impl IntoView {
                 <p id="rad-presets-h" class="presets-title">"Start from " <span class="muted">"(illustrative shapes of our own, not products)"</span></p>
                 <div class="chips">{chips}{measured}</div>
             </div>
-            {error_line(ctx, "emissivity-preset")}
+            {error_line(ctx, Control::EmissivityPreset)}
             <div class="sub-field" hidden=move || !is_grey.get()>{grey}</div>
             <p class="hint" hidden=move || extras().is_empty()>{extras}</p>
-            <button type="button" class="small" data-action="drop-solar-band" hidden=move || !has_band.get() on:click=move |_| { ctx.edit("emissivity-preset", |s| s.radiator.solar_band = None); }>
+            <button type="button" class="small" data-action="drop-solar-band" hidden=move || !has_band.get() on:click=move |_| { ctx.edit(Control::EmissivityPreset, |s| s.radiator.solar_band = None); }>
                 "Use one profile at all wavelengths"
             </button>
             {drop}
-            {error_line(ctx, "emissivity-file")}
+            {error_line(ctx, Control::EmissivityFile)}
         </section>
     }
 }

@@ -3,6 +3,7 @@
 //! profile that is not made of control points (a preset, a measured table) becomes the
 //! points drawn as hollow handles on its first edit.
 
+use crate::view::controls::Control;
 use std::rc::Rc;
 use std::sync::Arc;
 
@@ -25,16 +26,16 @@ use crate::view::radiator::RadiatorView;
 use crate::view::spectrum::interpolate;
 
 /// The hook under which editor messages are shown.
-pub const HOOK: &str = "emissivity-editor";
+pub const HOOK: Control = Control::EmissivityEditor;
 /// The hook of the points table's messages.
-pub const TABLE_HOOK: &str = "emissivity-points";
+pub const TABLE_HOOK: Control = Control::EmissivityPoints;
 
 /// The keys, as the page states them.
 pub const KEY_HELP: &str = "Keys on the plot: ←/→ move the chosen point 1 % in wavelength (Shift: 10 %), ↑/↓ 0.01 in emissivity (Shift: 0.1); Page Up/Page Down (or [ and ]) choose the previous/next point; Delete removes it; Insert or Enter adds one after it; Esc lets go.";
 
 /// Commit `points` as the profile under `hook`; says where the points came from when the
 /// profile was not made of points before.
-fn commit(rad: RadiatorState, hook: &'static str, points: Vec<[f64; 2]>) -> bool {
+fn commit(rad: RadiatorState, hook: Control, points: Vec<[f64; 2]>) -> bool {
     mark("gg-edit");
     let ctx = rad.ctx;
     let before = ctx.scenario.with_untracked(|s| s.radiator.emitter.clone());
@@ -318,7 +319,7 @@ pub fn editor_card(rad: RadiatorState, canvas: NodeRef<html::Canvas>) -> impl In
         </div>
     };
     let note = view! {
-        <p class="field-error" id=format!("e-{HOOK}") data-error=HOOK aria-live="polite">{move || ctx.error_of(HOOK)}</p>
+        <p class="field-error" id=format!("e-{HOOK}") data-error=HOOK.as_str() aria-live="polite">{move || ctx.error_of(HOOK)}</p>
         <p class="hint editor-selection" aria-live="polite">{selection_line(rad)}</p>
     };
     let footer = view! {
@@ -339,7 +340,7 @@ pub fn editor_card(rad: RadiatorState, canvas: NodeRef<html::Canvas>) -> impl In
             aria: format!("Emissivity profile editor over the sky's transmittance, the sun's spectrum and the blackbody curve. Drag a control point; double-click to add or remove one. {KEY_HELP}"),
             interactive: true,
             wrap_class: "editor",
-            control: Some(HOOK),
+            control: Some(HOOK.as_str()),
             tools: tools.into_any(),
             legend: legend(rad).into_any(),
             note: note.into_any(),
@@ -471,7 +472,7 @@ pub fn points_table(rad: RadiatorState) -> impl IntoView {
                 <button type="button" class="small" data-action="add-point" on:click=add>"Add point"</button>
                 <button type="button" class="small" data-action="edit-as-points" hidden=move || count.get() != 0 on:click=convert>"Edit as control points"</button>
             </div>
-            <p class="field-error" id=format!("e-{TABLE_HOOK}") data-error=TABLE_HOOK aria-live="polite">{move || ctx.error_of(TABLE_HOOK)}</p>
+            <p class="field-error" id=format!("e-{TABLE_HOOK}") data-error=TABLE_HOOK.as_str() aria-live="polite">{move || ctx.error_of(TABLE_HOOK)}</p>
         </div>
     }
 }

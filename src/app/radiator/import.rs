@@ -2,6 +2,7 @@
 //! reflectance) of the surface, and a zenith transmittance of the sky. A file that cannot be
 //! used changes nothing; the reason, with its line, is shown next to its control.
 
+use crate::view::controls::Control;
 use leptos::prelude::*;
 
 use crate::app::import::{read_then, stem};
@@ -15,7 +16,7 @@ use crate::view::hints::page_message;
 /// Make `apply(table)` the scenario's, or say under `hook` why the file cannot be used.
 fn use_table(
     ctx: Ctx,
-    hook: &'static str,
+    hook: Control,
     file_name: &str,
     parsed: Result<OpticalTable, String>,
     what: &str,
@@ -27,7 +28,7 @@ fn use_table(
                 ctx.status.set(Some(format!("Loaded '{file_name}' as the {what}.")));
                 true
             } else {
-                if let Some(msg) = ctx.errors.with_untracked(|e| e.get(hook).cloned()) {
+                if let Some(msg) = ctx.errors.with_untracked(|e| e.get(&hook).cloned()) {
                     ctx.set_error(
                         hook,
                         format!(
@@ -55,13 +56,13 @@ pub fn use_emissivity_text(ctx: Ctx, rad: RadiatorState, file_name: &str, text: 
         parse_emissivity_csv(&t, &OpticalHints::default(), &stem(file_name))
             .map_err(|e| page_message(&e, TableKind::Emissivity))
     });
-    let used = use_table(ctx, "emissivity-file", file_name, parsed, "emissivity profile", |s, t| {
+    let used = use_table(ctx, Control::EmissivityFile, file_name, parsed, "emissivity profile", |s, t| {
         s.radiator.emitter =
             EmitterSpec::Table(EmissivityTable { name: t.name, wavelength_m: t.wavelength_m, emissivity: t.values });
     });
     if used {
         rad.selected.set(None);
-        ctx.clear_error("emissivity-editor");
+        ctx.clear_error(Control::EmissivityEditor);
     }
 }
 
@@ -72,14 +73,14 @@ pub fn open_sky(ctx: Ctx, file: web_sys::File) {
             parse_transmittance_csv(&t, &OpticalHints::default(), &stem(&name))
                 .map_err(|e| page_message(&e, TableKind::Transmittance))
         });
-        if use_table(ctx, "sky-file", &name, parsed, "sky transmittance", |s, t| {
+        if use_table(ctx, Control::SkyFile, &name, parsed, "sky transmittance", |s, t| {
             s.radiator.sky = SkySpec::Table(TransmittanceTable {
                 name: t.name,
                 wavelength_m: t.wavelength_m,
                 transmittance: t.values,
             });
         }) {
-            ctx.clear_error("sky");
+            ctx.clear_error(Control::Sky);
         }
     });
 }

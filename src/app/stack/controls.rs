@@ -1,6 +1,7 @@
 //! The stack editor (number of junctions, connection, one field per gap), the headline
 //! figures, the per-subcell table, the light-and-cell summary and the cautions.
 
+use crate::view::controls::Control;
 use std::rc::Rc;
 
 use leptos::ev;
@@ -87,7 +88,7 @@ pub fn editor_section(sc: StackState) -> impl IntoView {
         match text.parse::<usize>() {
             Ok(n) if (2..=MAX_JUNCTIONS).contains(&n) => {
                 let gaps = resized(&sc.gaps(), n);
-                edit_stack(ctx, "junctions", move |st| {
+                edit_stack(ctx, Control::Junctions, move |st| {
                     st.gaps_ev = gaps;
                     st.optimize.junctions = n;
                 });
@@ -95,8 +96,10 @@ pub fn editor_section(sc: StackState) -> impl IntoView {
                     sc.selected.set(n - 1);
                 }
             }
-            _ => ctx
-                .set_error("junctions", format!("'{text}' is not a number of junctions; choose 2 to {MAX_JUNCTIONS}.")),
+            _ => ctx.set_error(
+                Control::Junctions,
+                format!("'{text}' is not a number of junctions; choose 2 to {MAX_JUNCTIONS}."),
+            ),
         }
     };
     let on_connection = move |ev: ev::Event| {
@@ -104,7 +107,7 @@ pub fn editor_section(sc: StackState) -> impl IntoView {
             "independent" => Connection::Independent,
             _ => Connection::Series,
         };
-        edit_stack(ctx, "connection", move |st| st.connection = c);
+        edit_stack(ctx, Control::Connection, move |st| st.connection = c);
     };
     let options = (2..=MAX_JUNCTIONS)
         .map(|n| view! { <option value=n.to_string() prop:selected=move || count.get() == n>{n.to_string()}</option> })
@@ -117,7 +120,7 @@ pub fn editor_section(sc: StackState) -> impl IntoView {
                 <div class="field">
                     <label for="f-junctions">"Junctions"</label>
                     <select id="f-junctions" data-control="junctions" on:change=on_count aria-describedby="e-junctions">{options}</select>
-                    <p class="field-error" id="e-junctions" data-error="junctions" aria-live="polite">{move || ctx.error_of("junctions")}</p>
+                    <p class="field-error" id="e-junctions" data-error=Control::Junctions.as_str() aria-live="polite">{move || ctx.error_of(Control::Junctions)}</p>
                 </div>
                 <div class="field">
                     <label for="f-connection">"Connection"</label>
@@ -125,7 +128,7 @@ pub fn editor_section(sc: StackState) -> impl IntoView {
                         <option value="series" prop:selected=move || connection.get() == Connection::Series>"Series (two-terminal)"</option>
                         <option value="independent" prop:selected=move || connection.get() == Connection::Independent>"Independent (multi-terminal)"</option>
                     </select>
-                    <p class="field-error" id="e-connection" data-error="connection" aria-live="polite">{move || ctx.error_of("connection")}</p>
+                    <p class="field-error" id="e-connection" data-error=Control::Connection.as_str() aria-live="polite">{move || ctx.error_of(Control::Connection)}</p>
                 </div>
             </div>
             <p class="hint" id="h-connection">
@@ -135,7 +138,7 @@ pub fn editor_section(sc: StackState) -> impl IntoView {
                 }}
             </p>
             <div class="stack-gaps">{fields}</div>
-            <p class="field-error" data-error="stack-gaps" aria-live="polite">{move || sc.error.get().is_some().then(|| ctx.error_of("stack-gaps")).flatten()}</p>
+            <p class="field-error" data-error=Control::StackGaps.as_str() aria-live="polite">{move || sc.error.get().is_some().then(|| ctx.error_of(Control::StackGaps)).flatten()}</p>
             <p class="hint">"Band gaps top cell first, each below the one above. Arrow keys in a field: ±1 meV (Shift: ±10 meV). Drag the markers on the spectrum, or click the map."</p>
         </section>
     }
@@ -170,7 +173,7 @@ pub fn conditions(sc: StackState) -> impl IntoView {
             <h2 id="stack-light-h">"Light and cells"</h2>
             <p class="stack-conditions" data-info="stack-conditions">{line}</p>
             <p class="hint">"Every subcell is an ideal step absorber with the solar cell's settings; no light passes between subcells."</p>
-            <button type="button" class="small" data-action="edit-conditions" on:click=move |_| { ctx.edit("panel", |s| s.view.panel = Panel::Cell); }>
+            <button type="button" class="small" data-action="edit-conditions" on:click=move |_| { ctx.edit(Control::Panel, |s| s.view.panel = Panel::Cell); }>
                 "Change them in the Solar cell tab"
             </button>
             <p class="safety" hidden=move || !concentrated()>
@@ -256,7 +259,7 @@ pub fn subcell_table(sc: StackState) -> impl IntoView {
                             if g.len() > 2 && i < g.len() {
                                 g.remove(i);
                                 let n = g.len();
-                                edit_stack(ctx, "junctions", move |st| {
+                                edit_stack(ctx, Control::Junctions, move |st| {
                                     st.gaps_ev = g;
                                     st.optimize.junctions = n;
                                 });

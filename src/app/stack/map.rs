@@ -9,6 +9,7 @@
 //! gap search's simplex ([`refine`]), and the best of them marked as the optimum. It is recomputed only when the light, the cell settings, the
 //! connection or the map's axes change, not when a gap moves.
 
+use crate::view::controls::Control;
 use std::cell::RefCell;
 use std::rc::Rc;
 use std::sync::Arc;
@@ -796,13 +797,13 @@ fn place_design(sc: StackState, top: f64, bottom: f64, unit: f64) -> bool {
     let n = ctx.scenario.with_untracked(|s| s.stack.gaps_ev.len());
     if n != 2 {
         ctx.set_error(
-            "tandem-map",
+            Control::TandemMap,
             format!("The map is for two-junction stacks and this design has {n}; set Junctions to 2 to place it on the map."),
         );
         return false;
     }
     let r = |v: f64| (v / unit).round() * unit;
-    set_gaps(ctx, "tandem-map", vec![tidy(r(top)), tidy(r(bottom))])
+    set_gaps(ctx, Control::TandemMap, vec![tidy(r(top)), tidy(r(bottom))])
 }
 
 /// The optimum's gaps are given to 0.1 meV, as the gap search gives its answer [eV].
@@ -995,7 +996,7 @@ fn resolution_tool(sc: StackState) -> impl IntoView {
     let points = Memo::new(move |_| ctx.scenario.with(|s| s.stack.map.points));
     let on_change = move |ev: leptos::ev::Event| {
         if let Ok(n) = event_target_value(&ev).parse::<usize>() {
-            edit_stack(ctx, "tandem-map", move |st| st.map.points = n);
+            edit_stack(ctx, Control::TandemMap, move |st| st.map.points = n);
         }
     };
     let options = move || {
@@ -1026,7 +1027,7 @@ pub fn map_card(sc: StackState, canvas: NodeRef<html::Canvas>) -> impl IntoView 
         _ => None,
     };
     let note = view! {
-        <p class="field-error" data-error="tandem-map" aria-live="polite">{move || ctx.error_of("tandem-map")}</p>
+        <p class="field-error" data-error=Control::TandemMap.as_str() aria-live="polite">{move || ctx.error_of(Control::TandemMap)}</p>
         {progress}
     };
     plot_card(

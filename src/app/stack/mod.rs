@@ -19,6 +19,7 @@ pub mod spectrum;
 pub mod state;
 pub mod worker;
 
+use crate::view::controls::Control;
 use std::sync::Arc;
 
 use leptos::html;
@@ -34,7 +35,7 @@ pub use state::{StackState, GAP_HOOKS, MAP, PLOTS, SPECTRUM};
 
 /// Set the stack's gaps [eV] (from a field, a key, a drag or the map). Only the gaps change,
 /// so only they are checked; a refused set leaves a message under `hook`.
-pub fn set_gaps(ctx: Ctx, hook: &'static str, gaps: Vec<f64>) -> bool {
+pub fn set_gaps(ctx: Ctx, hook: Control, gaps: Vec<f64>) -> bool {
     mark("gg-stack-edit");
     if let Err(e) = check_gaps(&gaps) {
         ctx.set_error(hook, sentence(&e));
@@ -52,7 +53,7 @@ pub fn set_gaps(ctx: Ctx, hook: &'static str, gaps: Vec<f64>) -> bool {
 
 /// Edit the stack part of the scenario (junctions, connection, map axes, absorber): the
 /// edited stack is checked, then the scenario as a whole.
-pub fn edit_stack(ctx: Ctx, hook: &'static str, f: impl FnOnce(&mut StackScenario)) -> bool {
+pub fn edit_stack(ctx: Ctx, hook: Control, f: impl FnOnce(&mut StackScenario)) -> bool {
     let mut st = ctx.scenario.with_untracked(|s| s.stack.clone());
     f(&mut st);
     if let Err(e) = check_gaps(&st.gaps_ev).and_then(|_| st.map.grid().map(|_| ())) {
@@ -112,15 +113,16 @@ pub fn StackPanel() -> impl IntoView {
                 sc.view.set(Some(v));
                 if sc.error.with_untracked(|e| e.is_some()) {
                     sc.error.set(None);
-                    ctx.clear_error("stack-gaps");
+                    ctx.clear_error(Control::StackGaps);
                 }
             }
             Err(e) => {
                 let had = sc.view.with_untracked(|v| v.is_some());
                 let tail = if had { " The figures shown are from the last usable stack." } else { "" };
                 sc.error.set(Some(format!("{}{tail}", sentence(&e))));
-                if ctx.errors.with_untracked(|m| m.get("stack-gaps").map(|t| t != &sentence(&e)).unwrap_or(true)) {
-                    ctx.set_error("stack-gaps", sentence(&e));
+                if ctx.errors.with_untracked(|m| m.get(&Control::StackGaps).map(|t| t != &sentence(&e)).unwrap_or(true))
+                {
+                    ctx.set_error(Control::StackGaps, sentence(&e));
                 }
             }
         }

@@ -4,6 +4,7 @@
 //! which the search starts from as well), unless the light, the cells or the stack changed
 //! meanwhile.
 
+use crate::view::controls::Control;
 use std::cell::RefCell;
 
 use leptos::prelude::*;
@@ -230,7 +231,7 @@ fn apply(sc: StackState, job: Started, r: SearchReply, elapsed: f64) -> Option<S
             )));
         }
     }
-    if !set_gaps(ctx, "optimize", gaps.clone()) {
+    if !set_gaps(ctx, Control::Optimize, gaps.clone()) {
         // the reason is under the button
         return sc.search.try_set(SearchState::Idle);
     }
@@ -261,7 +262,7 @@ pub fn start(sc: StackState) {
     if sc.search.with_untracked(|s| s.running()) {
         return;
     }
-    ctx.clear_error("optimize");
+    ctx.clear_error(Control::Optimize);
     let s: Scenario = ctx.scenario.get_untracked();
     // say what is wrong here rather than from the worker
     let checked = check_gaps(&s.stack.gaps_ev).and_then(|_| {
@@ -271,7 +272,7 @@ pub fn start(sc: StackState) {
         settings.to_problem(&setup.light, &setup.cell, s.stack.connection).map(|_| ())
     });
     if let Err(e) = checked {
-        ctx.set_error("optimize", sentence(&e));
+        ctx.set_error(Control::Optimize, sentence(&e));
         return;
     }
     let Some((module, wasm)) = module_urls() else {
@@ -345,7 +346,7 @@ fn settings_of(s: &Scenario) -> OptimizeSettings {
 /// Edit the search settings: the edited settings are checked by the scenario, for the
 /// design's number of junctions, before they are committed; otherwise the reason goes
 /// under `hook`.
-fn edit_search(ctx: Ctx, hook: &'static str, f: impl FnOnce(&mut OptimizeSettings)) -> bool {
+fn edit_search(ctx: Ctx, hook: Control, f: impl FnOnce(&mut OptimizeSettings)) -> bool {
     let mut o = ctx.scenario.with_untracked(|s| s.stack.optimize.clone());
     f(&mut o);
     let n = ctx.scenario.with_untracked(|s| s.stack.gaps_ev.len());
@@ -393,12 +394,12 @@ fn fixed_gap_control(sc: StackState) -> impl IntoView {
         };
         match at {
             None => {
-                ctx.clear_error("fix-gap");
-                ctx.edit("fix-at", |s| s.stack.optimize.fix_ev = None);
+                ctx.clear_error(Control::FixGap);
+                ctx.edit(Control::FixAt, |s| s.stack.optimize.fix_ev = None);
             }
             Some(at) => {
                 let g = ctx.scenario.with_untracked(|s| s.stack.optimize.fix_ev).unwrap_or(last.get_untracked());
-                edit_search(ctx, "fix-at", move |o| {
+                edit_search(ctx, Control::FixAt, move |o| {
                     o.fix_ev = Some(g);
                     o.fix_at = at;
                 });
@@ -411,7 +412,7 @@ fn fixed_gap_control(sc: StackState) -> impl IntoView {
     };
     let value = Memo::new(move |_| fix.get().0.unwrap_or_else(|| last.get()));
     let commit: std::rc::Rc<dyn Fn(f64) -> bool> = std::rc::Rc::new(move |g| {
-        let ok = edit_search(ctx, "fix-gap", |o| o.fix_ev = Some(g));
+        let ok = edit_search(ctx, Control::FixGap, |o| o.fix_ev = Some(g));
         if ok {
             last.set(g);
         }
@@ -425,7 +426,7 @@ fn fixed_gap_control(sc: StackState) -> impl IntoView {
     let field = Field {
         label: "Fixed gap",
         unit: "eV",
-        hook: "fix-gap",
+        hook: Control::FixGap,
         hint: Some("e.g. 1.12 eV for a silicon bottom cell (or type nm). Arrow keys: ±1 meV (Shift: ±10 meV).".into()),
         example: "1.12",
         value,
@@ -443,7 +444,7 @@ fn fixed_gap_control(sc: StackState) -> impl IntoView {
                     <option value="top">"Yes, the top cell"</option>
                     <option value="any">"Yes, any subcell"</option>
                 </select>
-                <p class="field-error" id="e-fix-at" data-error="fix-at" aria-live="polite">{move || ctx.error_of("fix-at")}</p>
+                <p class="field-error" id="e-fix-at" data-error=Control::FixAt.as_str() aria-live="polite">{move || ctx.error_of(Control::FixAt)}</p>
             </div>
             <div class="sub-field" hidden=off on:focusin=move |_| typing.set(false)>{number_field(ctx, field, commit, Some(keys))}</div>
         </div>
@@ -500,15 +501,15 @@ pub fn search_section(sc: StackState) -> impl IntoView {
     });
     let failed = move || match sc.search.get() {
         SearchState::Failed(t) => Some(t),
-        _ => range_problem.get().or_else(|| ctx.error_of("optimize")),
+        _ => range_problem.get().or_else(|| ctx.error_of(Control::Optimize)),
     };
     view! {
         <section class="panel-section search-section" aria-labelledby="search-h">
             <h2 id="search-h">"Best gaps"</h2>
             <p class="hint">{what}</p>
             <div class="plot-tools search-range">
-                {range_input(ctx, "search-from", "optimize", "from", "eV", from, |s, v| s.stack.optimize.from_ev = v, bad)}
-                {range_input(ctx, "search-to", "optimize", "to", "eV", to, |s, v| s.stack.optimize.to_ev = v, bad)}
+                {range_input(ctx, "search-from", Control::Optimize, "from", "eV", from, |s, v| s.stack.optimize.from_ev = v, bad)}
+                {range_input(ctx, "search-to", Control::Optimize, "to", "eV", to, |s, v| s.stack.optimize.to_ev = v, bad)}
             </div>
             {fixed_gap_control(sc)}
             <div class="search-row">
@@ -522,7 +523,7 @@ pub fn search_section(sc: StackState) -> impl IntoView {
                 <span class="search-count">{progress}</span>
             </div>
             <p class="search-result" data-info="optimize" role="status" aria-live="polite" hidden=move || outcome().is_none()>{outcome}</p>
-            <p class="field-error" id="e-optimize" data-error="optimize" aria-live="polite">{failed}</p>
+            <p class="field-error" id="e-optimize" data-error=Control::Optimize.as_str() aria-live="polite">{failed}</p>
         </section>
     }
 }

@@ -3,6 +3,7 @@
 //! keys select one); a drag moves the marker nearest to the pointer, kept between its
 //! neighbours.
 
+use crate::view::controls::Control;
 use std::fmt::Write;
 use std::rc::Rc;
 
@@ -241,7 +242,7 @@ impl SpectrumCard {
         let above = if i == 0 { GAP_RANGE_EV.1 + MIN_SPACING_EV } else { gaps[i - 1] };
         let g = tidy(g.clamp(below + MIN_SPACING_EV, above - MIN_SPACING_EV));
         gaps[i] = g;
-        set_gaps(self.sc.ctx, "stack-spectrum", gaps);
+        set_gaps(self.sc.ctx, Control::StackSpectrum, gaps);
     }
 
     fn move_to(&self, x_css: f64) {
@@ -358,7 +359,7 @@ fn legend(sc: StackState) -> impl IntoView {
 pub fn spectrum_card(sc: StackState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
     let ctx = sc.ctx;
     let note = view! {
-        <p class="field-error" data-error="stack-spectrum" aria-live="polite">{move || ctx.error_of("stack-spectrum")}</p>
+        <p class="field-error" data-error=Control::StackSpectrum.as_str() aria-live="polite">{move || ctx.error_of(Control::StackSpectrum)}</p>
     };
     plot_card(
         ctx,

@@ -8,6 +8,7 @@ use leptos::prelude::*;
 use super::search::SearchState;
 use crate::app::state::Ctx;
 use crate::app::widgets::plot::Frame;
+use crate::view::controls::Control;
 use crate::view::stack::map::{MapData, MapStatus};
 use crate::view::stack::StackView;
 
@@ -17,7 +18,8 @@ pub const MAP: usize = 1;
 pub const PLOTS: usize = 2;
 
 /// `data-control` hooks of the gap fields, top first.
-pub const GAP_HOOKS: [&str; 6] = ["gap-1", "gap-2", "gap-3", "gap-4", "gap-5", "gap-6"];
+pub const GAP_HOOKS: [Control; 6] =
+    [Control::Gap1, Control::Gap2, Control::Gap3, Control::Gap4, Control::Gap5, Control::Gap6];
 
 /// The panel's shared handles; all are cheap to copy.
 #[derive(Clone, Copy)]

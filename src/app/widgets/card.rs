@@ -3,6 +3,7 @@
 //! the keys do, and what the downloads hold, is the plot's own ([`PlotBehaviour`]); the
 //! cell's plots and the radiator's share this one frame around them.
 
+use crate::view::controls::Control;
 use std::rc::Rc;
 
 use leptos::ev;
@@ -222,7 +223,7 @@ pub fn plot_card(ctx: Ctx, card: Card, b: Rc<dyn PlotBehaviour>) -> impl IntoVie
 pub fn range_input(
     ctx: Ctx,
     hook: &'static str,
-    err_hook: &'static str,
+    err_hook: Control,
     label: &'static str,
     unit: &'static str,
     value: Memo<f64>,

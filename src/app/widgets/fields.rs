@@ -6,6 +6,7 @@
 //! use. Fields follow the scenario when it changes elsewhere (a drag, a key, a file), except
 //! while the user is typing a value that already matches.
 
+use crate::view::controls::Control;
 use std::cell::Cell;
 use std::rc::Rc;
 
@@ -23,7 +24,7 @@ pub type KeyHandler = Rc<dyn Fn(&web_sys::KeyboardEvent, &web_sys::HtmlInputElem
 pub struct Field {
     pub label: &'static str,
     pub unit: &'static str,
-    pub hook: &'static str,
+    pub hook: Control,
     pub hint: Option<String>,
     /// an example value for messages
     pub example: &'static str,
@@ -94,7 +95,7 @@ fn still_using(value: String, unit: &str) -> String {
 /// A bare numeric input: what it edits and how it reads and shows values. Messages go to
 /// the error line of `hook`.
 pub struct NumberInput {
-    pub hook: &'static str,
+    pub hook: Control,
     /// its `data-control` hook
     pub control: String,
     pub id: Option<String>,
@@ -141,7 +142,7 @@ pub fn numeric_input(
                 if !commit(v) {
                     let still = still_using(show(value.get_untracked()), unit);
                     ctx.errors.update(|e| {
-                        if let Some(m) = e.get_mut(hook) {
+                        if let Some(m) = e.get_mut(&hook) {
                             if !m.contains("Still using") {
                                 m.push(' ');
                                 m.push_str(&still);
@@ -226,7 +227,7 @@ pub fn number_field(ctx: Ctx, f: Field, commit: Rc<dyn Fn(f64) -> bool>, on_key:
                 <span class="unit" aria-hidden="true">{unit}</span>
             </div>
             {hint.map(|h| view! { <p class="hint" id=hint_id>{h}</p> })}
-            <p class="field-error" id=err_id data-error=hook aria-live="polite">{move || ctx.error_of(hook)}</p>
+            <p class="field-error" id=err_id data-error=hook.as_str() aria-live="polite">{move || ctx.error_of(hook)}</p>
         </div>
     }
 }

@@ -22,14 +22,14 @@ pub fn notices(ctx: Ctx) -> impl IntoView {
                         let action = n.action.map(|NoticeAction::Restore(s, label)| {
                             let s = *s;
                             view! {
-                                <button type="button" class="small" data-action=format!("{kind}-restore") on:click=move |_| {
+                                <button type="button" class="small" data-action=format!("{}-restore", kind.as_str()) on:click=move |_| {
                                     apply_scenario(ctx, s.clone());
                                     ctx.dismiss(kind);
                                 }>{label}</button>
                             }
                         });
                         view! {
-                            <div class="notice" class:alert=n.alert role=role data-notice=kind>
+                            <div class="notice" class:alert=n.alert role=role data-notice=kind.as_str()>
                                 <p>{n.text}</p>
                                 <div class="notice-actions">
                                     {action}

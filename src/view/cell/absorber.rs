@@ -10,11 +10,29 @@ use crate::scenario::stack::AbsorberSpec;
 use crate::scenario::Scenario;
 use crate::view::format::field;
 
+/// Which real absorptance the cell has.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum AbsorberKind {
+    /// an exponential tail below the gap
+    Urbach,
+    /// a measured EQE table
+    Measured,
+}
+
+impl AbsorberKind {
+    /// The name the reports and the command line's JSON use.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            AbsorberKind::Urbach => "urbach",
+            AbsorberKind::Measured => "measured",
+        }
+    }
+}
+
 /// A measured (or modelled) absorptance next to the ideal step at the same edge.
 #[derive(Debug, Clone)]
 pub struct AbsorberView {
-    /// "measured" or "urbach"
-    pub kind: &'static str,
+    pub kind: AbsorberKind,
     pub name: String,
     pub measured: AbsorberReport,
     pub step: AbsorberReport,
@@ -43,14 +61,16 @@ fn urbach_curve(a: &Absorptance, gap_j: f64, urbach_j: f64) -> Vec<(f64, f64)> {
 pub fn absorber_view(s: &Scenario) -> Result<Option<AbsorberView>, String> {
     let (kind, name) = match &s.stack.absorber {
         AbsorberSpec::Step => return Ok(None),
-        AbsorberSpec::Urbach { urbach_mev } => ("urbach", format!("Urbach tail of {} meV", field(*urbach_mev, 6))),
-        AbsorberSpec::Measured(t) => ("measured", t.name.clone()),
+        AbsorberSpec::Urbach { urbach_mev } => {
+            (AbsorberKind::Urbach, format!("Urbach tail of {} meV", field(*urbach_mev, 6)))
+        }
+        AbsorberSpec::Measured(t) => (AbsorberKind::Measured, t.name.clone()),
     };
     let setup = setup_of(&s.cell)?;
     let mut warnings = Vec::new();
     let a = s.stack.absorber.to_physics(s.cell.gap_ev, s.cell.cell_temp_k, &mut warnings)?;
     let cell = Cell { gap_j: ev(s.cell.gap_ev), ..setup.cell };
-    let measured = AbsorberReport::new(&solve_absorber(&setup.light, &a, &cell), kind);
+    let measured = AbsorberReport::new(&solve_absorber(&setup.light, &a, &cell), kind.as_str());
     let edge = a.edge_j();
     let step = AbsorberReport::new(&solve_absorber(&setup.light, &Absorptance::Step { gap_j: edge }, &cell), "step");
     let points = match &a {

@@ -1,0 +1,102 @@
+//! The page's controls that a message can be attached to, by name. The page shows an edit's
+//! refusal next to its control (`data-error` = [`Control::as_str`]); a typed name means a
+//! misspelt hook does not compile into a message nobody sees.
+//!
+//! Architecture invariant: every control hook the app keys messages by is a variant here,
+//! and [`Control::as_str`] is the one place its text is written.
+
+macro_rules! controls {
+    ($($variant:ident => $hook:literal,)*) => {
+        /// A control of the page (a field, a choice, a plot used as a control).
+        #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash)]
+        pub enum Control {
+            $($variant,)*
+        }
+
+        impl Control {
+            /// Every control, in declaration order.
+            pub const ALL: &'static [Control] = &[$(Control::$variant,)*];
+
+            /// The hook text: the `data-control`/`data-error` attribute and the element ids'
+            /// suffix.
+            pub fn as_str(self) -> &'static str {
+                match self {
+                    $(Control::$variant => $hook,)*
+                }
+            }
+        }
+    };
+}
+
+controls! {
+    Panel => "panel",
+    Link => "link",
+    Spectrum => "spectrum",
+    BlackbodyTemp => "blackbody-temp",
+    Concentration => "concentration",
+    CellTemp => "cell-temp",
+    Ere => "ere",
+    Emission => "emission",
+    Model => "model",
+    Gap => "gap",
+    GapNm => "gap-nm",
+    CurveRange => "curve-range",
+    Absorber => "absorber",
+    Urbach => "urbach",
+    EqeFile => "eqe-file",
+    Ambient => "ambient",
+    Connection => "connection",
+    Dew => "dew",
+    EmissivityEditor => "emissivity-editor",
+    EmissivityFile => "emissivity-file",
+    EmissivityPreset => "emissivity-preset",
+    FixAt => "fix-at",
+    FixGap => "fix-gap",
+    GreyEmissivity => "grey-emissivity",
+    Hc => "hc",
+    Junctions => "junctions",
+    NetCurveRange => "net-curve-range",
+    Optimize => "optimize",
+    Pwv => "pwv",
+    Sky => "sky",
+    SkyFile => "sky-file",
+    SpectrumAxis => "spectrum-axis",
+    SpectrumQuantity => "spectrum-quantity",
+    StackGaps => "stack-gaps",
+    StackSpectrum => "stack-spectrum",
+    Sun => "sun",
+    SunScale => "sun-scale",
+    SunSpectrum => "sun-spectrum",
+    SunZenith => "sun-zenith",
+    Surface => "surface",
+    TandemMap => "tandem-map",
+    EmissivityPoints => "emissivity-points",
+    Gap1 => "gap-1",
+    Gap2 => "gap-2",
+    Gap3 => "gap-3",
+    Gap4 => "gap-4",
+    Gap5 => "gap-5",
+    Gap6 => "gap-6",
+}
+
+impl std::fmt::Display for Control {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.as_str())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn hooks_are_unique_and_plain() {
+        let mut seen = std::collections::BTreeSet::new();
+        for c in Control::ALL {
+            let h = c.as_str();
+            assert!(seen.insert(h), "{h} twice");
+            // a hook is used in CSS selectors and element ids: lower-case words and hyphens
+            assert!(h.chars().all(|ch| ch.is_ascii_lowercase() || ch.is_ascii_digit() || ch == '-'), "{h}");
+        }
+    }
+}
