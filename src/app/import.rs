@@ -6,8 +6,8 @@ use leptos::prelude::*;
 use wasm_bindgen_futures::JsFuture;
 
 use super::share::apply_scenario;
-use crate::app::state::{sentence, validate, Ctx, Notice, NoticeKind};
-use crate::codec::from_json;
+use crate::app::state::{sentence, Ctx, Notice, NoticeKind};
+use crate::codec::open;
 use crate::formats::spectrum_csv::{parse_spectrum_csv, ColumnHints};
 use crate::formats::TableKind;
 use crate::scenario::{SourceSpec, TableSpec};
@@ -86,7 +86,7 @@ pub fn use_spectrum_text(ctx: Ctx, file_name: &str, text: &str) {
 /// Read a scenario file and open it.
 pub fn open_scenario(ctx: Ctx, file: web_sys::File) {
     read_then(file, move |name, text| {
-        let outcome = text.and_then(|text| from_json(&text).map_err(|e| e.0).and_then(|s| validate(&s).map(|_| s)));
+        let outcome = text.and_then(|text| open(&text).map(|(s, _)| s).map_err(|e| e.0));
         match outcome {
             Ok(s) => {
                 ctx.dismiss(NoticeKind::File);

@@ -13,8 +13,8 @@ use std::time::Duration;
 use leptos::prelude::*;
 use wasm_bindgen::JsValue;
 
-use crate::app::state::{sentence, validate, Ctx, Notice, NoticeAction, NoticeKind};
-use crate::codec::{decode_link, encode_fragment, from_json, to_json, MAX_LINK_CHARS};
+use crate::app::state::{sentence, Ctx, Notice, NoticeAction, NoticeKind};
+use crate::codec::{encode_fragment, open, to_json, MAX_LINK_CHARS};
 use crate::scenario::{Scenario, SourceSpec};
 
 pub const STORAGE_KEY: &str = "glowgap:scenario";
@@ -46,8 +46,7 @@ pub struct Opening {
 
 fn saved_scenario() -> Option<Scenario> {
     let text = read_saved()?;
-    let s = from_json(&text).ok()?;
-    validate(&s).ok().map(|_| s)
+    open(&text).ok().map(|(s, _)| s)
 }
 
 pub fn opening() -> Opening {
@@ -55,7 +54,7 @@ pub fn opening() -> Opening {
     let mut notices = Vec::new();
     if hash.len() > 1 {
         let saved = saved_scenario();
-        match decode_link(&hash).and_then(|s| validate(&s).map(|_| s).map_err(crate::codec::LinkError)) {
+        match open(&hash).map(|(s, _)| s) {
             Ok(s) => {
                 if let Some(prev) = saved.filter(|p| *p != s) {
                     notices.push(Notice {
@@ -79,7 +78,7 @@ pub fn opening() -> Opening {
         }
     }
     if let Some(text) = read_saved() {
-        match from_json(&text).and_then(|s| validate(&s).map(|_| s).map_err(crate::codec::LinkError)) {
+        match open(&text).map(|(s, _)| s) {
             Ok(s) => return Opening { scenario: s, notices, hold_storage: false },
             Err(e) => {
                 if let Some(st) = storage() {
@@ -210,7 +209,7 @@ pub fn on_hash_change(ctx: Ctx, p: &Persist) {
     if hash.len() <= 1 || *p.last_fragment.borrow() == hash {
         return;
     }
-    match decode_link(&hash).and_then(|s| validate(&s).map(|_| s).map_err(crate::codec::LinkError)) {
+    match open(&hash).map(|(s, _)| s) {
         Ok(s) => {
             ctx.dismiss(NoticeKind::Link);
             apply_scenario(ctx, s);

@@ -72,12 +72,6 @@ pub struct Ctx {
     pub status: RwSignal<Option<String>>,
 }
 
-/// Check a whole scenario the way computing it would: every panel's part, so that a link
-/// or file that one panel could not compute is refused as a whole.
-pub fn validate(s: &Scenario) -> Result<(), String> {
-    s.check()
-}
-
 /// A message for people: first letter upper case, ends with a full stop.
 pub fn sentence(msg: &str) -> String {
     let mut m = msg.trim().to_string();
@@ -137,7 +131,7 @@ impl Ctx {
     pub fn edit(&self, hook: Control, f: impl FnOnce(&mut Scenario)) -> bool {
         let mut next = self.scenario.get_untracked();
         f(&mut next);
-        match validate(&next) {
+        match next.check() {
             Ok(()) => {
                 self.clear_error(hook);
                 if self.scenario.with_untracked(|s| *s != next) {
