@@ -252,3 +252,19 @@ pub fn nearest(xs: &[f64], x: f64) -> Option<usize> {
     }
     Some(if (x - xs[i - 1]) <= (xs[i] - x) { i - 1 } else { i })
 }
+
+/// Axis title of the spectrum's values.
+pub fn value_name(q: PlotQuantity) -> &'static str {
+    match q {
+        PlotQuantity::Irradiance => "Spectral irradiance",
+        PlotQuantity::PhotonFlux => "Spectral photon flux",
+    }
+}
+
+/// Axis title of the spectral axis.
+pub fn axis_name(a: PlotAxis) -> &'static str {
+    match a {
+        PlotAxis::Wavelength => "Wavelength",
+        PlotAxis::PhotonEnergy => "Photon energy",
+    }
+}

@@ -11,11 +11,13 @@
 //! the panel's plots after every change; the map is recomputed only when the light, the
 //! cell settings, the connection or the map's axes change, never on a gap edit.
 
+pub mod cards;
 pub mod colours;
 pub mod controls;
-pub mod map;
+pub mod figures;
+pub mod map_job;
+pub mod plots;
 pub mod search;
-pub mod spectrum;
 pub mod state;
 pub mod worker;
 
@@ -106,7 +108,7 @@ pub fn StackPanel() -> impl IntoView {
                 draw_into(
                     SPECTRUM,
                     &targets[SPECTRUM],
-                    &spectrum::SpectrumPlot { v: &v, selected },
+                    &plots::spectrum::SpectrumPlot { v: &v, selected },
                     &mut frames,
                     &mut errors,
                 );
@@ -126,11 +128,11 @@ pub fn StackPanel() -> impl IntoView {
                 }
             }
         }
-        ctx.scenario.with(|s| map::ensure(sc, s));
+        ctx.scenario.with(|s| map_job::ensure(sc, s));
         if let Some(m) = &map {
             let design = ctx.scenario.with(|s| crate::view::stack::map::Design::of(&s.stack));
             if let Some(canvas) = &targets[MAP] {
-                match map::draw_on_page(canvas, &map::MapPlot { map: m, design }) {
+                match plots::map::draw_on_page(canvas, &plots::map::MapPlot { map: m, design }) {
                     Ok(Some(f)) => {
                         expose_frame(canvas, &f);
                         frames[MAP] = f
@@ -149,7 +151,7 @@ pub fn StackPanel() -> impl IntoView {
     });
     super::watch_sizes(ctx, canvases.to_vec());
     on_cleanup(|| {
-        map::stop();
+        map_job::stop();
         search::stop();
     });
 
@@ -161,14 +163,14 @@ pub fn StackPanel() -> impl IntoView {
                 {controls::conditions(sc)}
             </aside>
             <section class="results" aria-label="Stack results">
-                {controls::figures(sc)}
-                {controls::subcell_table(sc)}
+                {figures::figures(sc)}
+                {figures::subcell_table(sc)}
                 <div class="plots stack-plots">
-                    {spectrum::spectrum_card(sc, canvases[SPECTRUM])}
-                    {map::map_card(sc, canvases[MAP])}
+                    {cards::spectrum_card(sc, canvases[SPECTRUM])}
+                    {cards::map_card(sc, canvases[MAP])}
                 </div>
             </section>
         </main>
-        {controls::cautions(sc)}
+        {figures::cautions(sc)}
     }
 }

@@ -12,7 +12,11 @@ use crate::physics::stack::{solve_stack, StackResult};
 use crate::report::stack::StackReport;
 use crate::scenario::stack::check_gaps;
 use crate::scenario::{CellSetup, PlotAxis, PlotQuantity, Scenario, SourceSpec};
+use std::fmt::Write;
+
 use crate::view::cell::setup_of;
+use crate::view::format::{csv_num, gap_ev};
+use crate::view::spectrum::{axis_name, value_name};
 use crate::view::spectrum::{spectrum_view, SpectrumDetail, SpectrumView};
 
 /// The stack as designed, solved.
@@ -68,4 +72,36 @@ pub fn stack_view(s: &Scenario) -> Result<StackView, String> {
 /// names the plot.
 pub fn caption(s: &Scenario, what: &str) -> String {
     crate::view::cell::csv::conditions_caption(s, "cells", what)
+}
+
+/// Which subcell (0 = top) absorbs photons of energy `e_ev`, if any.
+pub fn absorbing(gaps_ev: &[f64], e_ev: f64) -> Option<usize> {
+    gaps_ev.iter().position(|g| e_ev >= *g)
+}
+
+/// The spectrum as CSV, each point with the subcell that absorbs it.
+pub fn spectrum_csv(v: &StackView, what: &str) -> String {
+    let sv = &v.spectrum;
+    let mut out = String::new();
+    let _ = writeln!(out, "# Glowgap: {what}");
+    let _ = writeln!(
+        out,
+        "# band gaps top first (eV): {}",
+        v.gaps_ev.iter().map(|g| gap_ev(*g)).collect::<Vec<_>>().join(", ")
+    );
+    let _ = writeln!(out, "# subcell = which subcell absorbs the photon (1 = top), 0 = below every gap");
+    let _ = writeln!(out, "# Detailed-balance limits of an ideal stack: upper bounds, not predictions of a device.");
+    let unit = sv.unit().replace('⁻', "-").replace('¹', "1").replace('²', "2");
+    let _ = writeln!(
+        out,
+        "{} ({}),{} ({unit}),subcell",
+        axis_name(sv.axis).to_lowercase(),
+        sv.x_unit(),
+        value_name(sv.quantity).to_lowercase()
+    );
+    for (x, y) in sv.x.iter().zip(&sv.y) {
+        let k = absorbing(&v.gaps_ev, sv.ev_of_x(*x)).map(|i| i + 1).unwrap_or(0);
+        let _ = writeln!(out, "{},{},{k}", csv_num(*x), csv_num(*y));
+    }
+    out
 }

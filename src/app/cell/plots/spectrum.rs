@@ -7,25 +7,10 @@ use plotters::style::text_anchor::{HPos, VPos};
 use crate::app::widgets::plot::{
     draw_caption, draw_legend_row, draw_tag, err, palette::*, tick_target, AxisSpec, Frame, Look,
 };
-use crate::scenario::{PlotAxis, PlotQuantity};
+use crate::scenario::PlotAxis;
 use crate::view::cell::CellView;
 use crate::view::format::{fixed, gap_ev};
-
-/// Axis title of the spectrum's values.
-pub fn value_name(q: PlotQuantity) -> &'static str {
-    match q {
-        PlotQuantity::Irradiance => "Spectral irradiance",
-        PlotQuantity::PhotonFlux => "Spectral photon flux",
-    }
-}
-
-/// Axis title of the spectral axis.
-pub fn axis_name(a: PlotAxis) -> &'static str {
-    match a {
-        PlotAxis::Wavelength => "Wavelength",
-        PlotAxis::PhotonEnergy => "Photon energy",
-    }
-}
+use crate::view::spectrum::{axis_name, value_name};
 
 pub fn draw<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &CellView, look: &Look) -> Result<Frame, String> {
     root.fill(&WHITE).map_err(err)?;
