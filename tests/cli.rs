@@ -122,7 +122,7 @@ fn every_bad_input_gets_one_line_and_exit_2() {
         (&["cell", "--gap", "1.3", "--wat"], "unknown option"),
         (&["cell", "--gap", "1.3", "--spectrum-axis", "nm"], "file:PATH"),
         (&["sweep", "--from", "1", "--to", "2"], "needs --step"),
-        (&["sweep", "--from", "2", "--to", "1", "--step", "0.1"], "lower gap first"),
+        (&["sweep", "--from", "2", "--to", "1", "--step", "0.1"], "the lower first"),
         (&["sweep", "--from", "1", "--to", "2", "--step", "0"], "positive"),
         (&["sweep", "--from", "1", "--to", "2", "--step", "1e-9"], "larger --step"),
         (&["sweep", "--from", "1", "--to", "2", "--step", "0.1", "--json", "--csv"], "one of"),

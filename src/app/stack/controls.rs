@@ -9,7 +9,7 @@ use leptos::prelude::*;
 use super::{colours, edit_stack, set_gaps, StackCtx, GAP_HOOKS};
 use crate::app::widgets::fields::{gap_keys, number_field, Field};
 use crate::physics::stack::MAX_JUNCTIONS;
-use crate::report::stack::{StackReport, STACK_METRICS};
+use crate::report::stack::{StackMetric, StackReport};
 use crate::scenario::{Connection, Emission, JvModel};
 use crate::scenario::{Panel, GAP_RANGE_EV};
 use crate::view::format as fmt;
@@ -182,18 +182,15 @@ pub fn conditions(sc: StackCtx) -> impl IntoView {
 
 /// The headline figures of the stack.
 pub fn figures(sc: StackCtx) -> impl IntoView {
-    let cards = STACK_METRICS[..4]
-        .iter()
-        .map(|(hook, _, _)| {
-            let hook = *hook;
-            let fallback = STACK_METRICS.iter().find(|m| m.0 == hook).map(|m| m.1).unwrap_or("");
-            let label = move || sc.view.with(|v| v.as_ref().map(|v| v.report.label(hook)).unwrap_or(fallback));
-            let text =
-                move || sc.view.with(|v| v.as_ref().map(|v| v.report.display(hook)).unwrap_or_else(|| "—".into()));
+    let cards = StackMetric::HEADLINE
+        .into_iter()
+        .map(|m| {
+            let label = move || sc.view.with(|v| v.as_ref().map(|v| v.report.label(m)).unwrap_or(m.label()));
+            let text = move || sc.view.with(|v| v.as_ref().map(|v| v.report.display(m)).unwrap_or_else(|| "—".into()));
             view! {
-                <div class="figure" class:lead=hook == "stack-efficiency">
+                <div class="figure" class:lead=m == StackMetric::Efficiency>
                     <span class="fig-label">{label}</span>
-                    <span class="fig-value" data-metric=hook>{text}</span>
+                    <span class="fig-value" data-metric=m.as_str()>{text}</span>
                 </div>
             }
         })
