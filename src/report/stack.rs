@@ -1,6 +1,9 @@
 //! Stack, optimizer, loss, mismatch and measured-cell results in display units (eV, V,
 //! mA/cm^2, W/m^2). Field names are the command line's JSON keys; the browser's stack panel
 //! shows the same structs.
+//!
+//! Architecture invariant: a stack's headline figure is named by a [`StackMetric`], never by
+//! a string; its hook, label, unit and decimals are written once, here.
 
 use super::{CellReport, A_PER_M2_PER_MA_PER_CM2};
 use crate::physics::absorber::AbsorberResult;
