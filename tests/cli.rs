@@ -122,7 +122,9 @@ fn every_bad_input_gets_one_line_and_exit_2() {
         (&["cell", "--gap", "1.3", "--wat"], "unknown option"),
         (&["cell", "--gap", "1.3", "--spectrum-axis", "nm"], "file:PATH"),
         (&["sweep", "--from", "1", "--to", "2"], "needs --step"),
-        (&["sweep", "--from", "2", "--to", "1", "--step", "0.1"], "lower gap first"),
+        (&["sweep", "--from", "2", "--to", "1", "--step", "0.1"], "the lower first"),
+        (&["sweep", "--from", "0.001", "--to", "1", "--step", "0.1"], "--from: the band gap 0.001 eV is out of range"),
+        (&["sweep", "--from", "1", "--to", "25", "--step", "0.1"], "--to: the band gap 25 eV is out of range"),
         (&["sweep", "--from", "1", "--to", "2", "--step", "0"], "positive"),
         (&["sweep", "--from", "1", "--to", "2", "--step", "1e-9"], "larger --step"),
         (&["sweep", "--from", "1", "--to", "2", "--step", "0.1", "--json", "--csv"], "one of"),
@@ -217,4 +219,60 @@ fn headerless_spectrum_error_names_the_axis_option() {
     let spec = format!("file:{}", path.display());
     expect_usage_error(&["cell", "--gap", "1.3", "--spectrum", &spec], "--spectrum-axis nm|um|eV|cm-1");
     let _ = std::fs::remove_file(&path);
+}
+
+/// A scenario file in the temporary folder, removed when dropped.
+struct TempScenario(std::path::PathBuf);
+
+impl TempScenario {
+    fn new(tag: &str, json: &str) -> TempScenario {
+        let path = std::env::temp_dir().join(format!("glowgap-{tag}-{}.json", std::process::id()));
+        std::fs::write(&path, json).unwrap();
+        TempScenario(path)
+    }
+
+    fn path(&self) -> &str {
+        self.0.to_str().unwrap()
+    }
+}
+
+impl Drop for TempScenario {
+    fn drop(&mut self) {
+        let _ = std::fs::remove_file(&self.0);
+    }
+}
+
+#[test]
+fn eval_opens_the_whole_scenario() {
+    // the radiator's data file is read before the scenario is checked, whichever part is shown
+    let emissivity = concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures/links/data/emissivity.csv");
+    let with_file = TempScenario::new(
+        "eval-file-ref",
+        &format!(
+            r#"{{"format":"glowgap-scenario","version":1,"scenario":{{"radiator":{{"emitter":{{"type":"file","path":"{emissivity}"}}}}}}}}"#
+        ),
+    );
+    let cell = json(&["eval", with_file.path(), "--json"]);
+    assert_eq!(cell, json(&["cell", "--gap", "1.34", "--json"]));
+    let radiator = json(&["eval", with_file.path(), "--radiator", "--json"]);
+    assert_eq!(radiator, json(&["cool", "--emitter", &format!("file:{emissivity}"), "--json"]));
+    // a part that cannot be computed refuses the scenario, even when another part is shown
+    let hot = TempScenario::new(
+        "eval-bad-radiator",
+        r#"{"format":"glowgap-scenario","version":1,"scenario":{"radiator":{"ambient_k":1000}}}"#,
+    );
+    expect_usage_error(&["eval", hot.path(), "--json"], "ambient temperature 1000 K is out of range");
+    expect_usage_error(&["eval", hot.path(), "--stack"], "ambient temperature 1000 K is out of range");
+}
+
+#[test]
+fn eval_prints_each_warning_once() {
+    // an Urbach tail wider than kT warns when the scenario opens and again when the cell is
+    // computed: one line
+    let out = glowgap(&["cell", "--gap", "1.34", "--urbach", "40", "--link"]);
+    let link = String::from_utf8(out.stdout).unwrap();
+    let out = glowgap(&["eval", link.trim(), "--json"]);
+    assert!(out.status.success());
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(err.matches("warning: the Urbach energy").count(), 1, "{err}");
 }

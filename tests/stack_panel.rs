@@ -16,7 +16,7 @@ use glowgap::physics::stack::optimize::{
     grid_maxima, optimize, optimize_observed, refine, FixAt, FixedGap, Problem, POLISHED_STARTS, PROGRESS_EVERY,
 };
 use glowgap::physics::stack::{solve_stack, stack_efficiency, Connection};
-use glowgap::report::stack::{StackReport, STACK_METRICS};
+use glowgap::report::stack::{StackMetric, StackReport};
 use glowgap::scenario::stack::{AbsorberSpec, MapSettings, OptimizeSettings};
 
 fn cell() -> Cell {
@@ -63,20 +63,24 @@ fn stack_figures_display_with_their_units_and_connection_labels() {
     let series = StackReport::from(&solve_stack(&light, &cell(), &[ev(1.7), ev(1.1)], Connection::Series));
     // a 1.7/1.1 eV two-terminal tandem under AM1.5G: the efficiency as a percentage with two
     // decimals, and within the commonly cited ceiling of about 46 % for two-terminal tandems
-    assert_eq!(series.display("stack-efficiency"), format!("{:.2} %", series.efficiency * 100.0));
+    assert_eq!(series.display(StackMetric::Efficiency), format!("{:.2} %", series.efficiency * 100.0));
     assert!(series.efficiency > 0.40 && series.efficiency < 0.46, "{}", series.efficiency);
     assert!(
-        series.display("stack-voc").ends_with(" V")
-            && series.display("stack-voc").split('.').nth(1).unwrap().len() == 6
+        series.display(StackMetric::Voc).ends_with(" V")
+            && series.display(StackMetric::Voc).split('.').nth(1).unwrap().len() == 6
     );
-    assert!(series.display("stack-jsc").ends_with(" mA/cm²"));
-    assert_eq!(series.label("stack-jsc"), "Short-circuit current Jsc");
+    assert!(series.display(StackMetric::Jsc).ends_with(" mA/cm²"));
+    assert_eq!(series.label(StackMetric::Jsc), "Short-circuit current Jsc");
     let independent = StackReport::from(&solve_stack(&light, &cell(), &[ev(1.7), ev(1.1)], Connection::Independent));
-    assert_eq!(independent.label("stack-jsc"), "Sum of subcell Jsc");
-    for (hook, _, unit) in STACK_METRICS {
-        assert!(independent.display(hook).ends_with(unit), "{hook}");
-        assert!(independent.metric(hook).is_finite(), "{hook}");
+    assert_eq!(independent.label(StackMetric::Jsc), "Sum of subcell Jsc");
+    for m in StackMetric::ALL {
+        assert!(independent.display(m).ends_with(m.unit()), "{m:?}");
+        assert!(independent.metric(m).is_finite(), "{m:?}");
     }
+    // the page's data-metric hooks, which the browser tests select on
+    let hooks: Vec<&str> = StackMetric::ALL.iter().map(|m| m.as_str()).collect();
+    assert_eq!(hooks, ["stack-efficiency", "stack-voc", "stack-jsc", "stack-pmax", "stack-input"]);
+    assert_eq!(StackMetric::HEADLINE, StackMetric::ALL[..4]);
 }
 
 #[test]

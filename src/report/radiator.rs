@@ -18,8 +18,8 @@ pub struct RadiatorReport {
     pub parasitic_w_m2: f64,
     /// where P_net = 0; `None` (JSON null) when there is none in the search range
     pub steady_temp_k: Option<f64>,
-    /// "found", "below-range", "above-range" or "undefined"
-    pub steady_status: String,
+    /// whether the steady temperature was found, and if not, why
+    pub steady_status: SteadyStatus,
     pub surface_temp_k: f64,
     pub ambient_temp_k: f64,
     /// downwelling flux / (sigma T_a^4)
@@ -44,13 +44,7 @@ impl From<&Evaluation> for RadiatorReport {
             sun_absorbed_w_m2: p.sun_absorbed,
             parasitic_w_m2: p.parasitic,
             steady_temp_k: e.steady.temperature(),
-            steady_status: match e.steady {
-                Steady::At(_) => "found",
-                Steady::BelowRange(_) => "below-range",
-                Steady::AboveRange(_) => "above-range",
-                Steady::Undefined => "undefined",
-            }
-            .to_string(),
+            steady_status: SteadyStatus::from(&e.steady),
             surface_temp_k: p.temp_k,
             ambient_temp_k: e.ambient_k,
             sky_emissivity: e.sky_emissivity,
@@ -58,6 +52,47 @@ impl From<&Evaluation> for RadiatorReport {
             thermal_emittance: e.figures.thermal_emittance,
             hemispherical_emittance: e.figures.hemispherical_emittance,
             window_emissivity: e.figures.window_emissivity,
+        }
+    }
+}
+
+/// Whether a steady temperature exists in the search range [`STEADY_SEARCH_K`]. The serde
+/// names are the `steady_status` values of `glowgap cool --json`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+pub enum SteadyStatus {
+    /// P_net = 0 at a temperature in the range
+    #[serde(rename = "found")]
+    Found,
+    /// the surface still cools at the lower end of the range
+    #[serde(rename = "below-range")]
+    BelowRange,
+    /// the surface still heats at the upper end of the range
+    #[serde(rename = "above-range")]
+    AboveRange,
+    /// the surface exchanges no heat at all (emissivity 0 and h_c 0)
+    #[serde(rename = "undefined")]
+    Undefined,
+}
+
+impl SteadyStatus {
+    /// The name in the command line's JSON.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            SteadyStatus::Found => "found",
+            SteadyStatus::BelowRange => "below-range",
+            SteadyStatus::AboveRange => "above-range",
+            SteadyStatus::Undefined => "undefined",
+        }
+    }
+}
+
+impl From<&Steady> for SteadyStatus {
+    fn from(s: &Steady) -> Self {
+        match s {
+            Steady::At(_) => SteadyStatus::Found,
+            Steady::BelowRange(_) => SteadyStatus::BelowRange,
+            Steady::AboveRange(_) => SteadyStatus::AboveRange,
+            Steady::Undefined => SteadyStatus::Undefined,
         }
     }
 }
@@ -166,7 +201,7 @@ impl RadiatorReport {
             }
             M::SteadyTemp => match self.steady_temp_k {
                 Some(t) => format!("{t:.2} K"),
-                None if self.steady_status == "undefined" => "none".into(),
+                None if self.steady_status == SteadyStatus::Undefined => "none".into(),
                 None => "none in range".into(),
             },
             M::SurfaceTemp | M::AmbientTemp => format!("{:.2} K", self.metric(m)),
@@ -183,10 +218,12 @@ impl RadiatorReport {
                 let side = if d < 0.0 { "below" } else { "above" };
                 format!("{:.2} K {side} ambient", d.abs())
             }
-            None => match self.steady_status.as_str() {
-                "below-range" => format!("still cooling at {} K", STEADY_SEARCH_K.0),
-                "above-range" => format!("still heating at {} K", STEADY_SEARCH_K.1),
-                _ => "the surface exchanges no heat (emissivity 0, h_c 0)".into(),
+            None => match self.steady_status {
+                SteadyStatus::BelowRange => format!("still cooling at {} K", STEADY_SEARCH_K.0),
+                SteadyStatus::AboveRange => format!("still heating at {} K", STEADY_SEARCH_K.1),
+                SteadyStatus::Found | SteadyStatus::Undefined => {
+                    "the surface exchanges no heat (emissivity 0, h_c 0)".into()
+                }
             },
         }
     }
@@ -231,7 +268,7 @@ impl RadiatorReport {
 mod tests {
     use super::*;
 
-    fn report(steady: Option<f64>, status: &str) -> RadiatorReport {
+    fn report(steady: Option<f64>, status: SteadyStatus) -> RadiatorReport {
         RadiatorReport {
             net_w_m2: 140.567,
             emitted_w_m2: 459.3,
@@ -239,7 +276,7 @@ mod tests {
             sun_absorbed_w_m2: 0.0,
             parasitic_w_m2: -0.004,
             steady_temp_k: steady,
-            steady_status: status.into(),
+            steady_status: status,
             surface_temp_k: 300.0,
             ambient_temp_k: 300.0,
             sky_emissivity: 0.67781,
@@ -252,7 +289,7 @@ mod tests {
 
     #[test]
     fn the_page_figures_are_the_table_rows() {
-        let r = report(Some(262.3604), "found");
+        let r = report(Some(262.3604), SteadyStatus::Found);
         assert_eq!(r.display(RadiatorMetric::NetPower), "140.57 W/m²");
         assert_eq!(r.display(RadiatorMetric::SteadyTemp), "262.36 K");
         assert_eq!(r.display(RadiatorMetric::SolarReflectance), "0.0000");
@@ -270,10 +307,19 @@ mod tests {
 
     #[test]
     fn a_missing_steady_temperature_says_why() {
-        let r = report(None, "below-range");
+        let r = report(None, SteadyStatus::BelowRange);
         assert_eq!(r.display(RadiatorMetric::SteadyTemp), "none in range");
         assert_eq!(r.steady_text(), format!("none in range: still cooling at {} K", STEADY_SEARCH_K.0));
-        let r = report(None, "undefined");
+        let r = report(None, SteadyStatus::Undefined);
         assert_eq!(r.steady_text(), "none: the surface exchanges no heat (emissivity 0, h_c 0)");
+    }
+
+    #[test]
+    fn steady_status_keeps_its_json_names() {
+        for s in [SteadyStatus::Found, SteadyStatus::BelowRange, SteadyStatus::AboveRange, SteadyStatus::Undefined] {
+            let json = serde_json::to_string(&s).unwrap();
+            assert_eq!(json, format!("\"{}\"", s.as_str()));
+            assert_eq!(serde_json::from_str::<SteadyStatus>(&json).unwrap(), s);
+        }
     }
 }

@@ -1,6 +1,9 @@
 //! Stack, optimizer, loss, mismatch and measured-cell results in display units (eV, V,
 //! mA/cm^2, W/m^2). Field names are the command line's JSON keys; the browser's stack panel
 //! shows the same structs.
+//!
+//! Architecture invariant: a stack's headline figure is named by a [`StackMetric`], never by
+//! a string; its hook, label, unit and decimals are written once, here.
 
 use super::{CellReport, A_PER_M2_PER_MA_PER_CM2};
 use crate::physics::absorber::AbsorberResult;
@@ -77,50 +80,94 @@ impl From<&StackResult> for StackReport {
     }
 }
 
-/// The stack's headline figures in display order: (hook, label, unit). The labels are the
-/// command line's table labels for series connection; [`StackReport::label`] gives the one
-/// that fits the connection.
-pub const STACK_METRICS: [(&str, &str, &str); 5] = [
-    ("stack-efficiency", "Efficiency", "%"),
-    ("stack-voc", "Open-circuit voltage Voc", "V"),
-    ("stack-jsc", "Short-circuit current Jsc", "mA/cm²"),
-    ("stack-pmax", "Maximum power", "W/m²"),
-    ("stack-input", "Incident power", "W/m²"),
-];
+/// A headline figure of a stack, as the page and the table show it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StackMetric {
+    Efficiency,
+    Voc,
+    Jsc,
+    Pmax,
+    InputPower,
+}
+
+impl StackMetric {
+    /// Every figure, in the order of the command line's table.
+    pub const ALL: [StackMetric; 5] =
+        [StackMetric::Efficiency, StackMetric::Voc, StackMetric::Jsc, StackMetric::Pmax, StackMetric::InputPower];
+
+    /// The figures the stack panel shows at the top, in display order.
+    pub const HEADLINE: [StackMetric; 4] =
+        [StackMetric::Efficiency, StackMetric::Voc, StackMetric::Jsc, StackMetric::Pmax];
+
+    /// The page's `data-metric` hook.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            StackMetric::Efficiency => "stack-efficiency",
+            StackMetric::Voc => "stack-voc",
+            StackMetric::Jsc => "stack-jsc",
+            StackMetric::Pmax => "stack-pmax",
+            StackMetric::InputPower => "stack-input",
+        }
+    }
+
+    /// The label beside the figure for series connection (the command line's table label);
+    /// [`StackReport::label`] gives the one that fits the stack's connection.
+    pub fn label(self) -> &'static str {
+        match self {
+            StackMetric::Efficiency => "Efficiency",
+            StackMetric::Voc => "Open-circuit voltage Voc",
+            StackMetric::Jsc => "Short-circuit current Jsc",
+            StackMetric::Pmax => "Maximum power",
+            StackMetric::InputPower => "Incident power",
+        }
+    }
+
+    /// The display unit.
+    pub fn unit(self) -> &'static str {
+        match self {
+            StackMetric::Efficiency => "%",
+            StackMetric::Voc => "V",
+            StackMetric::Jsc => "mA/cm²",
+            StackMetric::Pmax | StackMetric::InputPower => "W/m²",
+        }
+    }
+
+    /// Decimal places shown.
+    pub fn decimals(self) -> usize {
+        match self {
+            StackMetric::Efficiency | StackMetric::Pmax => 2,
+            StackMetric::Voc => 4,
+            StackMetric::Jsc => 3,
+            StackMetric::InputPower => 1,
+        }
+    }
+}
 
 impl StackReport {
     /// The value of a headline figure in its display unit (efficiency in %).
-    pub fn metric(&self, hook: &str) -> f64 {
-        match hook {
-            "stack-efficiency" => self.efficiency * 100.0,
-            "stack-voc" => self.voc_v,
-            "stack-jsc" => self.jsc_ma_cm2,
-            "stack-pmax" => self.pmax_w_m2,
-            "stack-input" => self.input_w_m2,
-            _ => f64::NAN,
+    pub fn metric(&self, m: StackMetric) -> f64 {
+        match m {
+            StackMetric::Efficiency => self.efficiency * 100.0,
+            StackMetric::Voc => self.voc_v,
+            StackMetric::Jsc => self.jsc_ma_cm2,
+            StackMetric::Pmax => self.pmax_w_m2,
+            StackMetric::InputPower => self.input_w_m2,
         }
     }
 
     /// A headline figure as displayed, number and unit, e.g. "45.12 %": what the stack
     /// panel shows and `glowgap stack` / `glowgap eval --stack` print.
-    pub fn display(&self, hook: &str) -> String {
-        let v = self.metric(hook);
-        let unit = STACK_METRICS.iter().find(|m| m.0 == hook).map(|m| m.2).unwrap_or("");
-        let digits = match hook {
-            "stack-efficiency" | "stack-pmax" => 2,
-            "stack-voc" => 4,
-            "stack-jsc" => 3,
-            _ => 1,
-        };
-        format!("{v:.digits$} {unit}")
+    pub fn display(&self, m: StackMetric) -> String {
+        let digits = m.decimals();
+        format!("{:.digits$} {}", self.metric(m), m.unit())
     }
 
     /// The label of a headline figure for this stack's connection.
-    pub fn label(&self, hook: &str) -> &'static str {
-        match (hook, self.connection) {
-            ("stack-jsc", Connection::Independent) => "Sum of subcell Jsc",
-            ("stack-voc", Connection::Independent) => "Sum of subcell Voc",
-            _ => STACK_METRICS.iter().find(|m| m.0 == hook).map(|m| m.1).unwrap_or(""),
+    pub fn label(&self, m: StackMetric) -> &'static str {
+        match (m, self.connection) {
+            (StackMetric::Jsc, Connection::Independent) => "Sum of subcell Jsc",
+            (StackMetric::Voc, Connection::Independent) => "Sum of subcell Voc",
+            _ => m.label(),
         }
     }
 }

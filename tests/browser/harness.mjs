@@ -159,7 +159,7 @@ export function cliRadiatorFigures(link) {
 
 // ---- the stack panel ----
 
-/** The stack's headline figures (src/report/stack.rs STACK_METRICS). */
+/** The stack's headline figures (src/report/stack.rs StackMetric). */
 export const STACK_METRICS = ['stack-efficiency', 'stack-voc', 'stack-jsc'];
 
 /** The stack's figures as the page shows them. */

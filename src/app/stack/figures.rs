@@ -2,7 +2,7 @@
 //! them), the per-subcell table, and the cautions.
 
 use super::{colours, edit_stack, StackState};
-use crate::report::stack::{StackReport, STACK_METRICS};
+use crate::report::stack::{StackMetric, StackReport};
 use crate::scenario::Connection;
 use crate::view::controls::Control;
 use crate::view::format as fmt;
@@ -10,18 +10,15 @@ use leptos::prelude::*;
 
 /// The headline figures of the stack.
 pub fn figures(sc: StackState) -> impl IntoView {
-    let cards = STACK_METRICS[..4]
-        .iter()
-        .map(|(hook, _, _)| {
-            let hook = *hook;
-            let fallback = STACK_METRICS.iter().find(|m| m.0 == hook).map(|m| m.1).unwrap_or("");
-            let label = move || sc.view.with(|v| v.as_ref().map(|v| v.report.label(hook)).unwrap_or(fallback));
-            let text =
-                move || sc.view.with(|v| v.as_ref().map(|v| v.report.display(hook)).unwrap_or_else(|| "—".into()));
+    let cards = StackMetric::HEADLINE
+        .into_iter()
+        .map(|m| {
+            let label = move || sc.view.with(|v| v.as_ref().map(|v| v.report.label(m)).unwrap_or(m.label()));
+            let text = move || sc.view.with(|v| v.as_ref().map(|v| v.report.display(m)).unwrap_or_else(|| "—".into()));
             view! {
-                <div class="figure" class:lead=hook == "stack-efficiency">
+                <div class="figure" class:lead=m == StackMetric::Efficiency>
                     <span class="fig-label">{label}</span>
-                    <span class="fig-value" data-metric=hook>{text}</span>
+                    <span class="fig-value" data-metric=m.as_str()>{text}</span>
                 </div>
             }
         })

@@ -17,6 +17,7 @@ use super::{set_gaps, StackState};
 use crate::app::state::{mark, sentence, Ctx};
 use crate::app::widgets::card::range_input;
 use crate::app::widgets::fields::{gap_keys, number_field, Field};
+use crate::report::stack::StackMetric;
 use crate::scenario::stack::{check_gaps, OptimizeSettings};
 use crate::scenario::Connection;
 use crate::scenario::FixAt;
@@ -294,9 +295,9 @@ pub fn start(sc: StackState) {
         c.set(c.get() + 1);
         c.get()
     });
-    let before = sc
-        .view
-        .with_untracked(|v| v.as_ref().map(|v| v.report.display("stack-efficiency")).unwrap_or_else(|| "—".into()));
+    let before = sc.view.with_untracked(|v| {
+        v.as_ref().map(|v| v.report.display(StackMetric::Efficiency)).unwrap_or_else(|| "—".into())
+    });
     let msg =
         serde_json::json!({ "id": id, "module": module, "wasm": wasm, "job": crate::codec::to_json(&s) }).to_string();
     let posted = RUNNER.with(|r| {

@@ -1,11 +1,15 @@
 //! `glowgap eval`: the figures of a share link or a scenario file, as the page shows them:
 //! the cell (step or measured absorptance), or with `--radiator` / `--stack` that part.
 //!
+//! The input is opened by `cli::shared::files::open_scenario` (decoded, the radiator's data
+//! files read, the whole scenario checked), so a link or file that opens here is one every
+//! panel of the page can compute, and its warnings are printed once.
+//!
 //! Architecture invariant: imports only `cli::args` and `cli::shared` of the cli; the
 //! scenario is evaluated by the same printers as `cell`, `cool` and `stack`.
 
-use crate::cli::args::{OptionDoc, Parsed, Spec};
-use crate::cli::shared::files::{io_reason, resolve_radiator_files};
+use crate::cli::args::{OptionDoc, Spec};
+use crate::cli::shared::files::open_scenario;
 use crate::cli::shared::output::{
     print_cell, print_json, print_radiator, warn, with_gaps_as_given, write_absorber_cell, write_stack_table,
 };
@@ -43,21 +47,14 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     if p.flag("radiator") && p.flag("stack") {
         return Err(Failure::Usage("'glowgap eval': choose one of --radiator and --stack".into()));
     }
-    let scenario = load_scenario(what)?;
+    let (scenario, warnings) = open_scenario(what)?;
+    warn(&warnings);
     let json = p.flag("json");
     if p.flag("radiator") {
-        let mut sc = scenario.radiator;
-        resolve_radiator_files(&mut sc, &Parsed::default())
-            .map_err(|e| format!("the scenario's radiator cannot be read: {e}"))?;
-        sc.to_physics().map_err(|e| format!("the scenario's radiator cannot be computed: {e}"))?;
-        return print_radiator(&sc, json, None, out);
+        return print_radiator(&scenario.radiator, json, None, out);
     }
     if p.flag("stack") {
-        let setup = scenario
-            .stack
-            .to_physics(&scenario.cell)
-            .map_err(|e| format!("the scenario's stack cannot be computed: {e}"))?;
-        warn(&setup.warnings);
+        let setup = scenario.stack.to_physics(&scenario.cell)?;
         let r = solve_stack(&setup.light, &setup.cell, &setup.gaps_j, setup.connection);
         let report = with_gaps_as_given(StackReport::from(&r), &scenario.stack.gaps_ev);
         if json {
@@ -66,48 +63,8 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
         write_stack_table(out, &report, &setup.light.source.name(), &scenario.cell)?;
         return Ok(());
     }
-    let cannot = |f: Failure| match f {
-        Failure::Usage(m) => Failure::Usage(format!("the scenario cannot be computed: {m}")),
-        other => other,
-    };
     if !scenario.stack.absorber.is_step() {
-        return write_absorber_cell(&scenario, None, json, out).map_err(cannot);
+        return write_absorber_cell(&scenario, None, json, out);
     }
-    print_cell(&scenario.cell, json, out).map_err(cannot)
-}
-
-fn load_scenario(what: &str) -> Result<crate::scenario::Scenario, String> {
-    use crate::codec::{decode_link, from_json};
-    let looks_like_link = |t: &str| {
-        let t = t.trim();
-        let versioned = t
-            .strip_prefix('g')
-            .and_then(|r| r.split_once('.'))
-            .is_some_and(|(v, _)| !v.is_empty() && v.bytes().all(|b| b.is_ascii_digit()));
-        t.contains('#') || versioned || t.starts_with("http://") || t.starts_with("https://")
-    };
-    let text = if what == "-" {
-        let mut buf = String::new();
-        std::io::Read::read_to_string(&mut std::io::stdin(), &mut buf)
-            .map_err(|e| format!("cannot read standard input: {e}"))?;
-        buf
-    } else if looks_like_link(what) && !std::path::Path::new(what).exists() {
-        return decode_link(what).map_err(|e| e.to_string());
-    } else {
-        let bytes = std::fs::read(what).map_err(|e| {
-            format!(
-                "cannot read scenario file '{what}': {}; give a share link, a scenario file or - for standard input",
-                io_reason(&e)
-            )
-        })?;
-        String::from_utf8_lossy(&bytes).into_owned()
-    };
-    let t = text.trim_start_matches('\u{feff}').trim();
-    if t.starts_with('{') {
-        from_json(t).map_err(|e| e.to_string())
-    } else if t.is_empty() {
-        Err("the input is empty; give a share link or a scenario file".into())
-    } else {
-        decode_link(t).map_err(|e| e.to_string())
-    }
+    print_cell(&scenario.cell, json, out)
 }

@@ -4,7 +4,7 @@
 //! Architecture invariant: imports only `cli::args` and `cli::shared` of the cli.
 
 use crate::cli::args::{OptionDoc, Spec};
-use crate::cli::shared::options::{apply_common, with_light_and_cell_options};
+use crate::cli::shared::options::{apply_common, check_gap_grid, with_light_and_cell_options};
 use crate::cli::shared::output::{cell_line, print_json, suns, warn};
 use crate::cli::shared::{Command, Failure, Out};
 use crate::physics::constants::ev;
@@ -32,7 +32,6 @@ pub const COMMAND: Command = Command {
 };
 
 /// `glowgap losses --gap EV | --from EV --to EV --step EV [SOURCE AND CELL OPTIONS] [--json | --csv]`
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting checks: `!(x > 0.0)` also refuses NaN
 fn run(args: &[String], out: Out) -> Result<(), Failure> {
     let p = COMMAND.spec.parse(args)?;
     if p.flag("json") && p.flag("csv") {
@@ -47,11 +46,7 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     let gaps_ev: Vec<f64> = match (gap, range) {
         (Some(g), [None, None, None]) => vec![g],
         (None, [Some(a), Some(b), Some(s)]) => {
-            if !(s > 0.0) || a > b {
-                return Err(Failure::Usage(format!(
-                    "--from {a} --to {b} --step {s} is not a range; give the lower gap first and a positive step, e.g. --from 0.5 --to 3 --step 0.01"
-                )));
-            }
+            check_gap_grid(a, b, s)?;
             let n = ((b - a) / s).round();
             if n + 1.0 > 100_000.0 {
                 return Err(Failure::Usage(format!(
@@ -69,9 +64,6 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     };
     let mut sc = CellScenario { gap_ev: gaps_ev[0], ..Default::default() };
     apply_common(&p, &mut sc)?;
-    for &g in &gaps_ev {
-        CellScenario { gap_ev: g, ..sc.clone() }.to_physics()?;
-    }
     let setup = sc.to_physics()?;
     warn(&setup.warnings);
     if gap.is_some() {

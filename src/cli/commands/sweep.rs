@@ -5,7 +5,7 @@
 //! gap is `physics::junction::best_gap`, the search the page uses too.
 
 use crate::cli::args::{OptionDoc, Spec};
-use crate::cli::shared::options::{apply_common, with_light_and_cell_options};
+use crate::cli::shared::options::{apply_common, check_gap_grid, with_light_and_cell_options};
 use crate::cli::shared::output::warn;
 use crate::cli::shared::{Command, Failure, Out};
 use crate::physics::constants::ev;
@@ -42,7 +42,6 @@ pub const COMMAND: Command = Command {
 /// The most points one sweep may have.
 const MAX_SWEEP_POINTS: usize = 2_000_000;
 
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting checks: `!(x > 0.0)` also refuses NaN
 fn run(args: &[String], out: Out) -> Result<(), Failure> {
     let p = COMMAND.spec.parse(args)?;
     let from = p.required_number("from", "first band gap", "eV", "sweep")?;
@@ -51,20 +50,7 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     if p.flag("json") && p.flag("csv") {
         return Err(Failure::Usage("'glowgap sweep': choose one of --json and --csv".into()));
     }
-    if !(step > 0.0) {
-        return Err(Failure::Usage(format!("--step {step} must be positive, e.g. --step 0.01 (eV)")));
-    }
-    if from > to {
-        return Err(Failure::Usage(format!("--from {from} is above --to {to}; give the lower gap first")));
-    }
-    for (name, v) in [("from", from), ("to", to)] {
-        if v < GAP_RANGE_EV.0 || v > GAP_RANGE_EV.1 {
-            return Err(Failure::Usage(format!(
-                "--{name} {v} eV is out of range; band gaps go from {} to {} eV",
-                GAP_RANGE_EV.0, GAP_RANGE_EV.1
-            )));
-        }
-    }
+    check_gap_grid(from, to, step)?;
     let intervals = ((to - from) / step).round();
     if intervals + 1.0 > MAX_SWEEP_POINTS as f64 {
         return Err(Failure::Usage(format!(

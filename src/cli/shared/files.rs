@@ -1,11 +1,13 @@
 //! Data files read from disk into the tables a scenario carries: spectra, optical tables
-//! (emissivity, sky transmittance) and quantum efficiencies; and the command line's wording
-//! of what would fix a file a reader refused ([`cli_fix`]).
+//! (emissivity, sky transmittance) and quantum efficiencies; scenarios opened from a link,
+//! a file or standard input ([`open_scenario`]); and the command line's wording of what would
+//! fix a file a reader refused ([`cli_fix`]).
 //!
 //! Architecture invariant: the readers (`formats`) say what is wrong and which setting would
 //! fix it; this module alone turns that setting into the option of this command line.
 
 use crate::cli::args::Parsed;
+use crate::codec;
 use crate::formats::emissivity_csv::{parse_emissivity_csv, parse_transmittance_csv, OpticalHints, OpticalTable};
 use crate::formats::eqe_csv::parse_eqe_csv;
 use crate::formats::spectrum_csv::{parse_spectrum_csv, ColumnHints};
@@ -13,7 +15,7 @@ use crate::formats::units::{AxisUnit, ValueKind, ValueUnit};
 use crate::formats::{Hint, TableError, TableKind};
 use crate::physics::absorber::AbsorptanceTable;
 use crate::scenario::radiator::{EmissivityTable, EmitterSpec, RadiatorScenario, SkySpec, TransmittanceTable};
-use crate::scenario::{SourceSpec, TableSpec};
+use crate::scenario::{Scenario, SourceSpec, TableSpec};
 
 /// A kind of data file and the prefix of the options that describe it (`--{prefix}-axis`,
 /// `--{prefix}-values`, `--{prefix}-column`); `None` when only the header can.
@@ -81,6 +83,40 @@ fn other_table(kind: TableKind) -> String {
         TableKind::Spectrum => "a spectrum goes to --spectrum file:PATH".into(),
         TableKind::QuantumEfficiency => "a quantum efficiency goes to --eqe file:PATH".into(),
     }
+}
+
+/// Open what a command is given as a scenario: a share link (a whole URL or its fragment), the
+/// path of a scenario file, or `-` for standard input. The text is decoded
+/// ([`codec::decode`]), the radiator's `file:PATH` references are read from disk (paths as
+/// written, from the working folder), and the whole scenario is checked
+/// ([`Scenario::check_with_warnings`]); without file references this is [`codec::open`].
+/// Returns the scenario, usable by every part, and the warnings worth showing.
+pub fn open_scenario(what: &str) -> Result<(Scenario, Vec<String>), String> {
+    let looks_like_link = |t: &str| {
+        let t = t.trim();
+        let versioned = t
+            .strip_prefix('g')
+            .and_then(|r| r.split_once('.'))
+            .is_some_and(|(v, _)| !v.is_empty() && v.bytes().all(|b| b.is_ascii_digit()));
+        t.contains('#') || versioned || t.starts_with("http://") || t.starts_with("https://")
+    };
+    let text = if what == "-" {
+        let mut buf = String::new();
+        std::io::Read::read_to_string(&mut std::io::stdin(), &mut buf)
+            .map_err(|e| format!("cannot read standard input: {e}"))?;
+        buf
+    } else if looks_like_link(what) && !std::path::Path::new(what).exists() {
+        what.to_string()
+    } else {
+        read_text(what, "scenario file")
+            .map_err(|e| format!("{e}; give a share link, a scenario file or - for standard input"))?
+            .0
+    };
+    let mut scenario = codec::decode(&text).map_err(|e| e.to_string())?;
+    resolve_radiator_files(&mut scenario.radiator, &Parsed::default())
+        .map_err(|e| format!("the scenario's radiator cannot be read: {e}"))?;
+    let warnings = scenario.check_with_warnings().map_err(|e| format!("the scenario cannot be computed: {e}"))?;
+    Ok((scenario, warnings))
 }
 
 /// `what 'path': line N: message; fix`.

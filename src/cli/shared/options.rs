@@ -1,12 +1,14 @@
 //! Options several commands share: the light source and the cell (applied onto a
-//! `CellScenario`), the connection and gap list of stacks, and the help of each.
+//! `CellScenario`), the connection and gap list of stacks, a grid of band gaps
+//! (`--from`/`--to`/`--step`), and the help of each.
 //!
 //! Architecture invariant: options become scenario values here and are checked by the
-//! scenario (`to_physics`), never by range checks of their own.
+//! scenario (`to_physics`, `check_gap_ev`, `check_gap_range`), never by range checks of their
+//! own; the messages put the option's name in front of the scenario's words.
 
 use super::files::read_spectrum_file;
 use crate::cli::args::{OptionDoc, Parsed};
-use crate::scenario::{CellScenario, SourceSpec};
+use crate::scenario::{check_gap_ev, check_gap_range, CellScenario, SourceSpec};
 use crate::scenario::{Connection, Emission, JvModel};
 
 /// The valued options of a command followed by the light-source and cell options that
@@ -111,4 +113,20 @@ pub fn connection(p: &Parsed) -> Result<Connection, String> {
             )),
         },
     }
+}
+
+/// Check the grid of band gaps `--from FROM --to TO --step STEP` [eV] (TO included): both
+/// ends in the accepted range ([`check_gap_ev`]), the lower first ([`check_gap_range`]; equal
+/// ends make a grid of one gap) and a positive step. The messages name the options.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // `!(step > 0.0)` on purpose: it also refuses NaN
+pub fn check_gap_grid(from_ev: f64, to_ev: f64, step_ev: f64) -> Result<(), String> {
+    check_gap_ev(from_ev).map_err(|e| format!("--from: {e}"))?;
+    check_gap_ev(to_ev).map_err(|e| format!("--to: {e}"))?;
+    if from_ev != to_ev {
+        check_gap_range("band-gap range", from_ev, to_ev).map_err(|e| format!("--from {from_ev} --to {to_ev}: {e}"))?;
+    }
+    if !(step_ev > 0.0) {
+        return Err(format!("--step {step_ev} must be positive, e.g. --step 0.01 (eV)"));
+    }
+    Ok(())
 }

@@ -11,17 +11,24 @@ use crate::physics::absorber::{ere_from_voc, solve_absorber};
 use crate::physics::junction::solve_cell;
 use crate::physics::radiator::evaluate;
 use crate::report::radiator::RadiatorReport;
-use crate::report::stack::{AbsorberReport, StackReport};
+use crate::report::stack::{AbsorberReport, StackMetric, StackReport};
 use crate::report::CellReport;
 use crate::scenario::radiator::{AngularSpec, RadiatorScenario};
 use crate::scenario::stack::AbsorberSpec;
 use crate::scenario::{CellScenario, Scenario};
 use crate::scenario::{Connection, Emission, JvModel};
 
-/// Warnings on stderr, one line each.
+/// Warnings on stderr, one line each, each at most once per run: opening a scenario checks
+/// every part and printing a part checks it again, and the same warning is not worth two
+/// lines.
 pub fn warn(warnings: &[String]) {
+    static SHOWN: std::sync::Mutex<Vec<String>> = std::sync::Mutex::new(Vec::new());
+    let mut shown = SHOWN.lock().unwrap_or_else(|poisoned| poisoned.into_inner());
     for w in warnings {
-        eprintln!("glowgap: warning: {w}");
+        if !shown.contains(w) {
+            eprintln!("glowgap: warning: {w}");
+            shown.push(w.clone());
+        }
     }
 }
 
@@ -102,12 +109,12 @@ pub fn write_stack_table(out: Out, r: &StackReport, source: &str, sc: &CellScena
     writeln!(out, "{:<28} {} junctions, {}", "Stack", r.subcells.len(), connection_words(r.connection))?;
     writeln!(out, "{:<28} {} at {}", "Source", source, suns(sc.concentration))?;
     writeln!(out, "{:<28} {}", "Cells", cell_line(sc))?;
-    // the headline figures as the stack panel shows them (report::stack::STACK_METRICS)
-    writeln!(out, "{:<28} {}", "Efficiency", r.display("stack-efficiency"))?;
-    writeln!(out, "{:<28} {}", "Open-circuit voltage Voc", r.display("stack-voc"))?;
-    writeln!(out, "{:<28} {}", r.label("stack-jsc"), r.display("stack-jsc"))?;
-    writeln!(out, "{:<28} {}", "Maximum power", r.display("stack-pmax"))?;
-    writeln!(out, "{:<28} {}", "Incident power", r.display("stack-input"))?;
+    // the headline figures as the stack panel shows them; the Voc row keeps its label in
+    // every connection, the Jsc row says when it is a sum
+    for m in StackMetric::ALL {
+        let label = if m == StackMetric::Voc { m.label() } else { r.label(m) };
+        writeln!(out, "{:<28} {}", label, r.display(m))?;
+    }
     writeln!(out)?;
     writeln!(
         out,
