@@ -288,14 +288,37 @@ impl MismatchReport {
     }
 }
 
+/// Which absorptance a cell has; its JSON name is the `absorber` key's value.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "lowercase")]
+pub enum AbsorberKind {
+    /// the ideal step at the gap
+    Step,
+    /// an exponential tail below the gap
+    Urbach,
+    /// a measured EQE table
+    Measured,
+}
+
+impl AbsorberKind {
+    /// The kind of an absorber choice of the scenario.
+    pub fn of(spec: &crate::scenario::stack::AbsorberSpec) -> AbsorberKind {
+        use crate::scenario::stack::AbsorberSpec;
+        match spec {
+            AbsorberSpec::Step => AbsorberKind::Step,
+            AbsorberSpec::Urbach { .. } => AbsorberKind::Urbach,
+            AbsorberSpec::Measured(_) => AbsorberKind::Measured,
+        }
+    }
+}
+
 /// A cell with a measured or modelled absorptance: the usual figures (same keys as
 /// [`CellReport`]) and the reciprocity quantities.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct AbsorberReport {
     #[serde(flatten)]
     pub cell: CellReport,
-    /// "step", "urbach" or "measured"
-    pub absorber: String,
+    pub absorber: AbsorberKind,
     /// radiative dark current J0_rad (0 once it underflows)
     pub j0_rad_ma_cm2: f64,
     /// log10 of J0_rad in mA/cm^2, which does not underflow
@@ -311,11 +334,11 @@ pub struct AbsorberReport {
 }
 
 impl AbsorberReport {
-    pub fn new(r: &AbsorberResult, absorber: &str) -> AbsorberReport {
+    pub fn new(r: &AbsorberResult, absorber: AbsorberKind) -> AbsorberReport {
         let ln_ma = r.ln_j0 - A_PER_M2_PER_MA_PER_CM2.ln();
         AbsorberReport {
             cell: CellReport::from(&r.cell),
-            absorber: absorber.to_string(),
+            absorber,
             j0_rad_ma_cm2: r.j0 / A_PER_M2_PER_MA_PER_CM2,
             log10_j0_rad_ma_cm2: ln_ma.is_finite().then(|| ln_ma / std::f64::consts::LN_10),
             voc_rad_v: r.voc_rad,

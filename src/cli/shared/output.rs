@@ -11,7 +11,7 @@ use crate::physics::absorber::{ere_from_voc, solve_absorber};
 use crate::physics::junction::solve_cell;
 use crate::physics::radiator::evaluate;
 use crate::report::radiator::RadiatorReport;
-use crate::report::stack::{AbsorberReport, StackMetric, StackReport};
+use crate::report::stack::{AbsorberKind, AbsorberReport, StackMetric, StackReport};
 use crate::report::CellReport;
 use crate::scenario::radiator::{AngularSpec, RadiatorScenario};
 use crate::scenario::stack::AbsorberSpec;
@@ -156,12 +156,7 @@ pub fn write_absorber_cell(
     let a = scenario.stack.absorber.to_physics(sc.gap_ev, sc.cell_temp_k, &mut setup.warnings)?;
     warn(&setup.warnings);
     let r = solve_absorber(&setup.light, &a, &setup.cell);
-    let kind = match &scenario.stack.absorber {
-        AbsorberSpec::Step => "step",
-        AbsorberSpec::Urbach { .. } => "urbach",
-        AbsorberSpec::Measured(_) => "measured",
-    };
-    let mut report = AbsorberReport::new(&r, kind);
+    let mut report = AbsorberReport::new(&r, AbsorberKind::of(&scenario.stack.absorber));
     if let Some(v) = measured_voc {
         report.measured_voc_v = Some(v);
         report.ere_from_voc = ere_from_voc(r.cell.jsc, r.ln_j0, sc.cell_temp_k, v);

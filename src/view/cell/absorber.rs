@@ -5,29 +5,11 @@ use super::setup_of;
 use crate::physics::absorber::{solve_absorber, Absorptance};
 use crate::physics::constants::{ev, to_ev};
 use crate::physics::junction::Cell;
+pub use crate::report::stack::AbsorberKind;
 use crate::report::stack::AbsorberReport;
 use crate::scenario::stack::AbsorberSpec;
 use crate::scenario::Scenario;
 use crate::view::format::field;
-
-/// Which real absorptance the cell has.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum AbsorberKind {
-    /// an exponential tail below the gap
-    Urbach,
-    /// a measured EQE table
-    Measured,
-}
-
-impl AbsorberKind {
-    /// The name the reports and the command line's JSON use.
-    pub fn as_str(self) -> &'static str {
-        match self {
-            AbsorberKind::Urbach => "urbach",
-            AbsorberKind::Measured => "measured",
-        }
-    }
-}
 
 /// A measured (or modelled) absorptance next to the ideal step at the same edge.
 #[derive(Debug, Clone)]
@@ -70,9 +52,12 @@ pub fn absorber_view(s: &Scenario) -> Result<Option<AbsorberView>, String> {
     let mut warnings = Vec::new();
     let a = s.stack.absorber.to_physics(s.cell.gap_ev, s.cell.cell_temp_k, &mut warnings)?;
     let cell = Cell { gap_j: ev(s.cell.gap_ev), ..setup.cell };
-    let measured = AbsorberReport::new(&solve_absorber(&setup.light, &a, &cell), kind.as_str());
+    let measured = AbsorberReport::new(&solve_absorber(&setup.light, &a, &cell), kind);
     let edge = a.edge_j();
-    let step = AbsorberReport::new(&solve_absorber(&setup.light, &Absorptance::Step { gap_j: edge }, &cell), "step");
+    let step = AbsorberReport::new(
+        &solve_absorber(&setup.light, &Absorptance::Step { gap_j: edge }, &cell),
+        AbsorberKind::Step,
+    );
     let points = match &a {
         Absorptance::Table(t) => t.energies_j().into_iter().map(|e| (to_ev(e), t.at_energy(e))).collect(),
         Absorptance::Urbach { gap_j, urbach_j } => urbach_curve(&a, *gap_j, *urbach_j),
