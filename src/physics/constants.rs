@@ -71,6 +71,11 @@ pub fn energy_of_wavelength(lambda_m: f64) -> f64 {
     HC / lambda_m
 }
 
+/// Wavelength [m] of a photon of energy `e_j` [J]: lambda = hc / E.
+pub fn wavelength_of_energy(e_j: f64) -> f64 {
+    HC / e_j
+}
+
 /// Electronvolts to joules.
 #[inline]
 pub fn ev(e_ev: f64) -> f64 {

@@ -373,7 +373,7 @@ impl Spectrum {
 /// |du/dE| for the axis variable u at coordinate `u`: converts a density per unit of u into
 /// a density per unit of photon energy.
 #[inline]
-fn jacobian_per_energy(axis: Axis, u: f64) -> f64 {
+pub fn jacobian_per_energy(axis: Axis, u: f64) -> f64 {
     match axis {
         // lambda = hc/E, |d lambda/dE| = hc/E^2 = lambda^2/hc
         Axis::Wavelength => u * u / HC,

@@ -8,11 +8,11 @@ use crate::report::CellMetric;
 use std::fmt::Write;
 
 use super::CellView;
-use crate::physics::constants::{to_ev, HC};
 use crate::report::CellReport;
 use crate::scenario::{Emission, JvModel};
 use crate::scenario::{PlotAxis, PlotQuantity, Scenario, SourceSpec};
 use crate::view::format::{csv_num, field, fixed, gap_ev};
+use crate::view::input::nm_of_ev;
 use crate::view::spectrum::{spectrum_view, SpectrumDetail};
 
 /// Short human name of a source.
@@ -107,7 +107,7 @@ pub fn spectrum_csv(s: &Scenario, c: &CellView) -> String {
         let e_ev = full.ev_of_x(*x);
         let o = match axis {
             PlotAxis::Wavelength => e_ev,
-            PlotAxis::PhotonEnergy => to_ev(HC / 1e-9) / e_ev,
+            PlotAxis::PhotonEnergy => nm_of_ev(e_ev),
         };
         let absorbed = if e_ev >= c.gap_ev { 1 } else { 0 };
         let (xd, od) = match axis {
@@ -131,7 +131,7 @@ fn report_header(out: &mut String) {
 }
 
 fn report_row(out: &mut String, r: &CellReport) {
-    let nm = to_ev(HC / 1e-9) / r.gap_ev;
+    let nm = nm_of_ev(r.gap_ev);
     let _ = writeln!(
         out,
         "{:.6},{:.3},{},{},{},{},{},{},{},{}",
