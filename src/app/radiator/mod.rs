@@ -37,7 +37,7 @@ use plots::RadPlot;
 use state::Slot;
 
 /// Compute and redraw whenever the radiator's part of the scenario, the drag state, the
-/// chosen point or a canvas' size changes (the engine's caches make the last three cheap).
+/// chosen point or a canvas' size changes (the view's caches make the last three cheap).
 /// The plots are drawn before the figures' text changes, so drawing forces no extra layout.
 fn render_effect(rad: RadiatorState, canvases: [NodeRef<html::Canvas>; 3]) {
     let ctx: Ctx = rad.ctx;
@@ -48,8 +48,8 @@ fn render_effect(rad: RadiatorState, canvases: [NodeRef<html::Canvas>; 3]) {
         let selected = rad.selected.get();
         let sun_shown = rad.last_sun.get();
         let targets: Vec<_> = canvases.iter().map(|r| r.get()).collect();
-        let engine = rad.engine.get_value();
-        let outcome = scenario.with(|sc| engine.borrow_mut().compute(sc, coarse, &sun_shown));
+        let cache = rad.cache.get_value();
+        let outcome = scenario.with(|sc| cache.borrow_mut().compute(sc, coarse, &sun_shown));
         let c = match outcome {
             Ok(c) => {
                 mark("gg-computed");

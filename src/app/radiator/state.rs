@@ -51,7 +51,7 @@ impl Slot {
 pub struct RadiatorState {
     pub ctx: Ctx,
     /// caches, kept while another panel is in front
-    pub engine: StoredValue<Rc<RefCell<RadiatorCache>>, LocalStorage>,
+    pub cache: StoredValue<Rc<RefCell<RadiatorCache>>, LocalStorage>,
     pub computed: RwSignal<Option<Arc<RadiatorView>>>,
     /// why the radiator cannot be computed (should not happen: edits are checked)
     pub compute_error: RwSignal<Option<String>>,
@@ -79,7 +79,7 @@ impl RadiatorState {
     pub fn new(ctx: Ctx) -> RadiatorState {
         let rad = RadiatorState {
             ctx,
-            engine: StoredValue::new_local(Rc::new(RefCell::new(RadiatorCache::default()))),
+            cache: StoredValue::new_local(Rc::new(RefCell::new(RadiatorCache::default()))),
             computed: RwSignal::new(None),
             compute_error: RwSignal::new(None),
             frames: RwSignal::new([Frame::default(); 3]),
