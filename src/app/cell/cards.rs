@@ -11,7 +11,7 @@ use leptos::prelude::*;
 use super::plots::{CellPlot, PlotKind};
 use super::state::CellState;
 use crate::app::state::Ctx;
-use crate::app::widgets::card::{plot_card as card, range_input, Card, Hover, PlotBehaviour};
+use crate::app::widgets::card::{plot_card, range_input, Card, Hover, PlotBehaviour};
 use crate::app::widgets::export::offer;
 use crate::app::widgets::plot::Frame;
 use crate::physics::constants::to_ev;
@@ -294,14 +294,14 @@ impl PlotBehaviour for CellCard {
     }
 }
 
-pub fn plot_card(cs: CellState, kind: PlotKind, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+pub fn cell_plot_card(cs: CellState, kind: PlotKind, canvas: NodeRef<html::Canvas>) -> impl IntoView {
     let ctx = cs.ctx;
     let i = kind.index();
     let draggable = kind != PlotKind::Jv;
     let note = (kind == PlotKind::Efficiency).then(|| view! {
         <p class="field-error" id="e-curve-range" data-error=Control::CurveRange.as_str() aria-live="polite">{move || ctx.error_of(Control::CurveRange)}</p>
     });
-    card(
+    plot_card(
         ctx,
         Card {
             slug: kind.slug(),

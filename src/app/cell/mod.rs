@@ -111,9 +111,9 @@ pub fn CellPanel() -> impl IntoView {
             <section class="results" aria-label="Results">
                 {figures::figures(cs)}
                 <div class="plots">
-                    {cards::plot_card(cs, PlotKind::Spectrum, canvases[0])}
-                    {cards::plot_card(cs, PlotKind::Efficiency, canvases[1])}
-                    {cards::plot_card(cs, PlotKind::Jv, canvases[2])}
+                    {cards::cell_plot_card(cs, PlotKind::Spectrum, canvases[0])}
+                    {cards::cell_plot_card(cs, PlotKind::Efficiency, canvases[1])}
+                    {cards::cell_plot_card(cs, PlotKind::Jv, canvases[2])}
                     {losses::losses_card(cs, canvases[LOSSES])}
                 </div>
             </section>

@@ -25,12 +25,12 @@ use crate::view::stack::{absorbing, spectrum_csv, StackView};
 
 /// What the spectrum plot does with the pointer and keys.
 struct SpectrumCard {
-    sc: StackState,
+    stack: StackState,
 }
 
 impl SpectrumCard {
     fn view(&self) -> Option<std::sync::Arc<StackView>> {
-        self.sc.view.get_untracked()
+        self.stack.view.get_untracked()
     }
 
     /// The marker nearest to CSS x and its distance [CSS px].
@@ -44,7 +44,7 @@ impl SpectrumCard {
 
     /// Move gap `i` to `g` eV, kept strictly between its neighbours.
     fn move_gap(&self, i: usize, g: f64) {
-        let mut gaps = self.sc.gaps();
+        let mut gaps = self.stack.gaps();
         if i >= gaps.len() {
             return;
         }
@@ -52,21 +52,21 @@ impl SpectrumCard {
         let above = if i == 0 { GAP_RANGE_EV.1 + MIN_SPACING_EV } else { gaps[i - 1] };
         let g = tidy(g.clamp(below + MIN_SPACING_EV, above - MIN_SPACING_EV));
         gaps[i] = g;
-        set_gaps(self.sc.ctx, Control::StackSpectrum, gaps);
+        set_gaps(self.stack.ctx, Control::StackSpectrum, gaps);
     }
 
     fn move_to(&self, x_css: f64) {
         let Some(v) = self.view() else { return };
-        let f = self.sc.frame(SPECTRUM);
+        let f = self.stack.frame(SPECTRUM);
         let g = (v.spectrum.ev_of_x(f.x_at_css(x_css)) * 1000.0).round() / 1000.0;
-        self.move_gap(self.sc.selected.get_untracked(), g);
+        self.move_gap(self.stack.selected.get_untracked(), g);
     }
 }
 
 impl PlotBehaviour for SpectrumCard {
     fn hover(&self, x: f64, y: f64, width: f64) -> Option<Hover> {
         let v = self.view()?;
-        let f = self.sc.frame(SPECTRUM);
+        let f = self.stack.frame(SPECTRUM);
         if !f.is_valid() || !f.contains_css(x, y, 0.0) {
             return None;
         }
@@ -87,13 +87,13 @@ impl PlotBehaviour for SpectrumCard {
     }
 
     fn press(&self, x: f64, y: f64) -> bool {
-        let f = self.sc.frame(SPECTRUM);
+        let f = self.stack.frame(SPECTRUM);
         let Some(v) = self.view() else { return false };
         if !f.is_valid() || !f.contains_css(x, y, 12.0) {
             return false;
         }
         let Some((i, dist)) = self.nearest_marker(&v, &f, x) else { return false };
-        self.sc.selected.set(i);
+        self.stack.selected.set(i);
         // a press on a marker grabs it; elsewhere the nearest marker jumps to the pointer
         if dist > 10.0 {
             self.move_to(x);
@@ -107,16 +107,16 @@ impl PlotBehaviour for SpectrumCard {
 
     fn key_down(&self, ev: &web_sys::KeyboardEvent) -> bool {
         let key = ev.key();
-        let n = self.sc.ctx.scenario.with_untracked(|s| s.stack.gaps_ev.len());
+        let n = self.stack.ctx.scenario.with_untracked(|s| s.stack.gaps_ev.len());
         if let Some(d) = key.chars().next().and_then(|c| c.to_digit(10)).filter(|_| key.chars().count() == 1) {
             let d = d as usize;
             if (1..=n).contains(&d) {
-                self.sc.selected.set(d - 1);
+                self.stack.selected.set(d - 1);
                 return true;
             }
             return false;
         }
-        let wavelength = self.sc.ctx.scenario.with_untracked(|s| s.view.spectrum_axis == PlotAxis::Wavelength);
+        let wavelength = self.stack.ctx.scenario.with_untracked(|s| s.view.spectrum_axis == PlotAxis::Wavelength);
         // on a wavelength axis, right means longer wavelengths: a smaller gap
         let right = if wavelength { -1.0 } else { 1.0 };
         let dir = match key.as_str() {
@@ -126,8 +126,8 @@ impl PlotBehaviour for SpectrumCard {
             "ArrowLeft" => -right,
             _ => return false,
         };
-        let i = self.sc.selected.get_untracked().min(n.saturating_sub(1));
-        if let Some(g) = self.sc.gaps().get(i).copied() {
+        let i = self.stack.selected.get_untracked().min(n.saturating_sub(1));
+        if let Some(g) = self.stack.gaps().get(i).copied() {
             self.move_gap(i, g + dir * crate::app::widgets::fields::key_step(ev));
         }
         true
@@ -136,15 +136,15 @@ impl PlotBehaviour for SpectrumCard {
     fn save(&self, kind: ExportKind) -> Result<(), String> {
         let v = self.view().ok_or("nothing has been computed yet")?;
         let describe = format!("{}-junction stack, absorbed bands", v.gaps_ev.len());
-        save_plot(self.sc, "stack-spectrum", kind, &describe, &SpectrumPlot { v: &v, selected: usize::MAX }, |cap| {
+        save_plot(self.stack, "stack-spectrum", kind, &describe, &SpectrumPlot { v: &v, selected: usize::MAX }, |cap| {
             spectrum_csv(&v, cap)
         })
     }
 }
 
-fn spectrum_legend(sc: StackState) -> impl IntoView {
+fn spectrum_legend(stack: StackState) -> impl IntoView {
     move || {
-        sc.view.with(|v| {
+        stack.view.with(|v| {
             let v = v.as_ref()?;
             let keys = v
                 .report
@@ -166,8 +166,8 @@ fn spectrum_legend(sc: StackState) -> impl IntoView {
     }
 }
 
-pub fn spectrum_card(sc: StackState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
-    let ctx = sc.ctx;
+pub fn spectrum_card(stack: StackState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+    let ctx = stack.ctx;
     let note = view! {
         <p class="field-error" data-error=Control::StackSpectrum.as_str() aria-live="polite">{move || ctx.error_of(Control::StackSpectrum)}</p>
     };
@@ -181,13 +181,13 @@ pub fn spectrum_card(sc: StackState, canvas: NodeRef<html::Canvas>) -> impl Into
             wrap_class: "draggable",
             control: None,
             tools: ().into_any(),
-            legend: spectrum_legend(sc).into_any(),
+            legend: spectrum_legend(stack).into_any(),
             note: note.into_any(),
             footer: ().into_any(),
             canvas,
-            plot_error: Signal::derive(move || sc.plot_errors.with(|e| e[SPECTRUM].clone())),
+            plot_error: Signal::derive(move || stack.plot_errors.with(|e| e[SPECTRUM].clone())),
         },
-        Rc::new(SpectrumCard { sc }),
+        Rc::new(SpectrumCard { stack }),
     )
 }
 
@@ -197,8 +197,8 @@ const MARKER_REACH_CSS: f64 = 7.0;
 
 /// Put a two-junction design at (top, bottom) [eV], rounded to `unit` [eV]; a design with
 /// another number of junctions is left alone with a message.
-fn place_design(sc: StackState, top: f64, bottom: f64, unit: f64) -> bool {
-    let ctx = sc.ctx;
+fn place_design(stack: StackState, top: f64, bottom: f64, unit: f64) -> bool {
+    let ctx = stack.ctx;
     let n = ctx.scenario.with_untracked(|s| s.stack.gaps_ev.len());
     if n != 2 {
         ctx.set_error(
@@ -221,26 +221,26 @@ fn on_marker(f: &Frame, p: Option<(f64, f64, f64)>, x: f64, y: f64) -> Option<(f
 
 /// What the map does with the pointer and keys.
 struct MapCard {
-    sc: StackState,
+    stack: StackState,
 }
 
 impl MapCard {
     /// Put the design at (top, bottom) [eV], rounded to 1 meV.
     fn place(&self, top: f64, bottom: f64) -> bool {
-        place_design(self.sc, top, bottom, 1e-3)
+        place_design(self.stack, top, bottom, 1e-3)
     }
 
     fn point_at(&self, x: f64, y: f64) -> Option<(f64, f64)> {
-        let f = self.sc.frame(MAP);
+        let f = self.stack.frame(MAP);
         (f.is_valid() && f.contains_css(x, y, 4.0)).then(|| (f.y_at_css(y), f.x_at_css(x)))
     }
 }
 
 impl PlotBehaviour for MapCard {
     fn hover(&self, x: f64, y: f64, width: f64) -> Option<Hover> {
-        let m = self.sc.map.get_untracked()?;
+        let m = self.stack.map.get_untracked()?;
         let (t, b) = self.point_at(x, y)?;
-        let f = self.sc.frame(MAP);
+        let f = self.stack.frame(MAP);
         if !f.contains_css(x, y, 0.0) {
             return None;
         }
@@ -275,11 +275,11 @@ impl PlotBehaviour for MapCard {
     }
 
     fn press(&self, x: f64, y: f64) -> bool {
-        let Some(m) = self.sc.map.get_untracked() else { return false };
+        let Some(m) = self.stack.map.get_untracked() else { return false };
         // on the optimum's marker: the design takes the optimum (to 0.1 meV, as the search gives it)
-        let f = self.sc.frame(MAP);
+        let f = self.stack.frame(MAP);
         if let Some((t, b, _)) = on_marker(&f, m.refined, x, y) {
-            place_design(self.sc, t, b, OPTIMUM_UNIT_EV);
+            place_design(self.stack, t, b, OPTIMUM_UNIT_EV);
             return true;
         }
         match self.point_at(x, y) {
@@ -306,7 +306,7 @@ impl PlotBehaviour for MapCard {
             "ArrowLeft" => (0.0, -step),
             _ => return false,
         };
-        let g = self.sc.gaps();
+        let g = self.stack.gaps();
         if g.len() == 2 {
             self.place(tidy(g[0] + dt), tidy(g[1] + db));
         } else {
@@ -316,17 +316,17 @@ impl PlotBehaviour for MapCard {
     }
 
     fn save(&self, kind: ExportKind) -> Result<(), String> {
-        let m = self.sc.map.get_untracked().ok_or("the map has not been computed yet")?;
-        let design = self.sc.ctx.scenario.with_untracked(|s| Design::of(&s.stack));
+        let m = self.stack.map.get_untracked().ok_or("the map has not been computed yet")?;
+        let design = self.stack.ctx.scenario.with_untracked(|s| Design::of(&s.stack));
         let describe = format!("two-junction {} map", m.connection.label());
-        save_plot(self.sc, "tandem-map", kind, &describe, &MapPlot { map: &m, design }, |cap| map_csv(&m, cap))
+        save_plot(self.stack, "tandem-map", kind, &describe, &MapPlot { map: &m, design }, |cap| map_csv(&m, cap))
     }
 }
 
-fn map_legend(sc: StackState) -> impl IntoView {
+fn map_legend(stack: StackState) -> impl IntoView {
     // each line follows the map on its own, so a new map or design changes only text
-    let optimum = move || sc.map.with(|m| m.as_ref().and_then(|m| m.refined));
-    let has_best = move || sc.map.with(|m| m.as_ref().is_some_and(|m| m.best.is_some()));
+    let optimum = move || stack.map.with(|m| m.as_ref().and_then(|m| m.refined));
+    let has_best = move || stack.map.with(|m| m.as_ref().is_some_and(|m| m.best.is_some()));
     let refined = move || match optimum() {
         Some((t, b, e)) => format!(
             "optimum, refined from the grid: top {} eV, bottom {} eV, {} %",
@@ -337,15 +337,15 @@ fn map_legend(sc: StackState) -> impl IntoView {
         None => "refining the optimum…".to_string(),
     };
     let best = move || {
-        sc.map.with(|m| {
+        stack.map.with(|m| {
             m.as_ref().and_then(|m| m.best).map(|(t, b, e)| {
                 format!("best point of the grid: top {} eV, bottom {} eV, {} %", fixed(t, 3), fixed(b, 3), fixed(e, 2))
             })
         })
     };
-    let series = move || sc.map.with(|m| m.as_ref().is_some_and(|m| m.connection == Connection::Series));
+    let series = move || stack.map.with(|m| m.as_ref().is_some_and(|m| m.connection == Connection::Series));
     let design = move || {
-        let n = sc.ctx.scenario.with(|s| s.stack.gaps_ev.len());
+        let n = stack.ctx.scenario.with(|s| s.stack.gaps_ev.len());
         if n == 2 {
             "this design — click or drag to move it".to_string()
         } else {
@@ -353,8 +353,8 @@ fn map_legend(sc: StackState) -> impl IntoView {
         }
     };
     let timing = move || {
-        let status = sc.map_status.get();
-        sc.map.with(|m| match (&status, m) {
+        let status = stack.map_status.get();
+        stack.map.with(|m| match (&status, m) {
             (MapStatus::Computing(f), _) => format!("computing the map… {} %", fixed(f * 100.0, 0)),
             (MapStatus::Failed(e), _) => e.clone(),
             (_, Some(m)) if m.refined.is_some() => format!(
@@ -372,7 +372,7 @@ fn map_legend(sc: StackState) -> impl IntoView {
     };
     let use_optimum = move |_| {
         if let Some((t, b, _)) = optimum() {
-            place_design(sc, t, b, OPTIMUM_UNIT_EV);
+            place_design(stack, t, b, OPTIMUM_UNIT_EV);
         }
     };
     view! {
@@ -396,8 +396,8 @@ const STAR_KEY: &str = "10.0,1.6 12.3,7.6 18.7,8.0 13.7,12.0 15.4,18.2 10.0,14.7
 /// Grid sizes offered for the map (points along each axis).
 const RESOLUTIONS: [usize; 4] = [61, 121, 201, 301];
 
-fn resolution_tool(sc: StackState) -> impl IntoView {
-    let ctx = sc.ctx;
+fn resolution_tool(stack: StackState) -> impl IntoView {
+    let ctx = stack.ctx;
     let points = Memo::new(move |_| ctx.scenario.with(|s| s.stack.map.points));
     let on_change = move |ev: leptos::ev::Event| {
         if let Ok(n) = event_target_value(&ev).parse::<usize>() {
@@ -423,9 +423,9 @@ fn resolution_tool(sc: StackState) -> impl IntoView {
     }
 }
 
-pub fn map_card(sc: StackState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
-    let ctx = sc.ctx;
-    let progress = move || match sc.map_status.get() {
+pub fn map_card(stack: StackState, canvas: NodeRef<html::Canvas>) -> impl IntoView {
+    let ctx = stack.ctx;
+    let progress = move || match stack.map_status.get() {
         MapStatus::Computing(f) => {
             Some(view! { <progress class="map-progress" data-progress="map" max="1" value=f.to_string()></progress> })
         }
@@ -444,13 +444,13 @@ pub fn map_card(sc: StackState, canvas: NodeRef<html::Canvas>) -> impl IntoView 
             interactive: true,
             wrap_class: "map-wrap",
             control: None,
-            tools: view! { <div class="plot-tools">{resolution_tool(sc)}</div> }.into_any(),
-            legend: map_legend(sc).into_any(),
+            tools: view! { <div class="plot-tools">{resolution_tool(stack)}</div> }.into_any(),
+            legend: map_legend(stack).into_any(),
             note: note.into_any(),
             footer: ().into_any(),
             canvas,
-            plot_error: Signal::derive(move || sc.plot_errors.with(|e| e[MAP].clone())),
+            plot_error: Signal::derive(move || stack.plot_errors.with(|e| e[MAP].clone())),
         },
-        Rc::new(MapCard { sc }),
+        Rc::new(MapCard { stack }),
     )
 }

@@ -42,12 +42,12 @@ pub fn resized(gaps: &[f64], n: usize) -> Vec<f64> {
 }
 
 /// One gap field with its colour, keys and message line.
-fn gap_field(sc: StackState, i: usize) -> impl IntoView {
-    let ctx = sc.ctx;
+fn gap_field(stack: StackState, i: usize) -> impl IntoView {
+    let ctx = stack.ctx;
     let hook = GAP_HOOKS[i];
     let value = Memo::new(move |_| ctx.scenario.with(|s| s.stack.gaps_ev.get(i).copied().unwrap_or(f64::NAN)));
     let commit: Rc<dyn Fn(f64) -> bool> = Rc::new(move |g| {
-        let mut gaps = sc.gaps();
+        let mut gaps = stack.gaps();
         if i >= gaps.len() {
             return false;
         }
@@ -71,28 +71,28 @@ fn gap_field(sc: StackState, i: usize) -> impl IntoView {
     };
     let swatch = format!("background:{}", colours::css(colours::subcell(i)));
     view! {
-        <div class="stack-gap" on:focusin=move |_| { typing.set(false); sc.selected.set(i); }>
+        <div class="stack-gap" on:focusin=move |_| { typing.set(false); stack.selected.set(i); }>
             <i class="stack-swatch" style=swatch aria-hidden="true"></i>
             {number_field(ctx, field, commit, Some(keys))}
         </div>
     }
 }
 
-pub fn editor_section(sc: StackState) -> impl IntoView {
-    let ctx = sc.ctx;
+pub fn editor_section(stack: StackState) -> impl IntoView {
+    let ctx = stack.ctx;
     let count = Memo::new(move |_| ctx.scenario.with(|s| s.stack.gaps_ev.len()));
     let connection = Memo::new(move |_| ctx.scenario.with(|s| s.stack.connection));
     let on_count = move |ev: ev::Event| {
         let text = event_target_value(&ev);
         match text.parse::<usize>() {
             Ok(n) if (2..=MAX_JUNCTIONS).contains(&n) => {
-                let gaps = resized(&sc.gaps(), n);
+                let gaps = resized(&stack.gaps(), n);
                 edit_stack(ctx, Control::Junctions, move |st| {
                     st.gaps_ev = gaps;
                     st.optimize.junctions = n;
                 });
-                if sc.selected.get_untracked() >= n {
-                    sc.selected.set(n - 1);
+                if stack.selected.get_untracked() >= n {
+                    stack.selected.set(n - 1);
                 }
             }
             _ => ctx.set_error(
@@ -111,7 +111,7 @@ pub fn editor_section(sc: StackState) -> impl IntoView {
     let options = (2..=MAX_JUNCTIONS)
         .map(|n| view! { <option value=n.to_string() prop:selected=move || count.get() == n>{n.to_string()}</option> })
         .collect_view();
-    let fields = move || (0..count.get()).map(|i| gap_field(sc, i)).collect_view();
+    let fields = move || (0..count.get()).map(|i| gap_field(stack, i)).collect_view();
     view! {
         <section class="panel-section stack-editor" aria-labelledby="stack-h">
             <h2 id="stack-h">"Stack"</h2>
@@ -137,15 +137,15 @@ pub fn editor_section(sc: StackState) -> impl IntoView {
                 }}
             </p>
             <div class="stack-gaps">{fields}</div>
-            <p class="field-error" data-error=Control::StackGaps.as_str() aria-live="polite">{move || sc.error.get().is_some().then(|| ctx.error_of(Control::StackGaps)).flatten()}</p>
+            <p class="field-error" data-error=Control::StackGaps.as_str() aria-live="polite">{move || stack.error.get().is_some().then(|| ctx.error_of(Control::StackGaps)).flatten()}</p>
             <p class="hint">"Band gaps top cell first, each below the one above. Arrow keys in a field: ±1 meV (Shift: ±10 meV). Drag the markers on the spectrum, or click the map."</p>
         </section>
     }
 }
 
 /// What the stack is seen under: the solar-cell panel's light and cell settings.
-pub fn conditions(sc: StackState) -> impl IntoView {
-    let ctx = sc.ctx;
+pub fn conditions(stack: StackState) -> impl IntoView {
+    let ctx = stack.ctx;
     let line = move || {
         ctx.scenario.with(|s| {
             let c = &s.cell;

@@ -9,12 +9,13 @@ use crate::view::format as fmt;
 use leptos::prelude::*;
 
 /// The headline figures of the stack.
-pub fn figures(sc: StackState) -> impl IntoView {
+pub fn figures(stack: StackState) -> impl IntoView {
     let cards = StackMetric::HEADLINE
         .into_iter()
         .map(|m| {
-            let label = move || sc.view.with(|v| v.as_ref().map(|v| v.report.label(m)).unwrap_or(m.label()));
-            let text = move || sc.view.with(|v| v.as_ref().map(|v| v.report.display(m)).unwrap_or_else(|| "—".into()));
+            let label = move || stack.view.with(|v| v.as_ref().map(|v| v.report.label(m)).unwrap_or(m.label()));
+            let text =
+                move || stack.view.with(|v| v.as_ref().map(|v| v.report.display(m)).unwrap_or_else(|| "—".into()));
             view! {
                 <div class="figure" class:lead=m == StackMetric::Efficiency>
                     <span class="fig-label">{label}</span>
@@ -23,8 +24,8 @@ pub fn figures(sc: StackState) -> impl IntoView {
             }
         })
         .collect_view();
-    let summary = move || sc.view.with(|v| v.as_ref().map(|v| summary_line(&v.report)));
-    let error = move || sc.error.get();
+    let summary = move || stack.view.with(|v| v.as_ref().map(|v| summary_line(&v.report)));
+    let error = move || stack.error.get();
     view! {
         <section class="figures-block stack-figures" aria-labelledby="stack-fig-h">
             <h2 id="stack-fig-h" class="visually-hidden">"Stack figures"</h2>
@@ -57,11 +58,11 @@ fn summary_line(r: &StackReport) -> String {
 }
 
 /// The per-subcell table.
-pub fn subcell_table(sc: StackState) -> impl IntoView {
-    let ctx = sc.ctx;
-    let series = move || sc.view.with(|v| v.as_ref().is_some_and(|v| v.report.connection == Connection::Series));
+pub fn subcell_table(stack: StackState) -> impl IntoView {
+    let ctx = stack.ctx;
+    let series = move || stack.view.with(|v| v.as_ref().is_some_and(|v| v.report.connection == Connection::Series));
     let rows = move || {
-        sc.view.with(|v| {
+        stack.view.with(|v| {
             let v = v.as_ref()?;
             let n = v.report.subcells.len();
             Some(
@@ -77,7 +78,7 @@ pub fn subcell_table(sc: StackState) -> impl IntoView {
                         };
                         let swatch = format!("background:{}", colours::css(colours::subcell(i)));
                         let remove = move |_| {
-                            let mut g = sc.gaps();
+                            let mut g = stack.gaps();
                             if g.len() > 2 && i < g.len() {
                                 g.remove(i);
                                 let n = g.len();
@@ -85,7 +86,7 @@ pub fn subcell_table(sc: StackState) -> impl IntoView {
                                     st.gaps_ev = g;
                                     st.optimize.junctions = n;
                                 });
-                                sc.selected.set(sc.selected.get_untracked().min(n - 1));
+                                stack.selected.set(stack.selected.get_untracked().min(n - 1));
                             }
                         };
                         view! {
@@ -143,8 +144,8 @@ pub fn subcell_table(sc: StackState) -> impl IntoView {
     }
 }
 
-pub fn cautions(sc: StackState) -> impl IntoView {
-    let _ = sc;
+pub fn cautions(stack: StackState) -> impl IntoView {
+    let _ = stack;
     view! {
         <footer class="cautions">
             <p>

@@ -73,7 +73,7 @@ fn now() -> f64 {
 }
 
 /// Make sure the map of `s` is shown or being computed.
-pub fn ensure(sc: StackState, s: &Scenario) {
+pub fn ensure(stack: StackState, s: &Scenario) {
     let start = MAPS.with(|m| {
         let m = m.borrow();
         if let Some((k, d, _)) = &m.done {
@@ -89,25 +89,25 @@ pub fn ensure(sc: StackState, s: &Scenario) {
     match start {
         None => {}
         Some(Err(done)) => {
-            if !sc.map.with_untracked(|m| m.as_ref().is_some_and(|m| Arc::ptr_eq(m, &done))) {
-                sc.map.set(Some(done));
+            if !stack.map.with_untracked(|m| m.as_ref().is_some_and(|m| Arc::ptr_eq(m, &done))) {
+                stack.map.set(Some(done));
             }
-            if sc.map_status.with_untracked(|st| *st != MapStatus::Ready) {
-                sc.map_status.set(MapStatus::Ready);
+            if stack.map_status.with_untracked(|st| *st != MapStatus::Ready) {
+                stack.map_status.set(MapStatus::Ready);
             }
         }
-        Some(Ok(())) => begin(sc, s),
+        Some(Ok(())) => begin(stack, s),
     }
 }
 
-fn begin(sc: StackState, s: &Scenario) {
+fn begin(stack: StackState, s: &Scenario) {
     let setup = crate::view::cell::setup_of(&s.cell);
     let grid = s.stack.map.grid();
     let (setup, (tops_j, bottoms_j)) = match (setup, grid) {
         (Ok(a), Ok(b)) => (a, b),
         (Err(e), _) | (_, Err(e)) => {
             stop();
-            sc.map_status.set(MapStatus::Failed(crate::app::state::sentence(&e)));
+            stack.map_status.set(MapStatus::Failed(crate::app::state::sentence(&e)));
             return;
         }
     };
@@ -134,9 +134,9 @@ fn begin(sc: StackState, s: &Scenario) {
         });
         id
     });
-    sc.map_status.set(MapStatus::Computing(0.0));
+    stack.map_status.set(MapStatus::Computing(0.0));
     // the first slice after the current render
-    set_timeout(move || pump(sc, id), Duration::ZERO);
+    set_timeout(move || pump(stack, id), Duration::ZERO);
 }
 
 /// Drop any computation in progress (the panel is going away).
@@ -145,7 +145,7 @@ pub fn stop() {
 }
 
 /// Compute rows for one slice; then yield to the page, or finish.
-fn pump(sc: StackState, id: u64) {
+fn pump(stack: StackState, id: u64) {
     let t0 = now();
     let finished = MAPS.with(|m| {
         let mut m = m.borrow_mut();
@@ -180,16 +180,16 @@ fn pump(sc: StackState, id: u64) {
     match finished {
         None => {}
         Some(Err(frac)) => {
-            sc.map_status.try_set(MapStatus::Computing(frac));
-            set_timeout(move || pump(sc, id), Duration::ZERO);
+            stack.map_status.try_set(MapStatus::Computing(frac));
+            set_timeout(move || pump(stack, id), Duration::ZERO);
         }
         Some(Ok(data)) => {
             crate::app::state::mark("gg-map-done");
             let id = data.id;
-            sc.map.try_set(Some(data));
-            sc.map_status.try_set(MapStatus::Ready);
+            stack.map.try_set(Some(data));
+            stack.map_status.try_set(MapStatus::Ready);
             // refine the best point once the map is on the page
-            set_timeout(move || refine_best(sc, id), Duration::ZERO);
+            set_timeout(move || refine_best(stack, id), Duration::ZERO);
         }
     }
 }
@@ -199,7 +199,7 @@ fn pump(sc: StackState, id: u64) {
 /// under the map's light, cells and connection, from first steps of one grid step, the gaps
 /// ranging over both axes. Then the map is shown again with the best of them (under a new
 /// id, so the cached drawing is redrawn once).
-fn refine_best(sc: StackState, id: u64) {
+fn refine_best(stack: StackState, id: u64) {
     let starts = MAPS.with(|m| {
         let m = m.borrow();
         let (_, data, _) = m.done.as_ref().filter(|d| d.1.id == id && d.1.refined.is_none() && m.job.is_none())?;
@@ -210,13 +210,13 @@ fn refine_best(sc: StackState, id: u64) {
         (!starts.is_empty()).then_some(starts)
     });
     if let Some(starts) = starts {
-        polish_next(sc, id, Rc::new(starts), 0, None, 0.0);
+        polish_next(stack, id, Rc::new(starts), 0, None, 0.0);
     }
 }
 
 /// Polish start `k` of map `id`, keeping the best optimum so far; then the next in a turn
 /// of its own, or show the best.
-fn polish_next(sc: StackState, id: u64, starts: Rc<Vec<Vec<f64>>>, k: usize, best: Option<Optimum>, busy: f64) {
+fn polish_next(stack: StackState, id: u64, starts: Rc<Vec<Vec<f64>>>, k: usize, best: Option<Optimum>, busy: f64) {
     let t0 = now();
     let step = MAPS.with(|m| {
         let mut m = m.borrow_mut();
@@ -265,11 +265,11 @@ fn polish_next(sc: StackState, id: u64, starts: Rc<Vec<Vec<f64>>>, k: usize, bes
     match step {
         None => {}
         Some(Err((best, busy))) => {
-            set_timeout(move || polish_next(sc, id, starts, k + 1, Some(best), busy), Duration::ZERO)
+            set_timeout(move || polish_next(stack, id, starts, k + 1, Some(best), busy), Duration::ZERO)
         }
         Some(Ok(data)) => {
             crate::app::state::mark("gg-map-refined");
-            sc.map.try_set(Some(data));
+            stack.map.try_set(Some(data));
         }
     }
 }

@@ -74,14 +74,14 @@ pub fn edit_stack(ctx: Ctx, hook: Control, f: impl FnOnce(&mut StackScenario)) -
 /// Offer one of the panel's plots as a file of `kind`, named after `slug`; `describe` goes
 /// into the caption, `csv` writes the plotted data under it.
 pub fn save_plot(
-    sc: StackState,
+    stack: StackState,
     slug: &str,
     kind: ExportKind,
     describe: &str,
     plot: &impl Drawing,
     csv: impl FnOnce(&str) -> String,
 ) -> Result<(), String> {
-    let cap = sc.ctx.scenario.with_untracked(|s| crate::view::stack::caption(s, describe));
+    let cap = stack.ctx.scenario.with_untracked(|s| crate::view::stack::caption(s, describe));
     offer(kind, slug, plot, || cap.clone(), || csv(&cap))
 }
 
@@ -89,17 +89,17 @@ pub fn save_plot(
 #[component]
 pub fn StackPanel() -> impl IntoView {
     let ctx = expect_context::<Ctx>();
-    let sc = StackState::new(ctx);
+    let stack = StackState::new(ctx);
     let canvases: [NodeRef<html::Canvas>; PLOTS] = std::array::from_fn(|_| NodeRef::new());
 
     // solve and redraw after every change; the map only starts a new computation when its
     // inputs change
     Effect::new(move |_| {
         ctx.layout.track();
-        let selected = sc.selected.get();
-        let map = sc.map.get();
+        let selected = stack.selected.get();
+        let map = stack.map.get();
         let targets: Vec<_> = canvases.iter().map(|r| r.get()).collect();
-        let mut frames = sc.frames.get_untracked();
+        let mut frames = stack.frames.get_untracked();
         let mut errors: [Option<String>; PLOTS] = Default::default();
         let outcome = ctx.scenario.with(crate::view::stack::stack_view);
         match outcome {
@@ -112,23 +112,23 @@ pub fn StackPanel() -> impl IntoView {
                     &mut frames,
                     &mut errors,
                 );
-                sc.view.set(Some(v));
-                if sc.error.with_untracked(|e| e.is_some()) {
-                    sc.error.set(None);
+                stack.view.set(Some(v));
+                if stack.error.with_untracked(|e| e.is_some()) {
+                    stack.error.set(None);
                     ctx.clear_error(Control::StackGaps);
                 }
             }
             Err(e) => {
-                let had = sc.view.with_untracked(|v| v.is_some());
+                let had = stack.view.with_untracked(|v| v.is_some());
                 let tail = if had { " The figures shown are from the last usable stack." } else { "" };
-                sc.error.set(Some(format!("{}{tail}", sentence(&e))));
+                stack.error.set(Some(format!("{}{tail}", sentence(&e))));
                 if ctx.errors.with_untracked(|m| m.get(&Control::StackGaps).map(|t| t != &sentence(&e)).unwrap_or(true))
                 {
                     ctx.set_error(Control::StackGaps, sentence(&e));
                 }
             }
         }
-        ctx.scenario.with(|s| map_job::ensure(sc, s));
+        ctx.scenario.with(|s| map_job::ensure(stack, s));
         if let Some(m) = &map {
             let design = ctx.scenario.with(|s| crate::view::stack::map::Design::of(&s.stack));
             if let Some(canvas) = &targets[MAP] {
@@ -143,9 +143,9 @@ pub fn StackPanel() -> impl IntoView {
             }
         }
         mark("gg-stack-drawn");
-        sc.frames.set(frames);
-        if sc.plot_errors.with_untracked(|p| *p != errors) {
-            sc.plot_errors.set(errors);
+        stack.frames.set(frames);
+        if stack.plot_errors.with_untracked(|p| *p != errors) {
+            stack.plot_errors.set(errors);
         }
         count_render();
     });
@@ -158,19 +158,19 @@ pub fn StackPanel() -> impl IntoView {
     view! {
         <main class="layout stack-layout">
             <aside class="panel" aria-label="Stack settings">
-                {controls::editor_section(sc)}
-                {search::search_section(sc)}
-                {controls::conditions(sc)}
+                {controls::editor_section(stack)}
+                {search::search_section(stack)}
+                {controls::conditions(stack)}
             </aside>
             <section class="results" aria-label="Stack results">
-                {figures::figures(sc)}
-                {figures::subcell_table(sc)}
+                {figures::figures(stack)}
+                {figures::subcell_table(stack)}
                 <div class="plots stack-plots">
-                    {cards::spectrum_card(sc, canvases[SPECTRUM])}
-                    {cards::map_card(sc, canvases[MAP])}
+                    {cards::spectrum_card(stack, canvases[SPECTRUM])}
+                    {cards::map_card(stack, canvases[MAP])}
                 </div>
             </section>
         </main>
-        {figures::cautions(sc)}
+        {figures::cautions(stack)}
     }
 }

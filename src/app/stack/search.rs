@@ -124,7 +124,7 @@ fn module_urls() -> Option<(String, String)> {
     Some((abs(&js)?, abs(&wasm)?))
 }
 
-fn new_worker(sc: StackState) -> Result<Runner, String> {
+fn new_worker(stack: StackState) -> Result<Runner, String> {
     let parts = js_sys::Array::of1(&JsValue::from_str(WORKER_SCRIPT));
     let opts = web_sys::BlobPropertyBag::new();
     opts.set_type("text/javascript");
@@ -140,7 +140,7 @@ fn new_worker(sc: StackState) -> Result<Runner, String> {
     let on_message = Closure::<dyn FnMut(web_sys::MessageEvent)>::new(move |e: web_sys::MessageEvent| {
         if let Some(text) = e.data().as_string() {
             if let Ok(m) = serde_json::from_str::<Message>(&text) {
-                on_message(sc, m);
+                on_message(stack, m);
             }
         }
     });
@@ -151,7 +151,7 @@ fn new_worker(sc: StackState) -> Result<Runner, String> {
             .and_then(|m| m.as_string())
             .unwrap_or_default();
         fail(
-            sc,
+            stack,
             format!(
                 "The search stopped: the background worker failed{}.",
                 if msg.is_empty() { String::new() } else { format!(" ({msg})") }
@@ -163,9 +163,9 @@ fn new_worker(sc: StackState) -> Result<Runner, String> {
     Ok(Runner { worker, _on_message: on_message, _on_error: on_error, job: None })
 }
 
-fn fail(sc: StackState, text: String) {
+fn fail(stack: StackState, text: String) {
     stop();
-    sc.search.try_set(SearchState::Failed(text));
+    stack.search.try_set(SearchState::Failed(text));
 }
 
 /// End the worker, if any (cancel, or the panel going away).
@@ -175,25 +175,25 @@ pub fn stop() {
     }
 }
 
-fn on_message(sc: StackState, m: Message) {
+fn on_message(stack: StackState, m: Message) {
     let current = RUNNER.with(|r| r.borrow().as_ref().and_then(|r| r.job.as_ref().map(|j| j.id)));
     if current != Some(m.id) {
         return;
     }
     if let Some(n) = m.progress {
-        if let Some(SearchState::Running { started, .. }) = sc.search.try_get_untracked() {
-            sc.search.try_set(SearchState::Running { evaluations: n as u64, started, elapsed: now() - started });
+        if let Some(SearchState::Running { started, .. }) = stack.search.try_get_untracked() {
+            stack.search.try_set(SearchState::Running { evaluations: n as u64, started, elapsed: now() - started });
         }
         return;
     }
     let job = RUNNER.with(|r| r.borrow_mut().as_mut().and_then(|r| r.job.take()));
     let Some(job) = job else { return };
-    let elapsed = match sc.search.try_get_untracked() {
+    let elapsed = match stack.search.try_get_untracked() {
         Some(SearchState::Running { started, .. }) => now() - started,
         _ => 0.0,
     };
     if let Some(f) = m.failed {
-        fail(sc, format!("The search stopped: {}", sentence(&f)));
+        fail(stack, format!("The search stopped: {}", sentence(&f)));
         return;
     }
     let reply: Result<SearchReply, String> = match m.reply.as_deref().map(serde_json::from_str) {
@@ -201,14 +201,14 @@ fn on_message(sc: StackState, m: Message) {
         _ => Err("the background worker gave no readable answer".into()),
     };
     match reply {
-        Err(e) => sc.search.try_set(SearchState::Failed(sentence(&e))),
-        Ok(r) => apply(sc, job, r, elapsed),
+        Err(e) => stack.search.try_set(SearchState::Failed(sentence(&e))),
+        Ok(r) => apply(stack, job, r, elapsed),
     };
 }
 
 /// Make the answer the design, if the search still fits the scenario.
-fn apply(sc: StackState, job: Started, r: SearchReply, elapsed: f64) -> Option<SearchState> {
-    let ctx = sc.ctx;
+fn apply(stack: StackState, job: Started, r: SearchReply, elapsed: f64) -> Option<SearchState> {
+    let ctx = stack.ctx;
     let still = ctx.scenario.try_with_untracked(|s| {
         same_but_gap(&s.cell, &job.cell)
             && s.stack.connection == job.connection
@@ -216,7 +216,7 @@ fn apply(sc: StackState, job: Started, r: SearchReply, elapsed: f64) -> Option<S
             && (s.stack.optimize.fix_ev, s.stack.optimize.fix_at) == job.fix
     })?;
     if !still {
-        return sc.search.try_set(SearchState::Failed(
+        return stack.search.try_set(SearchState::Failed(
             "The light, the cells, the stack or the fixed gap changed during the search, so its answer was not used; run it again.".into(),
         ));
     }
@@ -226,7 +226,7 @@ fn apply(sc: StackState, job: Started, r: SearchReply, elapsed: f64) -> Option<S
         r.gaps_ev.iter().map(|&g| if Some(g) == job.fix.0 { g } else { (g * 1e4).round() / 1e4 }).collect();
     if let Some(f) = job.fix.0 {
         if !gaps.contains(&f) {
-            return sc.search.try_set(SearchState::Failed(format!(
+            return stack.search.try_set(SearchState::Failed(format!(
                 "The search's answer does not hold the fixed gap {} eV, so it was not used; run it again.",
                 fmt::field(f, 6)
             )));
@@ -234,7 +234,7 @@ fn apply(sc: StackState, job: Started, r: SearchReply, elapsed: f64) -> Option<S
     }
     if !set_gaps(ctx, Control::Optimize, gaps.clone()) {
         // the reason is under the button
-        return sc.search.try_set(SearchState::Idle);
+        return stack.search.try_set(SearchState::Idle);
     }
     mark("gg-search-done");
     let shown: Vec<String> = gaps.iter().map(|g| gap_ev(*g)).collect();
@@ -254,13 +254,13 @@ fn apply(sc: StackState, job: Started, r: SearchReply, elapsed: f64) -> Option<S
         thousands(r.evaluations as f64),
         fixed(elapsed / 1000.0, 1)
     );
-    sc.search.try_set(SearchState::Done(text))
+    stack.search.try_set(SearchState::Done(text))
 }
 
 /// Start a search for the current stack.
-pub fn start(sc: StackState) {
-    let ctx = sc.ctx;
-    if sc.search.with_untracked(|s| s.running()) {
+pub fn start(stack: StackState) {
+    let ctx = stack.ctx;
+    if stack.search.with_untracked(|s| s.running()) {
         return;
     }
     ctx.clear_error(Control::Optimize);
@@ -277,16 +277,17 @@ pub fn start(sc: StackState) {
         return;
     }
     let Some((module, wasm)) = module_urls() else {
-        sc.search
+        stack
+            .search
             .set(SearchState::Failed("The search could not find the app's module to run in the background.".into()));
         return;
     };
     let have = RUNNER.with(|r| r.borrow().is_some());
     if !have {
-        match new_worker(sc) {
+        match new_worker(stack) {
             Ok(r) => RUNNER.with(|x| *x.borrow_mut() = Some(r)),
             Err(e) => {
-                sc.search.set(SearchState::Failed(format!("{}.", sentence(&e).trim_end_matches('.'))));
+                stack.search.set(SearchState::Failed(format!("{}.", sentence(&e).trim_end_matches('.'))));
                 return;
             }
         }
@@ -295,7 +296,7 @@ pub fn start(sc: StackState) {
         c.set(c.get() + 1);
         c.get()
     });
-    let before = sc.view.with_untracked(|v| {
+    let before = stack.view.with_untracked(|v| {
         v.as_ref().map(|v| v.report.display(StackMetric::Efficiency)).unwrap_or_else(|| "—".into())
     });
     let msg =
@@ -314,18 +315,18 @@ pub fn start(sc: StackState) {
         Some(r.worker.post_message(&JsValue::from_str(&msg)).is_ok())
     });
     if posted != Some(true) {
-        fail(sc, "The search could not be handed to the background worker.".into());
+        fail(stack, "The search could not be handed to the background worker.".into());
         return;
     }
     mark("gg-search-start");
-    sc.search.set(SearchState::Running { evaluations: 0, started: now(), elapsed: 0.0 });
+    stack.search.set(SearchState::Running { evaluations: 0, started: now(), elapsed: 0.0 });
 }
 
 /// Cancel a running search.
-pub fn cancel(sc: StackState) {
-    if sc.search.with_untracked(|s| s.running()) {
+pub fn cancel(stack: StackState) {
+    if stack.search.with_untracked(|s| s.running()) {
         stop();
-        sc.search.set(SearchState::Cancelled);
+        stack.search.set(SearchState::Cancelled);
     }
 }
 
@@ -373,8 +374,8 @@ fn fix_key(fix: (Option<f64>, FixAt)) -> &'static str {
 const FIRST_FIXED_EV: f64 = 1.12;
 
 /// "Hold one gap fixed": off, or a gap and where it sits.
-fn fixed_gap_control(sc: StackState) -> impl IntoView {
-    let ctx = sc.ctx;
+fn fixed_gap_control(stack: StackState) -> impl IntoView {
+    let ctx = stack.ctx;
     let fix = Memo::new(move |_| ctx.scenario.with(|s| (s.stack.optimize.fix_ev, s.stack.optimize.fix_at)));
     // the last gap held fixed, offered again when the choice is turned back on
     let last = RwSignal::new(ctx.scenario.with_untracked(|s| s.stack.optimize.fix_ev).unwrap_or(FIRST_FIXED_EV));
@@ -452,9 +453,9 @@ fn fixed_gap_control(sc: StackState) -> impl IntoView {
     }
 }
 
-pub fn search_section(sc: StackState) -> impl IntoView {
-    let ctx = sc.ctx;
-    let running = move || sc.search.with(|s| s.running());
+pub fn search_section(stack: StackState) -> impl IntoView {
+    let ctx = stack.ctx;
+    let running = move || stack.search.with(|s| s.running());
     let from = Memo::new(move |_| ctx.scenario.with(|s| s.stack.optimize.from_ev));
     let to = Memo::new(move |_| ctx.scenario.with(|s| s.stack.optimize.to_ev));
     let bad = |text: &str| {
@@ -474,7 +475,7 @@ pub fn search_section(sc: StackState) -> impl IntoView {
             }
         })
     };
-    let progress = move || match sc.search.get() {
+    let progress = move || match stack.search.get() {
         SearchState::Running { evaluations, elapsed, .. } => {
             if evaluations == 0 {
                 "Starting the search…".to_string()
@@ -488,7 +489,7 @@ pub fn search_section(sc: StackState) -> impl IntoView {
         }
         _ => String::new(),
     };
-    let outcome = move || match sc.search.get() {
+    let outcome = move || match stack.search.get() {
         SearchState::Done(t) => Some(t),
         SearchState::Cancelled => Some("Search cancelled; the design is unchanged.".into()),
         _ => None,
@@ -500,7 +501,7 @@ pub fn search_section(sc: StackState) -> impl IntoView {
             .with(|s| settings_of(s).check().err())
             .map(|e| format!("{} The search waits for usable settings.", sentence(&e)))
     });
-    let failed = move || match sc.search.get() {
+    let failed = move || match stack.search.get() {
         SearchState::Failed(t) => Some(t),
         _ => range_problem.get().or_else(|| ctx.error_of(Control::Optimize)),
     };
@@ -512,12 +513,12 @@ pub fn search_section(sc: StackState) -> impl IntoView {
                 {range_input(ctx, "search-from", Control::Optimize, "from", "eV", from, |s, v| s.stack.optimize.from_ev = v, bad)}
                 {range_input(ctx, "search-to", Control::Optimize, "to", "eV", to, |s, v| s.stack.optimize.to_ev = v, bad)}
             </div>
-            {fixed_gap_control(sc)}
+            {fixed_gap_control(stack)}
             <div class="search-row">
-                <button type="button" class="action" data-action="optimize" disabled=move || running() || range_problem.get().is_some() on:click=move |_| start(sc)>
+                <button type="button" class="action" data-action="optimize" disabled=move || running() || range_problem.get().is_some() on:click=move |_| start(stack)>
                     {move || if running() { "Optimizing…" } else { "Optimize the gaps" }}
                 </button>
-                <button type="button" class="small" data-action="cancel-optimize" hidden=move || !running() on:click=move |_| cancel(sc)>"Cancel"</button>
+                <button type="button" class="small" data-action="cancel-optimize" hidden=move || !running() on:click=move |_| cancel(stack)>"Cancel"</button>
             </div>
             <div class="search-progress" data-progress="optimize" role="status" aria-live="polite" hidden=move || !running()>
                 <div class="search-bar" aria-hidden="true"><span></span></div>
