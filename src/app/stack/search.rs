@@ -495,7 +495,9 @@ pub fn search_section(stack: StackState) -> impl IntoView {
         _ => None,
     };
     // settings that cannot be searched (the scenario's own check) are said at once, not
-    // when the button is pressed
+    // when the button is pressed; while a typed range is refused (the scenario keeps the
+    // last usable one) the button waits too, so the search never runs on a range the user
+    // is still correcting
     let range_problem = Memo::new(move |_| {
         ctx.scenario
             .with(|s| settings_of(s).check().err())
@@ -515,7 +517,7 @@ pub fn search_section(stack: StackState) -> impl IntoView {
             </div>
             {fixed_gap_control(stack)}
             <div class="search-row">
-                <button type="button" class="action" data-action="optimize" disabled=move || running() || range_problem.get().is_some() on:click=move |_| start(stack)>
+                <button type="button" class="action" data-action="optimize" disabled=move || running() || range_problem.get().is_some() || ctx.error_of(Control::Optimize).is_some() on:click=move |_| start(stack)>
                     {move || if running() { "Optimizing…" } else { "Optimize the gaps" }}
                 </button>
                 <button type="button" class="small" data-action="cancel-optimize" hidden=move || !running() on:click=move |_| cancel(stack)>"Cancel"</button>
