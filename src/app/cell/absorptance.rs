@@ -283,9 +283,9 @@ pub fn absorptance_section(cs: CellState, canvas: NodeRef<html::Canvas>) -> impl
     };
     view! {
         <section class="panel-section eqe-section" aria-labelledby="eqe-h">
-            <h2 id="eqe-h">"Single-cell absorptance"</h2>
+            <h2 id="eqe-h">"Absorptance"</h2>
             <p class="hint">
-                "How the Solar cell tab's cell (band gap " {gap} " eV) absorbs. Reciprocity turns the absorptance into the cell's Jsc and its radiative-limit Voc; the ERE of the Solar cell tab sets the non-radiative loss. Compared with an ideal step at the same edge, under the same light."
+                "How this cell (band gap " {gap} " eV) absorbs. Reciprocity turns the absorptance into the cell's Jsc and its radiative-limit Voc; the ERE above sets the non-radiative loss. Compared with an ideal step at the same edge, under the same light."
             </p>
             <fieldset class="choice">
                 <legend>"Absorptance"</legend>

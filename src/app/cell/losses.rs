@@ -202,7 +202,7 @@ impl PlotBehaviour for LossCard {
         let p = percents(r);
         let mut lines = vec![format!("Eg {} eV", fixed(r.gap_ev, 3))];
         lines.extend((0..6).rev().map(|j| format!("{} {} %", SHORT[j], fixed(p[j], 1))));
-        lines.push("click to move the single cell's gap here".into());
+        lines.push("click to move the cell's gap here".into());
         Some(Hover::new(x, y, width, None, lines))
     }
 
@@ -253,7 +253,7 @@ pub fn losses_card(cs: CellState, canvas: NodeRef<html::Canvas>) -> impl IntoVie
     let note = view! {
         <p class="hint loss-note">
             {move || ctx.scenario.with(|s| format!(
-                "The single-junction cell of the Solar cell tab (Eg {} eV) and the same split against band gap; the parts add up to the incident power.",
+                "This cell (Eg {} eV) and the same split against band gap; the parts add up to the incident power.",
                 gap_ev(s.cell.gap_ev)
             ))}
         </p>
@@ -263,7 +263,7 @@ pub fn losses_card(cs: CellState, canvas: NodeRef<html::Canvas>) -> impl IntoVie
         Card {
             slug: "losses",
             title: "Where the power goes (single junction)",
-            aria: "Stacked bar of the incident power of the single-junction cell split into below-gap, thermalization, emission, Carnot and Boltzmann losses and the delivered power, and the same split as stacked areas against band gap. Click the areas to move the single cell's gap.".into(),
+            aria: "Stacked bar of the incident power of the single-junction cell split into below-gap, thermalization, emission, Carnot and Boltzmann losses and the delivered power, and the same split as stacked areas against band gap. Click the areas to move the cell's gap.".into(),
             interactive: true,
             wrap_class: "draggable",
             control: None,
