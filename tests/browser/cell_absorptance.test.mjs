@@ -37,10 +37,22 @@ async function edit(page, action) {
 test('the loss chart sits in the Solar cell tab and follows the band gap', async () => {
   const { context, page } = await fresh();
   await cellShown(page);
-  const card = page.locator('[data-card="losses"]');
-  await card.waitFor({ state: 'visible' });
+  await page.locator('[data-card="losses"]').waitFor({ state: 'visible' });
   await page.locator('[data-plot="losses"]').waitFor({ state: 'visible' });
   assert.equal(await page.locator('[data-panel="cell"]').getAttribute('aria-selected'), 'true');
+  const delivered = () => page.locator('[data-card="losses"] [data-loss="delivered"]').innerText();
+  // the delivered share of the incident power is the efficiency (energy conservation: the
+  // parts add up to the input; definition of efficiency), to the legend's 0.1 %
+  const check = async () => {
+    const eff = parseFloat(await page.locator('[data-metric="efficiency"]').innerText());
+    const share = parseFloat((await delivered()).replace(/^delivered\s*/, ''));
+    assert.ok(Math.abs(share - eff) <= 0.051, `delivered ${share} % vs efficiency ${eff} %`);
+  };
+  await check();
+  const before = await delivered();
+  await edit(page, () => page.locator('[data-control="gap"]').fill('1.1'));
+  await page.waitForFunction((b) => document.querySelector('[data-card="losses"] [data-loss="delivered"]').textContent !== b, before);
+  await check();
   assert.deepEqual(page.errors, []);
   await context.close();
 });
