@@ -48,12 +48,21 @@ export async function launch() {
   });
 }
 
-/** A new page that records console errors and page errors into `errors`. */
+/**
+ * A new page that records console errors, page errors and content-security-policy
+ * violations into `errors` (every test ends by asserting it is empty, so a violation
+ * anywhere fails the test that caused it).
+ */
 export async function newPage(context) {
   const page = await context.newPage();
   page.errors = [];
   page.on('console', (m) => { if (m.type() === 'error') page.errors.push(m.text()); });
   page.on('pageerror', (e) => page.errors.push(String(e)));
+  await page.addInitScript(() => {
+    document.addEventListener('securitypolicyviolation', (e) => {
+      console.error(`content-security-policy violation: ${e.violatedDirective} blocked ${e.blockedURI || 'inline'}`);
+    });
+  });
   return page;
 }
 
