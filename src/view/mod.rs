@@ -13,5 +13,6 @@ pub mod format;
 pub mod hints;
 pub mod input;
 pub mod radiator;
+pub mod resample;
 pub mod spectrum;
 pub mod stack;

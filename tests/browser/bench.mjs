@@ -4,8 +4,8 @@
 // Run: node tests/browser/bench.mjs (after trunk build --release).
 import fs from 'node:fs';
 import path from 'node:path';
-import zlib from 'node:zlib';
 import { serve, launch, newPage, rendered, DIST } from './harness.mjs';
+import { firstVisit, BUDGET_KB } from './size.mjs';
 
 function pct(sorted, p) {
   return sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))];
@@ -151,12 +151,5 @@ try {
 }
 
 // transfer size: what a first visit downloads (wasm + js + css), gzipped
-let raw = 0, gz = 0, wasm = 0;
-for (const f of fs.readdirSync(DIST)) {
-  if (!/\.(wasm|js|css)$/.test(f)) continue;
-  const b = fs.readFileSync(path.join(DIST, f));
-  raw += b.length;
-  gz += zlib.gzipSync(b, { level: 9 }).length;
-  if (f.endsWith('.wasm')) wasm += b.length;
-}
-console.log(`browser transfer_kb gzipped=${(gz / 1024).toFixed(1)} raw=${(raw / 1024).toFixed(1)} wasm_raw=${(wasm / 1024).toFixed(1)} (goal: gzipped < 600)`);
+const visit = firstVisit(DIST);
+console.log(`browser transfer_kb gzipped=${(visit.total.gz / 1024).toFixed(1)} raw=${(visit.total.raw / 1024).toFixed(1)} wasm_raw=${((visit.parts.wasm?.raw || 0) / 1024).toFixed(1)} (goal: gzipped <= ${BUDGET_KB.total})`);
