@@ -44,6 +44,7 @@ pub enum Connection {
 }
 
 impl Connection {
+    /// A short name for display.
     pub fn label(self) -> &'static str {
         match self {
             Connection::Series => "series",
@@ -90,7 +91,7 @@ pub struct StackResult {
     pub pmax: f64,
     /// incident power (concentration included) [W m^-2]
     pub input: f64,
-    /// Pmax / input
+    /// Pmax / input (dimensionless)
     pub efficiency: f64,
     /// series: index of the subcell with the smallest Jsc (0 = top); independent: None
     pub limiting: Option<usize>,
@@ -106,7 +107,7 @@ pub fn gaps_are_valid(gaps_j: &[f64]) -> bool {
 }
 
 /// Photocurrents [A m^-2] of the subcells of `gaps_j` [J] (descending), top first: each
-/// absorbs between its gap and the gap above.
+/// absorbs between its gap and the gap above, Jsc_i of the module docs (De Vos 1980).
 pub fn subcell_photocurrents(light: &Illumination, gaps_j: &[f64]) -> Vec<f64> {
     let q_x = super::constants::CHARGE * light.concentration;
     let mut above = f64::INFINITY;
@@ -186,7 +187,8 @@ pub fn solve_stack(light: &Illumination, template: &Cell, gaps_j: &[f64], connec
     StackResult { connection, subcells, jsc, voc, pmax, input, efficiency, limiting }
 }
 
-/// The efficiency alone (no per-subcell figures): what the optimizer and the map evaluate.
+/// The efficiency alone (dimensionless; no per-subcell figures) of gaps `gaps_j` [J], top
+/// first: what the optimizer and the map evaluate.
 #[allow(clippy::neg_cmp_op_on_partial_ord, clippy::nonminimal_bool)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
 pub fn stack_efficiency(light: &Illumination, template: &Cell, gaps_j: &[f64], connection: Connection) -> f64 {
     let input = light.input_power();

@@ -64,6 +64,7 @@ pub const SEARCH_RANGE_EV: (f64, f64) = (0.2, 4.5);
 pub struct Optimum {
     /// gaps [J], top first
     pub gaps_j: Vec<f64>,
+    /// efficiency of that stack (dimensionless)
     pub efficiency: f64,
     /// number of stack evaluations used
     pub evaluations: u64,
@@ -120,7 +121,7 @@ impl Objective<'_, '_> {
     }
 }
 
-/// Bounds of the free variables.
+/// Bounds of the free variables [J].
 fn free_bounds(p: &Problem) -> (f64, f64) {
     let (lo, hi) = p.range_j;
     match p.fixed {
@@ -244,6 +245,8 @@ pub const POLISHED_STARTS: usize = 4;
 const GRID_1D_EV: f64 = 0.002;
 const GRID_2D_EV: f64 = 0.01;
 
+/// Evenly spaced gaps [J] from `lo` to `hi` [J], ends included, no further apart than
+/// `step_ev` [eV].
 fn grid_points(lo: f64, hi: f64, step_ev: f64) -> Vec<f64> {
     let step = step_ev * CHARGE;
     let n = (((hi - lo) / step).ceil() as usize).clamp(1, 100_000);
@@ -352,7 +355,8 @@ const MAX_GENERATIONS: usize = 400;
 /// Stop once the population's efficiencies agree to this (absolute efficiency).
 const SPREAD_TOL: f64 = 1e-10;
 
-/// Differential evolution over `d` free gaps in [lo, hi]; returns the best few distinct
+/// Differential evolution (Storn & Price, J. Global Optim. 11, 341 (1997): DE/rand/1/bin,
+/// crossover 0.9) over `d` free gaps in [lo, hi] [J]; returns the best few distinct
 /// members of the last population, best first.
 fn evolve(obj: &mut Objective, d: usize, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
     let mut rng = SplitMix(EVOLUTION_SEED ^ (d as u64) << 8 ^ (obj.p.junctions as u64));
@@ -435,7 +439,8 @@ fn evolve(obj: &mut Objective, d: usize, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64
 }
 
 /// Simplex polish of a maximum from `x0` (efficiency `e0`), first steps `step` [J], inside
-/// [lo, hi]. Standard coefficients (reflection 1, expansion 2, contraction 1/2, shrink 1/2).
+/// [lo, hi] [J]. Standard coefficients (reflection 1, expansion 2, contraction 1/2, shrink 1/2;
+/// Nelder & Mead, Comput. J. 7, 308 (1965)).
 fn nelder_mead(obj: &mut Objective, x0: &[f64], e0: f64, step: f64, lo: f64, hi: f64) -> (Vec<f64>, f64) {
     let d = x0.len();
     let clamp = |x: Vec<f64>| x.into_iter().map(|v| v.clamp(lo, hi)).collect::<Vec<f64>>();
