@@ -82,6 +82,7 @@ impl AbsorptanceTable {
         Ok(AbsorptanceTable { name: name.into(), axis, x, a })
     }
 
+    /// The table's spectral axis.
     pub fn axis(&self) -> Axis {
         self.axis
     }

@@ -14,7 +14,7 @@
 //! SR(lambda) [A/W] is the short-circuit current density the device would give under that
 //! spectrum, and SR = q lambda EQE / (h c), so
 //! integral E SR dlambda = q integral EQE Phi dE with Phi the photon flux: the factor is
-//! computed from EQEs and photon fluxes with the integrals of [`absorber::photocurrent`]
+//! computed from EQEs and photon fluxes with the integrals of [`absorber::photocurrent`](super::absorber::photocurrent)
 //! (exact on a common axis). Scaling either spectrum or either response leaves M unchanged.
 
 use super::absorber::{photocurrent, Absorptance};

@@ -28,6 +28,7 @@ pub enum G173Column {
     Direct,
 }
 
+/// The column of the shipped table (nm, W m^-2 nm^-1) as a spectrum in SI ([m], [W m^-2 m^-1]).
 fn parse_g173(column: G173Column) -> Spectrum {
     let col = match column {
         G173Column::Extraterrestrial => 1,

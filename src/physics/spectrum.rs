@@ -203,9 +203,11 @@ impl Spectrum {
     pub fn photon_density(&self) -> &[f64] {
         &self.photons
     }
+    /// Number of tabulated points.
     pub fn len(&self) -> usize {
         self.x.len()
     }
+    /// Whether the table has no points (never, once built).
     pub fn is_empty(&self) -> bool {
         self.x.is_empty()
     }
@@ -293,6 +295,8 @@ impl Spectrum {
         self.power_between(e, f64::INFINITY)
     }
 
+    /// Integral of `density` between photon energies `e1` and `e2` [J] (any order), in
+    /// [density unit x axis unit]; 0 for NaN.
     fn between(&self, e1: f64, e2: f64, density: &[f64], cum: &[f64]) -> f64 {
         if e1.is_nan() || e2.is_nan() {
             return 0.0;

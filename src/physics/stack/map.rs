@@ -56,6 +56,7 @@ struct GapColumn {
     diode: Option<Diode>,
 }
 
+/// The per-gap pieces for every gap of `gaps_j` [J] under `light`, cells like `cell`.
 fn columns(light: &Illumination, cell: &Cell, pre: &ThermalPrefactor, gaps_j: &[f64]) -> Vec<GapColumn> {
     let q_x = CHARGE * light.concentration;
     gaps_j

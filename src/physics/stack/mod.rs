@@ -22,7 +22,8 @@
 //!   P = max over 0 < J < min_i Jsc_i of J sum_i V_i(J), with V_i(J) the inverse of the
 //!   subcell's J-V curve ([`Diode::voltage_at_current`]). P(J) is concave there (each V_i is
 //!   a concave decreasing function of J), so its maximum is the one root of dP/dJ = 0,
-//!   found by Newton's method kept inside a bracket ([`series`]).
+//!   found by Newton's method kept inside a bracket ([`series`], which takes the limiting
+//!   subcell's voltage, one to one with J, as the variable).
 
 pub mod map;
 pub mod optimize;

@@ -104,6 +104,8 @@ impl Objective<'_, '_> {
         g
     }
 
+    /// The stack efficiency (dimensionless, 0 when not finite) for the free gaps `free` [J], any
+    /// order; counts one evaluation.
     fn efficiency(&mut self, free: &[f64]) -> f64 {
         self.count(1);
         let mut g = self.gaps(free);
@@ -172,6 +174,7 @@ pub fn refine(p: &Problem, start: &[f64], step_j: f64) -> Optimum {
     Optimum { gaps_j: obj.gaps(&x), efficiency: e, evaluations: obj.evaluations }
 }
 
+/// The global search and polish of the module docs, optionally observed.
 fn search(p: &Problem, observer: Option<&mut dyn FnMut(u64)>) -> Optimum {
     let Some((n_free, lo, hi)) = free_part(p) else { return Optimum::default() };
     let mut obj = Objective { p, evaluations: 0, observer };
@@ -332,6 +335,7 @@ pub fn grid_maxima(tops_j: &[f64], bottoms_j: &[f64], eff: &[f64]) -> Vec<(Vec<f
 struct SplitMix(u64);
 
 impl SplitMix {
+    /// The next 64 random bits (SplitMix64 increment and mix).
     fn next_u64(&mut self) -> u64 {
         self.0 = self.0.wrapping_add(0x9E37_79B9_7F4A_7C15);
         let mut z = self.0;
@@ -343,6 +347,7 @@ impl SplitMix {
     fn unit(&mut self) -> f64 {
         (self.next_u64() >> 11) as f64 / (1u64 << 53) as f64
     }
+    /// uniform index in 0..n
     fn below(&mut self, n: usize) -> usize {
         (self.unit() * n as f64) as usize % n.max(1)
     }
