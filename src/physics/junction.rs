@@ -399,8 +399,7 @@ impl Diode {
     }
 
     /// As [`Diode::voltage_at_current`], Newton started at `start` (a reduced voltage,
-    /// dimensionless, e.g.
-    /// the answer for a nearby current) when it is a number.
+    /// dimensionless, e.g. the answer for a nearby current) when it is a number.
     ///
     /// From J = Jsc - (R(m) - R(0))/ERE: ln R(m) = L(J) = ln(ERE (Jsc - J) + R(0)), solved in
     /// logarithms (closed form for the Boltzmann model, safeguarded Newton for the exact
