@@ -82,6 +82,7 @@ impl AbsorptanceTable {
         Ok(AbsorptanceTable { name: name.into(), axis, x, a })
     }
 
+    /// The table's spectral axis.
     pub fn axis(&self) -> Axis {
         self.axis
     }
@@ -151,7 +152,8 @@ pub enum Absorptance {
 }
 
 impl Absorptance {
-    /// a(E) at photon energy `e_j` [J].
+    /// a(E) (dimensionless) at photon energy `e_j` [J]; the Urbach tail below Eg is
+    /// exp((E - Eg)/Eu) (Urbach 1953).
     pub fn at(&self, e_j: f64) -> f64 {
         match self {
             Absorptance::Step { gap_j } => {
@@ -181,7 +183,7 @@ impl Absorptance {
         }
     }
 
-    /// Finite positive parameters.
+    /// Finite positive parameters (energies [J]).
     pub fn is_valid(&self) -> bool {
         match self {
             Absorptance::Step { gap_j } => gap_j.is_finite() && *gap_j > 0.0,
@@ -195,7 +197,8 @@ impl Absorptance {
 
 // ------------------------------------------------------------------------ quadrature
 
-/// Gauss-Legendre nodes and weights on [-1, 1], 8 points (half shown, symmetric).
+/// Gauss-Legendre nodes and weights on [-1, 1], 8 points (half shown, symmetric; A&S
+/// table 25.4, n = 8).
 const GL_X: [f64; 4] =
     [0.183_434_642_495_649_78, 0.525_532_409_916_329, 0.796_666_477_413_626_7, 0.960_289_856_497_536_2];
 const GL_W: [f64; 4] =
@@ -241,9 +244,10 @@ fn cut_points(lo: f64, hi: f64, inner: impl IntoIterator<Item = f64>) -> Vec<f64
     c
 }
 
-/// integral_{lo}^{hi} w(E) Phi_src(E) dE at one sun [s^-1 m^-2], for a weight `w` that is
-/// smooth between the energies `breaks_j` and varies on the scale `scale_j` (panels are no
-/// wider than half of it; infinity for piecewise-linear weights). `hi` must be finite.
+/// integral_{lo}^{hi} w(E) Phi_src(E) dE at one sun [s^-1 m^-2] between photon energies
+/// `lo_j` and `hi_j` [J], for a dimensionless weight `w` of photon energy [J] that is
+/// smooth between the energies `breaks_j` [J] and varies on the scale `scale_j` [J] (panels
+/// are no wider than half of it; infinity for piecewise-linear weights). `hi_j` must be finite.
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn weighted_photon_flux(
     source: &Source,
@@ -365,7 +369,8 @@ pub fn ln_dark_current(a: &Absorptance, temp_k: f64, emission: Emission) -> f64 
     }
 }
 
-/// ln of integral e^(ln_f(E)) dE over the panels, by Gauss-Legendre in logarithms.
+/// ln of integral e^(ln_f(E)) dE over the panels (energies [J]), by Gauss-Legendre in
+/// logarithms: the result is ln of [unit of e^ln_f x J].
 fn log_quadrature(panels: &[(f64, f64)], ln_f: impl Fn(f64) -> f64) -> f64 {
     let terms: Vec<f64> = panels
         .iter()
@@ -395,7 +400,8 @@ pub struct AbsorberResult {
     pub nonrad_voc_loss: f64,
 }
 
-/// Reduced open-circuit voltage m = ln(1 + e^l), l = ln(ERE Jsc / J0), without overflow.
+/// Reduced open-circuit voltage m = ln(1 + e^l) (dimensionless), l = ln(ERE Jsc / J0),
+/// without overflow.
 #[inline]
 fn ln_one_plus_exp(l: f64) -> f64 {
     if l > 0.0 {
@@ -407,7 +413,9 @@ fn ln_one_plus_exp(l: f64) -> f64 {
 
 /// Figures of an ideal diode J = Jsc - (J0/ERE)(e^(qV/kT) - 1) given ln J0: Voc from the
 /// closed form, the maximum power point from e^m (1 + m) = 1 + ERE Jsc/J0, i.e.
-/// 1 + m_mp = W(e^(1 + m_oc)) (Lambert W), J_mp = (Jsc + J0/ERE) m_mp / (1 + m_mp).
+/// 1 + m_mp = W(e^(1 + m_oc)) (Lambert W, Corless et al. 1996), J_mp = (Jsc + J0/ERE) m_mp /
+/// (1 + m_mp). `jsc` [A m^-2], `ln_j0` [ln(A m^-2)], `kt` [J], `ere` (dimensionless),
+/// `gap_j` [J] (recorded only), `input` [W m^-2]; returns the figures and Voc_rad [V].
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 fn reciprocity_diode(jsc: f64, ln_j0: f64, kt: f64, ere: f64, gap_j: f64, input: f64) -> (CellResult, f64) {
     let empty = CellResult { gap_j, input, jsc: jsc.max(0.0), ..Default::default() };
@@ -483,9 +491,10 @@ pub fn solve_absorber(light: &Illumination, a: &Absorptance, cell: &Cell) -> Abs
 }
 
 /// The ERE that a measured open-circuit voltage `voc` [V] implies for a cell with
-/// photocurrent `jsc` [A m^-2] and radiative dark current ln J0 `ln_j0` at temperature
+/// photocurrent `jsc` [A m^-2] and radiative dark current ln J0 `ln_j0` [ln(A m^-2)] at temperature
 /// `temp_k` [K]: ERE = J0 (e^(qVoc/kT) - 1) / Jsc (the reciprocity Voc of Rau 2007, inverted). Values above 1
-/// mean the measured Voc exceeds the radiative limit. None if the inputs cannot give one.
+/// mean the measured Voc exceeds the radiative limit; dimensionless. None if the inputs cannot
+/// give one.
 #[allow(clippy::nonminimal_bool)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
 pub fn ere_from_voc(jsc: f64, ln_j0: f64, temp_k: f64, voc: f64) -> Option<f64> {
     if !(jsc > 0.0 && voc > 0.0 && temp_k > 0.0 && ln_j0.is_finite()) {

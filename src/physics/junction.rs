@@ -37,6 +37,7 @@ pub enum Emission {
 }
 
 impl Emission {
+    /// The number of emitting faces g (dimensionless): 1 or 2.
     pub fn faces(self) -> f64 {
         match self {
             Emission::Front => 1.0,
@@ -62,7 +63,7 @@ pub struct Cell {
     pub gap_j: f64,
     /// cell temperature [K]
     pub temp_k: f64,
-    /// external radiative efficiency, in (0, 1]
+    /// external radiative efficiency, in (0, 1] (dimensionless)
     pub ere: f64,
     pub emission: Emission,
     pub model: JvModel,
@@ -84,7 +85,7 @@ pub struct CellResult {
     pub jsc: f64,
     /// open-circuit voltage [V]
     pub voc: f64,
-    /// fill factor Pmax / (Voc Jsc)
+    /// fill factor Pmax / (Voc Jsc) (dimensionless)
     pub ff: f64,
     /// voltage at the maximum power point [V]
     pub vmp: f64,
@@ -94,7 +95,7 @@ pub struct CellResult {
     pub pmax: f64,
     /// incident power density (concentration included) [W m^-2]
     pub input: f64,
-    /// Pmax / input
+    /// Pmax / input (dimensionless)
     pub efficiency: f64,
 }
 
@@ -107,6 +108,7 @@ pub struct ThermalPrefactor {
 }
 
 impl ThermalPrefactor {
+    /// The prefactor for cells at `temp_k` [K] emitting through `emission`'s faces.
     pub fn new(temp_k: f64, emission: Emission) -> ThermalPrefactor {
         let kt = thermal_energy(temp_k);
         let ln_prefactor = (emission.faces() * CHARGE * PHOTON_FLUX_PREFACTOR * kt * kt * kt).ln();
@@ -179,7 +181,9 @@ impl Diode {
         d
     }
 
-    /// ln R at reduced voltage m = qV/kT, with its derivatives in m.
+    /// ln R at reduced voltage m = qV/kT (dimensionless), with its derivatives in m: the
+    /// closed form R = q g 2 pi (kT)^3 / (h^3 c^2) G_2(Eg/kT, m) of the module docs, or its
+    /// first series term R_B(0) e^m.
     #[inline]
     fn ln_r(&self, m: f64) -> LnRad {
         match self.model {
@@ -196,11 +200,13 @@ impl Diode {
         }
     }
 
+    /// Volts [V] of reduced voltage `m` (dimensionless): V = m kT / q.
     fn volts(&self, m: f64) -> f64 {
         m * self.kt / CHARGE
     }
 
-    /// Current density J(V) [A m^-2] at voltage `v` [V]. For V at or beyond the band gap
+    /// Current density J(V) = Jsc - (R(V) - R(0)) / ERE [A m^-2] at voltage `v` [V] (module
+    /// docs: Shockley & Queisser 1961, Wurfel 1982). For V at or beyond the band gap
     /// (where the exact law has its pole) it returns -infinity, never NaN.
     #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn current(&self, v: f64) -> f64 {
@@ -214,7 +220,8 @@ impl Diode {
         self.jsc - excess / self.ere
     }
 
-    /// Reduced open-circuit voltage m_oc = qVoc/kT.
+    /// Reduced open-circuit voltage m_oc = qVoc/kT (dimensionless): the root of
+    /// R(m) = ERE Jsc + R(0), i.e. J = 0.
     fn open_circuit_m(&self) -> f64 {
         let boltzmann = self.ln_target - self.ln_rb0;
         match self.model {
@@ -230,7 +237,8 @@ impl Diode {
         }
     }
 
-    /// Reduced maximum-power voltage and the current there [A m^-2], given m_oc.
+    /// Reduced maximum-power voltage (dimensionless) and the current there [A m^-2], given
+    /// m_oc (dimensionless).
     fn max_power(&self, m_oc: f64) -> (f64, f64) {
         // Boltzmann closed form: e^m (1 + m) = 1 + Jsc/J0 = target / R_B(0)
         let l = self.ln_target - self.ln_rb0;
@@ -271,7 +279,8 @@ impl Diode {
         }
     }
 
-    /// Solve for the figures of merit. `input` [W m^-2] is the incident power.
+    /// Solve for the figures of merit. `input` [W m^-2] is the incident power; `gap_j` [J] is
+    /// only recorded in the result (the diode already holds its gap).
     #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn solve(&self, gap_j: f64, input: f64) -> CellResult {
         if !(self.jsc > 0.0) {
@@ -296,7 +305,7 @@ impl Diode {
         CellResult { gap_j, jsc: self.jsc, voc, ff, vmp, jmp, pmax, input, efficiency }
     }
 
-    /// The J-V curve from 0 to Voc in `points` steps: (V [V], J [A m^-2]).
+    /// The J-V curve from 0 to `voc` [V] in `points` samples: (V [V], J [A m^-2]).
     pub fn curve(&self, voc: f64, points: usize) -> Vec<(f64, f64)> {
         let n = points.max(2);
         (0..n)
@@ -312,7 +321,7 @@ impl Diode {
 /// current: what a series connection needs to add up the subcell voltages at one current.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct VoltageAtCurrent {
-    /// m = qV/kT
+    /// m = qV/kT (dimensionless)
     pub m: f64,
     /// dm/dJ [per A m^-2]
     pub dm_dj: f64,
@@ -343,7 +352,7 @@ impl Diode {
 
     /// The Boltzmann closed form of the reduced open-circuit voltage, ln((ERE Jsc + R(0)) /
     /// R_B(0)) with R_B the first series term of R: exact for the Boltzmann model, and an
-    /// upper bound for the exact one (whose R is larger at every voltage).
+    /// upper bound for the exact one (whose R is larger at every voltage). Dimensionless.
     pub fn reduced_open_circuit_bound(&self) -> f64 {
         if self.jsc > 0.0 {
             (self.ln_target - self.ln_rb0).max(0.0)
@@ -352,7 +361,7 @@ impl Diode {
         }
     }
 
-    /// The reduced open-circuit voltage m_oc = qVoc/kT.
+    /// The reduced open-circuit voltage m_oc = qVoc/kT (dimensionless).
     pub fn reduced_open_circuit(&self) -> f64 {
         if self.jsc > 0.0 {
             self.open_circuit_m()
@@ -361,7 +370,8 @@ impl Diode {
         }
     }
 
-    /// J(m) = Jsc - (R(m) - R(0))/ERE [A m^-2] at reduced voltage m, with dJ/dm and d2J/dm2.
+    /// J(m) = Jsc - (R(m) - R(0))/ERE [A m^-2] at reduced voltage `m` (dimensionless), with
+    /// dJ/dm and d2J/dm2 [A m^-2].
     /// At or beyond the gap of the exact model all three are -infinity, never NaN.
     #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn current_at_reduced(&self, m: f64) -> (f64, f64, f64) {
@@ -388,8 +398,8 @@ impl Diode {
         self.voltage_at_current_near(j, f64::NAN)
     }
 
-    /// As [`Diode::voltage_at_current`], Newton started at `start` (a reduced voltage, e.g.
-    /// the answer for a nearby current) when it is a number.
+    /// As [`Diode::voltage_at_current`], Newton started at `start` (a reduced voltage,
+    /// dimensionless, e.g. the answer for a nearby current) when it is a number.
     ///
     /// From J = Jsc - (R(m) - R(0))/ERE: ln R(m) = L(J) = ln(ERE (Jsc - J) + R(0)), solved in
     /// logarithms (closed form for the Boltzmann model, safeguarded Newton for the exact
@@ -450,7 +460,8 @@ fn ln_target(ere_jsc: f64, ln_r0: f64) -> f64 {
     }
 }
 
-/// ln(e^a + e^b) without overflow; -inf arguments allowed.
+/// ln(e^a + e^b) without overflow; -inf arguments allowed. `a`, `b` and the result are
+/// logarithms of quantities in one unit.
 #[inline]
 pub(crate) fn log_add(a: f64, b: f64) -> f64 {
     let (hi, lo) = if a >= b { (a, b) } else { (b, a) };
@@ -464,7 +475,7 @@ pub(crate) fn log_add(a: f64, b: f64) -> f64 {
 /// bracket and bisecting whenever a step leaves it or the function is not finite.
 /// `f` returns (value, first derivative, second derivative). The iteration stops when the
 /// error left after a Newton step, estimated as |f''| s^2 / (2 |f'|) for a step s, is below
-/// `tol` relative to max(1, |x|), or when the bracket has shrunk to that size.
+/// `tol` (dimensionless) relative to max(1, |x|), or when the bracket has shrunk to that size.
 /// Returns the root and the number of evaluations.
 pub(crate) fn safeguarded_newton(
     f: impl Fn(f64) -> (f64, f64, f64),
@@ -509,27 +520,30 @@ pub(crate) fn safeguarded_newton(
 #[derive(Debug, Clone)]
 pub struct Illumination {
     pub source: Source,
-    /// concentration factor X >= 1 (1 = one sun)
+    /// concentration factor X >= 1 (1 = one sun), dimensionless
     pub concentration: f64,
 }
 
 impl Illumination {
+    /// `source` unconcentrated, X = 1.
     pub fn one_sun(source: Source) -> Illumination {
         Illumination { source, concentration: 1.0 }
     }
 
-    /// Incident power [W m^-2].
+    /// Incident power X P_source [W m^-2].
     pub fn input_power(&self) -> f64 {
         self.concentration * self.source.total_power()
     }
 
-    /// Photocurrent of a step absorber with gap `gap_j` [J]: Jsc [A m^-2].
+    /// Photocurrent of a step absorber with gap `gap_j` [J]: Jsc = q X Phi_src(E > Eg)
+    /// [A m^-2] (Shockley & Queisser 1961).
     pub fn step_jsc(&self, gap_j: f64) -> f64 {
         CHARGE * self.concentration * self.source.photon_flux_above(gap_j)
     }
 }
 
-/// Solve one cell with a step absorptance.
+/// Solve one cell with a step absorptance in the detailed-balance limit (Shockley &
+/// Queisser 1961; module docs). Figures in SI, see [`CellResult`].
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn solve_cell(light: &Illumination, cell: &Cell) -> CellResult {
     if !(cell.gap_j > 0.0) || !(cell.temp_k > 0.0) || !(cell.ere > 0.0) || !cell.gap_j.is_finite() {
@@ -595,7 +609,8 @@ pub fn best_of(results: &[CellResult]) -> Option<CellResult> {
 ///
 /// `results` are the cells of one sweep over ascending gaps (as [`sweep`] returns them for
 /// `template` under `light`). Takes the grid's best point, then searches the efficiency's
-/// maximum by golden section between its grid neighbours (for an even grid of step `s`:
+/// maximum by golden section (Kiefer, Proc. Amer. Math. Soc. 4, 502 (1953)) between its
+/// grid neighbours (for an even grid of step `s`:
 /// [best − s, best + s], clamped to the grid's range) until the bracket is narrower than
 /// 1e-7 eV. Returns the refined cell if it beats the grid point, else the grid point;
 /// `None` for an empty sweep. Costs about 30 cells beyond the sweep.
@@ -641,8 +656,8 @@ pub fn best_gap(light: &Illumination, template: &Cell, results: &[CellResult]) -
     Some(if refined.efficiency > grid_best.efficiency { refined } else { grid_best })
 }
 
-/// Shockley and Queisser's "ultimate efficiency" u(Eg) (1961, section IV): every photon above
-/// the gap delivers exactly Eg, u = Eg * Phi(>Eg) / P_in.
+/// Shockley and Queisser's "ultimate efficiency" u(Eg) (1961, section IV; dimensionless) at gap
+/// `gap_j` [J]: every photon above the gap delivers exactly Eg, u = Eg * Phi(>Eg) / P_in.
 pub fn ultimate_efficiency(light: &Illumination, gap_j: f64) -> f64 {
     let p = light.input_power();
     if p > 0.0 {

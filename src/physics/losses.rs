@@ -48,7 +48,7 @@ pub struct LossBreakdown {
     pub delivered: f64,
     /// source temperature used in the Carnot factor [K]
     pub source_temp_k: f64,
-    /// Omega_emit / Omega_abs
+    /// Omega_emit / Omega_abs (dimensionless)
     pub etendue_ratio: f64,
 }
 
@@ -82,6 +82,7 @@ pub fn breakdown_of(light: &Illumination, cell: &Cell, r: &CellResult) -> LossBr
     let above = light.concentration * light.source.power_above(eg);
     let phi_abs = r.jsc / CHARGE;
     let phi_mp = r.jmp / CHARGE;
+    // per extracted carrier [J]: Eg Tc/Ts and kTc ln(Omega_emit/Omega_abs) (H&ED 2011)
     let carnot_per = eg * cell.temp_k / ts;
     let boltzmann_per = thermal_energy(cell.temp_k) * etendue_ratio.ln();
     let residual_per = eg - carnot_per - boltzmann_per - CHARGE * r.vmp;

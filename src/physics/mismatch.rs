@@ -14,7 +14,7 @@
 //! SR(lambda) [A/W] is the short-circuit current density the device would give under that
 //! spectrum, and SR = q lambda EQE / (h c), so
 //! integral E SR dlambda = q integral EQE Phi dE with Phi the photon flux: the factor is
-//! computed from EQEs and photon fluxes with the integrals of [`absorber::photocurrent`]
+//! computed from EQEs and photon fluxes with the integrals of [`absorber::photocurrent`](super::absorber::photocurrent)
 //! (exact on a common axis). Scaling either spectrum or either response leaves M unchanged.
 
 use super::absorber::{photocurrent, Absorptance};
@@ -41,6 +41,7 @@ pub fn eqe_from_sr(sr: f64, wavelength_m: f64) -> f64 {
 /// The mismatch factor and the four short-circuit currents [A m^-2] it is built from.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Mismatch {
+    /// M of IEC 60904-7 (dimensionless)
     pub factor: f64,
     /// device under test, test spectrum
     pub test_device_test_spectrum: f64,
@@ -52,8 +53,9 @@ pub struct Mismatch {
     pub reference_device_reference_spectrum: f64,
 }
 
-/// Compute the mismatch factor. Fails, with a message, when a device gives no current under
-/// a spectrum (the factor would be 0/0 or infinite).
+/// Compute the mismatch factor M (dimensionless; IEC 60904-7, module docs) from the EQEs of
+/// the two devices (fractions) and the two spectra. Fails, with a message, when a device
+/// gives no current under a spectrum (the factor would be 0/0 or infinite).
 pub fn mismatch_factor(
     test_device: &Absorptance,
     reference_device: &Absorptance,

@@ -13,7 +13,8 @@ use super::constants::{BOLTZMANN, HC, LIGHT_SPEED, PHOTON_FLUX_PREFACTOR, PLANCK
 use super::special::{bose_band, bose_complete, bose_upper, scaled_bose2};
 use std::f64::consts::PI;
 
-/// prefactor * x^p / (e^x - 1) computed as exp(ln prefactor + p ln x - x - ln(1 - e^-x)) when
+/// prefactor * base^p / (e^x - 1) (x dimensionless; the result in the unit of
+/// prefactor * base^p) computed as exp(ln prefactor + p ln x - x - ln(1 - e^-x)) when
 /// the direct product could overflow or underflow; directly otherwise.
 #[inline]
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
@@ -35,7 +36,7 @@ fn bose_weighted(prefactor: f64, base: f64, power: i32, x: f64) -> f64 {
 
 /// Spectral radiance per unit wavelength B_lambda [W m^-2 sr^-1 m^-1].
 /// `lambda_m`: wavelength [m]; `temp_k`: temperature [K].
-/// B_lambda = 2 h c^2 / lambda^5 / (exp(hc / (lambda k T)) - 1).
+/// B_lambda = 2 h c^2 / lambda^5 / (exp(hc / (lambda k T)) - 1) (Planck 1901).
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn radiance_per_wavelength(lambda_m: f64, temp_k: f64) -> f64 {
     if !(lambda_m > 0.0) || !(temp_k > 0.0) {
@@ -48,7 +49,7 @@ pub fn radiance_per_wavelength(lambda_m: f64, temp_k: f64) -> f64 {
 
 /// Spectral radiance per unit frequency B_nu [W m^-2 sr^-1 Hz^-1].
 /// `nu_hz`: frequency [Hz]; `temp_k`: temperature [K].
-/// B_nu = 2 h nu^3 / c^2 / (exp(h nu / kT) - 1).
+/// B_nu = 2 h nu^3 / c^2 / (exp(h nu / kT) - 1) (Planck 1901).
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn radiance_per_frequency(nu_hz: f64, temp_k: f64) -> f64 {
     if !(nu_hz > 0.0) || !(temp_k > 0.0) {
@@ -60,7 +61,7 @@ pub fn radiance_per_frequency(nu_hz: f64, temp_k: f64) -> f64 {
 
 /// Spectral radiance per unit wavenumber B_nutilde [W m^-2 sr^-1 (m^-1)^-1].
 /// `wavenumber_per_m`: wavenumber [m^-1] (1 cm^-1 = 100 m^-1); `temp_k` [K].
-/// B = 2 h c^2 nutilde^3 / (exp(h c nutilde / kT) - 1).
+/// B = 2 h c^2 nutilde^3 / (exp(h c nutilde / kT) - 1) (Planck 1901, B_nu |d nu / d nutilde|).
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn radiance_per_wavenumber(wavenumber_per_m: f64, temp_k: f64) -> f64 {
     if !(wavenumber_per_m > 0.0) || !(temp_k > 0.0) {
@@ -72,7 +73,7 @@ pub fn radiance_per_wavenumber(wavenumber_per_m: f64, temp_k: f64) -> f64 {
 
 /// Spectral radiance per unit photon energy B_E [W m^-2 sr^-1 J^-1].
 /// `energy_j`: photon energy [J]; `temp_k` [K].
-/// B_E = 2 E^3 / (h^3 c^2) / (exp(E / kT) - 1).
+/// B_E = 2 E^3 / (h^3 c^2) / (exp(E / kT) - 1) (Planck 1901, B_nu |d nu / dE|).
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn radiance_per_energy(energy_j: f64, temp_k: f64) -> f64 {
     if !(energy_j > 0.0) || !(temp_k > 0.0) {
@@ -83,7 +84,8 @@ pub fn radiance_per_energy(energy_j: f64, temp_k: f64) -> f64 {
 }
 
 /// Spectral photon radiance per unit wavelength [photons s^-1 m^-2 sr^-1 m^-1]:
-/// B_lambda / (hc / lambda).
+/// B_lambda / (hc / lambda) = 2 c / lambda^4 / (exp(hc / (lambda k T)) - 1).
+/// `lambda_m`: wavelength [m]; `temp_k`: temperature [K].
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn photon_radiance_per_wavelength(lambda_m: f64, temp_k: f64) -> f64 {
     if !(lambda_m > 0.0) || !(temp_k > 0.0) {
@@ -94,7 +96,8 @@ pub fn photon_radiance_per_wavelength(lambda_m: f64, temp_k: f64) -> f64 {
 }
 
 /// Spectral photon radiance per unit photon energy [photons s^-1 m^-2 sr^-1 J^-1]:
-/// 2 E^2 / (h^3 c^2) / (exp(E/kT) - 1).
+/// 2 E^2 / (h^3 c^2) / (exp(E/kT) - 1), i.e. B_E / E (Planck 1901).
+/// `energy_j`: photon energy [J]; `temp_k` [K].
 pub fn photon_radiance_per_energy(energy_j: f64, temp_k: f64) -> f64 {
     generalized_photon_radiance_per_energy(energy_j, temp_k, 0.0)
 }
@@ -117,12 +120,15 @@ pub fn generalized_photon_radiance_per_energy(energy_j: f64, temp_k: f64, mu_j: 
 }
 
 /// Hemispherical photon flux per unit photon energy leaving a black surface
-/// [photons s^-1 m^-2 J^-1]: pi times the photon radiance (Lambertian emitter).
+/// [photons s^-1 m^-2 J^-1]: pi times the photon radiance (Lambertian emitter), the
+/// generalized law of Wurfel 1982 integrated over the hemisphere. `energy_j` [J], `temp_k` [K],
+/// photon chemical potential `mu_j` [J].
 pub fn hemispherical_photon_flux_per_energy(energy_j: f64, temp_k: f64, mu_j: f64) -> f64 {
     PI * generalized_photon_radiance_per_energy(energy_j, temp_k, mu_j)
 }
 
-/// PHOTON_FLUX_PREFACTOR (kT)^p * band, in logarithms where the product would leave the f64
+/// PHOTON_FLUX_PREFACTOR (kT)^p * band (`kt` [J], `band` dimensionless; the result
+/// [J^(p-3) m^-2 s^-1]), in logarithms where the product would leave the f64
 /// range: tiny results go to 0, enormous ones saturate at f64::MAX instead of inf or NaN.
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 fn scaled_by_power_of_kt(band: f64, kt: f64, p: i32) -> f64 {
@@ -170,7 +176,8 @@ pub fn stefan_boltzmann(temp_k: f64) -> f64 {
     (STEFAN_BOLTZMANN * t2 * t2).min(f64::MAX) // saturate rather than overflow
 }
 
-/// Fraction of sigma T^4 emitted at wavelengths below lambda, F(0 -> lambda T)
+/// Fraction of sigma T^4 emitted at wavelengths below lambda, the blackbody fractional
+/// function F(0 -> lambda T) (Modest, Radiative Heat Transfer, ch. 1)
 /// (dimensionless), as a function of the product `lambda_t_m_k` = lambda T [m K].
 /// F = (15 / pi^4) integral_{x}^{inf} x^3 / (e^x - 1) dx, x = hc / (lambda k T).
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
@@ -187,7 +194,9 @@ pub fn band_fraction_below(lambda_t_m_k: f64) -> f64 {
 
 /// Hemispherical emissive power of a black surface at `temp_k` [K] between photon energies
 /// `e1_j` and `e2_j` [J] (either order; `f64::INFINITY` allowed) [W m^-2]:
-/// 2 pi (kT)^4 / (h^3 c^2) * integral_{x1}^{x2} x^3 / (e^x - 1) dx.
+/// 2 pi (kT)^4 / (h^3 c^2) * integral_{x1}^{x2} x^3 / (e^x - 1) dx, x = E/kT: pi B_E
+/// (Planck 1901) integrated over the band, the integral in closed form
+/// ([`super::special::bose_band`]).
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn band_power_energy(e1_j: f64, e2_j: f64, temp_k: f64) -> f64 {
     if !(temp_k > 0.0) {
@@ -200,7 +209,8 @@ pub fn band_power_energy(e1_j: f64, e2_j: f64, temp_k: f64) -> f64 {
 
 /// Hemispherical photon flux of a black surface at `temp_k` [K] between photon energies
 /// `e1_j` and `e2_j` [J] [photons s^-1 m^-2]:
-/// 2 pi (kT)^3 / (h^3 c^2) * integral_{x1}^{x2} x^2 / (e^x - 1) dx.
+/// 2 pi (kT)^3 / (h^3 c^2) * integral_{x1}^{x2} x^2 / (e^x - 1) dx, x = E/kT (either order of
+/// the energies; `f64::INFINITY` allowed). The photon flux of Shockley & Queisser 1961.
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn band_photon_flux_energy(e1_j: f64, e2_j: f64, temp_k: f64) -> f64 {
     if !(temp_k > 0.0) {
@@ -212,7 +222,8 @@ pub fn band_photon_flux_energy(e1_j: f64, e2_j: f64, temp_k: f64) -> f64 {
 }
 
 /// Hemispherical emissive power of a black surface between wavelengths `l1_m` and `l2_m`
-/// [m] at `temp_k` [K] [W m^-2].
+/// [m] (either order; 0 and infinity allowed) at `temp_k` [K] [W m^-2], through
+/// [`band_power_energy`] with E = hc / lambda.
 pub fn band_power_wavelength(l1_m: f64, l2_m: f64, temp_k: f64) -> f64 {
     let to_e = |l: f64| if l > 0.0 { HC / l } else { f64::INFINITY };
     band_power_energy(to_e(l1_m), to_e(l2_m), temp_k)
@@ -221,7 +232,9 @@ pub fn band_power_wavelength(l1_m: f64, l2_m: f64, temp_k: f64) -> f64 {
 /// Hemispherical photon flux of a body at `temp_k` [K] with chemical potential `mu_j` [J]
 /// above photon energy `e0_j` [J] (e0 > mu), returned as its natural logarithm
 /// ln(flux / [photons s^-1 m^-2]) together with the first and second derivatives of that
-/// logarithm with respect to m = mu / kT. Working in logarithms keeps the radiative
+/// logarithm with respect to m = mu / kT (dimensionless): flux = 2 pi (kT)^3 / (h^3 c^2)
+/// G_2(e0/kT, m), the generalized law (Wurfel 1982, eq. 11) integrated over the hemisphere
+/// and over E > e0 (G_2 as in [`super::special`]). Working in logarithms keeps the radiative
 /// recombination of wide-gap or cold cells, some e^-1000 in size, in range.
 pub fn ln_photon_flux_above(e0_j: f64, temp_k: f64, mu_j: f64) -> (f64, f64, f64) {
     let kt = BOLTZMANN * temp_k;

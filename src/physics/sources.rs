@@ -20,11 +20,15 @@ const G173_PROVENANCE: &str = "ASTM G173-03 reference spectra (SMARTS v2.9.2), 2
 /// Which column of the G173 table.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum G173Column {
+    /// the extraterrestrial column: AM0, about 1348 W m^-2 over 280-4000 nm
     Extraterrestrial,
+    /// the global tilt column: AM1.5G, about 1000 W m^-2
     Global,
+    /// the direct + circumsolar column: AM1.5D, about 900 W m^-2
     Direct,
 }
 
+/// The column of the shipped table (nm, W m^-2 nm^-1) as a spectrum in SI ([m], [W m^-2 m^-1]).
 fn parse_g173(column: G173Column) -> Spectrum {
     let col = match column {
         G173Column::Extraterrestrial => 1,
@@ -57,7 +61,8 @@ fn parse_g173(column: G173Column) -> Spectrum {
     Spectrum::new(name, prov, Axis::Wavelength, Quantity::Irradiance, x, y).expect("the shipped G173 table is valid")
 }
 
-/// The G173 column as a shared, parsed-once spectrum.
+/// The G173 column as a shared, parsed-once spectrum: spectral irradiance per wavelength
+/// [W m^-2 m^-1] on a wavelength axis [m] (the table's nm converted to SI).
 pub fn g173(column: G173Column) -> Arc<Spectrum> {
     static CELLS: [OnceLock<Arc<Spectrum>>; 3] = [OnceLock::new(), OnceLock::new(), OnceLock::new()];
     let idx = match column {
@@ -75,20 +80,25 @@ pub enum Source {
     /// sun's disc (the built-in tables), which caps the concentration.
     Table { spectrum: Arc<Spectrum>, solar_disc: bool },
     /// A blackbody disc of temperature `temp_k` [K] seen from 1 au: irradiance
-    /// f sigma T^4 with f = (R_sun / au)^2.
+    /// f sigma T^4 [W m^-2] with f = (R_sun / au)^2 (the blackbody sun of Shockley &
+    /// Queisser 1961).
     BlackbodySun { temp_k: f64 },
 }
 
 impl Source {
+    /// ASTM G173-03 global tilt (AM1.5G).
     pub fn am15g() -> Source {
         Source::Table { spectrum: g173(G173Column::Global), solar_disc: true }
     }
+    /// ASTM G173-03 direct + circumsolar (AM1.5D).
     pub fn am15d() -> Source {
         Source::Table { spectrum: g173(G173Column::Direct), solar_disc: true }
     }
+    /// ASTM G173-03 extraterrestrial (AM0, 280-4000 nm only).
     pub fn am0() -> Source {
         Source::Table { spectrum: g173(G173Column::Extraterrestrial), solar_disc: true }
     }
+    /// A user table (SI, see [`Spectrum::new`]); no concentration cap.
     pub fn user(spectrum: Spectrum) -> Source {
         Source::Table { spectrum: Arc::new(spectrum), solar_disc: false }
     }
@@ -109,7 +119,7 @@ impl Source {
         }
     }
 
-    /// Incident irradiance at one sun [W m^-2].
+    /// Incident irradiance at one sun [W m^-2]: the table's trapezoid integral, or f sigma T^4.
     pub fn total_power(&self) -> f64 {
         match self {
             Source::Table { spectrum, .. } => spectrum.total_power(),
@@ -161,7 +171,7 @@ impl Source {
                     }
             }
             Source::BlackbodySun { temp_k } => {
-                // pi * B_E * f
+                // f pi B_E = f 2 pi E^3 / (h^3 c^2) / (e^(E/kT) - 1) [W m^-2 J^-1] (Planck 1901)
                 let kt = BOLTZMANN * temp_k;
                 let x = e_j / kt;
                 if !(x > 0.0) || x > 700.0 {

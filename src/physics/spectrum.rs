@@ -26,7 +26,8 @@ pub enum Axis {
 }
 
 impl Axis {
-    /// Photon energy [J] at axis coordinate `u` (SI).
+    /// Photon energy [J] at axis coordinate `u` (SI: [m], [J] or [m^-1]): E = hc / lambda,
+    /// E, or E = hc nutilde.
     #[inline]
     pub fn energy_at(self, u: f64) -> f64 {
         match self {
@@ -36,7 +37,8 @@ impl Axis {
         }
     }
 
-    /// Axis coordinate (SI) of photon energy `e` [J]. Energy 0 maps to +inf wavelength.
+    /// Axis coordinate (SI: [m], [J] or [m^-1]) of photon energy `e` [J]. Energy 0 maps to
+    /// +inf wavelength.
     #[inline]
     pub fn coordinate_of_energy(self, e: f64) -> f64 {
         match self {
@@ -121,8 +123,9 @@ pub struct Spectrum {
 }
 
 impl Spectrum {
-    /// Build a spectrum from SI coordinates `x` (strictly ascending, positive) and SI values
-    /// `y` (finite, non-negative).
+    /// Build a spectrum from SI coordinates `x` ([m], [J] or [m^-1] as `axis` says; strictly
+    /// ascending, positive) and SI values `y` ([W m^-2] or [photons s^-1 m^-2] per axis unit
+    /// as `quantity` says; finite, non-negative).
     pub fn new(
         name: impl Into<String>,
         provenance: impl Into<String>,
@@ -176,9 +179,11 @@ impl Spectrum {
         })
     }
 
+    /// The native spectral axis.
     pub fn axis(&self) -> Axis {
         self.axis
     }
+    /// The native quantity.
     pub fn quantity(&self) -> Quantity {
         self.quantity
     }
@@ -198,9 +203,11 @@ impl Spectrum {
     pub fn photon_density(&self) -> &[f64] {
         &self.photons
     }
+    /// Number of tabulated points.
     pub fn len(&self) -> usize {
         self.x.len()
     }
+    /// Whether the table has no points (never, once built).
     pub fn is_empty(&self) -> bool {
         self.x.is_empty()
     }
@@ -288,6 +295,8 @@ impl Spectrum {
         self.power_between(e, f64::INFINITY)
     }
 
+    /// Integral of `density` between photon energies `e1` and `e2` [J] (any order), in
+    /// [density unit x axis unit]; 0 for NaN.
     fn between(&self, e1: f64, e2: f64, density: &[f64], cum: &[f64]) -> f64 {
         if e1.is_nan() || e2.is_nan() {
             return 0.0;
@@ -305,7 +314,8 @@ impl Spectrum {
         (self.cumulative_at(u2, density, cum) - self.cumulative_at(u1, density, cum)).max(0.0)
     }
 
-    /// Integral of the piecewise-linear density from the first point to coordinate `u`.
+    /// Integral of the piecewise-linear density from the first point to coordinate `u` (SI),
+    /// in [density unit x axis unit].
     #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     fn cumulative_at(&self, u: f64, density: &[f64], cum: &[f64]) -> f64 {
         let n = self.x.len();
@@ -323,8 +333,8 @@ impl Spectrum {
         cum[i] + 0.5 * (u - x0) * (density[i] + d_u)
     }
 
-    /// The density (in the native quantity) linearly interpolated at coordinate `u`; zero
-    /// outside the table.
+    /// The density (in the native quantity, SI per SI axis unit) linearly interpolated at
+    /// coordinate `u` (SI axis unit); zero outside the table.
     #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn value_at(&self, u: f64) -> f64 {
         let n = self.x.len();
@@ -362,7 +372,7 @@ impl Spectrum {
             .expect("a valid spectrum stays valid under a change of variable")
     }
 
-    /// Multiply every value by `factor` (>= 0), e.g. to scale an irradiance.
+    /// Multiply every value by `factor` (dimensionless, >= 0), e.g. to scale an irradiance.
     pub fn scaled(&self, factor: f64) -> Spectrum {
         let y = self.y.iter().map(|v| v * factor).collect();
         Spectrum::new(self.name.clone(), self.provenance.clone(), self.axis, self.quantity, self.x.clone(), y)
@@ -370,8 +380,9 @@ impl Spectrum {
     }
 }
 
-/// |du/dE| for the axis variable u at coordinate `u`: converts a density per unit of u into
-/// a density per unit of photon energy.
+/// |du/dE| for the axis variable u at coordinate `u` (SI): converts a density per unit of u
+/// into a density per unit of photon energy. [m J^-1] for wavelength (lambda^2 / hc),
+/// 1 for photon energy, [m^-1 J^-1] for wavenumber (1 / hc).
 #[inline]
 pub fn jacobian_per_energy(axis: Axis, u: f64) -> f64 {
     match axis {
@@ -383,6 +394,8 @@ pub fn jacobian_per_energy(axis: Axis, u: f64) -> f64 {
     }
 }
 
+/// Running trapezoid-rule integrals of `y` over `x` from the first point (A&S 25.4.1, from
+/// memory), in [y unit x x unit].
 fn cumulative_trapezoid(x: &[f64], y: &[f64]) -> Vec<f64> {
     let mut out = Vec::with_capacity(x.len());
     let mut acc = 0.0;

@@ -21,8 +21,8 @@ pub enum AngularModel {
 }
 
 impl AngularModel {
-    /// cos of the cut-off angle (0 for the Lambertian case: no cut-off above the horizon),
-    /// clamped to [0, 1].
+    /// cos of the cut-off angle (dimensionless; 0 for the Lambertian case: no cut-off above
+    /// the horizon), clamped to [0, 1].
     pub fn cos_cut(&self) -> f64 {
         match self {
             AngularModel::Lambertian => 0.0,
@@ -37,9 +37,9 @@ impl AngularModel {
         }
     }
 
-    /// Directional emissivity at mu = cos(theta) for a surface whose normal emissivity at
-    /// this wavelength is `eps` (fraction). Emission up to and including the cut-off angle
-    /// keeps `eps`.
+    /// Directional emissivity (dimensionless) at mu = cos(theta) for a surface whose normal
+    /// emissivity at this wavelength is `eps` (fraction). Emission up to and including the
+    /// cut-off angle keeps `eps`.
     #[inline]
     pub fn apply(&self, eps: f64, mu: f64) -> f64 {
         match self {
@@ -54,7 +54,8 @@ impl AngularModel {
         }
     }
 
-    /// Hemispherical emissivity for normal emissivity `eps`, in closed form:
+    /// Hemispherical emissivity (dimensionless) for normal emissivity `eps` (fraction), in
+    /// closed form (the cosine-weighted mean of the module docs):
     /// 2 integral_0^1 apply(eps, mu) mu dmu = eps (1 - mu_c^2) + beyond mu_c^2
     /// (the integral of 2 mu over [mu_c, 1] is 1 - mu_c^2 = sin^2 theta_c).
     #[inline]
@@ -68,7 +69,8 @@ impl AngularModel {
         }
     }
 
-    /// The pieces of [0, 1] in mu on which the model is constant, for quadrature.
+    /// The pieces of [0, 1] in mu = cos(theta) (dimensionless) on which the model is
+    /// constant, for quadrature.
     pub fn mu_pieces(&self) -> Vec<(f64, f64)> {
         let c = self.cos_cut();
         if c > 0.0 && c < 1.0 {

@@ -74,6 +74,7 @@ pub enum Steady {
 }
 
 impl Steady {
+    /// The steady temperature [K], if one was found.
     pub fn temperature(&self) -> Option<f64> {
         match self {
             Steady::At(t) => Some(*t),
@@ -115,9 +116,9 @@ fn breaks(pieces: &[Piece]) -> Vec<f64> {
 
 /// The sky's hemispherical emissivity 2 integral_0^1 eps_sky(mu) mu dmu and the emitter's
 /// share of it, 2 integral_0^1 eps(mu) eps_sky(mu) mu dmu, for an emitter of normal
-/// emissivity `eps` under the sky `path`, both in closed form. The emitter's angular model
-/// is constant on each of its pieces [a, b] in mu, and for a layer of zenith optical depth
-/// tau
+/// emissivity `eps` (fraction) under the sky `path`, both in closed form and dimensionless.
+/// The emitter's angular model is constant on each of its pieces [a, b] in mu, and for a
+/// layer of zenith optical depth tau
 ///   2 integral_a^b (1 - e^(-tau/mu)) mu dmu = (b^2 - a^2) - 2 (b^2 E_3(tau/b) - a^2 E_3(tau/a)),
 /// since integral_a^b e^(-tau/mu) mu dmu = integral_{1/b}^{1/a} e^(-tau t) t^-3 dt and
 /// integral_c^inf e^(-tau t) t^-3 dt = c^-2 E_3(tau c) (A&S 5.1.4). Over the whole
@@ -145,8 +146,8 @@ pub fn sky_and_share(angular: &AngularModel, eps: f64, path: SkyPath) -> (f64, f
     }
 }
 
-/// The grid for a weight that is piecewise constant when both `a` and `b` are, and the
-/// method that it implies.
+/// The grid for a weight that is piecewise constant when both `a` and `b` are (pieces in
+/// [m]; `knots` [m] for the fine grid otherwise), and the method that it implies.
 pub fn grid_for(a: Option<Vec<Piece>>, b: Option<Vec<Piece>>, knots: &[f64]) -> (Grid, Method) {
     match (a, b) {
         (Some(a), Some(b)) => {
@@ -159,14 +160,16 @@ pub fn grid_for(a: Option<Vec<Piece>>, b: Option<Vec<Piece>>, knots: &[f64]) -> 
 }
 
 /// Hemispherical downwelling flux of a sky at ambient `ambient_k` [K], over sigma T_a^4:
-/// the sky's broadband emissivity (the space background included, which is negligible).
+/// the sky's broadband emissivity (dimensionless; the space background included, which is
+/// negligible).
 pub fn sky_broadband_emissivity(sky: &Sky, ambient_k: f64) -> f64 {
     let (grid, _) = grid_for(sky.constant_pieces(), Some(vec![]), &sky.knots());
     let w = grid.weights(|l| sky_hemispherical(sky, l, ambient_k));
     broadband(&grid, &w, ambient_k)
 }
 
-/// Downwelling flux over sigma T_a^4 for the sky's hemispherical emissivity `w` on `grid`.
+/// Downwelling flux over sigma T_a^4 (dimensionless) for the sky's hemispherical emissivity
+/// `w` on `grid`, at ambient `ambient_k` [K], the rest open to space at 3 K.
 fn broadband(grid: &Grid, w: &Weights, ambient_k: f64) -> f64 {
     let space = w.combine(w, |v, _| 1.0 - v);
     let down = grid.against_blackbody(w, ambient_k) + grid.against_blackbody(&space, SPACE_TEMPERATURE_K);
@@ -178,7 +181,8 @@ fn broadband(grid: &Grid, w: &Weights, ambient_k: f64) -> f64 {
     }
 }
 
-/// Hemispherical emissivity of the sky at one wavelength, 2 integral_0^1 eps_sky mu dmu.
+/// Hemispherical emissivity of the sky (dimensionless) at wavelength `lambda_m` [m] with air
+/// at `ambient_k` [K], 2 integral_0^1 eps_sky mu dmu.
 pub fn sky_hemispherical(sky: &Sky, lambda_m: f64, ambient_k: f64) -> f64 {
     sky_and_share(&AngularModel::Lambertian, 1.0, sky.along(lambda_m, ambient_k)).0
 }
@@ -223,7 +227,7 @@ impl Balance {
         }
     }
 
-    /// P_rad(T) [W m^-2] at surface temperature `temp_k` [K].
+    /// P_rad(T) [W m^-2] at surface temperature `temp_k` [K] (Raman et al. 2014, eq. 1).
     pub fn emitted(&self, temp_k: f64) -> f64 {
         self.grid.against_blackbody(&self.emit, temp_k)
     }
@@ -238,15 +242,17 @@ impl Balance {
         self.sun_absorbed
     }
 
-    /// The sky's broadband emissivity, downwelling flux / (sigma T_a^4).
+    /// The sky's broadband emissivity, downwelling flux / (sigma T_a^4) (dimensionless).
     pub fn sky_emissivity(&self) -> f64 {
         self.sky_emissivity
     }
 
+    /// Ambient air temperature [K].
     pub fn ambient_k(&self) -> f64 {
         self.ambient_k
     }
 
+    /// How the spectral integrals were done.
     pub fn method(&self) -> Method {
         self.method
     }
@@ -259,7 +265,7 @@ impl Balance {
         Parts { temp_k, emitted, sky_absorbed: self.sky_absorbed, sun_absorbed: self.sun_absorbed, parasitic, net }
     }
 
-    /// P_net(T) [W m^-2].
+    /// P_net(T) [W m^-2] at surface temperature `temp_k` [K] (Raman et al. 2014, eq. 1).
     pub fn net(&self, temp_k: f64) -> f64 {
         self.parts(temp_k).net
     }
@@ -269,7 +275,7 @@ impl Balance {
         temps_k.iter().map(|&t| self.parts(t)).collect()
     }
 
-    /// The steady temperature in [`STEADY_SEARCH_K`].
+    /// The steady temperature [K] in [`STEADY_SEARCH_K`].
     pub fn steady(&self) -> Steady {
         self.steady_between(STEADY_SEARCH_K.0, STEADY_SEARCH_K.1)
     }
@@ -319,6 +325,7 @@ impl Balance {
     }
 }
 
+/// `v` with NaN as 0 and infinities as +-f64::MAX (unit unchanged).
 fn finite(v: f64) -> f64 {
     if v.is_nan() {
         0.0

@@ -73,7 +73,8 @@ pub struct AbsorberBand {
     /// infinity holds the peak on that side (the rotational band's low-frequency side)
     pub width_below_cm: f64,
     pub width_above_cm: f64,
-    /// Malkmus overlap parameter beta; infinity for the weak-line (linear) limit
+    /// Malkmus overlap parameter beta (dimensionless); infinity for the weak-line (linear)
+    /// limit
     pub overlap: f64,
     /// whether the amount is the water column (true) or a fixed column (false)
     pub per_water: bool,
@@ -137,7 +138,8 @@ pub const BANDS: [AbsorberBand; 6] = [
     },
 ];
 
-/// Malkmus band-mean optical depth for weak-line optical depth `x` and overlap `beta`
+/// Malkmus band-mean optical depth (dimensionless) for weak-line optical depth `x` and
+/// overlap `beta` (both dimensionless)
 /// (Malkmus 1967): (beta/2) (sqrt(1 + 4x/beta) - 1), computed without cancellation as
 /// 2x / (1 + sqrt(1 + 4x/beta)).
 #[inline]
@@ -153,7 +155,8 @@ pub fn malkmus_optical_depth(x: f64, beta: f64) -> f64 {
 }
 
 impl AbsorberBand {
-    /// Band optical depth at wavenumber `nu_cm` [cm^-1] for water column `u_g_cm2` [g cm^-2].
+    /// Band optical depth (dimensionless) at wavenumber `nu_cm` [cm^-1] for water column
+    /// `u_g_cm2` [g cm^-2]: [`malkmus_optical_depth`] of the envelope k(nu) times the amount.
     pub fn optical_depth(&self, nu_cm: f64, u_g_cm2: f64) -> f64 {
         let d = nu_cm - self.centre_cm;
         let width = if d < 0.0 { self.width_below_cm } else { self.width_above_cm };
@@ -180,9 +183,10 @@ pub fn ground_vapour_pressure(pwv_m: f64, temp_k: f64) -> f64 {
     rho0 * (BOLTZMANN / WATER_MOLECULE_KG) * temp_k.max(0.0)
 }
 
-/// Zenith optical depth of the clear sky at wavelength `lambda_m` [m] for precipitable water
-/// `pwv_m` [m] (1 cm = 0.01 m) and ambient air temperature `ambient_k` [K]. Non-negative,
-/// finite for every finite input.
+/// Zenith optical depth (dimensionless) of the clear sky at wavelength `lambda_m` [m] for
+/// precipitable water `pwv_m` [m] (1 cm = 0.01 m) and ambient air temperature `ambient_k`
+/// [K]: continuum plus line bands, as in the module docs. Non-negative, finite for every
+/// finite input.
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn zenith_optical_depth(lambda_m: f64, pwv_m: f64, ambient_k: f64) -> f64 {
     if !(lambda_m > 0.0) {
@@ -202,8 +206,8 @@ pub fn zenith_optical_depth(lambda_m: f64, pwv_m: f64, ambient_k: f64) -> f64 {
     }
 }
 
-/// Wavenumbers [cm^-1] where the model's features sit (band centres and a few widths around
-/// them), as wavelengths [m], for integration grids.
+/// Where the model's features sit (band centres, and 1 and 3 envelope widths either side,
+/// placed in wavenumber [cm^-1]), as wavelengths [m], for integration grids.
 pub fn feature_wavelengths() -> Vec<f64> {
     let mut out = Vec::new();
     for b in BANDS.iter() {

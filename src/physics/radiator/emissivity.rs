@@ -39,7 +39,8 @@ pub type Piece = (f64, f64, f64);
 /// grid points; beyond 12 s the logistic is within e^-12 = 6e-6 of its asymptote.
 const EDGE_SPAN: i32 = 12;
 
-/// The logistic function 1 / (1 + e^-x), without overflow for any x.
+/// The logistic function 1 / (1 + e^-x) (x and the result dimensionless), without overflow
+/// for any x.
 #[inline]
 fn logistic(x: f64) -> f64 {
     if x >= 0.0 {
@@ -50,7 +51,8 @@ fn logistic(x: f64) -> f64 {
     }
 }
 
-/// 2 ln 9: the logistic rises from 0.1 to 0.9 over this many scale lengths.
+/// 2 ln 9 (dimensionless): the logistic rises from 0.1 to 0.9 over this many scale lengths
+/// (L(x) = 0.1 at x = -ln 9, 0.9 at x = ln 9).
 fn ten_to_ninety() -> f64 {
     2.0 * 9f64.ln()
 }
@@ -66,7 +68,7 @@ impl Profile {
         Profile::Window { from_m, to_m, inside: 1.0, outside: 0.0, edge_m: 0.0 }
     }
 
-    /// Emissivity (fraction 0-1) at wavelength `lambda_m` [m].
+    /// Emissivity (fraction 0-1) at wavelength `lambda_m` [m] (the formulas of [`Profile`]).
     pub fn at(&self, lambda_m: f64) -> f64 {
         let v = match self {
             Profile::Grey { emissivity } => *emissivity,
@@ -136,7 +138,8 @@ impl Profile {
 }
 
 /// Linear interpolation of n points (x, y) at `x`, in ln x when `log_axis`; the end values
-/// beyond the ends; 0 for an empty table.
+/// beyond the ends; 0 for an empty table. `x` in the unit of the table's x; the result in the
+/// unit of its y.
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 fn interpolate(n: usize, point: impl Fn(usize) -> (f64, f64), x: f64, log_axis: bool) -> f64 {
     if n == 0 {
@@ -174,6 +177,7 @@ fn interpolate(n: usize, point: impl Fn(usize) -> (f64, f64), x: f64, log_axis: 
 /// emitter's main profile from `below_m` up.
 #[derive(Debug, Clone, PartialEq)]
 pub struct SolarBand {
+    /// the split wavelength [m]
     pub below_m: f64,
     pub profile: Profile,
 }
@@ -200,13 +204,15 @@ impl Emitter {
         }
     }
 
-    /// Directional spectral emissivity at `lambda_m` [m] and mu = cos(theta).
+    /// Directional spectral emissivity (fraction 0-1) at `lambda_m` [m] and mu = cos(theta)
+    /// (dimensionless).
     #[inline]
     pub fn directional(&self, lambda_m: f64, mu: f64) -> f64 {
         self.angular.apply(self.normal(lambda_m), mu)
     }
 
-    /// Hemispherical spectral emissivity at `lambda_m` [m] (closed form in angle).
+    /// Hemispherical spectral emissivity (fraction 0-1) at `lambda_m` [m] (closed form in
+    /// angle, [`AngularModel::hemispherical`]).
     #[inline]
     pub fn hemispherical(&self, lambda_m: f64) -> f64 {
         self.angular.hemispherical(self.normal(lambda_m))
@@ -243,7 +249,7 @@ impl Emitter {
     }
 }
 
-/// The pieces restricted to [lo, hi], empty ones dropped.
+/// The pieces restricted to [`lo`, `hi`] [m], empty ones dropped.
 fn clip(pieces: &[Piece], lo: f64, hi: f64) -> Vec<Piece> {
     pieces.iter().map(|&(a, b, v)| (a.max(lo), b.min(hi), v)).filter(|(a, b, _)| b > a).collect()
 }

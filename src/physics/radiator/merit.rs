@@ -31,6 +31,7 @@ pub struct Figures {
     pub temp_k: f64,
 }
 
+/// num / den clamped to [0, 1] (dimensionless; both in one unit), 0 when undefined.
 fn ratio(num: f64, den: f64) -> f64 {
     if den > 0.0 && num.is_finite() {
         (num / den).clamp(0.0, 1.0)
@@ -39,7 +40,8 @@ fn ratio(num: f64, den: f64) -> f64 {
     }
 }
 
-/// Solar reflectance of an opaque emitter, AM1.5G-weighted at normal incidence.
+/// Solar reflectance (dimensionless) of an opaque emitter, AM1.5G-weighted (ASTM G173-03) at
+/// normal incidence: R_sol = 1 - absorbed / incident, as in the module docs.
 pub fn solar_reflectance(emitter: &Emitter) -> f64 {
     let sun = Source::am15g();
     let absorbed = weighted_irradiance(&sun, |l| emitter.normal(l), &emitter.knots());
@@ -51,19 +53,22 @@ fn emitter_grid(emitter: &Emitter) -> Grid {
     grid_for(emitter.constant_pieces(), Some(vec![]), &emitter.knots()).0
 }
 
-/// Normal thermal emittance at `temp_k` [K] (blackbody-weighted).
+/// Normal thermal emittance (dimensionless) at `temp_k` [K]: integral eps E_b dlambda /
+/// (sigma T^4).
 pub fn thermal_emittance(emitter: &Emitter, temp_k: f64) -> f64 {
     let g = emitter_grid(emitter);
     ratio(g.against_blackbody(&g.weights(|l| emitter.normal(l)), temp_k), stefan_boltzmann(temp_k))
 }
 
-/// Hemispherical thermal emittance at `temp_k` [K] (blackbody-weighted).
+/// Hemispherical thermal emittance (dimensionless) at `temp_k` [K]: integral eps_h E_b
+/// dlambda / (sigma T^4).
 pub fn hemispherical_emittance(emitter: &Emitter, temp_k: f64) -> f64 {
     let g = emitter_grid(emitter);
     ratio(g.against_blackbody(&g.weights(|l| emitter.hemispherical(l)), temp_k), stefan_boltzmann(temp_k))
 }
 
-/// Mean normal emissivity over 8-13 um, weighted by the blackbody at `temp_k` [K].
+/// Mean normal emissivity (dimensionless) over 8-13 um, weighted by the blackbody at
+/// `temp_k` [K].
 pub fn window_emissivity(emitter: &Emitter, temp_k: f64) -> f64 {
     let (lo, hi) = WINDOW_M;
     let in_window = |l: f64| l >= lo && l <= hi;
@@ -75,7 +80,7 @@ pub fn window_emissivity(emitter: &Emitter, temp_k: f64) -> f64 {
     ratio(grid.against_blackbody(&w, temp_k), band_power_wavelength(lo, hi, temp_k))
 }
 
-/// All figures at `temp_k` [K].
+/// All figures (dimensionless) at `temp_k` [K].
 pub fn figures(emitter: &Emitter, temp_k: f64) -> Figures {
     Figures {
         solar_reflectance: solar_reflectance(emitter),

@@ -38,7 +38,7 @@ pub struct Evaluation {
     /// the terms at the surface temperature asked for
     pub at_surface: Parts,
     pub steady: Steady,
-    /// broadband sky emissivity, downwelling flux / (sigma T_a^4)
+    /// broadband sky emissivity, downwelling flux / (sigma T_a^4) (dimensionless)
     pub sky_emissivity: f64,
     /// figures of merit, blackbody weighting at the surface temperature
     pub figures: Figures,

@@ -54,14 +54,16 @@ impl GaussRule {
         GaussRule { nodes, weights }
     }
 
-    /// Nodes and weights mapped onto [a, b]: (x, w) pairs with sum of w = b - a.
+    /// Nodes and weights mapped onto [a, b]: (x, w) pairs with sum of w = b - a (x and w in
+    /// the unit of a and b).
     pub fn on(&self, a: f64, b: f64) -> impl Iterator<Item = (f64, f64)> + '_ {
         let half = 0.5 * (b - a);
         let mid = 0.5 * (a + b);
         self.nodes.iter().zip(&self.weights).map(move |(&x, &w)| (mid + half * x, half * w))
     }
 
-    /// The integral of `f` over [a, b] by this rule.
+    /// The integral of `f` over [a, b] by this rule, in [unit of f x unit of a and b]
+    /// (A&S 25.4.29 on the mapped interval).
     pub fn integrate(&self, a: f64, b: f64, mut f: impl FnMut(f64) -> f64) -> f64 {
         self.on(a, b).map(|(x, w)| w * f(x)).sum()
     }

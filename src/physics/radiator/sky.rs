@@ -49,12 +49,13 @@ impl Transmittance {
 pub enum SkyPath {
     /// the same emissivity in every direction
     Isotropic(f64),
-    /// zenith optical depth tau: eps_sky(mu) = 1 - t^(1/mu) = 1 - e^(-tau/mu)
+    /// zenith optical depth tau (dimensionless): eps_sky(mu) = 1 - t^(1/mu) = 1 - e^(-tau/mu)
+    /// (Granqvist & Hjortsberg 1981)
     Depth(f64),
 }
 
 impl SkyPath {
-    /// Emissivity along mu = cos(zenith angle); mu is taken in (0, 1].
+    /// Emissivity (dimensionless) along mu = cos(zenith angle); mu is taken in (0, 1].
     #[inline]
     pub fn emissivity(&self, mu: f64) -> f64 {
         match self {
@@ -94,7 +95,8 @@ impl Sky {
         self.along(lambda_m, ambient_k).emissivity(mu)
     }
 
-    /// The sky at one wavelength [m], ready to be read in any direction.
+    /// The sky at wavelength `lambda_m` [m] with air at `ambient_k` [K], ready to be read in
+    /// any direction; a table's t gives tau = -ln t.
     pub fn along(&self, lambda_m: f64, ambient_k: f64) -> SkyPath {
         match self {
             Sky::Box { from_m, to_m } => {
@@ -113,7 +115,7 @@ impl Sky {
         }
     }
 
-    /// Zenith transmittance (fraction 0-1) at `lambda_m` [m].
+    /// Zenith transmittance (fraction 0-1) at `lambda_m` [m] with air at `ambient_k` [K].
     pub fn zenith_transmittance(&self, lambda_m: f64, ambient_k: f64) -> f64 {
         1.0 - self.emissivity(lambda_m, 1.0, ambient_k)
     }

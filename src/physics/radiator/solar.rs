@@ -70,7 +70,8 @@ pub fn weighted_irradiance(source: &Source, v: impl Fn(f64) -> f64, knots: &[f64
 
 impl Sun {
     /// Power absorbed from the sun [W m^-2] by a surface with directional absorptance
-    /// `absorptance(lambda, mu)` read at mu = cos(zenith).
+    /// `absorptance(lambda, mu)` (dimensionless; lambda [m], mu = cos theta) read at
+    /// mu = cos(zenith), the weight changing behaviour at `knots` [m].
     pub fn absorbed(&self, absorptance: impl Fn(f64, f64) -> f64, knots: &[f64]) -> f64 {
         let mu = self.zenith_rad.cos().clamp(0.0, 1.0);
         let scale = if self.scale.is_nan() { 0.0 } else { self.scale.max(0.0) };

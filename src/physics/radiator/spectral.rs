@@ -22,7 +22,7 @@ use std::f64::consts::PI;
 pub const GRID_FROM_M: f64 = 0.1e-6;
 /// Longest wavelength of the fine grid [m].
 pub const GRID_TO_M: f64 = 1e-3;
-/// Ratio between neighbouring grid points.
+/// Ratio between neighbouring grid points (dimensionless).
 pub const GRID_RATIO: f64 = 1.01;
 /// Most corners a grid takes in; a denser table is thinned evenly (corners beyond this
 /// many add nothing that the 1 % grid does not already resolve).
@@ -47,7 +47,8 @@ pub struct Weights {
 }
 
 impl Weights {
-    /// Weights from values in the grid's order (its `bands` first, then its nodes).
+    /// Weights (dimensionless) from values in the grid's order (its `bands` first, then its
+    /// nodes).
     pub fn from_samples(mut values: Vec<f64>, bands: usize) -> Weights {
         let nodes = values.split_off(bands.min(values.len()));
         Weights { bands: values, nodes }
@@ -60,6 +61,7 @@ impl Weights {
     }
 }
 
+/// The finite positive wavelengths of `v` [m], ascending, points within 1e-12 relative merged.
 fn sorted_unique(mut v: Vec<f64>) -> Vec<f64> {
     v.retain(|x| x.is_finite() && *x > 0.0);
     v.sort_by(f64::total_cmp);
@@ -67,7 +69,7 @@ fn sorted_unique(mut v: Vec<f64>) -> Vec<f64> {
     v
 }
 
-/// At most `most` of the sorted points, evenly spaced in index, ends kept.
+/// At most `most` of the sorted points (any unit), evenly spaced in index, ends kept.
 pub fn thinned(points: Vec<f64>, most: usize) -> Vec<f64> {
     let n = points.len();
     if n <= most || most < 2 {
@@ -77,7 +79,7 @@ pub fn thinned(points: Vec<f64>, most: usize) -> Vec<f64> {
 }
 
 impl Grid {
-    /// Bands between consecutive `breaks` over (0, inf), for a piecewise-constant weight.
+    /// Bands between consecutive `breaks` [m] over (0, inf), for a piecewise-constant weight.
     pub fn exact(breaks: &[f64]) -> Grid {
         let mut edges = vec![0.0];
         edges.extend(sorted_unique(breaks.to_vec()));
@@ -102,7 +104,7 @@ impl Grid {
     }
 
     /// The fine grid over (0, inf): nodes from [`GRID_FROM_M`] to [`GRID_TO_M`], refined at
-    /// `knots`, with exact tails.
+    /// `knots` [m], with exact tails.
     pub fn fine(knots: &[f64]) -> Grid {
         let mut g = Grid::fine_between(GRID_FROM_M, GRID_TO_M, knots);
         // tails take the value at their finite end
@@ -111,7 +113,7 @@ impl Grid {
         g
     }
 
-    /// The fine grid over [lo, hi] only [m], refined at `knots`.
+    /// The fine grid over [`lo`, `hi`] [m] only, refined at `knots` [m].
     pub fn fine_between(lo: f64, hi: f64, knots: &[f64]) -> Grid {
         if !(lo > 0.0 && hi > lo && hi.is_finite()) {
             return Grid::default();
@@ -136,7 +138,8 @@ impl Grid {
     }
 
     /// integral v(lambda) E_b(lambda, T) d lambda [W m^-2] for weights `w` on this grid at
-    /// temperature `temp_k` [K].
+    /// temperature `temp_k` [K]: exact band integrals (`planck::band_power_wavelength`) on the
+    /// bands, and pi B_lambda (Planck 1901) times the node weight [m] at the nodes.
     pub fn against_blackbody(&self, w: &Weights, temp_k: f64) -> f64 {
         let bands: f64 = self
             .bands

@@ -21,7 +21,7 @@ pub struct EfficiencyMap {
     pub top_gaps_j: Vec<f64>,
     /// bottom-cell gaps [J], the columns
     pub bottom_gaps_j: Vec<f64>,
-    /// efficiency (fraction) of row i, column k at index i * bottom_gaps_j.len() + k.
+    /// efficiency (dimensionless) of row i, column k at index i * bottom_gaps_j.len() + k.
     /// A point whose bottom gap is not below its top gap is not a stack and holds 0.
     pub efficiency: Vec<f64>,
 }
@@ -56,6 +56,7 @@ struct GapColumn {
     diode: Option<Diode>,
 }
 
+/// The per-gap pieces for every gap of `gaps_j` [J] under `light`, cells like `cell`.
 fn columns(light: &Illumination, cell: &Cell, pre: &ThermalPrefactor, gaps_j: &[f64]) -> Vec<GapColumn> {
     let q_x = CHARGE * light.concentration;
     gaps_j

@@ -22,7 +22,8 @@
 //!   P = max over 0 < J < min_i Jsc_i of J sum_i V_i(J), with V_i(J) the inverse of the
 //!   subcell's J-V curve ([`Diode::voltage_at_current`]). P(J) is concave there (each V_i is
 //!   a concave decreasing function of J), so its maximum is the one root of dP/dJ = 0,
-//!   found by Newton's method kept inside a bracket ([`series`]).
+//!   found by Newton's method kept inside a bracket ([`series`], which takes the limiting
+//!   subcell's voltage, one to one with J, as the variable).
 
 pub mod map;
 pub mod optimize;
@@ -44,6 +45,7 @@ pub enum Connection {
 }
 
 impl Connection {
+    /// A short name for display.
     pub fn label(self) -> &'static str {
         match self {
             Connection::Series => "series",
@@ -90,7 +92,7 @@ pub struct StackResult {
     pub pmax: f64,
     /// incident power (concentration included) [W m^-2]
     pub input: f64,
-    /// Pmax / input
+    /// Pmax / input (dimensionless)
     pub efficiency: f64,
     /// series: index of the subcell with the smallest Jsc (0 = top); independent: None
     pub limiting: Option<usize>,
@@ -106,7 +108,7 @@ pub fn gaps_are_valid(gaps_j: &[f64]) -> bool {
 }
 
 /// Photocurrents [A m^-2] of the subcells of `gaps_j` [J] (descending), top first: each
-/// absorbs between its gap and the gap above.
+/// absorbs between its gap and the gap above, Jsc_i of the module docs (De Vos 1980).
 pub fn subcell_photocurrents(light: &Illumination, gaps_j: &[f64]) -> Vec<f64> {
     let q_x = super::constants::CHARGE * light.concentration;
     let mut above = f64::INFINITY;
@@ -186,7 +188,8 @@ pub fn solve_stack(light: &Illumination, template: &Cell, gaps_j: &[f64], connec
     StackResult { connection, subcells, jsc, voc, pmax, input, efficiency, limiting }
 }
 
-/// The efficiency alone (no per-subcell figures): what the optimizer and the map evaluate.
+/// The efficiency alone (dimensionless; no per-subcell figures) of gaps `gaps_j` [J], top
+/// first: what the optimizer and the map evaluate.
 #[allow(clippy::neg_cmp_op_on_partial_ord, clippy::nonminimal_bool)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
 pub fn stack_efficiency(light: &Illumination, template: &Cell, gaps_j: &[f64], connection: Connection) -> f64 {
     let input = light.input_power();

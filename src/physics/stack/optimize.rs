@@ -64,6 +64,7 @@ pub const SEARCH_RANGE_EV: (f64, f64) = (0.2, 4.5);
 pub struct Optimum {
     /// gaps [J], top first
     pub gaps_j: Vec<f64>,
+    /// efficiency of that stack (dimensionless)
     pub efficiency: f64,
     /// number of stack evaluations used
     pub evaluations: u64,
@@ -103,6 +104,8 @@ impl Objective<'_, '_> {
         g
     }
 
+    /// The stack efficiency (dimensionless, 0 when not finite) for the free gaps `free` [J], any
+    /// order; counts one evaluation.
     fn efficiency(&mut self, free: &[f64]) -> f64 {
         self.count(1);
         let mut g = self.gaps(free);
@@ -120,7 +123,7 @@ impl Objective<'_, '_> {
     }
 }
 
-/// Bounds of the free variables.
+/// Bounds of the free variables [J].
 fn free_bounds(p: &Problem) -> (f64, f64) {
     let (lo, hi) = p.range_j;
     match p.fixed {
@@ -171,6 +174,7 @@ pub fn refine(p: &Problem, start: &[f64], step_j: f64) -> Optimum {
     Optimum { gaps_j: obj.gaps(&x), efficiency: e, evaluations: obj.evaluations }
 }
 
+/// The global search and polish of the module docs, optionally observed.
 fn search(p: &Problem, observer: Option<&mut dyn FnMut(u64)>) -> Optimum {
     let Some((n_free, lo, hi)) = free_part(p) else { return Optimum::default() };
     let mut obj = Objective { p, evaluations: 0, observer };
@@ -244,6 +248,8 @@ pub const POLISHED_STARTS: usize = 4;
 const GRID_1D_EV: f64 = 0.002;
 const GRID_2D_EV: f64 = 0.01;
 
+/// Evenly spaced gaps [J] from `lo` to `hi` [J], ends included, no further apart than
+/// `step_ev` [eV].
 fn grid_points(lo: f64, hi: f64, step_ev: f64) -> Vec<f64> {
     let step = step_ev * CHARGE;
     let n = (((hi - lo) / step).ceil() as usize).clamp(1, 100_000);
@@ -329,6 +335,7 @@ pub fn grid_maxima(tops_j: &[f64], bottoms_j: &[f64], eff: &[f64]) -> Vec<(Vec<f
 struct SplitMix(u64);
 
 impl SplitMix {
+    /// The next 64 random bits (SplitMix64 increment and mix).
     fn next_u64(&mut self) -> u64 {
         self.0 = self.0.wrapping_add(0x9E37_79B9_7F4A_7C15);
         let mut z = self.0;
@@ -340,6 +347,7 @@ impl SplitMix {
     fn unit(&mut self) -> f64 {
         (self.next_u64() >> 11) as f64 / (1u64 << 53) as f64
     }
+    /// uniform index in 0..n
     fn below(&mut self, n: usize) -> usize {
         (self.unit() * n as f64) as usize % n.max(1)
     }
@@ -352,7 +360,8 @@ const MAX_GENERATIONS: usize = 400;
 /// Stop once the population's efficiencies agree to this (absolute efficiency).
 const SPREAD_TOL: f64 = 1e-10;
 
-/// Differential evolution over `d` free gaps in [lo, hi]; returns the best few distinct
+/// Differential evolution (Storn & Price, J. Global Optim. 11, 341 (1997): DE/rand/1/bin,
+/// crossover 0.9) over `d` free gaps in [lo, hi] [J]; returns the best few distinct
 /// members of the last population, best first.
 fn evolve(obj: &mut Objective, d: usize, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
     let mut rng = SplitMix(EVOLUTION_SEED ^ (d as u64) << 8 ^ (obj.p.junctions as u64));
@@ -435,7 +444,8 @@ fn evolve(obj: &mut Objective, d: usize, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64
 }
 
 /// Simplex polish of a maximum from `x0` (efficiency `e0`), first steps `step` [J], inside
-/// [lo, hi]. Standard coefficients (reflection 1, expansion 2, contraction 1/2, shrink 1/2).
+/// [lo, hi] [J]. Standard coefficients (reflection 1, expansion 2, contraction 1/2, shrink 1/2;
+/// Nelder & Mead, Comput. J. 7, 308 (1965)).
 fn nelder_mead(obj: &mut Objective, x0: &[f64], e0: f64, step: f64, lo: f64, hi: f64) -> (Vec<f64>, f64) {
     let d = x0.len();
     let clamp = |x: Vec<f64>| x.into_iter().map(|v| v.clamp(lo, hi)).collect::<Vec<f64>>();

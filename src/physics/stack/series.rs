@@ -25,7 +25,7 @@ pub struct SeriesPoint {
     pub v: f64,
     /// power density [W m^-2]
     pub p: f64,
-    /// evaluations of the stack's power curve used
+    /// evaluations of the stack's power curve used (a count)
     pub evaluations: u32,
 }
 
@@ -46,7 +46,9 @@ pub fn max_power(diodes: &[Diode]) -> SeriesPoint {
 /// start for a neighbouring stack (the next point of a map).
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct SeriesHint {
+    /// index of the limiting subcell (0 = top)
     pub limiting: usize,
+    /// its reduced voltage m = qV/kT at the maximum (dimensionless)
     pub m: f64,
 }
 
@@ -83,7 +85,8 @@ fn solve(diodes: &[Diode], hint: Option<SeriesHint>, precise: bool) -> (SeriesPo
     }
     let s_l = limiting.thermal_voltage();
     // the other cells' reduced voltage near the expected current, Boltzmann estimate
-    // m_i(J) ~ m_oc,i + ln(1 - J/Jsc_i)
+    // m_i(J) ~ m_oc,i + ln(1 - J/Jsc_i), in units of the limiting cell's kT/q; j_guess
+    // [A m^-2] = Jsc_L m_oc/(1 + m_oc), near the limiting cell's own maximum-power current
     let j_guess = jmin * m_oc / (1.0 + m_oc);
     let c: f64 = diodes
         .iter()
