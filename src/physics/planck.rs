@@ -148,8 +148,9 @@ fn scaled_by_power_of_kt(band: f64, kt: f64, p: i32) -> f64 {
 }
 
 /// Spectral exitance of a black (Lambertian) surface per unit wavelength,
-/// M_lambda = pi B_lambda [W m^-2 m^-1] (radiance integrated over the hemisphere, Modest,
-/// Radiative Heat Transfer, 3rd ed., eq. 1.14). `lambda_m` [m], `temp_k` [K].
+/// M_lambda = pi B_lambda [W m^-2 m^-1]: a diffuse surface's radiance integrated over the
+/// hemisphere with cos(theta) d(Omega) gives pi times the radiance (Modest, Radiative Heat
+/// Transfer, ch. 1; equation number from memory not given). `lambda_m` [m], `temp_k` [K].
 pub fn exitance_per_wavelength(lambda_m: f64, temp_k: f64) -> f64 {
     PI * radiance_per_wavelength(lambda_m, temp_k)
 }

@@ -163,12 +163,7 @@ impl Source {
                     Quantity::Irradiance => v,
                     Quantity::PhotonFlux => v * e_j,
                 };
-                per_u
-                    * match axis {
-                        Axis::Wavelength => u * u / super::constants::HC,
-                        Axis::PhotonEnergy => 1.0,
-                        Axis::Wavenumber => 1.0 / super::constants::HC,
-                    }
+                per_u * super::spectrum::jacobian_per_energy(axis, u)
             }
             Source::BlackbodySun { temp_k } => {
                 // f pi B_E = f 2 pi E^3 / (h^3 c^2) / (e^(E/kT) - 1) [W m^-2 J^-1] (Planck 1901)
