@@ -6,12 +6,11 @@ use leptos::prelude::*;
 use wasm_bindgen_futures::JsFuture;
 
 use super::share::apply_scenario;
-use crate::app::state::{sentence, Ctx, Notice, NoticeKind};
+use crate::app::state::{sentence, Ctx, Notice, NoticeAction, NoticeKind};
+use crate::app::widgets::worker::{Background, WorkerReply};
 use crate::codec::open;
-use crate::formats::spectrum_csv::{parse_spectrum_csv, ColumnHints};
-use crate::formats::TableKind;
 use crate::scenario::{SourceSpec, TableSpec};
-use crate::view::hints::page_message;
+use crate::view::tables::{resample_offer, spectrum_for_page, PageTable};
 
 /// Largest file read [bytes].
 pub const MAX_FILE_BYTES: f64 = 32.0 * 1024.0 * 1024.0;
@@ -37,25 +36,18 @@ pub fn read_then(file: web_sys::File, then: impl FnOnce(String, Result<String, S
     });
 }
 
-/// A table's name from its file name.
-pub fn stem(name: &str) -> String {
-    let base = name.rsplit(['/', '\\']).next().unwrap_or(name);
-    let s = match base.rsplit_once('.') {
-        Some((a, _)) if !a.is_empty() => a,
-        _ => base,
-    };
-    let s: String = s.chars().filter(|c| !c.is_control()).take(60).collect();
-    if s.is_empty() {
-        "spectrum".into()
-    } else {
-        s
-    }
+/// Files larger than this are read in the background worker, so the page keeps drawing.
+const BACKGROUND_BYTES: usize = 1 << 20;
+
+thread_local! {
+    /// the worker reading a long file, kept until it answers
+    static READER: std::cell::RefCell<Option<Background>> = const { std::cell::RefCell::new(None) };
 }
 
 /// Read a spectrum file and make it the source.
 pub fn open_spectrum(ctx: Ctx, file: web_sys::File) {
     read_then(file, move |name, text| match text {
-        Ok(text) => use_spectrum_text(ctx, &name, &text),
+        Ok(text) => use_spectrum_text(ctx, &name, text),
         Err(e) => ctx.set_error(
             Control::Spectrum,
             format!("'{name}' was not loaded: {e}. The previous spectrum is still in use."),
@@ -63,23 +55,105 @@ pub fn open_spectrum(ctx: Ctx, file: web_sys::File) {
     });
 }
 
-pub fn use_spectrum_text(ctx: Ctx, file_name: &str, text: &str) {
-    let name = stem(file_name);
-    match parse_spectrum_csv(text, &ColumnHints::default(), &name) {
-        Ok(sp) => {
-            let table = TableSpec { name: name.clone(), axis: sp.axis().into(), quantity: sp.quantity().into(), x: sp.coordinates().to_vec(), y: sp.values().to_vec() };
-            let spec = SourceSpec::Table(table.clone());
-            if ctx.edit(Control::Spectrum, move |s| s.cell.spectrum = spec) {
-                ctx.user_table.set(Some(table));
-                ctx.clear_error(Control::Spectrum);
-            } else if let Some(msg) = ctx.errors.with_untracked(|e| e.get(&Control::Spectrum).cloned()) {
-                ctx.set_error(Control::Spectrum, format!("'{file_name}' was read but cannot be used: {msg} The previous spectrum is still in use."));
+/// Use the text of spectrum file `file_name`: read at once when short, in the background
+/// worker when long; a table longer than a link can carry is offered resampled.
+pub fn use_spectrum_text(ctx: Ctx, file_name: &str, text: String) {
+    if text.len() <= BACKGROUND_BYTES {
+        return spectrum_read(ctx, file_name, spectrum_for_page(&text, file_name));
+    }
+    ctx.status.set(Some(format!("Reading '{file_name}' ({:.1} MB) in the background…", text.len() as f64 / 1048576.0)));
+    let name = file_name.to_string();
+    let on_reply = {
+        let name = name.clone();
+        move |m: WorkerReply| {
+            if m.progress.is_some() {
+                return;
+            }
+            READER.with(|r| r.borrow_mut().take().map(|w| w.stop()));
+            let outcome = match (m.reply, m.failed) {
+                (Some(reply), _) => serde_json::from_str::<Result<PageTable, String>>(&reply)
+                    .unwrap_or_else(|_| Err("the background reader gave no readable answer".into())),
+                (None, Some(f)) => Err(format!("the background reader failed ({f})")),
+                _ => Err("the background reader gave no answer".into()),
+            };
+            ctx.status.set(None);
+            spectrum_read(ctx, &name, outcome);
+        }
+    };
+    let on_error = {
+        let name = name.clone();
+        move |msg: String| {
+            READER.with(|r| r.borrow_mut().take().map(|w| w.stop()));
+            ctx.status.set(None);
+            spectrum_read(ctx, &name, Err(format!("the background reader stopped ({msg})")));
+        }
+    };
+    match Background::start(on_reply, on_error) {
+        Ok(w) => {
+            if w.post(1, "glowgap_read_spectrum", &name, &text) {
+                READER.with(|r| {
+                    if let Some(old) = r.borrow_mut().replace(w) {
+                        old.stop();
+                    }
+                });
+            } else {
+                w.stop();
+                spectrum_read(ctx, &name, spectrum_for_page(&text, &name));
+            }
+        }
+        // no worker in this browser: read it here
+        Err(_) => spectrum_read(ctx, &name, spectrum_for_page(&text, &name)),
+    }
+}
+
+/// Entry point for the background worker (`app::widgets::worker`): read spectrum file `job`
+/// (its name) with contents `text`. Returns JSON, `{"Ok": table}` or `{"Err": text}`.
+#[wasm_bindgen::prelude::wasm_bindgen]
+pub fn glowgap_read_spectrum(job: &str, text: &str, _progress: &js_sys::Function) -> String {
+    serde_json::to_string(&spectrum_for_page(text, job))
+        .unwrap_or_else(|_| "{\"Err\":\"the table could not be written\"}".into())
+}
+
+/// What happened to a spectrum file: used, offered resampled, or refused with the reason.
+fn spectrum_read(ctx: Ctx, file_name: &str, outcome: Result<PageTable, String>) {
+    match outcome {
+        Ok(t) if t.resampled => {
+            ctx.clear_error(Control::Spectrum);
+            let label = format!("Use it at {} points", crate::view::input::thousands(t.table.x.len() as f64));
+            ctx.notify(Notice {
+                kind: NoticeKind::Resample,
+                text: format!("{} The previous spectrum is in use until you choose.", resample_offer(file_name, &t)),
+                alert: false,
+                action: Some(NoticeAction::UseSpectrum(Box::new(t.table), label)),
+            });
+        }
+        Ok(t) => {
+            if !use_table(ctx, t.table) {
+                if let Some(msg) = ctx.errors.with_untracked(|e| e.get(&Control::Spectrum).cloned()) {
+                    ctx.set_error(
+                        Control::Spectrum,
+                        format!("'{file_name}' was read but cannot be used: {msg} The previous spectrum is still in use."),
+                    );
+                }
             }
         }
         Err(e) => ctx.set_error(
             Control::Spectrum,
-            format!("'{file_name}' was not loaded — {}. Fix the file and load it again; the previous spectrum is still in use.", page_message(&e, TableKind::Spectrum)),
+            format!("'{file_name}' was not loaded — {e}. Fix the file and load it again; the previous spectrum is still in use."),
         ),
+    }
+}
+
+/// Make `table` the light source (checked as every edit is); returns whether it was taken.
+pub fn use_table(ctx: Ctx, table: TableSpec) -> bool {
+    let spec = SourceSpec::Table(table.clone());
+    if ctx.edit(Control::Spectrum, move |s| s.cell.spectrum = spec) {
+        ctx.user_table.set(Some(table));
+        ctx.clear_error(Control::Spectrum);
+        ctx.dismiss(NoticeKind::Resample);
+        true
+    } else {
+        false
     }
 }
 

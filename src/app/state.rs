@@ -24,6 +24,8 @@ pub enum NoticeKind {
     Save,
     /// saved work that can be put back
     Restore,
+    /// a long spectrum file offered resampled
+    Resample,
 }
 
 impl NoticeKind {
@@ -35,6 +37,7 @@ impl NoticeKind {
             NoticeKind::File => "file",
             NoticeKind::Save => "save",
             NoticeKind::Restore => "restore",
+            NoticeKind::Resample => "resample",
         }
     }
 }
@@ -53,6 +56,8 @@ pub struct Notice {
 pub enum NoticeAction {
     /// put this scenario back (e.g. the saved work that a link replaced)
     Restore(Box<Scenario>, &'static str),
+    /// make this table the light source (a long file, resampled)
+    UseSpectrum(Box<crate::scenario::TableSpec>, String),
 }
 
 /// Shared handles; all are cheap to copy.

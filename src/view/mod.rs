@@ -16,3 +16,4 @@ pub mod radiator;
 pub mod resample;
 pub mod spectrum;
 pub mod stack;
+pub mod tables;

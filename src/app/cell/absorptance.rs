@@ -13,7 +13,7 @@ use plotters::coord::Shift;
 use plotters::prelude::*;
 
 use super::state::{CellState, ABSORPTANCE};
-use crate::app::import::{read_then, stem};
+use crate::app::import::read_then;
 use crate::app::state::{sentence, Ctx};
 use crate::app::widgets::fields::{drop_zone, number_field, Field};
 use crate::app::widgets::plot::{chart, err, palette, tick_target, AxisSpec, Drawing, Frame, Look};
@@ -24,6 +24,7 @@ use crate::scenario::stack::{AbsorberSpec, EqeTableSpec};
 use crate::view::cell::absorber::{AbsorberKind, AbsorberView};
 use crate::view::format::{self as fmt, fixed};
 use crate::view::input::{ev_of_nm, parse_number};
+use crate::view::tables::stem;
 
 /// Make `spec` the single cell's absorptance, if the scenario accepts it for the cell's gap
 /// and temperature; otherwise say why under `hook`.

@@ -5,13 +5,14 @@
 use crate::view::controls::Control;
 use leptos::prelude::*;
 
-use crate::app::import::{read_then, stem};
+use crate::app::import::read_then;
 use crate::app::radiator::state::RadiatorState;
 use crate::app::state::Ctx;
 use crate::formats::emissivity_csv::{parse_emissivity_csv, parse_transmittance_csv, OpticalHints, OpticalTable};
 use crate::formats::TableKind;
 use crate::scenario::radiator::{EmissivityTable, EmitterSpec, SkySpec, TransmittanceTable};
 use crate::view::hints::page_message;
+use crate::view::tables::stem;
 
 /// Make `apply(table)` the scenario's, or say under `hook` why the file cannot be used.
 fn use_table(

@@ -8,15 +8,13 @@ use crate::view::controls::Control;
 use std::cell::RefCell;
 
 use leptos::prelude::*;
-use serde::Deserialize;
-use wasm_bindgen::closure::Closure;
-use wasm_bindgen::{JsCast, JsValue};
 
 use super::worker::SearchReply;
 use super::{set_gaps, StackState};
 use crate::app::state::{mark, sentence, Ctx};
 use crate::app::widgets::card::range_input;
 use crate::app::widgets::fields::{gap_keys, number_field, Field};
+use crate::app::widgets::worker::{Background, WorkerReply};
 use crate::report::stack::StackMetric;
 use crate::scenario::stack::{check_gaps, OptimizeSettings};
 use crate::scenario::Connection;
@@ -52,30 +50,6 @@ impl SearchState {
 
 /// The worker's script: it loads the app's module (the page's own, from the cache) and runs
 /// one search per message.
-const WORKER_SCRIPT: &str = r#"'use strict';
-// Glowgap's gap search, off the page: load the app's module once, then search per message.
-let ready = null;
-self.onmessage = async (e) => {
-  const msg = JSON.parse(e.data);
-  try {
-    if (!ready) ready = import(msg.module).then(async (m) => { await m.default({ module_or_path: msg.wasm }); return m; });
-    const m = await ready;
-    const reply = m.glowgap_stack_search(msg.job, (n) => self.postMessage(JSON.stringify({ id: msg.id, progress: n })));
-    self.postMessage(JSON.stringify({ id: msg.id, reply }));
-  } catch (err) {
-    self.postMessage(JSON.stringify({ id: msg.id, failed: String((err && err.message) || err) }));
-  }
-};
-"#;
-
-#[derive(Deserialize)]
-struct Message {
-    id: u64,
-    progress: Option<f64>,
-    reply: Option<String>,
-    failed: Option<String>,
-}
-
 /// What a search was started for: its answer is used only if these still hold.
 struct Started {
     id: u64,
@@ -89,9 +63,7 @@ struct Started {
 }
 
 struct Runner {
-    worker: web_sys::Worker,
-    _on_message: Closure<dyn FnMut(web_sys::MessageEvent)>,
-    _on_error: Closure<dyn FnMut(web_sys::Event)>,
+    worker: Background,
     job: Option<Started>,
 }
 
@@ -104,63 +76,20 @@ fn now() -> f64 {
     web_sys::window().and_then(|w| w.performance()).map(|p| p.now()).unwrap_or(0.0)
 }
 
-/// The absolute URLs of the app's JavaScript module and of its WebAssembly (the ones the
-/// page itself loads; the build gives them hashed names).
-fn module_urls() -> Option<(String, String)> {
-    let window = web_sys::window()?;
-    let doc = window.document()?;
-    let base = window.location().href().ok()?;
-    let attr = |sel: &str| doc.query_selector(sel).ok().flatten().and_then(|l| l.get_attribute("href"));
-    let js = attr("link[rel=\"modulepreload\"][href$=\".js\"]").or_else(|| {
-        // the page's loader script: import init, * as bindings from './glowgap-….js'
-        let script = doc.query_selector("script[type=\"module\"]").ok().flatten()?.inner_html();
-        let start = script.find("from '")? + 6;
-        let end = script[start..].find('\'')? + start;
-        Some(script[start..end].to_string())
-    })?;
-    let wasm = attr("link[rel=\"preload\"][href$=\".wasm\"]")
-        .unwrap_or_else(|| js.trim_end_matches(".js").to_string() + "_bg.wasm");
-    let abs = |u: &str| web_sys::Url::new_with_base(u, &base).ok().map(|u| u.href());
-    Some((abs(&js)?, abs(&wasm)?))
-}
-
 fn new_worker(stack: StackState) -> Result<Runner, String> {
-    let parts = js_sys::Array::of1(&JsValue::from_str(WORKER_SCRIPT));
-    let opts = web_sys::BlobPropertyBag::new();
-    opts.set_type("text/javascript");
-    let blob = web_sys::Blob::new_with_str_sequence_and_options(&parts, &opts)
-        .map_err(|_| "the browser could not make the worker's script")?;
-    let url = web_sys::Url::create_object_url_with_blob(&blob)
-        .map_err(|_| "the browser could not make the worker's script")?;
-    let wo = web_sys::WorkerOptions::new();
-    wo.set_type(web_sys::WorkerType::Module);
-    let worker = web_sys::Worker::new_with_options(&url, &wo)
-        .map_err(|_| "this browser cannot start a background worker for the search")?;
-    let _ = web_sys::Url::revoke_object_url(&url);
-    let on_message = Closure::<dyn FnMut(web_sys::MessageEvent)>::new(move |e: web_sys::MessageEvent| {
-        if let Some(text) = e.data().as_string() {
-            if let Ok(m) = serde_json::from_str::<Message>(&text) {
-                on_message(stack, m);
-            }
-        }
-    });
-    let on_error = Closure::<dyn FnMut(web_sys::Event)>::new(move |e: web_sys::Event| {
-        e.prevent_default();
-        let msg = js_sys::Reflect::get(&e, &JsValue::from_str("message"))
-            .ok()
-            .and_then(|m| m.as_string())
-            .unwrap_or_default();
-        fail(
-            stack,
-            format!(
-                "The search stopped: the background worker failed{}.",
-                if msg.is_empty() { String::new() } else { format!(" ({msg})") }
-            ),
-        );
-    });
-    worker.set_onmessage(Some(on_message.as_ref().unchecked_ref()));
-    worker.set_onerror(Some(on_error.as_ref().unchecked_ref()));
-    Ok(Runner { worker, _on_message: on_message, _on_error: on_error, job: None })
+    let worker = Background::start(
+        move |m| on_message(stack, m),
+        move |msg| {
+            fail(
+                stack,
+                format!(
+                    "The search stopped: the background worker failed{}.",
+                    if msg.is_empty() { String::new() } else { format!(" ({msg})") }
+                ),
+            )
+        },
+    )?;
+    Ok(Runner { worker, job: None })
 }
 
 fn fail(stack: StackState, text: String) {
@@ -171,11 +100,11 @@ fn fail(stack: StackState, text: String) {
 /// End the worker, if any (cancel, or the panel going away).
 pub fn stop() {
     if let Some(r) = RUNNER.with(|r| r.borrow_mut().take()) {
-        r.worker.terminate();
+        r.worker.stop();
     }
 }
 
-fn on_message(stack: StackState, m: Message) {
+fn on_message(stack: StackState, m: WorkerReply) {
     let current = RUNNER.with(|r| r.borrow().as_ref().and_then(|r| r.job.as_ref().map(|j| j.id)));
     if current != Some(m.id) {
         return;
@@ -276,12 +205,6 @@ pub fn start(stack: StackState) {
         ctx.set_error(Control::Optimize, sentence(&e));
         return;
     }
-    let Some((module, wasm)) = module_urls() else {
-        stack
-            .search
-            .set(SearchState::Failed("The search could not find the app's module to run in the background.".into()));
-        return;
-    };
     let have = RUNNER.with(|r| r.borrow().is_some());
     if !have {
         match new_worker(stack) {
@@ -299,8 +222,7 @@ pub fn start(stack: StackState) {
     let before = stack.view.with_untracked(|v| {
         v.as_ref().map(|v| v.report.display(StackMetric::Efficiency)).unwrap_or_else(|| "—".into())
     });
-    let msg =
-        serde_json::json!({ "id": id, "module": module, "wasm": wasm, "job": crate::codec::to_json(&s) }).to_string();
+    let job = crate::codec::to_json(&s);
     let posted = RUNNER.with(|r| {
         let mut r = r.borrow_mut();
         let r = r.as_mut()?;
@@ -312,7 +234,7 @@ pub fn start(stack: StackState) {
             fix: (s.stack.optimize.fix_ev, s.stack.optimize.fix_at),
             before,
         });
-        Some(r.worker.post_message(&JsValue::from_str(&msg)).is_ok())
+        Some(r.worker.post(id, "glowgap_stack_search", &job, ""))
     });
     if posted != Some(true) {
         fail(stack, "The search could not be handed to the background worker.".into());

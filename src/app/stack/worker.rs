@@ -67,10 +67,11 @@ pub fn run(job: &str, progress: &mut dyn FnMut(u64)) -> Result<SearchReply, Stri
     })
 }
 
-/// Entry point for the worker: `job` is a scenario document; `progress(n)` is called with
-/// the number of stacks evaluated so far. Returns JSON, `{"Ok": reply}` or `{"Err": text}`.
+/// Entry point for the background worker (`app::widgets::worker`): `job` is a scenario
+/// document (`_text` is unused); `progress(n)` is called with the number of stacks evaluated
+/// so far. Returns JSON, `{"Ok": reply}` or `{"Err": text}`.
 #[wasm_bindgen]
-pub fn glowgap_stack_search(job: &str, progress: &js_sys::Function) -> String {
+pub fn glowgap_stack_search(job: &str, _text: &str, progress: &js_sys::Function) -> String {
     let mut tell = |n: u64| {
         let _ = progress.call1(&JsValue::NULL, &JsValue::from_f64(n as f64));
     };

@@ -10,3 +10,4 @@ pub mod export;
 pub mod fields;
 pub mod notices;
 pub mod plot;
+pub mod worker;

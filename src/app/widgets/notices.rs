@@ -19,13 +19,26 @@ pub fn notices(ctx: Ctx) -> impl IntoView {
                     .map(|n| {
                         let kind = n.kind;
                         let role = if n.alert { "alert" } else { "status" };
-                        let action = n.action.map(|NoticeAction::Restore(s, label)| {
-                            let s = *s;
-                            view! {
-                                <button type="button" class="small" data-action=format!("{}-restore", kind.as_str()) on:click=move |_| {
-                                    apply_scenario(ctx, s.clone());
-                                    ctx.dismiss(kind);
-                                }>{label}</button>
+                        let action = n.action.map(|a| match a {
+                            NoticeAction::Restore(s, label) => {
+                                let s = *s;
+                                view! {
+                                    <button type="button" class="small" data-action=format!("{}-restore", kind.as_str()) on:click=move |_| {
+                                        apply_scenario(ctx, s.clone());
+                                        ctx.dismiss(kind);
+                                    }>{label}</button>
+                                }
+                                .into_any()
+                            }
+                            NoticeAction::UseSpectrum(t, label) => {
+                                let t = *t;
+                                view! {
+                                    <button type="button" class="small" data-action=format!("{}-use", kind.as_str()) on:click=move |_| {
+                                        crate::app::import::use_table(ctx, t.clone());
+                                        ctx.dismiss(kind);
+                                    }>{label}</button>
+                                }
+                                .into_any()
                             }
                         });
                         view! {
