@@ -3,6 +3,7 @@
 //! reciprocity (radiative, and with the cell's ERE) are shown next to those of an ideal step
 //! at the same absorption edge, with the absorptance itself against the step.
 
+use crate::app::widgets::plot::Backend;
 use crate::report::CellMetric;
 use crate::view::controls::Control;
 use std::rc::Rc;
@@ -73,7 +74,7 @@ pub struct AbsorptancePlot<'a> {
 }
 
 impl Drawing for AbsorptancePlot<'_> {
-    fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String> {
+    fn draw(&self, root: &DrawingArea<Backend<'_>, Shift>, look: &Look) -> Result<Frame, String> {
         root.fill(&WHITE).map_err(err)?;
         let (w, h) = root.dim_in_pixel();
         let pts: Vec<(f64, f64)> = self.a.points.iter().map(|(e, q)| (ev_of_nm(1.0) / e, q * 100.0)).collect();

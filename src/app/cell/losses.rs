@@ -3,6 +3,7 @@
 //! thermalization, emission, Carnot, Boltzmann, delivered). Clicking the areas moves the
 //! single cell's gap.
 
+use crate::app::widgets::plot::Backend;
 use crate::view::controls::Control;
 use std::fmt::Write;
 use std::rc::Rc;
@@ -80,7 +81,7 @@ pub struct LossPlot<'a> {
 }
 
 impl Drawing for LossPlot<'_> {
-    fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String> {
+    fn draw(&self, root: &DrawingArea<Backend<'_>, Shift>, look: &Look) -> Result<Frame, String> {
         root.fill(&WHITE).map_err(err)?;
         draw_caption(root, look)?;
         let (w, h) = root.dim_in_pixel();

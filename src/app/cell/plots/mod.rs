@@ -5,6 +5,7 @@ pub mod efficiency;
 pub mod jv;
 pub mod spectrum;
 
+use crate::app::widgets::plot::Backend;
 use plotters::coord::Shift;
 use plotters::prelude::*;
 
@@ -47,7 +48,7 @@ pub struct CellPlot<'a> {
 }
 
 impl Drawing for CellPlot<'_> {
-    fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String> {
+    fn draw(&self, root: &DrawingArea<Backend<'_>, Shift>, look: &Look) -> Result<Frame, String> {
         match self.kind {
             PlotKind::Spectrum => spectrum::draw(root, self.c, look),
             PlotKind::Efficiency => efficiency::draw(root, self.c, look),

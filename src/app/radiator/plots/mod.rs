@@ -6,6 +6,7 @@ pub mod balance;
 pub mod curve;
 pub mod editor;
 
+use crate::app::widgets::plot::Backend;
 use plotters::coord::Shift;
 use plotters::prelude::*;
 
@@ -22,7 +23,7 @@ pub struct RadPlot<'a> {
 }
 
 impl Drawing for RadPlot<'_> {
-    fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String> {
+    fn draw(&self, root: &DrawingArea<Backend<'_>, Shift>, look: &Look) -> Result<Frame, String> {
         match self.slot {
             Slot::Editor => editor::draw(root, self.c, self.selected, look),
             Slot::Balance => balance::draw(root, self.c, look),

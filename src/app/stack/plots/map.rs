@@ -3,6 +3,7 @@
 //! labels placed clear of each other; on the page its base layer is cached in an offscreen
 //! canvas so a gap edit redraws only the markers and labels.
 
+use crate::app::widgets::plot::Backend;
 use std::cell::RefCell;
 
 use plotters::coord::Shift;
@@ -150,7 +151,7 @@ pub struct MapPlot<'a> {
 }
 
 impl Drawing for MapPlot<'_> {
-    fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String> {
+    fn draw(&self, root: &DrawingArea<Backend<'_>, Shift>, look: &Look) -> Result<Frame, String> {
         let frame = self.draw_base(root, look)?;
         self.draw_design(root, look, &frame)?;
         Ok(frame)
@@ -161,7 +162,7 @@ impl Drawing for MapPlot<'_> {
 struct MapBase<'a>(&'a MapPlot<'a>);
 
 impl Drawing for MapBase<'_> {
-    fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String> {
+    fn draw(&self, root: &DrawingArea<Backend<'_>, Shift>, look: &Look) -> Result<Frame, String> {
         self.0.draw_base(root, look)
     }
 }
@@ -494,7 +495,7 @@ pub fn draw_on_page(canvas: &web_sys::HtmlCanvasElement, plot: &MapPlot) -> Resu
     };
     let backend = plotters_canvas::CanvasBackend::with_canvas_object(canvas.clone())
         .ok_or("this browser gave no 2D drawing context for the map")?;
-    let root = backend.into_drawing_area();
+    let root = crate::app::widgets::plot::Backend::Canvas(backend).into_drawing_area();
     plot.draw_design(&root, &Look::screen(dpr), &frame)?;
     root.present().map_err(err)?;
     Ok(Some(frame))

@@ -3,6 +3,7 @@
 //! keys select one); a drag moves the marker nearest to the pointer, kept between its
 //! neighbours.
 
+use crate::app::widgets::plot::Backend;
 use plotters::coord::Shift;
 use plotters::prelude::*;
 
@@ -82,7 +83,7 @@ fn tag_rows(look: &Look, tags: &[(&str, i32)], min_x: i32, max_x: i32) -> Vec<us
 }
 
 impl Drawing for SpectrumPlot<'_> {
-    fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String> {
+    fn draw(&self, root: &DrawingArea<Backend<'_>, Shift>, look: &Look) -> Result<Frame, String> {
         root.fill(&WHITE).map_err(err)?;
         draw_caption(root, look)?;
         let (w, h) = root.dim_in_pixel();

@@ -6,8 +6,11 @@
 //! Tick positions and labels are computed here (not left to plotters) and the label areas
 //! are sized from measured label widths, so no label is ever cut off.
 
+pub mod backend;
 pub mod measure;
 pub mod render;
+
+pub use backend::Backend;
 
 use plotters::coord::Shift;
 use plotters::prelude::*;
@@ -18,7 +21,9 @@ use crate::view::format::{axis_exponent, field, fixed, nice_step, nice_ticks, su
 /// Something that draws itself as a plot on any backend (the page's canvas, a PNG, an
 /// SVG) and says where its axes landed.
 pub trait Drawing {
-    fn draw<DB: DrawingBackend>(&self, root: &DrawingArea<DB, Shift>, look: &Look) -> Result<Frame, String>;
+    /// Draw on `root` (the page's canvas or an SVG document, behind one type) and say where
+    /// the axes landed.
+    fn draw(&self, root: &DrawingArea<Backend<'_>, Shift>, look: &Look) -> Result<Frame, String>;
 }
 
 /// Colours of the plots (RGB).

@@ -5,7 +5,7 @@ use plotters_canvas::CanvasBackend;
 use wasm_bindgen::JsCast;
 use web_sys::HtmlCanvasElement;
 
-use super::{err, Drawing, Frame, Look};
+use super::{err, Backend, Drawing, Frame, Look};
 
 /// Size of exported PNG files [px] and the scale of their type.
 pub const PNG_SIZE: (u32, u32) = (1600, 1000);
@@ -39,7 +39,7 @@ pub fn draw_on_canvas(canvas: &HtmlCanvasElement, plot: &impl Drawing) -> Result
     }
     let backend = CanvasBackend::with_canvas_object(canvas.clone())
         .ok_or("this browser gave no 2D drawing context for the plot")?;
-    let root = backend.into_drawing_area();
+    let root = Backend::Canvas(backend).into_drawing_area();
     let frame = plot.draw(&root, &Look::screen(dpr))?;
     root.present().map_err(err)?;
     Ok(Some(frame))
@@ -58,7 +58,7 @@ pub fn png_data_url(plot: &impl Drawing, caption: String) -> Result<String, Stri
     {
         let backend =
             CanvasBackend::with_canvas_object(canvas.clone()).ok_or("this browser gave no 2D drawing context")?;
-        let root = backend.into_drawing_area();
+        let root = Backend::Canvas(backend).into_drawing_area();
         plot.draw(&root, &Look { scale: PNG_SCALE, caption: Some(caption), legend: true })?;
         root.present().map_err(err)?;
     }
@@ -69,7 +69,7 @@ pub fn png_data_url(plot: &impl Drawing, caption: String) -> Result<String, Stri
 pub fn svg_text(plot: &impl Drawing, caption: String) -> Result<String, String> {
     let mut out = String::new();
     {
-        let root = SVGBackend::with_string(&mut out, SVG_SIZE).into_drawing_area();
+        let root = Backend::Svg(SVGBackend::with_string(&mut out, SVG_SIZE)).into_drawing_area();
         plot.draw(&root, &Look { scale: SVG_SCALE, caption: Some(caption), legend: true })?;
         root.present().map_err(err)?;
     }
