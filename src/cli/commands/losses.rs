@@ -46,14 +46,7 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     let gaps_ev: Vec<f64> = match (gap, range) {
         (Some(g), [None, None, None]) => vec![g],
         (None, [Some(a), Some(b), Some(s)]) => {
-            check_gap_grid(a, b, s)?;
-            let n = ((b - a) / s).round();
-            if n + 1.0 > 100_000.0 {
-                return Err(Failure::Usage(format!(
-                    "that range has {} points; the most is 100000: use a larger --step",
-                    n + 1.0
-                )));
-            }
+            let n = check_gap_grid(a, b, s)?;
             (0..=n as usize).map(|i| if i == n as usize { b } else { a + s * i as f64 }).collect()
         }
         _ => {
