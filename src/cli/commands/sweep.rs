@@ -6,7 +6,7 @@
 
 use crate::cli::args::{OptionDoc, Spec};
 use crate::cli::shared::options::{apply_common, check_gap_grid, with_light_and_cell_options};
-use crate::cli::shared::output::warn;
+use crate::cli::shared::output::{json_text, warn};
 use crate::cli::shared::{Command, Failure, Out};
 use crate::physics::constants::ev;
 use crate::physics::junction::{best_gap, sweep, Cell, CellResult};
@@ -86,11 +86,11 @@ fn write_sweep(
                 if i > 0 {
                     write!(buf, ",")?;
                 }
-                serde_json::to_writer(&mut buf, &CellReport::from(r)).map_err(std::io::Error::other)?;
+                write!(buf, "{}", json_text(&CellReport::from(r)))?;
             }
             write!(buf, "],\"best\":")?;
         }
-        serde_json::to_writer(&mut buf, &best_r).map_err(std::io::Error::other)?;
+        write!(buf, "{}", json_text(&best_r))?;
         writeln!(buf, "}}")?;
         return buf.flush();
     }

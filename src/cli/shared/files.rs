@@ -102,12 +102,12 @@ pub fn open_scenario(what: &str) -> Result<(Scenario, Vec<String>), String> {
     };
     let text = if what == "-" {
         read_limited(std::io::stdin().lock(), 0, MAX_SCENARIO_BYTES, SCENARIO_FIX)
-            .map_err(|e| format!("standard input: {e}; give a share link or a scenario file"))?
+            .map_err(|e| format!("standard input: {e}"))?
     } else if looks_like_link(what) && !std::path::Path::new(what).exists() {
         what.to_string()
     } else {
         read_text_within(what, "scenario file", MAX_SCENARIO_BYTES, SCENARIO_FIX)
-            .map_err(|e| format!("{e}; give a share link, a scenario file or - for standard input"))?
+            .map_err(|e| if e.contains(SCENARIO_FIX) { e } else { format!("{e}; {SCENARIO_FIX}") })?
             .0
     };
     let mut scenario = codec::decode(&text).map_err(|e| e.to_string())?;
@@ -148,23 +148,18 @@ const MAX_SCENARIO_BYTES: u64 = {
     }
 };
 
-/// What to give instead of a scenario file that is too large.
-const SCENARIO_FIX: &str =
-    "no Glowgap link or scenario file is that large: give a share link or a scenario file saved by Glowgap";
+/// What to give instead of a scenario file that is too large or not text.
+const SCENARIO_FIX: &str = "give a share link, a scenario file saved by Glowgap, or - to read one from standard input";
 
-/// The text of a data file and its name (the file name without folders); at most
-/// [`MAX_DATA_FILE_BYTES`].
-fn read_text(path: &str, what: &str) -> Result<(String, String), String> {
-    read_text_within(
-        path,
-        what,
-        MAX_DATA_FILE_BYTES,
-        "thin the table (e.g. keep every second line) or shorten its range",
-    )
+/// The text of a data file holding a `kind` table and its name (the file name without
+/// folders); at most [`MAX_DATA_FILE_BYTES`].
+fn read_text(path: &str, what: &str, kind: TableKind) -> Result<(String, String), String> {
+    let fix = format!("give a text table, one point per line, thinned if need be ({})", other_table(kind));
+    read_text_within(path, what, MAX_DATA_FILE_BYTES, &fix)
 }
 
-/// [`read_text`] with a size limit of `max` bytes; `fix` says what to give instead of a larger
-/// file.
+/// [`read_text`] with a size limit of `max` bytes; `fix` says what to give instead of a file
+/// that is too large or not text.
 fn read_text_within(path: &str, what: &str, max: u64, fix: &str) -> Result<(String, String), String> {
     let file = std::fs::File::open(path).map_err(|e| format!("cannot read {what} '{path}': {}", io_reason(&e)))?;
     let size = file.metadata().map(|m| m.len()).unwrap_or(0);
@@ -178,7 +173,7 @@ fn read_text_within(path: &str, what: &str, max: u64, fix: &str) -> Result<(Stri
 /// before reading when `size` is too large, and refused when it does not look like text (a
 /// zero byte, or more than one byte in a hundred that is not UTF-8, as in binary data). The
 /// few bytes of another encoding a text may hold (a Latin-1 'µ') become U+FFFD. `fix` says
-/// what to give instead of a file that is too large.
+/// what to give instead.
 fn read_limited(source: impl std::io::Read, size: u64, max: u64, fix: &str) -> Result<String, String> {
     let mb = |n: u64| n as f64 / 1e6;
     if size > max {
@@ -190,8 +185,7 @@ fn read_limited(source: impl std::io::Read, size: u64, max: u64, fix: &str) -> R
     if bytes.len() as u64 > max {
         return Err(format!("it holds more than the {:.0} MB accepted; {fix}", mb(max)));
     }
-    let not_text =
-        |why: String| format!("it is not text ({why}, as in binary data); give a text file, e.g. a CSV table");
+    let not_text = |why: String| format!("it is not text ({why}, as in binary data); {fix}");
     if let Some(at) = bytes.iter().position(|&b| b == 0) {
         return Err(not_text(format!("byte {} is zero", at + 1)));
     }
@@ -239,7 +233,7 @@ pub fn read_spectrum_as(path: &str, p: &Parsed, file: FileOptions) -> Result<Sou
         })?);
     }
     hints.column = column_option(p, "spectrum-column")?;
-    let (text, name) = read_text(path, "spectrum file")?;
+    let (text, name) = read_text(path, "spectrum file", TableKind::Spectrum)?;
     let s = parse_spectrum_csv(&text, &hints, &name).map_err(|e| file_error("spectrum file", path, &e, file))?;
     Ok(SourceSpec::Table(TableSpec {
         name,
@@ -270,7 +264,7 @@ fn read_optical_file(path: &str, file: FileOptions, p: &Parsed) -> Result<Optica
             Some(ValueKind::parse(v).ok_or_else(|| format!("--{prefix}-values '{v}' is not known; use {kinds}"))?);
     }
     hints.column = column_option(p, &format!("{prefix}-column"))?;
-    let (text, name) = read_text(path, what)?;
+    let (text, name) = read_text(path, what, file.kind)?;
     let parsed =
         if sky { parse_transmittance_csv(&text, &hints, &name) } else { parse_emissivity_csv(&text, &hints, &name) };
     parsed.map_err(|e| file_error(what, path, &e, file))
@@ -326,7 +320,7 @@ pub fn read_eqe_file(spec: &str, option: &str) -> Result<AbsorptanceTable, Strin
         return Err(format!("{option} needs a file, e.g. {option} file:eqe.csv"));
     }
     let what = "quantum-efficiency file";
-    let (text, name) = read_text(path, what)?;
+    let (text, name) = read_text(path, what, TableKind::QuantumEfficiency)?;
     parse_eqe_csv(&text, &name).map_err(|e| file_error(what, path, &e, EQE_FILE))
 }
 
