@@ -139,7 +139,7 @@ pub fn check_gap_grid(from_ev: f64, to_ev: f64, step_ev: f64) -> Result<f64, Str
         let smallest = (to_ev - from_ev) / (MAX_GRID_POINTS - 1) as f64;
         return Err(format!(
             "--step {step_ev} gives {:.0} band gaps from {from_ev} to {to_ev} eV, more than the {MAX_GRID_POINTS} \
-             accepted; give --step {} or larger",
+             accepted; use a larger --step, at least {}",
             steps + 1.0,
             round_up_2(smallest)
         ));
