@@ -393,3 +393,29 @@ fn decoders_survive_random_and_mutated_input() {
     );
     assert!(examples.is_empty(), "{findings} findings, the first:\n{}", examples.join("\n"));
 }
+
+#[test]
+fn long_header_lines_are_read_in_linear_time() {
+    // a header line of thousands of words, as a mutation once made: every reader must stay
+    // linear in it (every word tail as a unit candidate was quadratic, seconds for 64 KB)
+    let words = "e-up narrow-band source for tests: a triangle around 650 n".repeat(1_000);
+    let bracketed = "(W m-2 nm-1) [um] ".repeat(3_000);
+    for header in [
+        format!("wavelength_nm,irradiance_W_{words}"),
+        format!("wavelength (nm), {words}"),
+        format!("{words},{words}"),
+        format!("wavelength_nm,{bracketed}"),
+        format!("wavelength_nm;eqe_{}", "percent_".repeat(8_000)),
+    ] {
+        let text = format!("{header}\n400,1\n500,2\n600,1\n");
+        for d in DECODERS {
+            let start = Instant::now();
+            let outcome = decode(d, text.as_bytes(), &mut Rng(1));
+            let took = start.elapsed();
+            assert!(took < CASE_TIME_LIMIT, "{d:?} took {took:?} on a header of {} bytes", header.len());
+            if let Err(msg) = outcome {
+                assert!(!msg.contains('\n') && msg.chars().count() <= MAX_MESSAGE, "{d:?}: {msg}");
+            }
+        }
+    }
+}

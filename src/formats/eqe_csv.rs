@@ -14,7 +14,7 @@
 //! every message says which header would fix the file and names no option or control.
 
 use super::table::{check_distinct, quoted, scan_table, TableError, TableKind, TablePoints};
-use super::units::{axis_unit_from_name, bracket_contents, compact_unit_text, name_words};
+use super::units::{axis_unit_from_name, bracket_contents, compact_unit_text, name_words, unit_tails};
 use crate::physics::absorber::AbsorptanceTable;
 use crate::physics::constants::CHARGE;
 use std::fmt;
@@ -79,7 +79,7 @@ impl fmt::Display for ResponseUnit {
 fn response_unit_from_name(name: &str) -> Option<ResponseUnit> {
     let words = name_words(name);
     let mut candidates: Vec<String> = bracket_contents(name).into_iter().map(str::to_string).collect();
-    candidates.extend((1..words.len()).filter_map(|i| words.get(i..)).map(|w| w.join("/")));
+    candidates.extend(unit_tails(&words, "/"));
     candidates.extend(words.iter().map(|w| w.to_string()));
     if let Some(u) = candidates.iter().find_map(|c| ResponseUnit::parse(c)) {
         return Some(u);
