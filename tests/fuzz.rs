@@ -16,6 +16,9 @@
 //! GLOWGAP_FUZZ_CASES=10000000 GLOWGAP_FUZZ_SEED=1 nice cargo test --release --test fuzz -- --nocapture
 //! ```
 
+mod common;
+
+use common::Rng;
 use glowgap::codec;
 use glowgap::formats::emissivity_csv::{parse_emissivity_csv, parse_transmittance_csv, OpticalHints};
 use glowgap::formats::eqe_csv::parse_eqe_csv;
@@ -36,26 +39,6 @@ const MAX_LEN: usize = 64 * 1024;
 const MAX_EXAMPLES: usize = 5;
 /// Longest accepted error message (characters).
 const MAX_MESSAGE: usize = 2_000;
-
-/// SplitMix64: small, fast and reproducible.
-struct Rng(u64);
-
-impl Rng {
-    fn next(&mut self) -> u64 {
-        self.0 = self.0.wrapping_add(0x9E37_79B9_7F4A_7C15);
-        let mut z = self.0;
-        z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
-        z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
-        z ^ (z >> 31)
-    }
-    /// Uniform in `0..n` (`n` > 0).
-    fn below(&mut self, n: usize) -> usize {
-        (self.next() % n.max(1) as u64) as usize
-    }
-    fn chance(&mut self, one_in: usize) -> bool {
-        self.below(one_in) == 0
-    }
-}
 
 /// Text that the readers treat specially, inserted at random places.
 const TOKENS: &[&str] = &[

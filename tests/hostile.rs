@@ -88,19 +88,9 @@ fn path_str(p: &Path) -> &str {
     p.to_str().expect("a UTF-8 temporary path")
 }
 
-/// `n` bytes from a fixed-seed generator (SplitMix64).
+/// `n` bytes from a fixed-seed generator.
 fn random_bytes(n: usize) -> Vec<u8> {
-    let mut state = 0x5EED_u64;
-    let mut out = Vec::with_capacity(n + 8);
-    while out.len() < n {
-        state = state.wrapping_add(0x9E37_79B9_7F4A_7C15);
-        let mut z = state;
-        z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
-        z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
-        out.extend_from_slice(&(z ^ (z >> 31)).to_le_bytes());
-    }
-    out.truncate(n);
-    out
+    common::Rng(0x5EED).bytes(n)
 }
 
 #[test]
