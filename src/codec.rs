@@ -10,6 +10,7 @@
 //! Architecture invariant: every front end opens links and files through [`open`], so a
 //! scenario that opens is one every panel can compute.
 
+use crate::formats::table::quoted;
 use crate::scenario::Scenario;
 use serde::{Deserialize, Serialize};
 
@@ -60,8 +61,7 @@ pub fn from_json(text: &str) -> Result<Scenario, LinkError> {
             MAX_DOCUMENT_BYTES
         )));
     }
-    let value: serde_json::Value = serde_json::from_str(text)
-        .map_err(|e| LinkError(format!("the scenario file is not valid JSON ({e}); save it again from Glowgap")))?;
+    let value: serde_json::Value = serde_json::from_str(text).map_err(|e| LinkError(not_json(&e)))?;
     if let Some(v) = value.get("version") {
         let v = v.as_u64().unwrap_or(u64::MAX);
         if v > FORMAT_VERSION as u64 {
@@ -71,15 +71,48 @@ pub fn from_json(text: &str) -> Result<Scenario, LinkError> {
         }
         if let Some(f) = value.get("format").and_then(|f| f.as_str()) {
             if f != FORMAT_NAME {
-                return Err(LinkError(format!("this file is a '{f}', not a Glowgap scenario")));
+                return Err(LinkError(format!("this file is a {}, not a Glowgap scenario", quoted(f))));
             }
         }
         let doc: Document = serde_json::from_value(value)
-            .map_err(|e| LinkError(format!("the scenario does not fit this version of Glowgap: {e}")))?;
+            .map_err(|e| LinkError(format!("the scenario does not fit this version of Glowgap: {}", detail(&e))))?;
         Ok(doc.scenario)
     } else {
         serde_json::from_value::<Scenario>(value)
-            .map_err(|e| LinkError(format!("the file is not a Glowgap scenario: {e}")))
+            .map_err(|e| LinkError(format!("the file is not a Glowgap scenario: {}", detail(&e))))
+    }
+}
+
+/// Longest part of a JSON reader's message that is shown (characters).
+const MAX_DETAIL_CHARS: usize = 300;
+
+/// A JSON reader's message on one line, shortened to [`MAX_DETAIL_CHARS`]: it may quote the
+/// file's own text.
+fn detail(e: &serde_json::Error) -> String {
+    let text = e.to_string();
+    let mut out: String = text.chars().take(MAX_DETAIL_CHARS).map(|c| if c.is_control() { ' ' } else { c }).collect();
+    if text.chars().count() > MAX_DETAIL_CHARS {
+        out.push_str("...");
+    }
+    out
+}
+
+/// Why a text that should be a scenario file is not JSON, in words for people.
+fn not_json(e: &serde_json::Error) -> String {
+    let text = e.to_string();
+    let at = format!("line {}, column {}", e.line(), e.column());
+    if text.starts_with("recursion limit exceeded") {
+        format!(
+            "the scenario file nests brackets too deeply (more than 128 levels, at {at}); a Glowgap scenario \
+             nests only a few, so this is not one: save the scenario again from Glowgap"
+        )
+    } else if text.starts_with("number out of range") {
+        format!(
+            "the scenario file holds a number too large for any setting (at {at}, e.g. 1e999); \
+             write the value in its usual units, or save the scenario again from Glowgap"
+        )
+    } else {
+        format!("the scenario file is not valid JSON ({}); save it again from Glowgap", detail(e))
     }
 }
 
@@ -115,9 +148,12 @@ pub fn decode_link(link: &str) -> Result<Scenario, LinkError> {
             "the link is cut short: its version mark is incomplete; copy the whole link again".into(),
         ));
     };
-    let version: u32 = ver
-        .parse()
-        .map_err(|_| LinkError(format!("the link's version mark 'g{ver}' is garbled; copy the whole link again")))?;
+    let version: u32 = ver.parse().map_err(|_| {
+        LinkError(format!(
+            "the link's version mark {} is garbled; copy the whole link again",
+            quoted(&format!("g{ver}"))
+        ))
+    })?;
     if version > FORMAT_VERSION {
         return Err(LinkError(format!(
             "the link was made by a newer Glowgap (format version {version}; this one reads up to {FORMAT_VERSION}); open it with a current Glowgap"
@@ -126,7 +162,9 @@ pub fn decode_link(link: &str) -> Result<Scenario, LinkError> {
     if version == 0 {
         return Err(LinkError("the link's version mark 'g0' is not one Glowgap ever wrote".into()));
     }
-    let packed = base64url_decode(body)
+    // a link broken across lines (by a mail program, say) is still the same link
+    let body: String = body.chars().filter(|c| !c.is_ascii_whitespace()).collect();
+    let packed = base64url_decode(&body)
         .map_err(|e| LinkError(format!("the link is garbled ({e}); copy the whole link again")))?;
     let json = miniz_oxide::inflate::decompress_to_vec_with_limit(&packed, MAX_DOCUMENT_BYTES).map_err(|e| match e
         .status
@@ -196,7 +234,7 @@ pub fn base64url_decode(text: &str) -> Result<Vec<u8>, String> {
             b'0'..=b'9' => c - b'0' + 52,
             b'-' | b'+' => 62,
             b'_' | b'/' => 63,
-            _ => return Err(format!("character {} ('{}') cannot appear in a link", i + 1, c as char)),
+            _ => return Err(bad_character(text, i)),
         };
         acc = (acc << 6) | v as u32;
         bits += 6;
@@ -210,6 +248,18 @@ pub fn base64url_decode(text: &str) -> Result<Vec<u8>, String> {
         return Err("its length is not possible for encoded data".into());
     }
     Ok(out)
+}
+
+/// Which character at byte `at` of `text` cannot be in a link: its position in characters,
+/// and the character itself, or its code point when it cannot be shown on one line.
+fn bad_character(text: &str, at: usize) -> String {
+    let position = text.get(..at).map_or(at, |head| head.chars().count()) + 1;
+    let shown = match text.get(at..).and_then(|rest| rest.chars().next()) {
+        Some(c) if !c.is_control() && !c.is_whitespace() => format!("'{c}'"),
+        Some(c) => format!("U+{:04X}", c as u32),
+        None => "a broken character".into(),
+    };
+    format!("character {position} ({shown}) cannot appear in a link")
 }
 
 #[cfg(test)]

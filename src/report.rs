@@ -10,6 +10,16 @@ use serde::{Deserialize, Serialize};
 pub mod radiator;
 pub mod stack;
 
+/// `x` with `decimals` decimals, without the minus sign of a value that rounds to zero
+/// ("0.0000", never "-0.0000").
+pub fn fixed(x: f64, decimals: usize) -> String {
+    let text = format!("{x:.decimals$}");
+    match text.strip_prefix('-') {
+        Some(rest) if rest.bytes().all(|b| b == b'0' || b == b'.') => rest.to_string(),
+        _ => text,
+    }
+}
+
 /// 1 mA/cm^2 = 10 A/m^2.
 pub const A_PER_M2_PER_MA_PER_CM2: f64 = 10.0;
 

@@ -330,7 +330,7 @@ fn every_bad_input_is_one_line_and_exit_2() {
     refused(&["losses", "--gap", "1.3", "--from", "1"], "needs --gap");
     refused(&["losses", "--gap", "1.3", "--json", "--csv"], "choose one of --json and --csv");
     refused(&["losses", "--from", "2", "--to", "1", "--step", "0.1"], "is not usable");
-    refused(&["losses", "--from", "0.5", "--to", "3", "--step", "1e-7"], "the most is 100000");
+    refused(&["losses", "--from", "0.5", "--to", "3", "--step", "1e-7"], "more than the 100000 accepted");
     refused(&["losses", "--gap", "50"], "band gap 50 eV is out of range");
     refused(&["losses", "--from", "0.001", "--to", "1", "--step", "0.1"], "out of range");
     refused(&["eval", "#g1.garbage", "--stack"], "");

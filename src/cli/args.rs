@@ -121,6 +121,18 @@ fn example_for(name: &str) -> &'static str {
     }
 }
 
+/// A value as typed, in quotes, shortened to 40 characters and its length (a value can be
+/// thousands of characters long).
+fn shorten(s: &str) -> String {
+    const MAX: usize = 40;
+    let n = s.chars().count();
+    if n <= MAX {
+        format!("'{s}'")
+    } else {
+        format!("'{}...' ({n} characters)", s.chars().take(MAX).collect::<String>())
+    }
+}
+
 impl Parsed {
     pub fn flag(&self, name: &str) -> bool {
         self.flags.iter().any(|f| f == name)
@@ -135,14 +147,25 @@ impl Parsed {
         match self.values.get(name) {
             None => Ok(None),
             Some(s) => {
+                let shown = shorten(s);
                 let v: f64 = s.trim().parse().map_err(|_| {
                     format!(
-                        "--{name} '{s}' is not a number; give the {what} ({unit}), e.g. --{name} {}",
+                        "--{name} {shown} is not a number; give the {what} ({unit}), e.g. --{name} {}",
                         example_for(name)
                     )
                 })?;
                 if !v.is_finite() {
-                    return Err(format!("--{name} '{s}' is not a finite number; give the {what} ({unit})"));
+                    let written_out =
+                        s.trim().trim_start_matches(['+', '-']).starts_with(|c: char| c.is_ascii_digit() || c == '.');
+                    let why = if written_out {
+                        "is out of range (too large for any setting)"
+                    } else {
+                        "is not a finite number"
+                    };
+                    return Err(format!(
+                        "--{name} {shown} {why}; give the {what} ({unit}), e.g. --{name} {}",
+                        example_for(name)
+                    ));
                 }
                 Ok(Some(v))
             }

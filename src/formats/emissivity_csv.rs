@@ -21,9 +21,7 @@
 //! error's [`Hint`] (the axis unit, what the column holds, the value column, or the other
 //! table's input), worded by each front end.
 
-use super::table::{
-    check_distinct, check_value_column, quoted, scan_table, Hint, TableError, TableKind, TablePoints, MAX_DATA_ROWS,
-};
+use super::table::{check_distinct, check_value_column, quoted, scan_table, Hint, TableError, TableKind, TablePoints};
 use super::units::{axis_unit_from_name, AxisUnit, OpticalQuantity, ValueKind};
 use crate::physics::constants::HC;
 
@@ -78,7 +76,7 @@ fn read_optical(
 ) -> Result<OpticalTable, TableError> {
     let value_col = hints.column.unwrap_or(1);
     check_value_column(value_col)?;
-    let scan = scan_table(text, MAX_DATA_ROWS)?;
+    let scan = scan_table(text)?;
     scan.check_header_width(hints.axis.is_none() || hints.value.is_none())?;
     let at_header = |msg: String| TableError::maybe_at(scan.header_line, msg);
     let value_name = scan.names.get(value_col).map(String::as_str);

@@ -13,8 +13,8 @@
 //! Architecture invariant: units come from the header only (no option can give them), so
 //! every message says which header would fix the file and names no option or control.
 
-use super::table::{check_distinct, quoted, scan_table, TableError, TableKind, TablePoints, MAX_DATA_ROWS};
-use super::units::{axis_unit_from_name, bracket_contents, compact_unit_text, name_words};
+use super::table::{check_distinct, quoted, scan_table, TableError, TableKind, TablePoints};
+use super::units::{axis_unit_from_name, bracket_contents, compact_unit_text, name_words, unit_tails};
 use crate::physics::absorber::AbsorptanceTable;
 use crate::physics::constants::CHARGE;
 use std::fmt;
@@ -79,7 +79,7 @@ impl fmt::Display for ResponseUnit {
 fn response_unit_from_name(name: &str) -> Option<ResponseUnit> {
     let words = name_words(name);
     let mut candidates: Vec<String> = bracket_contents(name).into_iter().map(str::to_string).collect();
-    candidates.extend((1..words.len()).filter_map(|i| words.get(i..)).map(|w| w.join("/")));
+    candidates.extend(unit_tails(&words, "/"));
     candidates.extend(words.iter().map(|w| w.to_string()));
     if let Some(u) = candidates.iter().find_map(|c| ResponseUnit::parse(c)) {
         return Some(u);
@@ -93,7 +93,7 @@ const EQE_HEADER_EXAMPLE: &str = "'wavelength_nm,eqe_percent', 'Wavelength (nm),
 /// Read a quantum-efficiency table (see the module documentation). `name` names it.
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting checks: `!(x > 0.0)` also refuses NaN
 pub fn parse_eqe_csv(text: &str, name: &str) -> Result<AbsorptanceTable, TableError> {
-    let scan = scan_table(text, MAX_DATA_ROWS)?;
+    let scan = scan_table(text)?;
     scan.check_header_width(true)?;
     let Some(header_line) = scan.header_line else {
         return Err(TableError::general(format!(

@@ -28,9 +28,6 @@ use std::fmt;
 
 use super::units::{AxisUnit, OpticalQuantity};
 
-/// The most data lines a file may hold.
-pub const MAX_DATA_ROWS: usize = 200_000;
-
 // ---------------------------------------------------------------------------------------------
 // Errors and hints
 // ---------------------------------------------------------------------------------------------
@@ -336,7 +333,8 @@ pub(crate) struct TableScan<'a> {
     pub names: Vec<String>,
     /// fields on the first data line
     pub ncols: usize,
-    data: Vec<DataLine<'a>>,
+    /// the whole text, read again by `read_points`
+    text: &'a str,
     sep: Separator,
     first_line: usize,
 }
@@ -361,43 +359,36 @@ pub(crate) fn check_value_column(value_col: usize) -> Result<(), TableError> {
     Ok(())
 }
 
-/// Find the header and the data lines of a table (see the module documentation for the
-/// layout); at most `limit` data lines.
-pub(crate) fn scan_table(text: &str, limit: usize) -> Result<TableScan<'_>, TableError> {
+/// The lines of a table that hold something: (1-based line, trimmed text), blank lines and
+/// comment lines left out. Lines end at '\n' (a '\r' before it is trimmed), or at lone '\r'
+/// in a file without any '\n'.
+fn content_lines(text: &str) -> impl Iterator<Item = (usize, &str)> + '_ {
     let text = text.strip_prefix('\u{feff}').unwrap_or(text);
-    let mut header: Option<(usize, &str)> = None;
-    let mut seen_content = false;
-    let mut data: Vec<DataLine> = Vec::new();
-    let lines = if text.contains('\n') { text.split('\n') } else { text.split('\r') };
-    for (idx, raw) in lines.enumerate() {
-        let line = idx + 1;
-        let t = raw.trim();
-        if t.is_empty() || is_comment_line(t) {
-            continue;
-        }
-        if !seen_content {
-            seen_content = true;
-            if !first_field_is_number(t) {
-                header = Some((line, strip_header_comment(t)));
-                continue;
-            }
-        }
+    let end = if text.contains('\n') { '\n' } else { '\r' };
+    text.split(end)
+        .enumerate()
+        .map(|(idx, raw)| (idx + 1, raw.trim()))
+        .filter(|(_, t)| !t.is_empty() && !is_comment_line(t))
+}
+
+/// The data lines of a table without their comments: every content line after the header
+/// (if `has_header`, the first content line is the header).
+fn data_lines(text: &str, has_header: bool) -> impl Iterator<Item = DataLine<'_>> + '_ {
+    content_lines(text).skip(usize::from(has_header)).filter_map(|(line, t)| {
         let content = strip_data_comment(t).trim();
-        if content.is_empty() {
-            continue;
-        }
-        if data.len() >= limit {
-            return Err(TableError::at(
-                line,
-                format!(
-                    "the file has more than {limit} data lines, the most accepted; \
-                     thin the table (e.g. keep every second line) or shorten its spectral range"
-                ),
-            ));
-        }
-        data.push(DataLine { line, content });
-    }
-    let Some(first) = data.first() else {
+        (!content.is_empty()).then_some(DataLine { line, content })
+    })
+}
+
+/// Find the header and the first data line of a table (see the module documentation for the
+/// layout). The data lines are not stored: [`TableScan::read_points`] reads them from the
+/// text in one pass, so a table of millions of lines costs only its numbers.
+pub(crate) fn scan_table(text: &str) -> Result<TableScan<'_>, TableError> {
+    let header = content_lines(text)
+        .next()
+        .filter(|(_, t)| !first_field_is_number(t))
+        .map(|(line, t)| (line, strip_header_comment(t)));
+    let Some(first) = data_lines(text, header.is_some()).next() else {
         let msg = "no data lines: the file needs at least two lines of numbers \
                    (spectral coordinate, then value), e.g. '400,1.2'";
         return Err(match header {
@@ -408,8 +399,7 @@ pub(crate) fn scan_table(text: &str, limit: usize) -> Result<TableScan<'_>, Tabl
     let sep = Separator::detect(first.content);
     let ncols = split_fields(first.content, sep, false).len();
     let names = header.map(|(_, h)| header_names(h, sep, ncols)).unwrap_or_default();
-    let first_line = first.line;
-    Ok(TableScan { header_line: header.map(|(h, _)| h), names, ncols, data, sep, first_line })
+    Ok(TableScan { header_line: header.map(|(h, _)| h), names, ncols, text, sep, first_line: first.line })
 }
 
 impl TableScan<'_> {
@@ -441,12 +431,12 @@ impl TableScan<'_> {
     /// direction throughout. Returned ascending along the axis.
     pub(crate) fn read_points(&self, value_col: usize, kind: TableKind) -> Result<TablePoints, TableError> {
         let ctx = Context { sep: self.sep, sep_line: self.first_line, value_col };
-        let mut xs: Vec<f64> = Vec::with_capacity(self.data.len());
-        let mut ys: Vec<f64> = Vec::with_capacity(self.data.len());
-        let mut line_of: Vec<usize> = Vec::with_capacity(self.data.len());
+        let mut xs: Vec<f64> = Vec::new();
+        let mut ys: Vec<f64> = Vec::new();
+        let mut line_of: Vec<usize> = Vec::new();
         let mut direction: Option<(bool, usize)> = None; // (ascending, first line)
         let mut prev: Option<(f64, usize, &str)> = None;
-        for d in &self.data {
+        for d in data_lines(self.text, self.header_line.is_some()) {
             let fields = split_fields(d.content, self.sep, false);
             let x_text = fields.first().copied().unwrap_or("");
             let x = read_field(x_text, d.line, 0, &ctx)?;
@@ -611,7 +601,7 @@ mod tests {
     use super::*;
 
     fn points(text: &str) -> Result<TablePoints, TableError> {
-        scan_table(text, MAX_DATA_ROWS)?.read_points(1, TableKind::Spectrum)
+        scan_table(text)?.read_points(1, TableKind::Spectrum)
     }
 
     fn err(text: &str) -> TableError {
@@ -623,14 +613,14 @@ mod tests {
 
     #[test]
     fn header_is_found_and_split_like_the_data() {
-        let scan = scan_table("# note\nWavelength (nm)  Irradiance (W m-2 nm-1)\n400 1\n500 1\n", 10).unwrap();
+        let scan = scan_table("# note\nWavelength (nm)  Irradiance (W m-2 nm-1)\n400 1\n500 1\n").unwrap();
         assert_eq!(scan.header_line, Some(2));
         assert_eq!(scan.names, vec!["Wavelength (nm)", "Irradiance (W m-2 nm-1)"]);
         assert_eq!(scan.ncols, 2);
         // quoted spreadsheet export, header separated differently from the data
-        let scan = scan_table("\"wavelength_nm\",\"irradiance_W_m2_nm\"\n400 1\n500 1\n", 10).unwrap();
+        let scan = scan_table("\"wavelength_nm\",\"irradiance_W_m2_nm\"\n400 1\n500 1\n").unwrap();
         assert_eq!(scan.names, vec!["wavelength_nm", "irradiance_W_m2_nm"]);
-        let scan = scan_table("400,1\n500,1\n", 10).unwrap();
+        let scan = scan_table("400,1\n500,1\n").unwrap();
         assert_eq!(scan.header_line, None);
         assert!(scan.names.is_empty());
     }
@@ -661,7 +651,7 @@ mod tests {
         let text = "\u{feff}# a comment\r\n% another\r\n// and another\r\n\r\n\
                     wavelength_nm,irradiance_W_m2_nm   # trailing header note\r\n\
                     400,1.0D0  # first point\r\n   \r\n  # indented comment\r\n500,1.0 % note\r\n600,1.0 // note\r\n";
-        let scan = scan_table(text, 10).unwrap();
+        let scan = scan_table(text).unwrap();
         assert_eq!(scan.header_line, Some(5));
         assert_eq!(scan.names, vec!["wavelength_nm", "irradiance_W_m2_nm"]);
         let p = scan.read_points(1, TableKind::Spectrum).unwrap();
@@ -669,7 +659,7 @@ mod tests {
         // lone carriage returns as line ends
         assert_eq!(points("wavelength_nm,irradiance_W_m2_nm\r400,1\r500,1\r").unwrap().xs.len(), 2);
         // a '#' inside a unit is not a comment
-        let scan = scan_table("wavenumber (cm-1), #/s/m^2/cm^-1\n1000,1e20\n2000,1e20\n", 10).unwrap();
+        let scan = scan_table("wavenumber (cm-1), #/s/m^2/cm^-1\n1000,1e20\n2000,1e20\n").unwrap();
         assert_eq!(scan.names[1], "#/s/m^2/cm^-1");
     }
 
@@ -703,7 +693,7 @@ mod tests {
 
     #[test]
     fn header_wider_than_the_data_points_at_the_units() {
-        let scan = scan_table("Wavelength nm Irradiance W/m2/nm\n400 1\n500 1\n", 10).unwrap();
+        let scan = scan_table("Wavelength nm Irradiance W/m2/nm\n400 1\n500 1\n").unwrap();
         let e = scan.check_header_width(true).unwrap_err();
         assert_eq!((e.line, e.hint), (Some(1), Some(Hint::Units)));
         assert!(e.message.contains("4 columns"), "{e}");
@@ -775,12 +765,11 @@ mod tests {
     }
 
     #[test]
-    fn row_cap() {
-        let small: String = (1..=5).map(|i| format!("{i} 1\n")).collect();
-        assert_eq!(scan_table(&small, 5).unwrap().read_points(1, TableKind::Spectrum).unwrap().xs.len(), 5);
-        let e = scan_table(&small, 4).err().unwrap();
-        assert_eq!(e.line, Some(5));
-        assert!(e.message.contains("more than 4 data lines"), "{e}");
+    fn long_tables_are_read_whole() {
+        // no cap on the number of lines: memory goes to the numbers only
+        let text: String = (1..=300_000).map(|i| format!("{i} 1\n")).collect();
+        let p = scan_table(&text).unwrap().read_points(1, TableKind::Spectrum).unwrap();
+        assert_eq!((p.xs.len(), p.line_of.last().copied()), (300_000, Some(300_000)));
     }
 
     #[test]
@@ -800,7 +789,7 @@ mod tests {
         for text in
             ["", "x,y\n400,1\n500\n", "x y z w\n1 2\n3 4\n", "x;y\n1;2\n3,4\n", "x,y\n1,1\n1,1\n", "x,y\n1,-1\n2,1\n"]
         {
-            let e = match scan_table(text, 10) {
+            let e = match scan_table(text) {
                 Err(e) => e,
                 Ok(s) => match s.check_header_width(true).and_then(|_| s.read_points(1, TableKind::Spectrum)) {
                     Err(e) => e,
@@ -820,7 +809,7 @@ mod tests {
 
             #[test]
             fn never_panics(text in "[0-9a-zA-Z#%/;,\\t .eE+\\-\\n\\r()\\[\\]^_\"µ²]{0,120}", col in 0usize..4) {
-                if let Ok(scan) = scan_table(&text, 50) {
+                if let Ok(scan) = scan_table(&text) {
                     let _ = scan.check_header_width(true);
                     let _ = scan.read_points(col, TableKind::Emissivity);
                 }

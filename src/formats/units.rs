@@ -487,6 +487,17 @@ pub(crate) fn name_words(name: &str) -> Vec<&str> {
     name.split(|c: char| c == '_' || c.is_whitespace()).filter(|w| !w.is_empty()).collect()
 }
 
+/// The most words a unit spans in a column name ("photons m-2 s-1 nm-1" is four).
+const MAX_UNIT_WORDS: usize = 12;
+
+/// The word tails of a column name that may be its unit, longest first: its last 1 to
+/// [`MAX_UNIT_WORDS`] words (never all of them), joined by `sep`. The cap keeps a long
+/// header line linear: every tail of thousands of words would be quadratic.
+pub(crate) fn unit_tails(words: &[&str], sep: &str) -> Vec<String> {
+    let first = words.len().saturating_sub(MAX_UNIT_WORDS).max(1);
+    (first..words.len()).filter_map(|i| words.get(i..)).map(|w| w.join(sep)).collect()
+}
+
 /// The axis unit a column name carries, if any: `wavelength_nm`, `Wavelength (nm)`,
 /// `lambda [um]`, `energy/eV`, `wavenumber (cm-1)`. A bare quantity name such as
 /// `wavenumber` does not count as a unit here.
@@ -509,7 +520,7 @@ pub(crate) fn value_unit_from_name(name: &str) -> Option<ValueUnit> {
     let words = name_words(name);
     let mut candidates: Vec<String> = vec![name.to_string()];
     candidates.extend(bracket_contents(name).into_iter().map(str::to_string));
-    candidates.extend((1..words.len()).filter_map(|i| words.get(i..)).map(|w| w.join(" ")));
+    candidates.extend(unit_tails(&words, " "));
     if let Some(u) = candidates.iter().find_map(|c| ValueUnit::parse(c)) {
         return Some(u);
     }

@@ -12,15 +12,18 @@
 //! * below gap        P_in - P(E > Eg)                       (not absorbed)
 //! * emission         Eg (Phi_abs - Phi_mp)                  (absorbed but re-emitted or,
 //!   for ERE < 1, recombined: carriers lost to the current, valued at the band edge)
+//!   plus Phi_mp kTc ln(1/ERE)                               (the voltage every extracted
+//!   carrier loses to non-radiative recombination, Ross, J. Chem. Phys. 46, 4590 (1967);
+//!   zero at ERE = 1, and reported on its own as `nonradiative`)
 //! * Carnot           Phi_mp Eg Tc/Ts                        (H&ED 2011: the free energy of a
 //!   carrier is at most Eg (1 - Tc/Ts))
 //! * Boltzmann        Phi_mp kTc ln(Omega_emit/Omega_abs)    (H&ED 2011: the entropy of the
 //!   beam's expansion from the sun's solid angle to that of the emission)
 //! * delivered        Jmp Vmp
 //! * thermalization   the rest: P(E > Eg) - Eg Phi_abs, the photons' energy above the gap,
-//!   plus Phi_mp [Eg (1 - Tc/Ts) - kTc ln(Omega_emit/Omega_abs) - qVmp], the difference
-//!   between the free energy per carrier that the Carnot and Boltzmann factors leave and
-//!   qVmp. H&ED 2011 show that free energy per carrier is also limited by carrier
+//!   plus Phi_mp [Eg (1 - Tc/Ts) - kTc ln(Omega_emit/Omega_abs) - kTc ln(1/ERE) - qVmp], the
+//!   difference between the free energy per carrier that the Carnot, Boltzmann and
+//!   non-radiative factors leave and qVmp. H&ED 2011 show that free energy per carrier is also limited by carrier
 //!   thermalisation, and that a band (rather than a level) absorber gains some back as
 //!   carriers cool; this term, a few meV per carrier, carries both and the cost of drawing
 //!   current at the maximum power point.
@@ -42,7 +45,12 @@ pub struct LossBreakdown {
     pub input: f64,
     pub below_gap: f64,
     pub thermalization: f64,
+    /// carriers lost to emission or recombination, valued at the gap, and the non-radiative
+    /// voltage loss of the extracted carriers (`nonradiative`, included here)
     pub emission: f64,
+    /// Phi_mp kTc ln(1/ERE): the part of `emission` that is the extracted carriers' voltage
+    /// lost to non-radiative recombination (0 at ERE = 1)
+    pub nonradiative: f64,
     pub carnot: f64,
     pub boltzmann: f64,
     pub delivered: f64,
@@ -85,9 +93,13 @@ pub fn breakdown_of(light: &Illumination, cell: &Cell, r: &CellResult) -> LossBr
     // per extracted carrier [J]: Eg Tc/Ts and kTc ln(Omega_emit/Omega_abs) (H&ED 2011)
     let carnot_per = eg * cell.temp_k / ts;
     let boltzmann_per = thermal_energy(cell.temp_k) * etendue_ratio.ln();
-    let residual_per = eg - carnot_per - boltzmann_per - CHARGE * r.vmp;
+    // ERE in (0, 1] (the scenario's range); ln(1/ERE) >= 0
+    let nonradiative_per =
+        if cell.ere > 0.0 && cell.ere < 1.0 { -thermal_energy(cell.temp_k) * cell.ere.ln() } else { 0.0 };
+    let residual_per = eg - carnot_per - boltzmann_per - nonradiative_per - CHARGE * r.vmp;
     out.below_gap = input - above;
-    out.emission = eg * (phi_abs - phi_mp);
+    out.nonradiative = phi_mp * nonradiative_per;
+    out.emission = eg * (phi_abs - phi_mp) + out.nonradiative;
     out.carnot = phi_mp * carnot_per;
     out.boltzmann = phi_mp * boltzmann_per;
     out.delivered = r.pmax;

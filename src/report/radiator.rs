@@ -3,6 +3,7 @@
 //! command line and the browser can show the same digits.
 
 use crate::physics::radiator::{Evaluation, Steady, STEADY_SEARCH_K};
+use crate::report::fixed;
 use serde::{Deserialize, Serialize};
 
 /// One radiator's figures in display units (W/m², K, fractions). Field names are the
@@ -197,15 +198,15 @@ impl RadiatorReport {
         use RadiatorMetric as M;
         match m {
             M::NetPower | M::Emitted | M::SkyAbsorbed | M::SunAbsorbed | M::Parasitic => {
-                format!("{:.2} W/m²", self.metric(m))
+                format!("{} W/m²", fixed(self.metric(m), 2))
             }
             M::SteadyTemp => match self.steady_temp_k {
-                Some(t) => format!("{t:.2} K"),
+                Some(t) => format!("{} K", fixed(t, 2)),
                 None if self.steady_status == SteadyStatus::Undefined => "none".into(),
                 None => "none in range".into(),
             },
-            M::SurfaceTemp | M::AmbientTemp => format!("{:.2} K", self.metric(m)),
-            _ => format!("{:.4}", self.metric(m)),
+            M::SurfaceTemp | M::AmbientTemp => format!("{} K", fixed(self.metric(m), 2)),
+            _ => fixed(self.metric(m), 4),
         }
     }
 

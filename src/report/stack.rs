@@ -215,7 +215,11 @@ pub struct LossReport {
     pub input_w_m2: f64,
     pub below_gap_w_m2: f64,
     pub thermalization_w_m2: f64,
+    /// carriers lost to emission or recombination, with `nonradiative_w_m2`
     pub emission_w_m2: f64,
+    /// of `emission_w_m2`: the extracted carriers' voltage lost to non-radiative
+    /// recombination, kTc ln(1/ERE) each (0 at ERE = 1)
+    pub nonradiative_w_m2: f64,
     pub carnot_w_m2: f64,
     pub boltzmann_w_m2: f64,
     pub delivered_w_m2: f64,
@@ -236,6 +240,7 @@ impl From<&LossBreakdown> for LossReport {
             below_gap_w_m2: l.below_gap,
             thermalization_w_m2: l.thermalization,
             emission_w_m2: l.emission,
+            nonradiative_w_m2: l.nonradiative,
             carnot_w_m2: l.carnot,
             boltzmann_w_m2: l.boltzmann,
             delivered_w_m2: l.delivered,

@@ -9,6 +9,18 @@ use crate::physics::radiator::{
 };
 use serde::{Deserialize, Serialize};
 
+/// A water column [cm] as people read it: to 0.01 cm (a dew point gives 16 digits), with no
+/// trailing zeros, e.g. "2.33", "1.5".
+pub fn water_cm(pwv_cm: f64) -> String {
+    let text = format!("{:.2}", pwv_cm + 0.0);
+    let text = text.trim_end_matches('0').trim_end_matches('.');
+    if text == "-0" {
+        "0".into()
+    } else {
+        text.into()
+    }
+}
+
 /// Accepted wavelengths for profile edges and control points [um].
 pub const WAVELENGTH_RANGE_UM: (f64, f64) = (0.1, 1000.0);
 /// Accepted ambient air temperatures [K].
@@ -428,7 +440,7 @@ impl SkySpec {
         match self {
             SkySpec::Box => "box (open 8-13 um, black elsewhere)".into(),
             SkySpec::Space => "space (3 K, no atmosphere)".into(),
-            SkySpec::Clear { pwv_cm } => format!("clear, {pwv_cm} cm precipitable water"),
+            SkySpec::Clear { pwv_cm } => format!("clear, {} cm precipitable water", water_cm(*pwv_cm)),
             SkySpec::File { path } => format!("file {path}"),
             SkySpec::Table(t) => format!("measured '{}' ({} points)", t.name, t.wavelength_m.len()),
         }
@@ -509,8 +521,8 @@ impl RadiatorScenario {
                 )?;
                 if *pwv_cm < PWV_CALIBRATED_CM.0 || *pwv_cm > PWV_CALIBRATED_CM.1 {
                     warnings.push(format!(
-                        "{pwv_cm} cm of precipitable water is outside the clear-sky model's calibration ({}-{} cm); treat the sky figures as rough",
-                        PWV_CALIBRATED_CM.0, PWV_CALIBRATED_CM.1
+                        "{} cm of precipitable water is outside the clear-sky model's calibration ({}-{} cm); treat the sky figures as rough",
+                        water_cm(*pwv_cm), PWV_CALIBRATED_CM.0, PWV_CALIBRATED_CM.1
                     ));
                 }
                 let depression = self.ambient_k - 273.15 - reitan_dew_point_c(*pwv_cm);
@@ -518,9 +530,11 @@ impl RadiatorScenario {
                     && (depression < DEW_POINT_DEPRESSION_WARN_K.0 || depression > DEW_POINT_DEPRESSION_WARN_K.1)
                 {
                     warnings.push(format!(
-                        "{pwv_cm} cm of water at {} K implies a dew point {:.0} K below the air (Reitan's relation), \
+                        "{} cm of water at {} K implies a dew point {:.0} K below the air (Reitan's relation), \
                          far from the clear-sky model's calibration (0-12 K); treat the sky figures as rough",
-                        self.ambient_k, depression
+                        water_cm(*pwv_cm),
+                        self.ambient_k,
+                        depression
                     ));
                 }
                 if self.ambient_k < CLEAR_SKY_CALIBRATED_K.0 || self.ambient_k > CLEAR_SKY_CALIBRATED_K.1 {

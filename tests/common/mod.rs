@@ -44,3 +44,33 @@ pub fn num(s: &str) -> f64 {
         s.parse().unwrap()
     }
 }
+
+/// A small reproducible generator for test inputs (SplitMix64; Steele, Lea & Flood, OOPSLA
+/// 2014).
+pub struct Rng(pub u64);
+
+impl Rng {
+    pub fn next(&mut self) -> u64 {
+        self.0 = self.0.wrapping_add(0x9E37_79B9_7F4A_7C15);
+        let mut z = self.0;
+        z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
+        z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
+        z ^ (z >> 31)
+    }
+    /// Uniform in `0..n` (`n` > 0).
+    pub fn below(&mut self, n: usize) -> usize {
+        (self.next() % n.max(1) as u64) as usize
+    }
+    pub fn chance(&mut self, one_in: usize) -> bool {
+        self.below(one_in) == 0
+    }
+    /// `n` bytes.
+    pub fn bytes(&mut self, n: usize) -> Vec<u8> {
+        let mut out = Vec::with_capacity(n + 8);
+        while out.len() < n {
+            out.extend_from_slice(&self.next().to_le_bytes());
+        }
+        out.truncate(n);
+        out
+    }
+}

@@ -109,6 +109,13 @@ fn cell_with_absorber(p: &Parsed, sc: CellScenario, out: Out) -> Result<(), Fail
             )));
         }
     }
+    if let (AbsorberSpec::Measured(_), Some(g), false) = (&absorber, p.number("gap", "band gap", "eV")?, p.flag("link"))
+    {
+        // the figures are the table's; say so rather than leave a typed gap silently unused
+        warn(&[format!(
+            "--gap {g} is not used with --eqe: the measured EQE sets the absorption edge and every figure; leave --gap out"
+        )]);
+    }
     let scenario = Scenario { cell: sc, stack: StackScenario { absorber, ..Default::default() }, ..Default::default() };
     if p.flag("link") {
         writeln!(out, "{}", crate::codec::encode_fragment(&scenario))?;

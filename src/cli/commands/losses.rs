@@ -46,14 +46,7 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     let gaps_ev: Vec<f64> = match (gap, range) {
         (Some(g), [None, None, None]) => vec![g],
         (None, [Some(a), Some(b), Some(s)]) => {
-            check_gap_grid(a, b, s)?;
-            let n = ((b - a) / s).round();
-            if n + 1.0 > 100_000.0 {
-                return Err(Failure::Usage(format!(
-                    "that range has {} points; the most is 100000: use a larger --step",
-                    n + 1.0
-                )));
-            }
+            let n = check_gap_grid(a, b, s)?;
             (0..=n as usize).map(|i| if i == n as usize { b } else { a + s * i as f64 }).collect()
         }
         _ => {
@@ -86,6 +79,10 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
         let pct = |v: f64| if report.input_w_m2 > 0.0 { 100.0 * v / report.input_w_m2 } else { 0.0 };
         for (label, v) in report.parts() {
             writeln!(out, "{label:<32} {v:>12.3} {:>8.2}", pct(v))?;
+            if v.to_bits() == report.emission_w_m2.to_bits() && report.nonradiative_w_m2 > 0.0 {
+                let nr = report.nonradiative_w_m2;
+                writeln!(out, "{:<32} {nr:>12.3} {:>8.2}", "  of which non-radiative", pct(nr))?;
+            }
         }
         writeln!(out, "{:<32} {:>12.3} {:>8.2}", "Sum", report.sum_w_m2, pct(report.sum_w_m2))?;
         writeln!(out, "{:<32} {:>12.3}", "Incident power", report.input_w_m2)?;
@@ -106,11 +103,11 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
 
 fn write_loss_csv(out: Out, rows: &[LossReport]) -> Result<(), Failure> {
     let mut buf = std::io::BufWriter::new(out);
-    writeln!(buf, "gap_ev,input_w_m2,below_gap_w_m2,thermalization_w_m2,emission_w_m2,carnot_w_m2,boltzmann_w_m2,delivered_w_m2,sum_w_m2,efficiency")?;
+    writeln!(buf, "gap_ev,input_w_m2,below_gap_w_m2,thermalization_w_m2,emission_w_m2,carnot_w_m2,boltzmann_w_m2,delivered_w_m2,sum_w_m2,efficiency,nonradiative_w_m2")?;
     for r in rows {
         writeln!(
             buf,
-            "{},{},{},{},{},{},{},{},{},{}",
+            "{},{},{},{},{},{},{},{},{},{},{}",
             r.gap_ev,
             r.input_w_m2,
             r.below_gap_w_m2,
@@ -120,7 +117,8 @@ fn write_loss_csv(out: Out, rows: &[LossReport]) -> Result<(), Failure> {
             r.boltzmann_w_m2,
             r.delivered_w_m2,
             r.sum_w_m2,
-            r.efficiency
+            r.efficiency,
+            r.nonradiative_w_m2
         )?;
     }
     buf.flush()?;

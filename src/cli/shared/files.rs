@@ -101,15 +101,13 @@ pub fn open_scenario(what: &str) -> Result<(Scenario, Vec<String>), String> {
         t.contains('#') || versioned || t.starts_with("http://") || t.starts_with("https://")
     };
     let text = if what == "-" {
-        let mut buf = String::new();
-        std::io::Read::read_to_string(&mut std::io::stdin(), &mut buf)
-            .map_err(|e| format!("cannot read standard input: {e}"))?;
-        buf
+        read_limited(std::io::stdin().lock(), 0, MAX_SCENARIO_BYTES, SCENARIO_FIX)
+            .map_err(|e| format!("standard input: {e}"))?
     } else if looks_like_link(what) && !std::path::Path::new(what).exists() {
         what.to_string()
     } else {
-        read_text(what, "scenario file")
-            .map_err(|e| format!("{e}; give a share link, a scenario file or - for standard input"))?
+        read_text_within(what, "scenario file", MAX_SCENARIO_BYTES, SCENARIO_FIX)
+            .map_err(|e| if e.contains(SCENARIO_FIX) { e } else { format!("{e}; {SCENARIO_FIX}") })?
             .0
     };
     let mut scenario = codec::decode(&text).map_err(|e| e.to_string())?;
@@ -135,12 +133,73 @@ pub fn io_reason(e: &std::io::Error) -> String {
     }
 }
 
-/// The text of a data file and its name (the file name without folders).
-fn read_text(path: &str, what: &str) -> Result<(String, String), String> {
-    let bytes = std::fs::read(path).map_err(|e| format!("cannot read {what} '{path}': {}", io_reason(&e)))?;
+/// The largest data file read (bytes): a table of a few million lines, read whole; the limit
+/// keeps the memory of a mistaken path (a video, a disk image) bounded.
+pub const MAX_DATA_FILE_BYTES: u64 = 256 * 1024 * 1024;
+
+/// The largest scenario file or standard input read (bytes): a share link or a scenario
+/// file is never longer than the codec accepts.
+const MAX_SCENARIO_BYTES: u64 = {
+    let (link, doc) = (codec::MAX_LINK_CHARS as u64, codec::MAX_DOCUMENT_BYTES as u64);
+    if link > doc {
+        link
+    } else {
+        doc
+    }
+};
+
+/// What to give instead of a scenario file that is too large or not text.
+const SCENARIO_FIX: &str = "give a share link, a scenario file saved by Glowgap, or - to read one from standard input";
+
+/// The text of a data file holding a `kind` table and its name (the file name without
+/// folders); at most [`MAX_DATA_FILE_BYTES`].
+fn read_text(path: &str, what: &str, kind: TableKind) -> Result<(String, String), String> {
+    let fix = format!("give a text table, one point per line, thinned if need be ({})", other_table(kind));
+    read_text_within(path, what, MAX_DATA_FILE_BYTES, &fix)
+}
+
+/// [`read_text`] with a size limit of `max` bytes; `fix` says what to give instead of a file
+/// that is too large or not text.
+fn read_text_within(path: &str, what: &str, max: u64, fix: &str) -> Result<(String, String), String> {
+    let file = std::fs::File::open(path).map_err(|e| format!("cannot read {what} '{path}': {}", io_reason(&e)))?;
+    let size = file.metadata().map(|m| m.len()).unwrap_or(0);
+    let text = read_limited(file, size, max, fix).map_err(|e| format!("{what} '{path}': {e}"))?;
     let name =
         std::path::Path::new(path).file_name().map_or_else(|| path.to_string(), |n| n.to_string_lossy().into_owned());
-    Ok((String::from_utf8_lossy(&bytes).into_owned(), name))
+    Ok((text, name))
+}
+
+/// At most `max` bytes of text from `source` (`size` bytes expected, 0 if not known): refused
+/// before reading when `size` is too large, and refused when it does not look like text (a
+/// zero byte, or more than one byte in a hundred that is not UTF-8, as in binary data). The
+/// few bytes of another encoding a text may hold (a Latin-1 'µ') become U+FFFD. `fix` says
+/// what to give instead.
+fn read_limited(source: impl std::io::Read, size: u64, max: u64, fix: &str) -> Result<String, String> {
+    let mb = |n: u64| n as f64 / 1e6;
+    if size > max {
+        return Err(format!("it is {:.1} MB, more than the {:.0} MB accepted; {fix}", mb(size), mb(max)));
+    }
+    let mut bytes = Vec::with_capacity(usize::try_from(size).unwrap_or(0).saturating_add(1));
+    std::io::Read::read_to_end(&mut std::io::Read::take(source, max + 1), &mut bytes)
+        .map_err(|e| format!("cannot be read: {}", io_reason(&e)))?;
+    if bytes.len() as u64 > max {
+        return Err(format!("it holds more than the {:.0} MB accepted; {fix}", mb(max)));
+    }
+    let not_text = |why: String| format!("it is not text ({why}, as in binary data); {fix}");
+    if let Some(at) = bytes.iter().position(|&b| b == 0) {
+        return Err(not_text(format!("byte {} is zero", at + 1)));
+    }
+    match String::from_utf8(bytes) {
+        Ok(text) => Ok(text),
+        Err(e) => {
+            let bytes = e.into_bytes();
+            let invalid: usize = bytes.utf8_chunks().map(|c| c.invalid().len()).sum();
+            if invalid > 16 && invalid > bytes.len() / 100 {
+                return Err(not_text(format!("{invalid} of its {} bytes are not UTF-8", bytes.len())));
+            }
+            Ok(String::from_utf8_lossy(&bytes).into_owned())
+        }
+    }
 }
 
 /// A column option (`--{prefix}-column N`), 1 or more.
@@ -174,7 +233,7 @@ pub fn read_spectrum_as(path: &str, p: &Parsed, file: FileOptions) -> Result<Sou
         })?);
     }
     hints.column = column_option(p, "spectrum-column")?;
-    let (text, name) = read_text(path, "spectrum file")?;
+    let (text, name) = read_text(path, "spectrum file", TableKind::Spectrum)?;
     let s = parse_spectrum_csv(&text, &hints, &name).map_err(|e| file_error("spectrum file", path, &e, file))?;
     Ok(SourceSpec::Table(TableSpec {
         name,
@@ -205,7 +264,7 @@ fn read_optical_file(path: &str, file: FileOptions, p: &Parsed) -> Result<Optica
             Some(ValueKind::parse(v).ok_or_else(|| format!("--{prefix}-values '{v}' is not known; use {kinds}"))?);
     }
     hints.column = column_option(p, &format!("{prefix}-column"))?;
-    let (text, name) = read_text(path, what)?;
+    let (text, name) = read_text(path, what, file.kind)?;
     let parsed =
         if sky { parse_transmittance_csv(&text, &hints, &name) } else { parse_emissivity_csv(&text, &hints, &name) };
     parsed.map_err(|e| file_error(what, path, &e, file))
@@ -261,7 +320,7 @@ pub fn read_eqe_file(spec: &str, option: &str) -> Result<AbsorptanceTable, Strin
         return Err(format!("{option} needs a file, e.g. {option} file:eqe.csv"));
     }
     let what = "quantum-efficiency file";
-    let (text, name) = read_text(path, what)?;
+    let (text, name) = read_text(path, what, TableKind::QuantumEfficiency)?;
     parse_eqe_csv(&text, &name).map_err(|e| file_error(what, path, &e, EQE_FILE))
 }
 

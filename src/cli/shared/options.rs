@@ -115,11 +115,17 @@ pub fn connection(p: &Parsed) -> Result<Connection, String> {
     }
 }
 
+/// The most gaps a `--from --to --step` grid may have: each gap is solved and printed, and at
+/// this size a grid takes a few seconds and a few tens of MB.
+pub const MAX_GRID_POINTS: usize = 100_000;
+
 /// Check the grid of band gaps `--from FROM --to TO --step STEP` [eV] (TO included): both
 /// ends in the accepted range ([`check_gap_ev`]), the lower first ([`check_gap_range`]; equal
-/// ends make a grid of one gap) and a positive step. The messages name the options.
+/// ends make a grid of one gap), a positive step, and at most [`MAX_GRID_POINTS`] gaps,
+/// refused before anything is allocated. Returns the number of steps (a whole number; the
+/// grid has one gap more). The messages name the options.
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // `!(step > 0.0)` on purpose: it also refuses NaN
-pub fn check_gap_grid(from_ev: f64, to_ev: f64, step_ev: f64) -> Result<(), String> {
+pub fn check_gap_grid(from_ev: f64, to_ev: f64, step_ev: f64) -> Result<f64, String> {
     check_gap_ev(from_ev).map_err(|e| format!("--from: {e}"))?;
     check_gap_ev(to_ev).map_err(|e| format!("--to: {e}"))?;
     if from_ev != to_ev {
@@ -128,5 +134,21 @@ pub fn check_gap_grid(from_ev: f64, to_ev: f64, step_ev: f64) -> Result<(), Stri
     if !(step_ev > 0.0) {
         return Err(format!("--step {step_ev} must be positive, e.g. --step 0.01 (eV)"));
     }
-    Ok(())
+    let steps = ((to_ev - from_ev) / step_ev).round();
+    if steps + 1.0 > MAX_GRID_POINTS as f64 {
+        let smallest = (to_ev - from_ev) / (MAX_GRID_POINTS - 1) as f64;
+        return Err(format!(
+            "--step {step_ev} gives {:.0} band gaps from {from_ev} to {to_ev} eV, more than the {MAX_GRID_POINTS} \
+             accepted; use a larger --step, at least {}",
+            steps + 1.0,
+            round_up_2(smallest)
+        ));
+    }
+    Ok(steps)
+}
+
+/// `x` > 0 rounded up to two significant digits, for a suggested value.
+fn round_up_2(x: f64) -> f64 {
+    let scale = 10f64.powf(x.log10().floor() - 1.0);
+    (x / scale).ceil() * scale
 }

@@ -34,9 +34,42 @@ pub fn warn(warnings: &[String]) {
 
 /// A value as one line of JSON.
 pub fn print_json<T: serde::Serialize>(out: Out, v: &T) -> Result<(), Failure> {
-    serde_json::to_writer(&mut *out, v).map_err(|_| Failure::Output)?;
-    writeln!(out)?;
+    writeln!(out, "{}", json_text(v))?;
     Ok(())
+}
+
+/// A value as JSON text on one line, the one way the command line writes JSON: a negative
+/// zero (e.g. 0 times a negative number) is written 0.0, as people expect of a zero.
+pub fn json_text<T: serde::Serialize>(v: &T) -> String {
+    let text = serde_json::to_string(v).unwrap_or_default();
+    if !text.contains("-0.0") {
+        return text;
+    }
+    // drop the sign of every number token that is exactly -0.0 (never inside a string)
+    let bytes = text.as_bytes();
+    let mut out = String::with_capacity(text.len());
+    let (mut in_string, mut escaped) = (false, false);
+    for (i, c) in text.char_indices() {
+        if in_string {
+            if escaped {
+                escaped = false;
+            } else if c == '\\' {
+                escaped = true;
+            } else if c == '"' {
+                in_string = false;
+            }
+        } else if c == '"' {
+            in_string = true;
+        } else if c == '-'
+            && text.get(i..i + 4) == Some("-0.0")
+            && matches!(bytes.get(i + 4), None | Some(b',' | b'}' | b']'))
+            && matches!(i.checked_sub(1).and_then(|j| bytes.get(j)), None | Some(b':' | b',' | b'['))
+        {
+            continue;
+        }
+        out.push(c);
+    }
+    out
 }
 
 /// Solve the cell of `sc` (a step absorptance) and print it: JSON with `json`, else a table.
@@ -221,9 +254,7 @@ pub fn print_radiator(sc: &RadiatorScenario, json: bool, curve_step: Option<f64>
         None => Vec::new(),
     };
     if json && curve_step.is_none() {
-        serde_json::to_writer(&mut *out, &report).map_err(|_| Failure::Output)?;
-        writeln!(out)?;
-        return Ok(());
+        return print_json(out, &report);
     }
     if json {
         let mut v = serde_json::to_value(&report).map_err(|_| Failure::Output)?;
@@ -234,9 +265,7 @@ pub fn print_radiator(sc: &RadiatorScenario, json: bool, curve_step: Option<f64>
                 .collect();
             v["curve"] = serde_json::Value::Array(pts);
         }
-        serde_json::to_writer(&mut *out, &v).map_err(|_| Failure::Output)?;
-        writeln!(out)?;
-        return Ok(());
+        return print_json(out, &v);
     }
     let sun = match &sc.sun {
         None => "none (night)".to_string(),

@@ -290,6 +290,14 @@ impl Balance {
         }
         let (mut a, mut b) = (lo.min(hi), hi.max(lo));
         let (mut fa, mut fb) = (self.net(a), self.net(b));
+        let only_background = self.sky_absorbed == 0.0 && self.sun_absorbed == 0.0 && self.h_c == 0.0;
+        if fa == 0.0 && only_background && (a..=b).contains(&SPACE_TEMPERATURE_K) {
+            // Nothing but the space background reaches the emitter in its bands (the 3 K
+            // radiation it absorbs underflows to 0, as its own emission does near 3 K): P_net
+            // is flat at 0 at the bottom of the range, and by detailed balance a body that
+            // sees only the background comes to the background's temperature.
+            return Steady::At(SPACE_TEMPERATURE_K);
+        }
         if fa >= 0.0 {
             return if fa == 0.0 { Steady::At(a) } else { Steady::BelowRange(a) };
         }
