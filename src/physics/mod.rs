@@ -3,6 +3,7 @@
 
 pub mod absorber;
 pub mod constants;
+pub mod data;
 pub mod junction;
 pub mod losses;
 pub mod mismatch;

@@ -14,7 +14,6 @@ use super::planck::{band_photon_flux_energy, band_power_energy, stefan_boltzmann
 use super::spectrum::{Axis, Quantity, Spectrum};
 use std::sync::{Arc, OnceLock};
 
-const G173_CSV: &str = include_str!("data/astm_g173_03.csv");
 const G173_PROVENANCE: &str = "ASTM G173-03 reference spectra (SMARTS v2.9.2), 280-4000 nm";
 
 /// Which column of the G173 table.
@@ -35,19 +34,9 @@ fn parse_g173(column: G173Column) -> Spectrum {
         G173Column::Global => 2,
         G173Column::Direct => 3,
     };
-    let mut x = Vec::with_capacity(2002);
-    let mut y = Vec::with_capacity(2002);
-    for line in G173_CSV.lines().skip(2) {
-        let cells: Vec<&str> = line.split(',').collect();
-        if cells.len() < 4 {
-            continue;
-        }
-        let (Ok(l), Ok(v)) = (cells[0].trim().parse::<f64>(), cells[col].trim().parse::<f64>()) else {
-            continue;
-        };
-        x.push(l * 1e-9); // nm -> m
-        y.push(v * 1e9); // W m^-2 nm^-1 -> W m^-2 m^-1
-    }
+    let cols = super::data::unpack(super::data::G173_PACKED).expect("the shipped G173 table unpacks");
+    let x: Vec<f64> = cols[0].iter().map(|l| l * 1e-9).collect(); // nm -> m
+    let y: Vec<f64> = cols[col].iter().map(|v| v * 1e9).collect(); // W m^-2 nm^-1 -> W m^-2 m^-1
     let name = match column {
         G173Column::Extraterrestrial => "AM0",
         G173Column::Global => "AM1.5G",
