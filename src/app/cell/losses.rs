@@ -5,7 +5,6 @@
 
 use crate::app::widgets::plot::Backend;
 use crate::view::controls::Control;
-use std::fmt::Write;
 use std::rc::Rc;
 
 use leptos::html;
@@ -25,7 +24,7 @@ use crate::app::widgets::plot::{
 };
 use crate::report::stack::LossReport;
 use crate::view::cell::losses::LossView;
-use crate::view::format::{csv_num, fixed, gap_ev};
+use crate::view::format::{fixed, gap_ev};
 use crate::view::spectrum::nearest;
 
 /// Short names of the parts, in the order of [`LossReport::parts`].
@@ -152,33 +151,6 @@ impl Drawing for LossPlot<'_> {
     }
 }
 
-fn losses_csv(l: &LossView, what: &str) -> String {
-    let mut out = String::new();
-    let _ = writeln!(out, "# Glowgap: {what}");
-    let _ = writeln!(out, "# the six parts add up to the incident power");
-    let _ = writeln!(out, "# Detailed-balance limits of an ideal cell: upper bounds, not predictions of a device.");
-    let _ = writeln!(
-        out,
-        "band gap (eV),incident (W/m2),below gap (W/m2),thermalization (W/m2),emission (W/m2),Carnot (W/m2),Boltzmann (W/m2),delivered (W/m2)"
-    );
-    for r in l.curve.iter() {
-        let p = r.parts();
-        let _ = writeln!(
-            out,
-            "{:.6},{},{},{},{},{},{},{}",
-            r.gap_ev,
-            csv_num(r.input_w_m2),
-            csv_num(p[0].1),
-            csv_num(p[1].1),
-            csv_num(p[2].1),
-            csv_num(p[3].1),
-            csv_num(p[4].1),
-            csv_num(p[5].1)
-        );
-    }
-    out
-}
-
 struct LossCard {
     cs: CellState,
 }
@@ -228,7 +200,7 @@ impl PlotBehaviour for LossCard {
         let cap = self.cs.ctx.scenario.with_untracked(|s| {
             crate::view::cell::csv::conditions_caption(s, "cell", "where the power goes in a single-junction cell")
         });
-        offer(kind, "losses", &LossPlot { l: &l }, || cap.clone(), || losses_csv(&l, &cap))
+        offer(kind, "losses", &LossPlot { l: &l }, || cap.clone(), || crate::view::cell::losses::losses_csv(&l, &cap))
     }
 }
 

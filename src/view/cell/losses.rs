@@ -3,6 +3,7 @@
 //! the cell's other settings change).
 
 use std::cell::RefCell;
+use std::fmt::Write;
 use std::sync::Arc;
 
 use super::{same_but_gap, setup_of};
@@ -11,6 +12,7 @@ use crate::physics::junction::Cell;
 use crate::physics::losses::{loss_breakdown, loss_sweep};
 use crate::report::stack::LossReport;
 use crate::scenario::{CellScenario, Scenario};
+use crate::view::format::csv_num;
 
 /// Points of the loss curve against band gap.
 pub const LOSS_POINTS: usize = 251;
@@ -64,4 +66,67 @@ pub fn loss_view(s: &Scenario) -> Result<LossView, String> {
         v
     });
     Ok(LossView { cell: bar, curve, from_ev: range.0, to_ev: range.1 })
+}
+
+/// The loss curve as CSV: the six parts against band gap (they add up to the incident
+/// power), and the non-radiative share of emission and recombination.
+pub fn losses_csv(l: &LossView, what: &str) -> String {
+    let mut out = String::new();
+    let _ = writeln!(out, "# Glowgap: {what}");
+    let _ = writeln!(out, "# the six parts add up to the incident power; emission includes non-radiative recombination (ERE < 1), shown again in the last column");
+    let _ = writeln!(out, "# Detailed-balance limits of an ideal cell: upper bounds, not predictions of a device.");
+    let _ = writeln!(
+        out,
+        "band gap (eV),incident (W/m2),below gap (W/m2),thermalization (W/m2),emission and recombination (W/m2),Carnot (W/m2),Boltzmann (W/m2),delivered (W/m2),of which non-radiative (W/m2)"
+    );
+    for r in l.curve.iter() {
+        let p = r.parts();
+        let _ = writeln!(
+            out,
+            "{:.6},{},{},{},{},{},{},{},{}",
+            r.gap_ev,
+            csv_num(r.input_w_m2),
+            csv_num(p[0].1),
+            csv_num(p[1].1),
+            csv_num(p[2].1),
+            csv_num(p[3].1),
+            csv_num(p[4].1),
+            csv_num(p[5].1),
+            csv_num(r.nonradiative_w_m2)
+        );
+    }
+    out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::physics::constants::{thermal_energy, CHARGE};
+
+    #[test]
+    fn the_csv_adds_up_and_shows_the_nonradiative_part() {
+        let mut s = Scenario::default();
+        s.cell.ere = 0.01;
+        let l = loss_view(&s).unwrap();
+        let csv = losses_csv(&l, "test");
+        let rows: Vec<Vec<f64>> = csv
+            .lines()
+            .filter(|r| !r.starts_with('#') && !r.starts_with("band"))
+            .map(|r| r.split(',').map(|v| v.parse().unwrap()).collect())
+            .collect();
+        assert_eq!(rows.len(), LOSS_POINTS);
+        for r in &rows {
+            // energy conservation (Hirst & Ekins-Daukes 2011): the six parts add up to the
+            // input; csv_num keeps 7 significant figures, so 1e-5 of the input
+            let parts: f64 = r[2..8].iter().sum();
+            assert!((parts - r[1]).abs() <= 1e-5 * r[1], "{r:?}");
+        }
+        // the non-radiative part is kTc ln(1/ERE) per extracted carrier (Jmp/q): the
+        // voltage lost to an ERE below 1 (Ross 1967, the (kT/q) ln(ERE) shift of Voc)
+        let setup = setup_of(&s.cell).unwrap();
+        let r = crate::physics::junction::solve_cell(&setup.light, &Cell { gap_j: ev(s.cell.gap_ev), ..setup.cell });
+        let per_carrier = thermal_energy(300.0) * (1.0f64 / 0.01).ln();
+        let want = per_carrier * r.jmp / CHARGE;
+        assert!((l.cell.nonradiative_w_m2 / want - 1.0).abs() < 1e-9, "{} vs {want}", l.cell.nonradiative_w_m2);
+    }
 }
