@@ -8,6 +8,7 @@ mod cell;
 mod cool;
 mod eval;
 mod losses;
+mod map;
 mod mismatch;
 mod optimize;
 mod stack;
@@ -22,6 +23,7 @@ pub const ALL: &[&Command] = &[
     &eval::COMMAND,
     &cool::COMMAND,
     &stack::COMMAND,
+    &map::COMMAND,
     &optimize::COMMAND,
     &mismatch::COMMAND,
     &losses::COMMAND,
