@@ -99,19 +99,19 @@ fn every_core_gives_the_result_of_one() {
     let tops: Vec<f64> = (0..150).map(|i| ev(1.3 + 0.008 * i as f64)).collect();
     let bottoms: Vec<f64> = (0..150).map(|i| ev(0.6 + 0.006 * i as f64)).collect();
     let one = rayon::ThreadPoolBuilder::new().num_threads(1).build().unwrap();
-    let (s1, m1) = one.install(|| {
-        (sweep(&light, &cell, &gaps), tandem_map(&light, &cell, Connection::Series, &tops, &bottoms))
-    });
+    let (s1, m1) =
+        one.install(|| (sweep(&light, &cell, &gaps), tandem_map(&light, &cell, Connection::Series, &tops, &bottoms)));
     let four = rayon::ThreadPoolBuilder::new().num_threads(4).build().unwrap();
-    let (s4, m4) = four.install(|| {
-        (sweep(&light, &cell, &gaps), tandem_map(&light, &cell, Connection::Series, &tops, &bottoms))
-    });
+    let (s4, m4) =
+        four.install(|| (sweep(&light, &cell, &gaps), tandem_map(&light, &cell, Connection::Series, &tops, &bottoms)));
     assert_eq!(s1, s4);
     assert_eq!(m1, m4);
     // the chunk helpers themselves: order and content
     let squares = four.install(|| map_indexed(1000, |i| (i * i) as u64));
     assert!(squares.iter().enumerate().all(|(i, &s)| s == (i * i) as u64));
     let mut filled = vec![0usize; 10_000];
-    four.install(|| fill_chunks(&mut filled, 7, |first, part| part.iter_mut().enumerate().for_each(|(k, v)| *v = first + k)));
+    four.install(|| {
+        fill_chunks(&mut filled, 7, |first, part| part.iter_mut().enumerate().for_each(|(k, v)| *v = first + k))
+    });
     assert!(filled.iter().enumerate().all(|(i, &v)| v == i));
 }

@@ -34,7 +34,12 @@ fn json_has_the_contract_keys_and_null_where_there_is_no_stack() {
                 let e = e.as_f64().unwrap_or_else(|| panic!("({i},{k}) should be a number: {e}"));
                 assert!(e > 0.0 && e < 1.0, "({i},{k}): {e}");
             } else {
-                assert!(e.is_null(), "({i},{k}): top {} not above bottom {} must be null, got {e}", tops[i], bottoms[k]);
+                assert!(
+                    e.is_null(),
+                    "({i},{k}): top {} not above bottom {} must be null, got {e}",
+                    tops[i],
+                    bottoms[k]
+                );
             }
         }
     }
@@ -73,10 +78,13 @@ fn best_is_the_largest_value_of_the_grid_and_best_alone_prints_the_same() {
 /// 1.63/0.96 eV and is at least the fixture's value (the grid holds that point).
 #[test]
 fn am15g_two_terminal_optimum_matches_the_scipy_fixture() {
-    let text = std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures/stack_series.csv")).unwrap();
+    let text =
+        std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures/stack_series.csv")).unwrap();
     let row = fixture_rows(&text)
         .into_iter()
-        .find(|r| r[0] == "am1.5g" && r[1] == "series" && r[2] == "1.63;0.96" && num(&r[3]) == 300.0 && num(&r[4]) == 1.0)
+        .find(|r| {
+            r[0] == "am1.5g" && r[1] == "series" && r[2] == "1.63;0.96" && num(&r[3]) == 300.0 && num(&r[4]) == 1.0
+        })
         .expect("the fixture has the AM1.5G 1.63/0.96 eV series stack");
     let scipy = num(&row[5]);
     let v = json(&["map", "--top", "1.58:1.68:101", "--bottom", "0.91:1.01:101", "--json"]);

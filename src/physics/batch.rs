@@ -202,7 +202,7 @@ impl FastDiode {
         }
         let ln_y = big_y.ln();
         let mut y = (big_y - ln_y + ln_y / big_y) - 1.0 - self.x0; // y = ln z = m - x0
-        // Newton on F(y) = y + ln(H0 + m H1) - ln w = 0, F increasing and nearly linear
+                                                                   // Newton on F(y) = y + ln(H0 + m H1) - ln w = 0, F increasing and nearly linear
         for _ in 0..20 {
             let z = y.exp();
             let s = self.series(z);

@@ -79,7 +79,9 @@ impl MapAxis {
 
 /// `--top FROM:TO:N` (or `--bottom`): checked with the scenario's gap-range check.
 fn axis(p: &Parsed, name: &str, cell: &str, example: &str) -> Result<MapAxis, String> {
-    let how = format!("give --{name} FROM:TO:N, the {cell} band gaps from FROM to TO eV in N points, e.g. --{name} {example}");
+    let how = format!(
+        "give --{name} FROM:TO:N, the {cell} band gaps from FROM to TO eV in N points, e.g. --{name} {example}"
+    );
     let Some(text) = p.text(name) else {
         return Err(format!("'glowgap map' needs --{name}: {how}"));
     };
@@ -88,13 +90,19 @@ fn axis(p: &Parsed, name: &str, cell: &str, example: &str) -> Result<MapAxis, St
         return Err(format!("--{name} '{text}' is not FROM:TO:N; {how}"));
     };
     let number = |t: &str, what: &str| -> Result<f64, String> {
-        t.parse::<f64>().ok().filter(|v| v.is_finite()).ok_or_else(|| format!("--{name} '{text}': the {what} '{t}' is not a number; {how}"))
+        t.parse::<f64>()
+            .ok()
+            .filter(|v| v.is_finite())
+            .ok_or_else(|| format!("--{name} '{text}': the {what} '{t}' is not a number; {how}"))
     };
     let (from_ev, to_ev, count) = (number(from, "FROM")?, number(to, "TO")?, number(n, "N")?);
     if !(count.fract() == 0.0 && (2.0..=MAX_AXIS_POINTS as f64).contains(&count)) {
-        return Err(format!("--{name} '{text}': N = {n} is not usable; give a whole number of points from 2 to {MAX_AXIS_POINTS}"));
+        return Err(format!(
+            "--{name} '{text}': N = {n} is not usable; give a whole number of points from 2 to {MAX_AXIS_POINTS}"
+        ));
     }
-    check_gap_range(&format!("{cell} band-gap range"), from_ev, to_ev).map_err(|e| format!("--{name} '{text}': {e}"))?;
+    check_gap_range(&format!("{cell} band-gap range"), from_ev, to_ev)
+        .map_err(|e| format!("--{name} '{text}': {e}"))?;
     Ok(MapAxis { from_ev, to_ev, n: count as usize })
 }
 

@@ -23,10 +23,10 @@ pub const ALL: &[&Command] = &[
     &eval::COMMAND,
     &cool::COMMAND,
     &stack::COMMAND,
-    &map::COMMAND,
     &optimize::COMMAND,
     &mismatch::COMMAND,
     &losses::COMMAND,
+    &map::COMMAND,
 ];
 
 /// The command called `name`.
