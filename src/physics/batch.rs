@@ -106,7 +106,7 @@ impl FastDiode {
     pub fn new(pre: &ThermalPrefactor, cell: &Cell, gap_j: f64) -> Option<FastDiode> {
         let kt = pre.thermal_energy();
         let x0 = gap_j / kt;
-        if !(x0 > 1.0 && x0 < 700.0) || !(cell.ere > 0.0 && cell.ere <= 1.0) {
+        if !(x0 > 1.0 && x0 < 700.0 && cell.ere > 0.0 && cell.ere <= 1.0) {
             return None;
         }
         let c1 = x0 * x0 + 2.0 * x0 + 2.0;
@@ -136,10 +136,10 @@ impl FastDiode {
     fn series(&self, z: f64) -> Series {
         let (mut h0, mut h1, mut zh0d, mut zh1d) = (1.0, 1.0, 0.0, 0.0);
         let mut zk = 1.0; // z^(k-1)
-        for k in 2..=self.terms {
+        for (k, &ik) in INV_K.iter().enumerate().take(self.terms + 1).skip(2) {
             zk *= z;
             // a_k z^(k-1) with a_k = (x0^2/k + 2 x0/k^2 + 2/k^3) / c_1
-            let (ik, kf) = (INV_K[k], k as f64);
+            let kf = k as f64;
             let t = zk * ik * (self.x0_sq + ik * (self.two_x0 + 2.0 * ik)) * self.inv_c1;
             h0 += t;
             h1 += kf * t;
@@ -157,6 +157,7 @@ impl FastDiode {
     /// 2 a_2 < 1, so after a Newton step s the error is below s^2/z: a step under 1e-8 z
     /// leaves less than 1e-16 z.
     #[inline]
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     fn invert(&self, w: f64, start: f64) -> Option<(f64, Series)> {
         let mut z = if start > 0.0 && start <= w { start } else { w };
         for _ in 0..40 {

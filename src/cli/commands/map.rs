@@ -108,6 +108,7 @@ fn axis(p: &Parsed, name: &str, cell: &str, example: &str) -> Result<MapAxis, St
 
 /// `glowgap map --top FROM:TO:N --bottom FROM:TO:N [--connection C] [SOURCE AND CELL OPTIONS]
 /// [--best] [--json | --csv]`
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a < b) on purpose: it also refuses NaN
 fn run(args: &[String], out: Out) -> Result<(), Failure> {
     let p = COMMAND.spec.parse(args)?;
     if p.flag("json") && p.flag("csv") {
