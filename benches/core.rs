@@ -1,5 +1,5 @@
 //! Benchmarks of the physics core. Numbers are printed, never asserted: run
-//! `cargo bench` and read them. Goals (from the project's issues):
+//! `cargo bench` and read them. Goals:
 //! * one exact cell evaluation under 5 us,
 //! * the efficiency-vs-gap curve, 0.30-4.00 eV at 1 meV (3,701 gaps) on AM1.5G, under 1 ms,
 //!   and ahead of the vectorized numpy script benches/sweep_numpy.py (import time excluded),
