@@ -6,7 +6,7 @@ Run with:
 
 Computes the Shockley-Queisser limit (W. Shockley and H. J. Queisser,
 J. Appl. Phys. 32, 510 (1961)) for 3,701 gaps from 0.300 to 4.000 eV in
-1 meV steps under ASTM G173-03 AM1.5G (global column), cell at 300 K,
+1 meV steps (GLOWGAP_BENCH_STEP_MEV=0.1: 37,001 gaps in 0.1 meV steps) under ASTM G173-03 AM1.5G (global column), cell at 300 K,
 1 sun, ERE = 1, front-face emission only (g = 1).  Emission uses the exact
 generalized Planck law (P. Wurfel, J. Phys. C 15, 3967 (1982)) summed as the
 Bose series
@@ -49,6 +49,7 @@ KB = 1.380649e-23
 Q = 1.602176634e-19
 
 REPEATS = int(os.environ.get("GLOWGAP_BENCH_REPEATS", "20"))
+STEP_MEV = float(os.environ.get("GLOWGAP_BENCH_STEP_MEV", "1"))
 ROOT = Path(__file__).resolve().parents[1]
 G173 = ROOT / "src" / "physics" / "data" / "astm_g173_03.csv"
 FIXTURE = ROOT / "tests" / "fixtures" / "detailed_balance.csv"
@@ -163,8 +164,9 @@ def main():
     table = load_table(G173)
     t1 = time.perf_counter()
     lam, irr = table["wavelength"], table["global"]
-    gaps = np.arange(300, 4001) / 1000.0                      # 3,701 gaps
-    assert gaps.size == 3701
+    # GLOWGAP_BENCH_STEP_MEV=0.1 gives the 37,001 gaps of `glowgap sweep --step 0.0001`
+    per_ev = int(round(1000.0 / STEP_MEV))
+    gaps = np.arange(round(0.3 * per_ev), round(4.0 * per_ev) + 1) / per_ev
 
     res = sweep(lam, irr, gaps)                              # warm-up
     times = []
@@ -177,7 +179,7 @@ def main():
     print(f"numpy_import_seconds={_t_import1 - _t_import0:.6f}")
     print(f"numpy_load_seconds={t1 - t0:.6f}")
     print(f"numpy_sweep_seconds={statistics.median(times):.6f} gaps={gaps.size} "
-          f"best_gap_ev={gaps[best]:.3f} best_efficiency={res['eff'][best]:.10f}")
+          f"best_gap_ev={gaps[best]:.4f} best_efficiency={res['eff'][best]:.10f}")
     chk = self_check(table)
     if chk is None:
         print("selfcheck skipped: tests/fixtures/detailed_balance.csv not found")

@@ -114,6 +114,16 @@ impl ThermalPrefactor {
         let ln_prefactor = (emission.faces() * CHARGE * PHOTON_FLUX_PREFACTOR * kt * kt * kt).ln();
         ThermalPrefactor { kt, ln_prefactor }
     }
+
+    /// kT [J].
+    pub fn thermal_energy(&self) -> f64 {
+        self.kt
+    }
+
+    /// q g 2 pi (kT)^3 / (h^3 c^2) [A m^-2].
+    pub fn prefactor(&self) -> f64 {
+        self.ln_prefactor.exp()
+    }
 }
 
 /// ln R and its first three derivatives with respect to m = qV/kT.
@@ -564,14 +574,22 @@ pub fn jv_curve(light: &Illumination, cell: &Cell, points: usize) -> Vec<(f64, f
     Diode::new(cell, r.jsc).curve(r.voc, points)
 }
 
-/// Solve the same cell at every band gap in `gaps_j` [J].
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
+/// Solve the same cell at every band gap in `gaps_j` [J]: the batch engine
+/// ([`super::batch::solve_cells`]), on every core natively.
 pub fn sweep(light: &Illumination, template: &Cell, gaps_j: &[f64]) -> Vec<CellResult> {
+    // photocurrents for all gaps in one pass (a monotone walk over tabulated spectra)
+    let jsc = step_photocurrents(light, gaps_j);
+    super::batch::solve_cells(template, gaps_j, &jsc, light.input_power())
+}
+
+/// As [`sweep`], one gap after another through the scalar path ([`Diode::solve`]): the
+/// reference the batch engine is checked against.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
+pub fn sweep_scalar(light: &Illumination, template: &Cell, gaps_j: &[f64]) -> Vec<CellResult> {
     let input = light.input_power();
     let valid = template.temp_k > 0.0 && template.ere > 0.0;
     let template = Cell { ere: template.ere.min(1.0), ..*template };
     let pre = ThermalPrefactor::new(template.temp_k, template.emission);
-    // photocurrents for all gaps in one pass (a monotone walk over tabulated spectra)
     let jsc = step_photocurrents(light, gaps_j);
     gaps_j
         .iter()

@@ -2,6 +2,7 @@
 //! in the hot paths beyond the result vectors.
 
 pub mod absorber;
+pub mod batch;
 pub mod constants;
 pub mod data;
 pub mod junction;

@@ -8,6 +8,7 @@ mod cell;
 mod cool;
 mod eval;
 mod losses;
+mod map;
 mod mismatch;
 mod optimize;
 mod stack;
@@ -25,6 +26,7 @@ pub const ALL: &[&Command] = &[
     &optimize::COMMAND,
     &mismatch::COMMAND,
     &losses::COMMAND,
+    &map::COMMAND,
 ];
 
 /// The command called `name`.

@@ -6,9 +6,12 @@
 //! photocurrent, a re-targeted diode, and the series maximum (or, for independent
 //! connection, the bottom cell's own maximum: the top cell's does not depend on the bottom
 //! gap and is computed once per row). Along a row each series search starts from the
-//! extrapolation of the two before it.
+//! extrapolation of the two before it. The batch engine ([`crate::physics::batch`]) solves
+//! a point where its series form applies, the scalar path elsewhere; rows are independent,
+//! so natively they go to every core and the result does not depend on the thread count.
 
 use super::{series, Connection};
+use crate::physics::batch::{fill_chunks, series_max_power, FastDiode, SeriesCell};
 use crate::physics::constants::CHARGE;
 use crate::physics::junction::{Cell, Diode, Illumination, ThermalPrefactor};
 use crate::physics::sources::Source;
@@ -54,6 +57,8 @@ struct GapColumn {
     jsc_above: f64,
     /// the gap's diode (photocurrent to be set per point), None for an unusable gap
     diode: Option<Diode>,
+    /// the same diode for the batch engine, None where its series form does not apply
+    fast: Option<FastDiode>,
 }
 
 /// The per-gap pieces for every gap of `gaps_j` [J] under `light`, cells like `cell`.
@@ -65,14 +70,16 @@ fn columns(light: &Illumination, cell: &Cell, pre: &ThermalPrefactor, gaps_j: &[
             let ok = g > 0.0 && g.is_finite();
             let jsc_above = if ok { q_x * light.source.photon_flux_above(g) } else { 0.0 };
             let diode = ok.then(|| Diode::with_prefactor(pre, &Cell { gap_j: g, ..*cell }, jsc_above));
-            GapColumn { gap_j: g, jsc_above, diode }
+            let fast = if ok { FastDiode::new(pre, cell, g) } else { None };
+            GapColumn { gap_j: g, jsc_above, diode, fast }
         })
         .collect()
 }
 
 /// Efficiencies of every two-junction stack (top gap from `top_gaps_j`, bottom gap from
-/// `bottom_gaps_j`, both [J]) under `light`, with subcells like `template`.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
+/// `bottom_gaps_j`, both [J]) under `light`, with subcells like `template`. The batch
+/// engine ([`crate::physics::batch`]) solves each point where its series form applies (the
+/// scalar path elsewhere); rows go to every core natively.
 pub fn tandem_map(
     light: &Illumination,
     template: &Cell,
@@ -80,36 +87,93 @@ pub fn tandem_map(
     top_gaps_j: &[f64],
     bottom_gaps_j: &[f64],
 ) -> EfficiencyMap {
+    map_with(light, template, connection, top_gaps_j, bottom_gaps_j, true)
+}
+
+/// As [`tandem_map`], every point through the scalar path (`Diode`, `series`): the
+/// reference the batch engine is checked against.
+pub fn tandem_map_scalar(
+    light: &Illumination,
+    template: &Cell,
+    connection: Connection,
+    top_gaps_j: &[f64],
+    bottom_gaps_j: &[f64],
+) -> EfficiencyMap {
+    map_with(light, template, connection, top_gaps_j, bottom_gaps_j, false)
+}
+
+fn map_with(
+    light: &Illumination,
+    template: &Cell,
+    connection: Connection,
+    top_gaps_j: &[f64],
+    bottom_gaps_j: &[f64],
+    fast: bool,
+) -> EfficiencyMap {
     let input = light.input_power();
     let mut efficiency = vec![0.0; top_gaps_j.len() * bottom_gaps_j.len()];
     let usable = input > 0.0 && template.temp_k > 0.0 && template.temp_k.is_finite() && template.ere > 0.0;
-    if usable {
+    let nb = bottom_gaps_j.len();
+    if usable && nb > 0 {
         let cell = Cell { ere: template.ere.min(1.0), ..*template };
         let pre = ThermalPrefactor::new(cell.temp_k, cell.emission);
         let tops = columns(light, &cell, &pre, top_gaps_j);
         let bottoms = columns(light, &cell, &pre, bottom_gaps_j);
-        let nb = bottoms.len();
-        for (i, top) in tops.iter().enumerate() {
-            let Some(top_diode) = top.diode else { continue };
-            let top_p = match connection {
-                Connection::Independent => top_diode.solve(top.gap_j, input).pmax,
-                Connection::Series => 0.0,
-            };
-            let row = &mut efficiency[i * nb..(i + 1) * nb];
-            // the last two series maxima of the row: their linear extrapolation starts the
-            // next point's search (the maximum moves smoothly along a row, so the first
-            // Newton step from there is usually already within tolerance)
-            let (mut hint, mut before) = (None::<series::SeriesHint>, None::<series::SeriesHint>);
-            for (out, bottom) in row.iter_mut().zip(&bottoms) {
-                let Some(bottom_diode) = bottom.diode else { continue };
-                if !(bottom.gap_j < top.gap_j) {
-                    continue;
-                }
-                let jsc_b = (bottom.jsc_above - top.jsc_above).max(0.0);
-                let b = bottom_diode.with_photocurrent(jsc_b);
-                let p = match connection {
-                    Connection::Independent => top_p + b.solve(bottom.gap_j, input).pmax,
-                    Connection::Series => {
+        let (tops, bottoms) = (&tops, &bottoms);
+        // a chunk is a whole number of rows (about 4,000 points), so hints never cross chunks
+        let rows_per_chunk = (4096 / nb).max(1);
+        fill_chunks(&mut efficiency, rows_per_chunk * nb, |first, part| {
+            for (r, row) in part.chunks_mut(nb).enumerate() {
+                map_row(&tops[first / nb + r], bottoms, row, connection, input, fast);
+            }
+        });
+    }
+    EfficiencyMap { connection, top_gaps_j: top_gaps_j.to_vec(), bottom_gaps_j: bottom_gaps_j.to_vec(), efficiency }
+}
+
+/// One row of the map: the top gap `top` with every bottom gap, efficiencies into `row`.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
+fn map_row(top: &GapColumn, bottoms: &[GapColumn], row: &mut [f64], connection: Connection, input: f64, fast: bool) {
+    let Some(top_diode) = top.diode else { return };
+    let top_fast = if fast { top.fast } else { None };
+    let top_p = match connection {
+        Connection::Independent => top_diode.solve(top.gap_j, input).pmax,
+        Connection::Series => 0.0,
+    };
+    // the last two series maxima of the row: their linear extrapolation starts the
+    // next point's search (the maximum moves smoothly along a row, so the first
+    // Newton step from there is usually already within tolerance)
+    let (mut hint, mut before) = (None::<series::SeriesHint>, None::<series::SeriesHint>);
+    let (mut j_last, mut j_before) = (f64::NAN, f64::NAN);
+    for (out, bottom) in row.iter_mut().zip(bottoms) {
+        let Some(bottom_diode) = bottom.diode else { continue };
+        if !(bottom.gap_j < top.gap_j) {
+            continue;
+        }
+        let jsc_b = (bottom.jsc_above - top.jsc_above).max(0.0);
+        let bottom_fast = if fast { bottom.fast } else { None };
+        let p = match connection {
+            Connection::Independent => {
+                let solved = bottom_fast.and_then(|d| d.solve(bottom.gap_j, jsc_b, input));
+                top_p + solved.unwrap_or_else(|| bottom_diode.with_photocurrent(jsc_b).solve(bottom.gap_j, input)).pmax
+            }
+            Connection::Series => {
+                let quick = match (&top_fast, &bottom_fast) {
+                    (Some(t), Some(b)) => {
+                        let cells = [SeriesCell { diode: t, jsc: top.jsc_above }, SeriesCell { diode: b, jsc: jsc_b }];
+                        let start = if j_before.is_finite() { 2.0 * j_last - j_before } else { j_last };
+                        series_max_power(&cells, start)
+                    }
+                    _ => None,
+                };
+                match quick {
+                    Some((p, j)) => {
+                        j_before = j_last;
+                        j_last = j;
+                        p
+                    }
+                    None => {
+                        let b = bottom_diode.with_photocurrent(jsc_b);
                         let start = match (before, hint) {
                             (Some(a), Some(h)) if a.limiting == h.limiting => {
                                 Some(series::SeriesHint { limiting: h.limiting, m: 2.0 * h.m - a.m })
@@ -121,12 +185,11 @@ pub fn tandem_map(
                         hint = next;
                         point.p
                     }
-                };
-                *out = p / input;
+                }
             }
-        }
+        };
+        *out = p / input;
     }
-    EfficiencyMap { connection, top_gaps_j: top_gaps_j.to_vec(), bottom_gaps_j: bottom_gaps_j.to_vec(), efficiency }
 }
 
 /// The bottom gap [J] at which a two-junction stack's photocurrents match for top gap

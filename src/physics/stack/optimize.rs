@@ -16,6 +16,7 @@
 //! delivers nothing and the others are unchanged; in series its zero current stops the stack.
 
 use super::{stack_efficiency, Connection, MAX_JUNCTIONS};
+use crate::physics::batch::map_indexed;
 use crate::physics::constants::CHARGE;
 use crate::physics::junction::{Cell, Illumination};
 
@@ -96,30 +97,51 @@ impl Objective<'_, '_> {
 
     /// The gaps of a candidate, top first, fixed gap included.
     fn gaps(&self, free: &[f64]) -> Vec<f64> {
-        let mut g: Vec<f64> = free.to_vec();
-        if let Some(f) = self.p.fixed {
-            g.push(f.gap_j);
-        }
-        g.sort_by(|a, b| b.total_cmp(a));
-        g
+        candidate_gaps(self.p, free)
     }
 
     /// The stack efficiency (dimensionless, 0 when not finite) for the free gaps `free` [J], any
     /// order; counts one evaluation.
     fn efficiency(&mut self, free: &[f64]) -> f64 {
         self.count(1);
-        let mut g = self.gaps(free);
-        let before = g.len();
-        g.dedup();
-        if g.len() < before && self.p.connection == Connection::Series {
-            return 0.0;
-        }
-        let e = stack_efficiency(self.p.light, &self.p.cell, &g, self.p.connection);
-        if e.is_finite() {
-            e
-        } else {
-            0.0
-        }
+        value(self.p, free)
+    }
+
+    /// The efficiency of every candidate `free(i)`, i in 0..n, on every core natively (each
+    /// is a pure function of its gaps, so the values do not depend on the order); counted as
+    /// n evaluations.
+    fn efficiencies(&mut self, n: usize, free: impl Fn(usize) -> Vec<f64> + Sync + Send) -> Vec<f64> {
+        let p = self.p;
+        let out = map_indexed(n, |i| value(p, &free(i)));
+        self.count(n as u64);
+        out
+    }
+}
+
+/// The gaps of a candidate, top first, fixed gap included.
+fn candidate_gaps(p: &Problem, free: &[f64]) -> Vec<f64> {
+    let mut g: Vec<f64> = free.to_vec();
+    if let Some(f) = p.fixed {
+        g.push(f.gap_j);
+    }
+    g.sort_by(|a, b| b.total_cmp(a));
+    g
+}
+
+/// The efficiency of the candidate with free gaps `free` [J]; 0 for a series stack with two
+/// equal gaps or a value that is not finite.
+fn value(p: &Problem, free: &[f64]) -> f64 {
+    let mut g = candidate_gaps(p, free);
+    let before = g.len();
+    g.dedup();
+    if g.len() < before && p.connection == Connection::Series {
+        return 0.0;
+    }
+    let e = stack_efficiency(p.light, &p.cell, &g, p.connection);
+    if e.is_finite() {
+        e
+    } else {
+        0.0
     }
 }
 
@@ -197,8 +219,25 @@ fn search(p: &Problem, observer: Option<&mut dyn FnMut(u64)>) -> Optimum {
     starts.sort_by(|a, b| b.1.total_cmp(&a.1));
     let mut best = starts.first().cloned().unwrap_or_default();
     let step = (hi - lo) * 0.01;
-    for (x, e) in starts.iter().take(POLISHED_STARTS) {
-        let (px, pe) = nelder_mead(&mut obj, x, *e, step, lo, hi);
+    let polish = &starts[..starts.len().min(POLISHED_STARTS)];
+    let polished: Vec<(Vec<f64>, f64)> = if obj.observer.is_some() {
+        polish.iter().map(|(x, e)| nelder_mead(&mut obj, x, *e, step, lo, hi)).collect()
+    } else {
+        // independent polishes, each with its own count: on every core natively, the same
+        // answers and the same total as one after the other
+        let runs: Vec<(Vec<f64>, f64, u64)> = map_indexed(polish.len(), |i| {
+            let mut own = Objective { p, evaluations: 0, observer: None };
+            let (x, e) = nelder_mead(&mut own, &polish[i].0, polish[i].1, step, lo, hi);
+            (x, e, own.evaluations)
+        });
+        runs.into_iter()
+            .map(|(x, e, n)| {
+                obj.count(n);
+                (x, e)
+            })
+            .collect()
+    };
+    for (px, pe) in polished {
         if pe > best.1 {
             best = (px, pe);
         }
@@ -259,7 +298,7 @@ fn grid_points(lo: f64, hi: f64, step_ev: f64) -> Vec<f64> {
 /// Every grid point of one free gap; returns the local maxima, best first.
 fn grid_1d(obj: &mut Objective, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
     let xs = grid_points(lo, hi, GRID_1D_EV);
-    let es: Vec<f64> = xs.iter().map(|&x| obj.efficiency(&[x])).collect();
+    let es = obj.efficiencies(xs.len(), |i| vec![xs[i]]);
     let mut maxima: Vec<(Vec<f64>, f64)> = (0..xs.len())
         .filter(|&i| {
             let left = if i > 0 { es[i - 1] } else { f64::NEG_INFINITY };
@@ -282,11 +321,12 @@ fn grid_2d(obj: &mut Objective, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
         obj.count((n * (n - 1) / 2) as u64);
         m.efficiency
     } else {
+        // the pairs k < i in row order, evaluated on every core
+        let pairs: Vec<(usize, usize)> = (0..n).flat_map(|i| (0..i).map(move |k| (i, k))).collect();
+        let es = obj.efficiencies(pairs.len(), |m| vec![xs[pairs[m].0], xs[pairs[m].1]]);
         let mut g = vec![0.0; n * n];
-        for i in 0..n {
-            for k in 0..i {
-                g[i * n + k] = obj.efficiency(&[xs[i], xs[k]]);
-            }
+        for (&(i, k), e) in pairs.iter().zip(es) {
+            g[i * n + k] = e;
         }
         g
     };
@@ -380,7 +420,7 @@ fn evolve(obj: &mut Objective, d: usize, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64
             )
         })
         .collect();
-    let mut fit: Vec<f64> = pop.iter().map(|x| obj.efficiency(x)).collect();
+    let mut fit: Vec<f64> = obj.efficiencies(np, |i| pop[i].clone());
     for _ in 0..MAX_GENERATIONS {
         let weight = 0.5 + 0.5 * rng.unit(); // dither (Storn & Price 1997, sec. 5)
         for i in 0..np {
