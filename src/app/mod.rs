@@ -28,7 +28,12 @@ use state::Ctx;
 
 /// Start the app (called from `main` on wasm32).
 pub fn start() {
-    console_error_panic_hook::set_once();
+    // a panic's location, in the console (its message would pull the whole formatting of
+    // panic payloads into the download; the location is enough to find it)
+    std::panic::set_hook(Box::new(|info| {
+        let at = info.location().map(|l| format!(" at {}:{}", l.file(), l.line())).unwrap_or_default();
+        web_sys::console::error_1(&format!("Glowgap stopped on an internal error{at}; please report it.").into());
+    }));
     leptos::mount::mount_to_body(App);
 }
 
