@@ -150,6 +150,7 @@ pub fn StackPanel() -> impl IntoView {
         count_render();
     });
     super::watch_sizes(ctx, canvases.to_vec());
+    search::warm(stack);
     on_cleanup(|| {
         map_job::stop();
         search::stop();

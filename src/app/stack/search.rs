@@ -97,6 +97,20 @@ fn fail(stack: StackState, text: String) {
     stack.search.try_set(SearchState::Failed(text));
 }
 
+/// Start the search's worker with the panel, so that it has loaded the module before the
+/// first search is asked for (its first job is otherwise mostly that load).
+pub fn warm(stack: StackState) {
+    if RUNNER.with(|r| r.borrow().is_some()) {
+        return;
+    }
+    if let Ok(r) = new_worker(stack) {
+        // id 0 is never a search's id, so its answer is ignored
+        if r.worker.post(0, "glowgap_warm", "", "") {
+            RUNNER.with(|x| *x.borrow_mut() = Some(r));
+        }
+    }
+}
+
 /// End the worker, if any (cancel, or the panel going away).
 pub fn stop() {
     if let Some(r) = RUNNER.with(|r| r.borrow_mut().take()) {
