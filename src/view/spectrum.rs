@@ -179,7 +179,7 @@ pub fn spectrum_view(
             (0..n).map(|i| x_lo + (x_hi - x_lo) * i as f64 / (n - 1) as f64).collect()
         }
     };
-    x.sort_by(|a, b| a.total_cmp(b));
+    x.sort_unstable_by(f64::total_cmp);
     let mut y: Vec<f64> = x.iter().map(|v| display_value(src, axis, quantity, energy_of_x(axis, *v))).collect();
     if thin && x.len() > SPECTRUM_DRAW_POINTS {
         (x, y) = thin_extremes(&x, &y, SPECTRUM_DRAW_POINTS / 2);

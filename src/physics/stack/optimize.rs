@@ -124,7 +124,9 @@ fn candidate_gaps(p: &Problem, free: &[f64]) -> Vec<f64> {
     if let Some(f) = p.fixed {
         g.push(f.gap_j);
     }
-    g.sort_by(|a, b| b.total_cmp(a));
+    // descending (plain numbers: the order of equal values does not matter)
+    g.sort_unstable_by(f64::total_cmp);
+    g.reverse();
     g
 }
 
@@ -407,7 +409,8 @@ fn evolve(obj: &mut Objective, d: usize, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64
     let mut rng = SplitMix(EVOLUTION_SEED ^ (d as u64) << 8 ^ (obj.p.junctions as u64));
     let np = (12 * d).max(24);
     let canon = |mut x: Vec<f64>| {
-        x.sort_by(|a, b| b.total_cmp(a));
+        x.sort_unstable_by(f64::total_cmp);
+        x.reverse();
         x
     };
     // stratified start: member i draws each coordinate from its own slice of the range
