@@ -495,8 +495,10 @@ proptest! {
                 // the root solves the balance: |P_net| small against the terms at that T
                 let scale = b.emitted(t) + b.sky_absorbed() + b.sun_absorbed() + hc * (ta - t).abs() + 1e-9;
                 prop_assert!(b.net(t).abs() <= 1e-6 * scale, "net {} at {t}", b.net(t));
-                if at_ambient > 0.0 { prop_assert!(t < ta); }
-                if at_ambient < 0.0 { prop_assert!(t > ta); }
+                // the search stops within 1e-9 relative of the root (its stated tolerance), so
+                // when P_net(Ta) is tiny the root found may sit that close on the far side of Ta
+                if at_ambient > 0.0 { prop_assert!(t < ta * (1.0 + 1e-9), "{t} K, ambient {ta} K"); }
+                if at_ambient < 0.0 { prop_assert!(t > ta * (1.0 - 1e-9), "{t} K, ambient {ta} K"); }
             }
             Steady::BelowRange(_) => prop_assert!(at_ambient > 0.0),
             Steady::AboveRange(_) => prop_assert!(at_ambient < 0.0),
