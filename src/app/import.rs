@@ -44,25 +44,31 @@ thread_local! {
     static READER: std::cell::RefCell<Option<Background>> = const { std::cell::RefCell::new(None) };
 }
 
-/// Read a spectrum file and make it the source.
+/// Read a spectrum file and make it the source: a short file here, a long one in the
+/// background worker, which reads the file itself (the page keeps drawing); a table longer
+/// than a link can carry is offered resampled.
 pub fn open_spectrum(ctx: Ctx, file: web_sys::File) {
-    read_then(file, move |name, text| match text {
-        Ok(text) => use_spectrum_text(ctx, &name, text),
-        Err(e) => ctx.set_error(
-            Control::Spectrum,
-            format!("'{name}' was not loaded: {e}. The previous spectrum is still in use."),
-        ),
-    });
-}
-
-/// Use the text of spectrum file `file_name`: read at once when short, in the background
-/// worker when long; a table longer than a link can carry is offered resampled.
-pub fn use_spectrum_text(ctx: Ctx, file_name: &str, text: String) {
-    if text.len() <= BACKGROUND_BYTES {
-        return spectrum_read(ctx, file_name, spectrum_for_page(&text, file_name));
+    if file.size() <= BACKGROUND_BYTES as f64 {
+        return read_then(file, move |name, text| match text {
+            Ok(text) => spectrum_read(ctx, &name, spectrum_for_page(&text, &name)),
+            Err(e) => ctx.set_error(
+                Control::Spectrum,
+                format!("'{name}' was not loaded: {e}. The previous spectrum is still in use."),
+            ),
+        });
     }
-    ctx.status.set(Some(format!("Reading '{file_name}' ({:.1} MB) in the background…", text.len() as f64 / 1048576.0)));
-    let name = file_name.to_string();
+    let name = file.name();
+    if file.size() > MAX_FILE_BYTES {
+        return ctx.set_error(
+            Control::Spectrum,
+            format!(
+                "'{name}' was not loaded: the file is {:.1} MB, more than the {:.0} MB accepted. The previous spectrum is still in use.",
+                file.size() / 1048576.0,
+                MAX_FILE_BYTES / 1048576.0
+            ),
+        );
+    }
+    ctx.status.set(Some(format!("Reading '{name}' ({:.1} MB) in the background…", file.size() / 1048576.0)));
     let on_reply = {
         let name = name.clone();
         move |m: WorkerReply| {
@@ -88,21 +94,28 @@ pub fn use_spectrum_text(ctx: Ctx, file_name: &str, text: String) {
             spectrum_read(ctx, &name, Err(format!("the background reader stopped ({msg})")));
         }
     };
-    match Background::start(on_reply, on_error) {
+    let started = match Background::start(on_reply, on_error) {
+        Ok(w) if w.post_file(1, "glowgap_read_spectrum", &name, &file) => Some(w),
         Ok(w) => {
-            if w.post(1, "glowgap_read_spectrum", &name, &text) {
-                READER.with(|r| {
-                    if let Some(old) = r.borrow_mut().replace(w) {
-                        old.stop();
-                    }
-                });
-            } else {
-                w.stop();
-                spectrum_read(ctx, &name, spectrum_for_page(&text, &name));
-            }
+            w.stop();
+            None
         }
+        Err(_) => None,
+    };
+    match started {
+        Some(w) => READER.with(|r| {
+            if let Some(old) = r.borrow_mut().replace(w) {
+                old.stop();
+            }
+        }),
         // no worker in this browser: read it here
-        Err(_) => spectrum_read(ctx, &name, spectrum_for_page(&text, &name)),
+        None => read_then(file, move |name, text| match text {
+            Ok(text) => spectrum_read(ctx, &name, spectrum_for_page(&text, &name)),
+            Err(e) => ctx.set_error(
+                Control::Spectrum,
+                format!("'{name}' was not loaded: {e}. The previous spectrum is still in use."),
+            ),
+        }),
     }
 }
 

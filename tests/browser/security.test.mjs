@@ -88,7 +88,9 @@ function withMarkup(doc) {
   return copy;
 }
 
-for (const fixture of ['page-radiator-panel', 'page-stack-panel']) {
+// page-radiator-panel names a user spectrum, emissivity, sky and EQE table, all shown on the
+// page; page-stack-panel's only names are the mismatch tables', which the page does not show
+for (const [fixture, shows] of [['page-radiator-panel', true], ['page-stack-panel', false]]) {
   test(`a link whose text fields carry HTML and script (${fixture}) shows them as text and runs nothing`, async () => {
     const doc = JSON.parse(fs.readFileSync(path.resolve(import.meta.dirname, `../fixtures/links/${fixture}.scenario.json`), 'utf8'));
     const hostile = withMarkup(doc);
@@ -112,7 +114,8 @@ for (const fixture of ['page-radiator-panel', 'page-stack-panel']) {
     await page.locator('[data-panel="cell"]').click();
     const shown = await page.evaluate(() => document.body.innerText.includes('<img src=x'));
     const inValues = await page.evaluate(() => [...document.querySelectorAll('option, input')].some((e) => (e.textContent + e.value).includes('<img src=x')));
-    assert.ok(shown || inValues, 'the markup is displayed as plain text');
+    if (shows) assert.ok(shown || inValues, 'the markup is displayed as plain text');
+    assert.match(await page.locator('[data-metric="efficiency"]').innerText(), /%$/, 'the page works');
     assert.deepEqual(page.errors, []);
     await context.close();
   });

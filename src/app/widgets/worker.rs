@@ -22,7 +22,9 @@ self.onmessage = async (e) => {
     const m = await ready;
     const run = m[msg.call];
     if (typeof run !== 'function') throw new Error('no job called ' + msg.call);
-    const reply = run(msg.job, msg.text || '', (n) => self.postMessage(JSON.stringify({ id: msg.id, progress: n })));
+    // a file is read here, off the page's thread
+    const text = msg.file ? await msg.file.text() : (msg.text || '');
+    const reply = run(msg.job, text, (n) => self.postMessage(JSON.stringify({ id: msg.id, progress: n })));
     self.postMessage(JSON.stringify({ id: msg.id, reply }));
   } catch (err) {
     self.postMessage(JSON.stringify({ id: msg.id, failed: String((err && err.message) || err) }));
@@ -118,6 +120,20 @@ impl Background {
             && set("call", JsValue::from_str(call))
             && set("job", JsValue::from_str(job))
             && set("text", JsValue::from_str(text));
+        ok && self.worker.post_message(&msg).is_ok()
+    }
+
+    /// Ask the worker to run entry point `call` on `job` and the text of `file`, which the
+    /// worker reads itself (the page's thread never holds the file's text).
+    pub fn post_file(&self, id: u64, call: &str, job: &str, file: &web_sys::File) -> bool {
+        let msg = js_sys::Object::new();
+        let set = |k: &str, v: JsValue| js_sys::Reflect::set(&msg, &JsValue::from_str(k), &v).is_ok();
+        let ok = set("id", JsValue::from_f64(id as f64))
+            && set("module", JsValue::from_str(&self.module))
+            && set("wasm", JsValue::from_str(&self.wasm))
+            && set("call", JsValue::from_str(call))
+            && set("job", JsValue::from_str(job))
+            && set("file", file.into());
         ok && self.worker.post_message(&msg).is_ok()
     }
 
