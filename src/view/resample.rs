@@ -46,7 +46,9 @@ pub fn resample(x: &[f64], y: &[f64], n: usize) -> (Vec<f64>, Vec<f64>) {
     }
     let (x, y) = (&x[..len], &y[..len]);
     let c = cumulative(x, y);
-    let nodes: Vec<f64> = (0..n).map(|k| x[(k * (len - 1) + (n - 1) / 2) / (n - 1)]).collect();
+    // index arithmetic in u64: k (len - 1) exceeds a 32-bit usize (the page's) for long tables
+    let at = |k: usize| ((k as u64 * (len as u64 - 1) + (n as u64 - 1) / 2) / (n as u64 - 1)) as usize;
+    let nodes: Vec<f64> = (0..n).map(|k| x[at(k)]).collect();
     let mut nodes = nodes;
     nodes[0] = x[0];
     nodes[n - 1] = x[len - 1];
@@ -81,6 +83,19 @@ mod tests {
 
     fn trapezoid(x: &[f64], y: &[f64]) -> f64 {
         x.windows(2).zip(y.windows(2)).map(|(a, b)| 0.5 * (b[0] + b[1]) * (a[1] - a[0])).sum()
+    }
+
+    #[test]
+    fn node_indices_do_not_overflow_a_32_bit_index() {
+        // 20,000 nodes over 1,000,001 rows: k (len - 1) reaches 2e10, past u32::MAX (the
+        // page's usize); the nodes must still be the table's own points, ascending
+        let x: Vec<f64> = (0..1_000_001).map(|i| i as f64).collect();
+        let y = vec![1.0; x.len()];
+        let (rx, _) = resample(&x, &y, RESAMPLED_POINTS);
+        assert!(rx.windows(2).all(|w| w[1] > w[0]));
+        assert!(rx.iter().all(|v| v.fract() == 0.0) && rx[RESAMPLED_POINTS - 1] == 1_000_000.0);
+        let k = RESAMPLED_POINTS - 2;
+        assert!(k * 1_000_000 > u32::MAX as usize, "the case needs indices past 32 bits");
     }
 
     #[test]
