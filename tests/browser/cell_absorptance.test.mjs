@@ -3,12 +3,11 @@
 // `glowgap eval LINK` (the command line shows the cell with its absorptance). Run by .ci/test.
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
-import { useBrowser, rendered, artifact, figures, cliFigures } from './harness.mjs';
+import { useBrowser, rendered, artifact, figures, cliFigures, edit } from './harness.mjs';
 
 const env = useBrowser();
 const fresh = (url) => env.fresh(url);
 
-const renders = (page) => page.evaluate(() => Number(document.body.dataset.renders || 0));
 
 /** The Solar cell tab is in front on a fresh page; wait for its figures. */
 async function cellShown(page) {
@@ -25,14 +24,6 @@ async function reopened(link, shown, check) {
   await context.close();
 }
 
-/** Do `action`, then wait for the page to render and the link to change. */
-async function edit(page, action) {
-  const url0 = page.url();
-  const n0 = await renders(page);
-  await action();
-  await rendered(page, n0 + 1);
-  await page.waitForFunction((u) => location.href !== u, url0, { timeout: 10000 });
-}
 
 test('the loss chart sits in the Solar cell tab and follows the band gap', async () => {
   const { context, page } = await fresh();

@@ -66,6 +66,18 @@ export async function newPage(context) {
   return page;
 }
 
+/** How many times the app has rendered since load. */
+export const renders = (page) => page.evaluate(() => Number(document.body.dataset.renders || 0));
+
+/** Do `action`, then wait for the page to render and the link to change. */
+export async function edit(page, action) {
+  const url0 = page.url();
+  const n0 = await renders(page);
+  await action();
+  await rendered(page, n0 + 1);
+  await page.waitForFunction((u) => location.href !== u, url0, { timeout: 10000 });
+}
+
 /** Wait until the app has rendered at least `n` times since load. */
 export async function rendered(page, n = 1) {
   await page.waitForFunction((k) => Number(document.body.dataset.renders || 0) >= k, n, { timeout: 20000 });

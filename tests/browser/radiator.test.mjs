@@ -4,12 +4,11 @@
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import fs from 'node:fs';
-import { useBrowser, rendered, figures, radiatorFigures, cliRadiatorFigures, artifact } from './harness.mjs';
+import { useBrowser, rendered, figures, radiatorFigures, cliRadiatorFigures, artifact, renders } from './harness.mjs';
 
 const env = useBrowser({ viewport: { width: 1400, height: 1000 }, acceptDownloads: true });
 const fresh = (url) => env.fresh(url);
 
-const renders = (page) => page.evaluate(() => Number(document.body.dataset.renders || 0));
 
 /** Do `fn` and wait until the page has rendered again. */
 async function act(page, fn) {

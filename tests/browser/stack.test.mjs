@@ -5,12 +5,11 @@ import assert from 'node:assert/strict';
 import fs from 'node:fs';
 import path from 'node:path';
 import { execFileSync } from 'node:child_process';
-import { useBrowser, rendered, artifact, stackFigures, cliStackFigures, cliFigures, plotFrame, CLI } from './harness.mjs';
+import { useBrowser, rendered, artifact, stackFigures, cliStackFigures, cliFigures, plotFrame, CLI, renders, edit } from './harness.mjs';
 
 const env = useBrowser();
 const fresh = (url) => env.fresh(url);
 
-const renders = (page) => page.evaluate(() => Number(document.body.dataset.renders || 0));
 
 /** Wait until the stack's figures are on the page. */
 async function stackShown(page) {
@@ -40,14 +39,6 @@ async function reopened(link, figures, check) {
   await context.close();
 }
 
-/** Do `action`, then wait for the page to render and the link to change. */
-async function edit(page, action) {
-  const url0 = page.url();
-  const n0 = await renders(page);
-  await action();
-  await rendered(page, n0 + 1);
-  await page.waitForFunction((u) => location.href !== u, url0, { timeout: 10000 });
-}
 
 test('the Stack tab shows the figures of glowgap eval --stack, from the tab bar and from a link', async () => {
   const { context, page } = await fresh();

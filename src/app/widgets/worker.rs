@@ -109,32 +109,35 @@ impl Background {
         Ok(Background { worker, module, wasm, _on_message: on_message, _on_error: on_err })
     }
 
-    /// Ask the worker to run entry point `call` on `job` (and `text`, e.g. a file's
-    /// contents, passed as it is rather than inside `job`). Returns whether it was handed over.
-    pub fn post(&self, id: u64, call: &str, job: &str, text: &str) -> bool {
+    /// The message asking for entry point `call` on `job`; None if it could not be made.
+    fn message(&self, id: u64, call: &str, job: &str) -> Option<js_sys::Object> {
         let msg = js_sys::Object::new();
         let set = |k: &str, v: JsValue| js_sys::Reflect::set(&msg, &JsValue::from_str(k), &v).is_ok();
         let ok = set("id", JsValue::from_f64(id as f64))
             && set("module", JsValue::from_str(&self.module))
             && set("wasm", JsValue::from_str(&self.wasm))
             && set("call", JsValue::from_str(call))
-            && set("job", JsValue::from_str(job))
-            && set("text", JsValue::from_str(text));
-        ok && self.worker.post_message(&msg).is_ok()
+            && set("job", JsValue::from_str(job));
+        ok.then_some(msg)
+    }
+
+    /// Hand `msg` over with one more field `key`; returns whether it was handed over.
+    fn send(&self, msg: Option<js_sys::Object>, key: &str, value: JsValue) -> bool {
+        msg.is_some_and(|m| {
+            js_sys::Reflect::set(&m, &JsValue::from_str(key), &value).is_ok() && self.worker.post_message(&m).is_ok()
+        })
+    }
+
+    /// Ask the worker to run entry point `call` on `job` (and `text`, e.g. a file's
+    /// contents, passed as it is rather than inside `job`). Returns whether it was handed over.
+    pub fn post(&self, id: u64, call: &str, job: &str, text: &str) -> bool {
+        self.send(self.message(id, call, job), "text", JsValue::from_str(text))
     }
 
     /// Ask the worker to run entry point `call` on `job` and the text of `file`, which the
     /// worker reads itself (the page's thread never holds the file's text).
     pub fn post_file(&self, id: u64, call: &str, job: &str, file: &web_sys::File) -> bool {
-        let msg = js_sys::Object::new();
-        let set = |k: &str, v: JsValue| js_sys::Reflect::set(&msg, &JsValue::from_str(k), &v).is_ok();
-        let ok = set("id", JsValue::from_f64(id as f64))
-            && set("module", JsValue::from_str(&self.module))
-            && set("wasm", JsValue::from_str(&self.wasm))
-            && set("call", JsValue::from_str(call))
-            && set("job", JsValue::from_str(job))
-            && set("file", file.into());
-        ok && self.worker.post_message(&msg).is_ok()
+        self.send(self.message(id, call, job), "file", file.into())
     }
 
     /// End the worker at once (a cancelled or replaced job).
