@@ -101,16 +101,9 @@ fn stack_table_reads_with_units() {
 fn optimize_json_has_gaps_efficiency_and_evaluations() {
     // De Vos, J. Phys. D 13, 839 (1980): two independent cells, 6000 K sun, 42.9%.
     // Tolerance 0.06 points (3 digits published).
-    let v = json(&[
-        "optimize",
-        "--junctions",
-        "2",
-        "--connection",
-        "independent",
-        "--spectrum",
-        "blackbody:6000",
-        "--json",
-    ]);
+    let args =
+        ["optimize", "--junctions", "2", "--connection", "independent", "--spectrum", "blackbody:6000", "--json"];
+    let v = json(&args);
     let gaps: Vec<f64> = v["gaps_ev"].as_array().unwrap().iter().map(|g| g.as_f64().unwrap()).collect();
     assert_eq!(gaps.len(), 2);
     assert!(gaps[0] > gaps[1], "top first: {gaps:?}");
@@ -118,16 +111,7 @@ fn optimize_json_has_gaps_efficiency_and_evaluations() {
     assert!(v["evaluations"].as_u64().unwrap() > 100);
     assert_eq!(num(&v["stack"], "efficiency"), num(&v, "efficiency"));
     // deterministic: the same question, the same answer and the same count
-    let again = json(&[
-        "optimize",
-        "--junctions",
-        "2",
-        "--connection",
-        "independent",
-        "--spectrum",
-        "blackbody:6000",
-        "--json",
-    ]);
+    let again = json(&args);
     assert_eq!(v, again);
 }
 

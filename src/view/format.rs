@@ -65,6 +65,15 @@ pub fn sig(v: f64, sig: usize) -> String {
     }
 }
 
+/// `v` rounded to `sig` significant figures (0 and non-finite values unchanged).
+pub fn round_sig(v: f64, sig: i32) -> f64 {
+    if v == 0.0 || !v.is_finite() {
+        return v;
+    }
+    let p = 10f64.powi(sig - 1 - v.abs().log10().floor() as i32);
+    (v * p).round() / p
+}
+
 /// A field value as the user would type it: at most `max_sig` significant figures,
 /// trailing zeros dropped.
 pub fn field(v: f64, max_sig: usize) -> String {
@@ -210,5 +219,8 @@ mod tests {
         assert_eq!(decimals_of(250.0), 0);
         assert_eq!(decimals_of(0.25), 2);
         assert_eq!(csv_num(35.03235), "35.03235");
+        assert_eq!(round_sig(46239.28, 3), 46200.0);
+        assert_eq!(round_sig(-0.012345, 2), -0.012);
+        assert_eq!(round_sig(0.0, 3), 0.0);
     }
 }

@@ -19,6 +19,7 @@ use crate::physics::constants::MAX_CONCENTRATION;
 use crate::scenario::{Emission, JvModel};
 use crate::scenario::{Scenario, SourceSpec, CELL_TEMP_RANGE_K};
 use crate::view::format as fmt;
+use crate::view::format::round_sig;
 use crate::view::input::{ev_of_nm, parse_gap, parse_number, thousands, tidy};
 
 /// Band-gap starting points: (label, eV). Typical room-temperature values.
@@ -355,14 +356,6 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
             </fieldset>
         </section>
     }
-}
-
-fn round_sig(v: f64, sig: i32) -> f64 {
-    if v <= 0.0 || !v.is_finite() {
-        return v;
-    }
-    let p = 10f64.powi(sig - 1 - v.log10().floor() as i32);
-    (v * p).round() / p
 }
 
 /// The current scenario, untracked (for handlers).

@@ -3,6 +3,7 @@
 //! ordering rules that keep every edit a valid scenario.
 
 use crate::scenario::radiator::{EmitterSpec, MAX_POINTS, WAVELENGTH_RANGE_UM};
+use crate::view::format::round_sig;
 
 /// The wavelengths the editor always shows [um].
 pub const EDITOR_RANGE_UM: (f64, f64) = (0.3, 50.0);
@@ -72,15 +73,6 @@ pub fn preset(hook: &str) -> Option<EmitterSpec> {
 /// The preset hook a profile is, if it is one unchanged.
 pub fn preset_of(spec: &EmitterSpec) -> Option<&'static str> {
     PRESETS.iter().map(|p| p.0).find(|h| preset(h).as_ref() == Some(spec))
-}
-
-/// `v` to `sig` significant figures.
-fn round_sig(v: f64, sig: i32) -> f64 {
-    if v == 0.0 || !v.is_finite() {
-        return v;
-    }
-    let p = 10f64.powi(sig - 1 - v.abs().log10().floor() as i32);
-    (v * p).round() / p
 }
 
 /// A point as the link keeps it: wavelength to 4 significant figures, emissivity to 0.001.
