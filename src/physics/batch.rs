@@ -23,7 +23,10 @@
 //!   variable, each subcell's reduced voltage m_i(J) = x0_i + ln z_i(J) from
 //!   h_i(z_i) = (T_i - ERE J) / (P c_1,i), and its first two derivatives in closed form;
 //!   P(J) = (kT/q) J sum_i m_i(J) is concave, and dP/dJ = 0 is found by Newton's method
-//!   kept inside the bracket (0, min_i T_i / ERE).
+//!   kept inside the bracket (0, min_i Jsc_i), where no subcell is reverse biased; the maximum is the second-order Taylor
+//!   maximum P + P'^2/(2|P''|) once a bound on the third-order remainder, |P'''| <=
+//!   4 |P''| / (Jsc_i - J) (twice the Boltzmann limit's 2/(T_i/ERE - J), which is smaller),
+//!   says it is within 1e-14 of P.
 //!
 //! Every solve either meets its error bound (the Newton step's predicted error below
 //! 1e-14 relative) or returns `None`, and the caller falls back to the scalar path of
@@ -88,6 +91,10 @@ pub struct FastDiode {
     inv_c1: f64,
     /// 1 for the Boltzmann model (first term only), [`MAX_TERMS`] for the exact law
     terms: usize,
+    /// a_2 and 2 a_2^2 - a_3: the series reversion z = w - a_2 w^2 + (2 a_2^2 - a_3) w^3 + O(w^4)
+    /// of h(z) = w that starts [`FastDiode::invert`] (both 0 for the Boltzmann model)
+    rev2: f64,
+    rev3: f64,
     /// P c_1 [A m^-2]
     pc1: f64,
     /// R(0) [A m^-2]
@@ -121,11 +128,20 @@ impl FastDiode {
             x0_sq: x0 * x0,
             inv_c1: 1.0 / c1,
             terms,
+            rev2: 0.0,
+            rev3: 0.0,
             pc1,
             r0: 0.0,
             ere: cell.ere,
             vt: kt / CHARGE,
         };
+        if terms > 1 {
+            // a_k = (x0^2/k + 2 x0/k^2 + 2/k^3) / c_1
+            let a2 = (x0 * x0 / 2.0 + x0 / 2.0 + 0.25) / c1;
+            let a3 = (x0 * x0 / 3.0 + 2.0 * x0 / 9.0 + 2.0 / 27.0) / c1;
+            d.rev2 = a2;
+            d.rev3 = 2.0 * a2 * a2 - a3;
+        }
         let z0 = (-x0).exp();
         d.r0 = pc1 * z0 * d.series(z0).h0;
         (pc1.is_finite() && pc1 > 0.0 && d.r0 > 0.0 && d.r0.is_finite()).then_some(d)
@@ -152,13 +168,15 @@ impl FastDiode {
         Series { h0, h1, zh0d, zh1d }
     }
 
-    /// z with h(z) = w (0 < w <= [`Z_LIMIT`]), by Newton's method from `start` (or w), with
-    /// the series at the last point evaluated. h is increasing and convex with h'' about
-    /// 2 a_2 < 1, so after a Newton step s the error is below s^2/z: a step under 1e-8 z
-    /// leaves less than 1e-16 z.
+    /// z with h(z) = w (0 < w <= [`Z_LIMIT`]), by Newton's method from the series
+    /// reversion to third order (its error is O(w^4) relative to z, so at a working point,
+    /// w below about 1e-3, the first step is already accepted), with the series at the last
+    /// point evaluated. h is increasing and convex with h'' about 2 a_2 < 1, so after a
+    /// Newton step s the error is below s^2/z: a step under 1e-8 z leaves less than 1e-16 z.
     #[inline]
     #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
-    fn invert(&self, w: f64, start: f64) -> Option<(f64, Series)> {
+    fn invert(&self, w: f64) -> Option<(f64, Series)> {
+        let start = w * (1.0 - w * (self.rev2 - w * self.rev3));
         let mut z = if start > 0.0 && start <= w { start } else { w };
         for _ in 0..40 {
             let s = self.series(z);
@@ -189,7 +207,7 @@ impl FastDiode {
     #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn solve(&self, gap_j: f64, jsc: f64, input: f64) -> Option<CellResult> {
         let (_, w) = self.level(jsc)?;
-        let (z_oc, _) = self.invert(w, w)?;
+        let (z_oc, _) = self.invert(w)?;
         let m_oc = self.x0 + z_oc.ln();
         if !(m_oc > 0.0) {
             return None;
@@ -270,15 +288,15 @@ pub fn series_max_power(cells: &[SeriesCell], start: f64) -> Option<(f64, f64)> 
         return None;
     }
     let mut target = [0.0; MAX_CELLS];
-    // z/w of each cell at its last evaluation: 1/H0(z) varies slowly, so w times it
-    // starts the next inversion within a small fraction of its root
-    let mut ratio = [1.0; MAX_CELLS];
     let mut hi = f64::INFINITY;
     let mut m0 = 0.0; // sum of the Boltzmann open-circuit reduced voltages, an upper bound
     for (i, c) in cells.iter().enumerate() {
         let (t, w) = c.diode.level(c.jsc)?;
         target[i] = t;
-        hi = hi.min(t / c.diode.ere);
+        // the series problem of `stack::series`: no subcell driven into reverse bias, so
+        // J < min_i Jsc_i (where a gap is a few kT wide and R(0) rivals Jsc, a reverse-biased
+        // limiting cell could pass up to Jsc + R(0)/ERE; that operating range is excluded)
+        hi = hi.min(c.jsc);
         if !(start > 0.0 && start < hi) {
             m0 += c.diode.x0 + w.ln();
         }
@@ -288,7 +306,7 @@ pub fn series_max_power(cells: &[SeriesCell], start: f64) -> Option<(f64, f64)> 
     }
     let vt = cells[0].diode.vt;
     // (M, M', M'') at current j: the sum of reduced voltages and its derivatives in J
-    let mut eval = |j: f64| -> Option<(f64, f64, f64)> {
+    let eval = |j: f64| -> Option<(f64, f64, f64)> {
         let (mut m, mut m1, mut m2) = (0.0, 0.0, 0.0);
         for (i, c) in cells.iter().enumerate() {
             let d = c.diode;
@@ -296,8 +314,7 @@ pub fn series_max_power(cells: &[SeriesCell], start: f64) -> Option<(f64, f64)> 
             if !(w > 0.0) {
                 return None;
             }
-            let (z, s) = d.invert(w, w * ratio[i])?;
-            ratio[i] = z / w;
+            let (z, s) = d.invert(w)?;
             // m = x0 + ln z; dz/dJ = -q/h'(z) with q = ERE/(P c_1)
             let q = d.ere / d.pc1;
             let zh1 = z * s.h1;
@@ -325,13 +342,20 @@ pub fn series_max_power(cells: &[SeriesCell], start: f64) -> Option<(f64, f64)> 
         } else {
             up = j;
         }
-        let p = vt * j * m;
         if g1 < 0.0 && g1.is_finite() {
             let step = g / g1;
-            // P is flat at its maximum: the power here is short of it by about
-            // |P''| step^2 / 2 = (kT/q) |g1| step^2 / 2
-            if 0.5 * vt * (-g1) * step * step <= SOLVE_TOL * p && p > 0.0 {
-                return Some((p, j));
+            // The maximum of P's Taylor polynomial to second order, P + P'^2 / (2 |P''|),
+            // misses the maximum by at most |P'''| |step|^3 / 6. Each subcell adds
+            // (kT/q)(2 m' + J m'') to P'' and (kT/q)(3 m'' + J m''') to P''', and with
+            // m = const + ln(d_i), d_i = T_i/ERE - J (the Boltzmann limit), the second is at
+            // most 2/d_i times the first; we take 4/d with d the smallest d_i less the
+            // step (twice the bound, for the Bose terms' few-per-cent share and the
+            // interval between J and the root).
+            let d = hi - j - step.abs();
+            let p = vt * (j * m - 0.5 * g * step);
+            let cubic = 4.0 * vt * (-g1) * (step * step * step).abs() / (6.0 * d);
+            if d > 10.0 * step.abs() && cubic <= SOLVE_TOL * p && p > 0.0 {
+                return Some((p, j - step));
             }
             let next = j - step;
             if next > lo && next < up {

@@ -29,7 +29,8 @@ pub struct SeriesPoint {
     pub evaluations: u32,
 }
 
-/// Stop when a Newton step in m_L is below this, relative to max(1, m_L). P is flat at its
+/// Stop when a Newton step in m_L is below this, relative to max(1, m_L) (or to m_oc,L
+/// where that is below 1). P is flat at its
 /// maximum: the point last evaluated is then within about one step of it, which costs
 /// (|P''|/2P) (step)^2 in relative power, about 1e-13 for m_L ~ 25-40 and |P''|/P ~ 0.02
 /// (a one-sun tandem), and less at higher voltages.
@@ -53,11 +54,11 @@ pub struct SeriesHint {
 }
 
 /// As [`max_power`], started from `hint` when its limiting subcell is this stack's too;
-/// returns the hint for the next stack. The power is as accurate as [`max_power`]'s; the
-/// current and voltage are those of the last point evaluated, within ~1e-7 relative of the
-/// maximum (one evaluation fewer: what a map needs).
+/// returns the hint for the next stack. (It once skipped the last Newton point to save an
+/// evaluation; where a subcell's whole J-V lies within a small fraction of kT/q, e.g. a
+/// gap of a few kT at ERE 1e-4, that cost 2e-8 in power, so it now evaluates it too.)
 pub fn max_power_near(diodes: &[Diode], hint: Option<SeriesHint>) -> (SeriesPoint, Option<SeriesHint>) {
-    solve(diodes, hint, false)
+    solve(diodes, hint, true)
 }
 
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
@@ -137,7 +138,9 @@ fn solve(diodes: &[Diode], hint: Option<SeriesHint>, precise: bool) -> (SeriesPo
         } else {
             break;
         }
-        let scale = STEP_TOL * x.abs().max(1.0);
+        // relative to the range of m_L where that is narrower than 1 (a subcell whose
+        // open-circuit voltage is a small fraction of kT/q: its whole J-V lies in (0, m_oc))
+        let scale = STEP_TOL * x.abs().max(m_oc.min(1.0));
         let newton_ok = d2p < 0.0 && d2p.is_finite();
         let newton = x - dp / d2p;
         if newton_ok && (newton - x).abs() <= scale {
@@ -150,6 +153,18 @@ fn solve(diodes: &[Diode], hint: Option<SeriesHint>, precise: bool) -> (SeriesPo
         x = if newton_ok && newton > lo && newton < hi { newton } else { 0.5 * (lo + hi) };
         if hi - lo <= scale {
             break;
+        }
+    }
+    // the maximum at the end of the range, the limiting cell at zero bias (dP/dm < 0 all
+    // the way down: a gap so narrow for its temperature that R(0) rivals Jsc): the
+    // bisection closes in on m_L = 0 but stops a step short, so take the end point itself
+    if lo == 0.0 && x <= STEP_TOL * m_oc.min(1.0) {
+        let (j, v, _, _) = eval(0.0);
+        evaluations += 1;
+        if j * v >= best.0 * best.1 {
+            best = (j, v);
+            x = 0.0;
+            pending = None;
         }
     }
     if let (true, Some(xn)) = (precise, pending) {
