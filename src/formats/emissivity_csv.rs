@@ -167,7 +167,7 @@ fn read_optical(
         }
         rows.push((lambda, value, line));
     }
-    rows.sort_by(|a, b| a.0.total_cmp(&b.0));
+    crate::physics::order::sort_ascending_by(&mut rows, |r| r.0);
     let wavelength_m: Vec<f64> = rows.iter().map(|r| r.0).collect();
     let values: Vec<f64> = rows.iter().map(|r| r.1).collect();
     let lines: Vec<usize> = rows.iter().map(|r| r.2).collect();

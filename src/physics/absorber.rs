@@ -239,7 +239,7 @@ fn cut_points(lo: f64, hi: f64, inner: impl IntoIterator<Item = f64>) -> Vec<f64
     let mut c: Vec<f64> = inner.into_iter().filter(|&v| v > lo && v < hi).collect();
     c.push(lo);
     c.push(hi);
-    c.sort_unstable_by(f64::total_cmp);
+    super::order::sort_numbers(&mut c);
     c.dedup();
     c
 }

@@ -8,6 +8,7 @@ pub mod data;
 pub mod junction;
 pub mod losses;
 pub mod mismatch;
+pub mod order;
 pub mod planck;
 pub mod radiator;
 pub mod sources;

@@ -366,7 +366,7 @@ impl Spectrum {
                 (w, per_energy / jacobian_per_energy(axis, w))
             })
             .collect();
-        pts.sort_by(|a, b| a.0.total_cmp(&b.0));
+        super::order::sort_ascending_by(&mut pts, |p| p.0);
         let (x, y): (Vec<f64>, Vec<f64>) = pts.into_iter().unzip();
         Spectrum::new(self.name.clone(), self.provenance.clone(), axis, quantity, x, y)
             .expect("a valid spectrum stays valid under a change of variable")

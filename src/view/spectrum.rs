@@ -179,7 +179,7 @@ pub fn spectrum_view(
             (0..n).map(|i| x_lo + (x_hi - x_lo) * i as f64 / (n - 1) as f64).collect()
         }
     };
-    x.sort_unstable_by(f64::total_cmp);
+    crate::physics::order::sort_numbers(&mut x);
     let mut y: Vec<f64> = x.iter().map(|v| display_value(src, axis, quantity, energy_of_x(axis, *v))).collect();
     if thin && x.len() > SPECTRUM_DRAW_POINTS {
         (x, y) = thin_extremes(&x, &y, SPECTRUM_DRAW_POINTS / 2);
@@ -214,7 +214,7 @@ fn thin_extremes(x: &[f64], y: &[f64], buckets: usize) -> (Vec<f64>, Vec<f64>) {
             }
         }
         let mut keep = vec![start, imin, imax, i - 1];
-        keep.sort_unstable();
+        crate::physics::order::sort_indices(&mut keep);
         keep.dedup();
         for k in keep {
             ox.push(x[k]);

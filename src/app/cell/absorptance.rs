@@ -96,7 +96,7 @@ impl Drawing for AbsorptancePlot<'_> {
             .map_err(err)?;
         }
         let mut sorted = pts.clone();
-        sorted.sort_by(|a, b| a.0.total_cmp(&b.0));
+        crate::physics::order::sort_ascending_by(&mut sorted, |p| p.0);
         c.draw_series(AreaSeries::new(sorted.clone(), 0.0, palette::ABSORBED.mix(0.35).filled())).map_err(err)?;
         c.draw_series(LineSeries::new(sorted, palette::SPECTRUM.stroke_width(look.px(1.8).max(1) as u32)))
             .map_err(err)?;

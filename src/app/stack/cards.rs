@@ -409,7 +409,7 @@ fn resolution_tool(stack: StackState) -> impl IntoView {
         let mut list: Vec<usize> = RESOLUTIONS.to_vec();
         if !list.contains(&now) {
             list.push(now);
-            list.sort_unstable();
+            crate::physics::order::sort_indices(&mut list);
         }
         list.into_iter()
             .map(|n| view! { <option value=n.to_string() prop:selected=n == now>{format!("{n} × {n}")}</option> })

@@ -26,7 +26,7 @@ pub struct Sun {
 fn table_wavelengths(s: &Spectrum) -> Vec<f64> {
     let axis = s.axis();
     let mut l: Vec<f64> = s.coordinates().iter().map(|&u| HC / axis.energy_at(u)).collect();
-    l.sort_unstable_by(f64::total_cmp);
+    crate::physics::order::sort_numbers(&mut l);
     l
 }
 
@@ -42,7 +42,7 @@ pub fn weighted_irradiance(source: &Source, v: impl Fn(f64) -> f64, knots: &[f64
             let mut pts = table_wavelengths(spectrum);
             let (lo, hi) = (pts[0], pts[pts.len() - 1]);
             pts.extend(knots.iter().copied().filter(|k| *k > lo && *k < hi));
-            pts.sort_unstable_by(f64::total_cmp);
+            crate::physics::order::sort_numbers(&mut pts);
             pts.dedup();
             pts.windows(2)
                 .map(|w| {

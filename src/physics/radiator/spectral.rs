@@ -64,7 +64,7 @@ impl Weights {
 /// The finite positive wavelengths of `v` [m], ascending, points within 1e-12 relative merged.
 fn sorted_unique(mut v: Vec<f64>) -> Vec<f64> {
     v.retain(|x| x.is_finite() && *x > 0.0);
-    v.sort_unstable_by(f64::total_cmp);
+    crate::physics::order::sort_numbers(&mut v);
     v.dedup_by(|a, b| (*a - *b).abs() <= 1e-12 * b.abs());
     v
 }

@@ -19,6 +19,7 @@ use super::{stack_efficiency, Connection, MAX_JUNCTIONS};
 use crate::physics::batch::map_indexed;
 use crate::physics::constants::CHARGE;
 use crate::physics::junction::{Cell, Illumination};
+use crate::physics::order::{sort_descending_by, sort_numbers};
 
 /// Where a fixed gap must sit in the stack.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -125,7 +126,7 @@ fn candidate_gaps(p: &Problem, free: &[f64]) -> Vec<f64> {
         g.push(f.gap_j);
     }
     // descending (plain numbers: the order of equal values does not matter)
-    g.sort_unstable_by(f64::total_cmp);
+    sort_numbers(&mut g);
     g.reverse();
     g
 }
@@ -218,7 +219,7 @@ fn search(p: &Problem, observer: Option<&mut dyn FnMut(u64)>) -> Optimum {
             starts.push((x, e));
         }
     }
-    starts.sort_by(|a, b| b.1.total_cmp(&a.1));
+    sort_descending_by(&mut starts, |s| s.1);
     let mut best = starts.first().cloned().unwrap_or_default();
     let step = (hi - lo) * 0.01;
     let polish = &starts[..starts.len().min(POLISHED_STARTS)];
@@ -309,7 +310,7 @@ fn grid_1d(obj: &mut Objective, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
         })
         .map(|i| (vec![xs[i]], es[i]))
         .collect();
-    maxima.sort_by(|a, b| b.1.total_cmp(&a.1));
+    sort_descending_by(&mut maxima, |m| m.1);
     maxima
 }
 
@@ -369,7 +370,7 @@ pub fn grid_maxima(tops_j: &[f64], bottoms_j: &[f64], eff: &[f64]) -> Vec<(Vec<f
             }
         }
     }
-    maxima.sort_by(|a, b| b.1.total_cmp(&a.1));
+    sort_descending_by(&mut maxima, |m| m.1);
     maxima
 }
 
@@ -409,7 +410,7 @@ fn evolve(obj: &mut Objective, d: usize, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64
     let mut rng = SplitMix(EVOLUTION_SEED ^ (d as u64) << 8 ^ (obj.p.junctions as u64));
     let np = (12 * d).max(24);
     let canon = |mut x: Vec<f64>| {
-        x.sort_unstable_by(f64::total_cmp);
+        sort_numbers(&mut x);
         x.reverse();
         x
     };
@@ -471,7 +472,7 @@ fn evolve(obj: &mut Objective, d: usize, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64
         }
     }
     let mut members: Vec<(Vec<f64>, f64)> = pop.into_iter().zip(fit).collect();
-    members.sort_by(|a, b| b.1.total_cmp(&a.1));
+    sort_descending_by(&mut members, |m| m.1);
     // keep members that differ from every better one by at least 0.02 eV in some gap
     let apart = 0.02 * CHARGE;
     let mut kept: Vec<(Vec<f64>, f64)> = Vec::new();
@@ -502,7 +503,7 @@ fn nelder_mead(obj: &mut Objective, x0: &[f64], e0: f64, step: f64, lo: f64, hi:
     }
     let tol = 1e-7 * CHARGE; // 0.1 ueV: far below any gap that matters
     for _ in 0..(400 * d) {
-        simplex.sort_by(|a, b| b.1.total_cmp(&a.1));
+        sort_descending_by(&mut simplex, |s| s.1);
         let size = simplex[1..]
             .iter()
             .map(|(x, _)| x.iter().zip(&simplex[0].0).map(|(a, b)| (a - b).abs()).fold(0.0, f64::max))
@@ -537,7 +538,7 @@ fn nelder_mead(obj: &mut Objective, x0: &[f64], e0: f64, step: f64, lo: f64, hi:
             }
         }
     }
-    simplex.sort_by(|a, b| b.1.total_cmp(&a.1));
+    sort_descending_by(&mut simplex, |s| s.1);
     let (x, e) = simplex.swap_remove(0);
     (x, e)
 }

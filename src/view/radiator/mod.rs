@@ -124,7 +124,7 @@ fn samples(range: (f64, f64), knots_m: &[f64]) -> Vec<f64> {
             x.extend([l - 1e-7, l, l + 1e-7]);
         }
     }
-    x.sort_unstable_by(f64::total_cmp);
+    crate::physics::order::sort_numbers(&mut x);
     x.dedup();
     x
 }

@@ -83,7 +83,7 @@ pub fn tidy_point([l, e]: [f64; 2]) -> [f64; 2] {
 /// Make points strictly ascending (a later point at the same wavelength is dropped).
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // `!(b > a)` also drops a NaN wavelength
 fn ascending(mut pts: Vec<[f64; 2]>) -> Vec<[f64; 2]> {
-    pts.sort_by(|a, b| a[0].total_cmp(&b[0]));
+    crate::physics::order::sort_ascending_by(&mut pts, |p| p[0]);
     pts.dedup_by(|b, a| !(b[0] > a[0]));
     pts
 }

@@ -113,7 +113,7 @@ impl Drawing for SpectrumPlot<'_> {
         let (left, right, top, bottom) = (frame.left as i32, frame.right as i32, frame.top as i32, frame.bottom as i32);
         let tag_h = (look.size(11.5) * 1.45).ceil() as i32 + look.px(3.0);
         let mut order: Vec<usize> = (0..gaps.len()).filter(|&i| (x.lo..=x.hi).contains(&sv.x_of_ev(gaps[i]))).collect();
-        order.sort_by(|a, b| sv.x_of_ev(gaps[*a]).total_cmp(&sv.x_of_ev(gaps[*b])));
+        crate::physics::order::sort_ascending_by(&mut order, |&i| sv.x_of_ev(gaps[i]));
         let px_of = |i: usize| (frame.css_of_x(sv.x_of_ev(gaps[i])) * look.scale).round() as i32;
         // the markers first, so that no marker crosses a tag
         for &i in &order {
