@@ -80,9 +80,10 @@ pub struct Ctx {
 /// A message for people: first letter upper case, ends with a full stop.
 pub fn sentence(msg: &str) -> String {
     let mut m = msg.trim().to_string();
-    if let Some(first) = m.chars().next() {
-        let up: String = first.to_uppercase().collect();
-        m.replace_range(..first.len_utf8(), &up);
+    // ASCII only (every message starts with an ASCII letter), so the page carries no
+    // Unicode case tables
+    if let Some(first) = m.get_mut(0..1) {
+        first.make_ascii_uppercase();
     }
     if !m.ends_with('.') {
         m.push('.');

@@ -578,7 +578,7 @@ fn read_field(text: &str, line: usize, col: usize, ctx: &Context) -> Result<f64,
                 ctx.sep_line
             ));
         } else if text.starts_with(|c: char| c.is_ascii_digit())
-            && text.chars().any(|c| c.is_alphabetic() && !matches!(c, 'e' | 'E' | 'd' | 'D'))
+            && text.chars().any(|c| (c.is_ascii_alphabetic() || !c.is_ascii()) && !matches!(c, 'e' | 'E' | 'd' | 'D'))
         {
             msg.push_str("; give units in the header, not beside the numbers");
         }

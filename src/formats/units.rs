@@ -215,13 +215,14 @@ pub(crate) fn compact_unit_text(s: &str) -> String {
         .collect()
 }
 
-/// Lower-case, with micro signs as `u`, superscript digits and signs as plain ones, unicode
+/// ASCII letters in lower case (other letters as typed: unit names are ASCII but for the
+/// micro sign, and the page then needs no Unicode case tables), with micro signs as `u`, superscript digits and signs as plain ones, unicode
 /// minus signs and dots as their ASCII counterparts and `**` as `^`.
 pub(crate) fn normalize_unit_text(s: &str) -> String {
     let mut out = String::with_capacity(s.len());
     for ch in s.chars() {
         match ch {
-            'µ' | 'μ' => out.push('u'),
+            'µ' | 'μ' | 'Μ' => out.push('u'),
             '⁰' => out.push('0'),
             '¹' => out.push('1'),
             '²' => out.push('2'),
@@ -235,7 +236,7 @@ pub(crate) fn normalize_unit_text(s: &str) -> String {
             '⁻' | '−' | '–' => out.push('-'),
             '⁺' => out.push('+'),
             '·' | '⋅' | '×' => out.push(' '),
-            c => out.extend(c.to_lowercase()),
+            c => out.push(c.to_ascii_lowercase()),
         }
     }
     out.replace("**", "^")
@@ -503,7 +504,7 @@ pub(crate) fn unit_tails(words: &[&str], sep: &str) -> Vec<String> {
 /// `wavenumber` does not count as a unit here.
 pub(crate) fn axis_unit_from_name(name: &str) -> Option<AxisUnit> {
     let is_bare_name = |s: &str| {
-        let t = s.trim().to_lowercase();
+        let t = s.trim().to_ascii_lowercase();
         t == "wavenumber" || t == "wavenumbers"
     };
     let mut candidates: Vec<&str> = vec![name];
@@ -525,9 +526,11 @@ pub(crate) fn value_unit_from_name(name: &str) -> Option<ValueUnit> {
         return Some(u);
     }
     // "photon_flux_per_m2_s_eV": the counted thing is named in words, the rest is a unit
-    let lower = name.to_lowercase();
-    let lower_words: Vec<&str> =
-        lower.split(|c: char| !c.is_alphanumeric() && c != '#').filter(|w| !w.is_empty()).collect();
+    let lower = name.to_ascii_lowercase();
+    let lower_words: Vec<&str> = lower
+        .split(|c: char| c.is_ascii() && !c.is_ascii_alphanumeric() && c != '#')
+        .filter(|w| !w.is_empty())
+        .collect();
     let counted = if lower.contains("photon")
         || lower.contains("quanta")
         || lower_words.iter().any(|w| *w == "ph" || *w == "#")
@@ -568,7 +571,7 @@ impl OpticalQuantity {
     /// absorbance, which is a logarithm), reflectance/reflectivity,
     /// transmittance/transmissivity/transmission. Case is ignored.
     pub fn from_word(word: &str) -> Option<OpticalQuantity> {
-        let w = word.to_lowercase();
+        let w = word.to_ascii_lowercase();
         if w.starts_with("emissiv") || w.starts_with("emitt") {
             Some(OpticalQuantity::Emissivity)
         } else if w.starts_with("absorpt") {
@@ -600,10 +603,12 @@ impl ValueKind {
     /// Read `reflectance`, `emissivity%`, `absorptance (%)`, `transmittance percent`, ...
     pub fn parse(text: &str) -> Option<ValueKind> {
         let t = text.trim();
-        let lower = t.to_lowercase();
+        let lower = t.to_ascii_lowercase();
         let percent = lower.contains('%') || lower.contains("percent");
-        let quantity =
-            lower.split(|c: char| !c.is_alphabetic()).filter(|w| !w.is_empty()).find_map(OpticalQuantity::from_word)?;
+        let quantity = lower
+            .split(|c: char| c.is_ascii() && !c.is_ascii_alphabetic())
+            .filter(|w| !w.is_empty())
+            .find_map(OpticalQuantity::from_word)?;
         Some(ValueKind { quantity, percent })
     }
 

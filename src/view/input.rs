@@ -33,8 +33,8 @@ pub fn parse_number(text: &str) -> Option<f64> {
 
 /// A band gap typed as "1.42", "1.42 eV", "873 nm" or "0.873 µm"; returns eV.
 pub fn parse_gap(text: &str) -> Result<f64, String> {
-    let t = text.trim().to_lowercase();
-    let (num, unit) = match t.find(|c: char| c.is_alphabetic() || c == 'µ') {
+    let t = text.trim().to_ascii_lowercase();
+    let (num, unit) = match t.find(|c: char| c.is_ascii_alphabetic() || !c.is_ascii()) {
         Some(i) => (t[..i].trim(), t[i..].trim()),
         None => (t.as_str(), ""),
     };

@@ -151,7 +151,7 @@ pub fn plot_card(ctx: Ctx, card: Card, b: Rc<dyn PlotBehaviour>) -> impl IntoVie
 
     let download = move |kind: ExportKind| match b.save(kind) {
         Ok(()) => ctx.status.set(Some(format!("Saved {}.", file_name(slug, kind)))),
-        Err(e) => ctx.status.set(Some(format!("Could not save the {} file: {e}.", kind.as_str().to_uppercase()))),
+        Err(e) => ctx.status.set(Some(format!("Could not save the {} file: {e}.", kind.as_str().to_ascii_uppercase()))),
     };
     let download = Rc::new(download);
     let button = move |kind: ExportKind| {
@@ -159,7 +159,7 @@ pub fn plot_card(ctx: Ctx, card: Card, b: Rc<dyn PlotBehaviour>) -> impl IntoVie
         let what = kind.as_str();
         view! {
             <button type="button" data-action=format!("download-{slug}-{what}") title=kind.describe() on:click=move |_| d(kind)>
-                {what.to_uppercase()}
+                {what.to_ascii_uppercase()}
             </button>
         }
     };

@@ -95,9 +95,9 @@ pub fn spectrum_csv(v: &StackView, what: &str) -> String {
     let _ = writeln!(
         out,
         "{} ({}),{} ({unit}),subcell",
-        axis_name(sv.axis).to_lowercase(),
+        axis_name(sv.axis).to_ascii_lowercase(),
         sv.x_unit(),
-        value_name(sv.quantity).to_lowercase()
+        value_name(sv.quantity).to_ascii_lowercase()
     );
     for (x, y) in sv.x.iter().zip(&sv.y) {
         let k = absorbing(&v.gaps_ev, sv.ev_of_x(*x)).map(|i| i + 1).unwrap_or(0);
