@@ -230,14 +230,24 @@ fn read(path: &Path) -> String {
     std::fs::read_to_string(path).unwrap_or_else(|e| panic!("{}: {e}", path.display()))
 }
 
-/// Equal JSON, numbers to 1e-12 relative: the figures come from the same code on the same
+/// Where a series stack's subcells operate (their current, voltage and power at the stack's
+/// maximum): the place of a flat maximum, which rounding alone fixes only to about 1e-11
+/// (dP/dJ there is a difference of two terms near 60 kT/q each), so two exact solvers of
+/// the same equations agree on it to about that, not to 1e-12; 1e-9 still catches any change
+/// of behaviour (a subcell voltage off by a microvolt).
+fn is_operating_point(at: &str) -> bool {
+    at.contains(".subcells[") && ["j_ma_cm2", "v_v", "pmax_w_m2"].iter().any(|k| at.ends_with(&format!(".{k}")))
+}
+
+/// Equal JSON, numbers to 1e-12 relative (1e-9 for [`is_operating_point`]): the figures come from the same code on the same
 /// inputs, and only the decimal printing and reading of floats lies between them (which
 /// serde_json does exactly), so anything beyond rounding noise is a change of behaviour.
 fn assert_same_figures(got: &Value, want: &Value, at: &str) {
     match (got, want) {
         (Value::Number(a), Value::Number(b)) => {
             let (a, b) = (a.as_f64().unwrap(), b.as_f64().unwrap());
-            assert!((a - b).abs() <= 1e-12 * a.abs().max(b.abs()), "{at}: {a} != recorded {b}");
+            let tol = if is_operating_point(at) { 1e-9 } else { 1e-12 };
+            assert!((a - b).abs() <= tol * a.abs().max(b.abs()), "{at}: {a} != recorded {b}");
         }
         (Value::Object(a), Value::Object(b)) => {
             let (ka, kb): (Vec<_>, Vec<_>) = (a.keys().collect(), b.keys().collect());

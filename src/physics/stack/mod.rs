@@ -29,7 +29,8 @@ pub mod map;
 pub mod optimize;
 pub mod series;
 
-use super::junction::{Cell, Diode, Illumination, ThermalPrefactor};
+use super::batch::{series_max_power, FastDiode, SeriesCell};
+use super::junction::{Cell, CellResult, Diode, Illumination, ThermalPrefactor};
 
 /// The most junctions a stack may have.
 pub const MAX_JUNCTIONS: usize = 6;
@@ -145,7 +146,10 @@ pub fn solve_stack(light: &Illumination, template: &Cell, gaps_j: &[f64], connec
         return empty;
     }
     let diodes = subcell_diodes(light, template, gaps_j);
-    let singles: Vec<_> = diodes.iter().zip(gaps_j).map(|(d, &g)| d.solve(g, input)).collect();
+    let cell = Cell { ere: template.ere.min(1.0), ..*template };
+    let pre = ThermalPrefactor::new(cell.temp_k, cell.emission);
+    let photocurrents: Vec<f64> = diodes.iter().map(Diode::photocurrent).collect();
+    let singles: Vec<_> = gaps_j.iter().zip(&photocurrents).map(|(&g, &j)| single(&pre, &cell, g, j, input)).collect();
     let uppers = std::iter::once(f64::INFINITY).chain(gaps_j.iter().copied());
     let mut subcells: Vec<SubcellResult> = singles
         .iter()
@@ -174,14 +178,14 @@ pub fn solve_stack(light: &Illumination, template: &Cell, gaps_j: &[f64], connec
                     .iter()
                     .enumerate()
                     .fold((0, f64::INFINITY), |(bi, bj), (i, r)| if r.jsc < bj { (i, r.jsc) } else { (bi, bj) });
-            let point = series::max_power(&diodes);
+            let (p, j) = series_point(&pre, &cell, gaps_j, &photocurrents);
             for (s, d) in subcells.iter_mut().zip(&diodes) {
                 s.excess_jsc = s.jsc - jmin;
-                s.j_op = point.j;
-                s.v_op = if point.j > 0.0 { d.voltage_at_current(point.j).m * d.thermal_voltage() } else { 0.0 };
+                s.j_op = j;
+                s.v_op = if j > 0.0 { d.voltage_at_current(j).m * d.thermal_voltage() } else { 0.0 };
                 s.p_op = s.j_op * s.v_op;
             }
-            (jmin.max(0.0), point.p, Some(lim))
+            (jmin.max(0.0), p, Some(lim))
         }
     };
     let efficiency = if input > 0.0 { pmax / input } else { 0.0 };
@@ -201,10 +205,39 @@ pub fn stack_efficiency(light: &Illumination, template: &Cell, gaps_j: &[f64], c
     {
         return 0.0;
     }
-    let diodes = subcell_diodes(light, template, gaps_j);
+    let cell = Cell { ere: template.ere.min(1.0), ..*template };
+    let pre = ThermalPrefactor::new(cell.temp_k, cell.emission);
+    let jsc = subcell_photocurrents(light, gaps_j);
     let p = match connection {
-        Connection::Independent => diodes.iter().zip(gaps_j).map(|(d, &g)| d.solve(g, input).pmax).sum(),
-        Connection::Series => series::max_power(&diodes).p,
+        Connection::Independent => gaps_j.iter().zip(&jsc).map(|(&g, &j)| single(&pre, &cell, g, j, input).pmax).sum(),
+        Connection::Series => series_point(&pre, &cell, gaps_j, &jsc).0,
     };
     p / input
+}
+
+/// One subcell alone at its maximum power point: the batch engine's solve where its series
+/// form applies, the scalar `Diode::solve` elsewhere (as `junction::sweep` does), so the
+/// optimizer, the stack figures and the sweep agree to the last bit.
+fn single(pre: &ThermalPrefactor, cell: &Cell, gap_j: f64, jsc: f64, input: f64) -> CellResult {
+    FastDiode::new(pre, cell, gap_j)
+        .and_then(|d| d.solve(gap_j, jsc, input))
+        .unwrap_or_else(|| Diode::with_prefactor(pre, &Cell { gap_j, ..*cell }, jsc).solve(gap_j, input))
+}
+
+/// The series maximum (power [W m^-2], current [A m^-2]) of subcells of gaps `gaps_j` [J]
+/// and photocurrents `jsc` [A m^-2]: the batch engine's `series_max_power` where its series
+/// form applies to every subcell and the solve meets its error bound, else the scalar
+/// `series::max_power` (the same equations; they agree to about 1e-14).
+fn series_point(pre: &ThermalPrefactor, cell: &Cell, gaps_j: &[f64], jsc: &[f64]) -> (f64, f64) {
+    let fast: Option<Vec<FastDiode>> = gaps_j.iter().map(|&g| FastDiode::new(pre, cell, g)).collect();
+    let quick = fast.and_then(|diodes| {
+        let cells: Vec<SeriesCell> = diodes.iter().zip(jsc).map(|(diode, &jsc)| SeriesCell { diode, jsc }).collect();
+        series_max_power(&cells, 0.0)
+    });
+    quick.unwrap_or_else(|| {
+        let diodes: Vec<Diode> =
+            jsc.iter().zip(gaps_j).map(|(&j, &g)| Diode::with_prefactor(pre, &Cell { gap_j: g, ..*cell }, j)).collect();
+        let point = series::max_power(&diodes);
+        (point.p, point.j)
+    })
 }
