@@ -207,6 +207,10 @@ fn App() -> impl IntoView {
         }
     });
 
+    // the gap search's worker loads and warms up on another core once the first render is
+    // out, so a search on a newly opened page does not wait for it
+    set_timeout(stack::search::prestart, std::time::Duration::from_millis(50));
+
     // status lines fade after a while
     Effect::new(move |_| {
         if let Some(text) = ctx.status.get() {

@@ -80,8 +80,9 @@ struct Series {
 }
 
 /// One gap's part of the exact J-V that does not depend on the light: the series
-/// coefficients' scale and the radiative current at zero bias.
-#[derive(Debug, Clone, Copy)]
+/// coefficients' scale and the radiative current at zero bias. (The default is a
+/// placeholder for unused slots of fixed-size arrays, never solved.)
+#[derive(Debug, Clone, Copy, Default)]
 pub struct FastDiode {
     /// x0 = Eg/kT [-]
     x0: f64,
@@ -267,9 +268,9 @@ fn finish(gap_j: f64, jsc: f64, input: f64, vt: f64, m_oc: f64, m_mp: f64, jmp: 
 
 /// A subcell of a series stack for [`series_max_power`]: its diode and its photocurrent
 /// [A m^-2].
-#[derive(Debug, Clone, Copy)]
-pub struct SeriesCell<'a> {
-    pub diode: &'a FastDiode,
+#[derive(Debug, Clone, Copy, Default)]
+pub struct SeriesCell {
+    pub diode: FastDiode,
     pub jsc: f64,
 }
 
@@ -309,7 +310,7 @@ pub fn series_max_power(cells: &[SeriesCell], start: f64) -> Option<(f64, f64)> 
     let eval = |j: f64| -> Option<(f64, f64, f64)> {
         let (mut m, mut m1, mut m2) = (0.0, 0.0, 0.0);
         for (i, c) in cells.iter().enumerate() {
-            let d = c.diode;
+            let d = &c.diode;
             let w = (target[i] - d.ere * j) / d.pc1;
             if !(w > 0.0) {
                 return None;

@@ -39,8 +39,28 @@ pub fn ascending_positions(keys: &[f64]) -> Vec<usize> {
     wide.into_iter().map(|w| w as u64 as usize).collect()
 }
 
+/// Slices up to this long are sorted in place by insertion (no allocation: the optimizer
+/// sorts a few gaps per evaluation).
+const SHORT: usize = 16;
+
+/// Insertion sort of a short slice by `less`.
+fn insertion<T: Copy>(v: &mut [T], less: impl Fn(&T, &T) -> bool) {
+    for i in 1..v.len() {
+        let x = v[i];
+        let mut k = i;
+        while k > 0 && less(&x, &v[k - 1]) {
+            v[k] = v[k - 1];
+            k -= 1;
+        }
+        v[k] = x;
+    }
+}
+
 /// Sort numbers ascending in `f64::total_cmp` order (as `v.sort_unstable_by(f64::total_cmp)`).
 pub fn sort_numbers(v: &mut [f64]) {
+    if v.len() <= SHORT {
+        return insertion(v, |a, b| a.total_cmp(b).is_lt());
+    }
     let mut wide: Vec<u128> = v.iter().map(|&x| u128::from(ordered_bits(x)) << 64).collect();
     sort_wide(&mut wide);
     for (x, w) in v.iter_mut().zip(wide) {
@@ -50,6 +70,9 @@ pub fn sort_numbers(v: &mut [f64]) {
 
 /// Sort indices ascending (as `v.sort_unstable()`).
 pub fn sort_indices(v: &mut [usize]) {
+    if v.len() <= SHORT {
+        return insertion(v, |a, b| a < b);
+    }
     let mut wide: Vec<u128> = v.iter().map(|&i| i as u128).collect();
     sort_wide(&mut wide);
     for (x, w) in v.iter_mut().zip(wide) {
@@ -107,5 +130,18 @@ mod tests {
         let mut idx = vec![7usize, 0, usize::MAX, 3, 3, 1];
         sort_indices(&mut idx);
         assert_eq!(idx, [0, 1, 3, 3, 7, usize::MAX]);
+        // longer than the insertion sort's reach: the 128-bit sort
+        let long: Vec<f64> = (0..100).map(|i| ((i * 37) % 101) as f64 - 50.0).chain(keys).collect();
+        let mut want = long.clone();
+        want.sort_unstable_by(f64::total_cmp);
+        let mut got = long;
+        sort_numbers(&mut got);
+        assert_eq!(
+            got.iter().map(|x| x.to_bits()).collect::<Vec<_>>(),
+            want.iter().map(|x| x.to_bits()).collect::<Vec<_>>()
+        );
+        let mut idx: Vec<usize> = (0..50).map(|i| (i * 13) % 50).collect();
+        sort_indices(&mut idx);
+        assert!(idx.iter().enumerate().all(|(i, &x)| i == x));
     }
 }

@@ -150,10 +150,10 @@ pub fn StackPanel() -> impl IntoView {
         count_render();
     });
     super::watch_sizes(ctx, canvases.to_vec());
-    search::warm(stack);
+    search::attach(stack);
     on_cleanup(|| {
         map_job::stop();
-        search::stop();
+        search::detach();
     });
 
     view! {

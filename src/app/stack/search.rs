@@ -69,6 +69,9 @@ struct Runner {
 
 thread_local! {
     static RUNNER: RefCell<Option<Runner>> = const { RefCell::new(None) };
+    /// The Stack panel's state while the panel is shown: the worker's replies go there (the
+    /// worker may start before the panel, see [`prestart`]).
+    static PANEL: std::cell::Cell<Option<StackState>> = const { std::cell::Cell::new(None) };
     static LAST_ID: std::cell::Cell<u64> = const { std::cell::Cell::new(0) };
 }
 
@@ -76,17 +79,22 @@ fn now() -> f64 {
     web_sys::window().and_then(|w| w.performance()).map(|p| p.now()).unwrap_or(0.0)
 }
 
-fn new_worker(stack: StackState) -> Result<Runner, String> {
+fn new_worker() -> Result<Runner, String> {
     let worker = Background::start(
-        move |m| on_message(stack, m),
+        move |m| {
+            if let Some(stack) = PANEL.with(|p| p.get()) {
+                on_message(stack, m)
+            }
+        },
         move |msg| {
-            fail(
-                stack,
-                format!(
-                    "The search stopped: the background worker failed{}.",
-                    if msg.is_empty() { String::new() } else { format!(" ({msg})") }
-                ),
-            )
+            let text = format!(
+                "The search stopped: the background worker failed{}.",
+                if msg.is_empty() { String::new() } else { format!(" ({msg})") }
+            );
+            match PANEL.with(|p| p.get()) {
+                Some(stack) => fail(stack, text),
+                None => stop(),
+            }
         },
     )?;
     Ok(Runner { worker, job: None })
@@ -97,18 +105,33 @@ fn fail(stack: StackState, text: String) {
     stack.search.try_set(SearchState::Failed(text));
 }
 
-/// Start the search's worker with the panel, so that it has loaded the module before the
-/// first search is asked for (its first job is otherwise mostly that load).
-pub fn warm(stack: StackState) {
+/// The Stack panel is shown: replies go to `stack`, and the search's worker starts now if
+/// it has not (see [`prestart`]).
+pub fn attach(stack: StackState) {
+    PANEL.with(|p| p.set(Some(stack)));
+    prestart();
+}
+
+/// Start the search's worker, so that it has loaded the module and run the search's inner
+/// loops once (`glowgap_stack_warm`) before the first search is asked for: called shortly
+/// after the page's first render (the worker compiles on another core) and when the Stack
+/// panel opens.
+pub fn prestart() {
     if RUNNER.with(|r| r.borrow().is_some()) {
         return;
     }
-    if let Ok(r) = new_worker(stack) {
+    if let Ok(r) = new_worker() {
         // id 0 is never a search's id, so its answer is ignored
-        if r.worker.post(0, "glowgap_warm", "", "") {
+        if r.worker.post(0, "glowgap_stack_warm", "", "") {
             RUNNER.with(|x| *x.borrow_mut() = Some(r));
         }
     }
+}
+
+/// The Stack panel goes away: its worker ends.
+pub fn detach() {
+    PANEL.with(|p| p.set(None));
+    stop();
 }
 
 /// End the worker, if any (cancel, or the panel going away).
@@ -221,7 +244,7 @@ pub fn start(stack: StackState) {
     }
     let have = RUNNER.with(|r| r.borrow().is_some());
     if !have {
-        match new_worker(stack) {
+        match new_worker() {
             Ok(r) => RUNNER.with(|x| *x.borrow_mut() = Some(r)),
             Err(e) => {
                 stack.search.set(SearchState::Failed(format!("{}.", sentence(&e).trim_end_matches('.'))));

@@ -145,10 +145,3 @@ impl Background {
         self.worker.terminate();
     }
 }
-
-/// Entry point that does nothing: posting it makes a new worker load the module now, so the
-/// first real job does not wait for it.
-#[wasm_bindgen]
-pub fn glowgap_warm(_job: &str, _text: &str, _progress: &js_sys::Function) -> String {
-    String::new()
-}

@@ -160,7 +160,8 @@ fn map_row(top: &GapColumn, bottoms: &[GapColumn], row: &mut [f64], connection: 
             Connection::Series => {
                 let quick = match (&top_fast, &bottom_fast) {
                     (Some(t), Some(b)) => {
-                        let cells = [SeriesCell { diode: t, jsc: top.jsc_above }, SeriesCell { diode: b, jsc: jsc_b }];
+                        let cells =
+                            [SeriesCell { diode: *t, jsc: top.jsc_above }, SeriesCell { diode: *b, jsc: jsc_b }];
                         let start = if j_before.is_finite() { 2.0 * j_last - j_before } else { j_last };
                         series_max_power(&cells, start)
                     }

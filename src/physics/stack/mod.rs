@@ -111,16 +111,19 @@ pub fn gaps_are_valid(gaps_j: &[f64]) -> bool {
 /// Photocurrents [A m^-2] of the subcells of `gaps_j` [J] (descending), top first: each
 /// absorbs between its gap and the gap above, Jsc_i of the module docs (De Vos 1980).
 pub fn subcell_photocurrents(light: &Illumination, gaps_j: &[f64]) -> Vec<f64> {
+    let mut out = vec![0.0; gaps_j.len()];
+    photocurrents_into(light, gaps_j, &mut out);
+    out
+}
+
+/// [`subcell_photocurrents`] into `out` (as many as both hold), without allocating.
+fn photocurrents_into(light: &Illumination, gaps_j: &[f64], out: &mut [f64]) {
     let q_x = super::constants::CHARGE * light.concentration;
     let mut above = f64::INFINITY;
-    gaps_j
-        .iter()
-        .map(|&g| {
-            let j = q_x * light.source.photon_flux_between(g, above);
-            above = g;
-            j
-        })
-        .collect()
+    for (j, &g) in out.iter_mut().zip(gaps_j) {
+        *j = q_x * light.source.photon_flux_between(g, above);
+        above = g;
+    }
 }
 
 /// The subcell diodes of a stack, top first. `template` gives temperature, ERE, emission
@@ -207,10 +210,15 @@ pub fn stack_efficiency(light: &Illumination, template: &Cell, gaps_j: &[f64], c
     }
     let cell = Cell { ere: template.ere.min(1.0), ..*template };
     let pre = ThermalPrefactor::new(cell.temp_k, cell.emission);
-    let jsc = subcell_photocurrents(light, gaps_j);
+    // no allocation on the fast path: the optimizer calls this thousands of times
+    let mut jsc = [0.0; MAX_JUNCTIONS];
+    let jsc = &mut jsc[..gaps_j.len()];
+    photocurrents_into(light, gaps_j, jsc);
     let p = match connection {
-        Connection::Independent => gaps_j.iter().zip(&jsc).map(|(&g, &j)| single(&pre, &cell, g, j, input).pmax).sum(),
-        Connection::Series => series_point(&pre, &cell, gaps_j, &jsc).0,
+        Connection::Independent => {
+            gaps_j.iter().zip(jsc.iter()).map(|(&g, &j)| single(&pre, &cell, g, j, input).pmax).sum()
+        }
+        Connection::Series => series_point(&pre, &cell, gaps_j, jsc).0,
     };
     p / input
 }
@@ -229,11 +237,16 @@ fn single(pre: &ThermalPrefactor, cell: &Cell, gap_j: f64, jsc: f64, input: f64)
 /// form applies to every subcell and the solve meets its error bound, else the scalar
 /// `series::max_power` (the same equations; they agree to about 1e-14).
 fn series_point(pre: &ThermalPrefactor, cell: &Cell, gaps_j: &[f64], jsc: &[f64]) -> (f64, f64) {
-    let fast: Option<Vec<FastDiode>> = gaps_j.iter().map(|&g| FastDiode::new(pre, cell, g)).collect();
-    let quick = fast.and_then(|diodes| {
-        let cells: Vec<SeriesCell> = diodes.iter().zip(jsc).map(|(diode, &jsc)| SeriesCell { diode, jsc }).collect();
-        series_max_power(&cells, 0.0)
-    });
+    let n = gaps_j.len().min(jsc.len()).min(MAX_JUNCTIONS);
+    let mut cells = [SeriesCell::default(); MAX_JUNCTIONS];
+    let mut usable = n > 0;
+    for (c, (&g, &j)) in cells.iter_mut().zip(gaps_j.iter().zip(jsc)) {
+        match FastDiode::new(pre, cell, g) {
+            Some(diode) => *c = SeriesCell { diode, jsc: j },
+            None => usable = false,
+        }
+    }
+    let quick = if usable { series_max_power(&cells[..n], 0.0) } else { None };
     quick.unwrap_or_else(|| {
         let diodes: Vec<Diode> =
             jsc.iter().zip(gaps_j).map(|(&j, &g)| Diode::with_prefactor(pre, &Cell { gap_j: g, ..*cell }, j)).collect();
