@@ -144,6 +144,18 @@ pub fn stop() {
     MAPS.with(|m| m.borrow_mut().job = None);
 }
 
+/// When the map's next turn may run: at once, or, while the gap search runs in the
+/// background worker, a little later, so that the search's answer finds the page's thread
+/// free (the map is what the page does on its own; the search is what the user asked for).
+fn next_turn(stack: StackState) -> Duration {
+    let searching = stack.search.try_with_untracked(|s| s.running()).unwrap_or(false);
+    if searching {
+        Duration::from_millis(25)
+    } else {
+        Duration::ZERO
+    }
+}
+
 /// Compute rows for one slice; then yield to the page, or finish.
 fn pump(stack: StackState, id: u64) {
     let t0 = now();
@@ -181,7 +193,7 @@ fn pump(stack: StackState, id: u64) {
         None => {}
         Some(Err(frac)) => {
             stack.map_status.try_set(MapStatus::Computing(frac));
-            set_timeout(move || pump(stack, id), Duration::ZERO);
+            set_timeout(move || pump(stack, id), next_turn(stack));
         }
         Some(Ok(data)) => {
             crate::app::state::mark("gg-map-done");
@@ -189,7 +201,7 @@ fn pump(stack: StackState, id: u64) {
             stack.map.try_set(Some(data));
             stack.map_status.try_set(MapStatus::Ready);
             // refine the best point once the map is on the page
-            set_timeout(move || refine_best(stack, id), Duration::ZERO);
+            set_timeout(move || refine_best(stack, id), next_turn(stack));
         }
     }
 }
@@ -265,7 +277,7 @@ fn polish_next(stack: StackState, id: u64, starts: Rc<Vec<Vec<f64>>>, k: usize, 
     match step {
         None => {}
         Some(Err((best, busy))) => {
-            set_timeout(move || polish_next(stack, id, starts, k + 1, Some(best), busy), Duration::ZERO)
+            set_timeout(move || polish_next(stack, id, starts, k + 1, Some(best), busy), next_turn(stack))
         }
         Some(Ok(data)) => {
             crate::app::state::mark("gg-map-refined");
