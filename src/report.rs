@@ -7,6 +7,7 @@ use crate::physics::constants::to_ev;
 use crate::physics::junction::CellResult;
 use serde::{Deserialize, Serialize};
 
+pub mod blackbody;
 pub mod radiator;
 pub mod stack;
 

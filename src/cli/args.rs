@@ -117,6 +117,7 @@ fn example_for(name: &str) -> &'static str {
         "ere" => "1",
         "emission" => "front",
         "approx" => "exact",
+        "temp" => "1500",
         _ => "VALUE",
     }
 }

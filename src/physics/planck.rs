@@ -26,7 +26,12 @@ fn bose_weighted(prefactor: f64, base: f64, power: i32, x: f64) -> f64 {
     if direct.is_finite() && direct > 1e-290 {
         return direct;
     }
-    let ln = prefactor.ln() + power as f64 * base.ln() - x - (-(-x).exp_m1()).ln();
+    exp_saturating(prefactor.ln() + power as f64 * base.ln() - x - (-(-x).exp_m1()).ln())
+}
+
+/// e^ln, saturating at `f64::MAX` instead of overflowing to infinity.
+#[inline]
+fn exp_saturating(ln: f64) -> f64 {
     if ln > 709.0 {
         f64::MAX
     } else {
@@ -164,6 +169,53 @@ pub fn peak_wavelength(temp_k: f64) -> f64 {
         return 0.0;
     }
     super::constants::wien_displacement() / temp_k
+}
+
+/// Wien's approximation to the spectral exitance per unit wavelength,
+/// M_lambda ~ 2 pi h c^2 / lambda^5 e^(-hc/(lambda k T)) [W m^-2 m^-1] (Wien 1896): Planck's
+/// law without the -1 of the Bose factor, so right where hc/(lambda k T) >> 1 and short of it
+/// in the infrared (by the factor 1 - e^-x). `lambda_m` [m], `temp_k` [K]; 0 outside
+/// positive inputs, never NaN.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
+pub fn wien_exitance_per_wavelength(lambda_m: f64, temp_k: f64) -> f64 {
+    if !(lambda_m > 0.0 && temp_k > 0.0 && lambda_m.is_finite()) {
+        return 0.0;
+    }
+    let x = HC / (lambda_m * BOLTZMANN * temp_k);
+    exp_saturating((2.0 * PI * PLANCK * LIGHT_SPEED * LIGHT_SPEED).ln() - 5.0 * lambda_m.ln() - x)
+}
+
+/// The Rayleigh-Jeans approximation to the spectral exitance per unit wavelength,
+/// M_lambda ~ 2 pi c k T / lambda^4 [W m^-2 m^-1] (Rayleigh 1900, Jeans 1905): the classical
+/// limit hc/(lambda k T) << 1 of Planck's law, right in the far infrared and unbounded towards
+/// the ultraviolet. `lambda_m` [m], `temp_k` [K]; 0 outside positive inputs, saturates at
+/// `f64::MAX`.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
+pub fn rayleigh_jeans_exitance_per_wavelength(lambda_m: f64, temp_k: f64) -> f64 {
+    if !(lambda_m > 0.0 && temp_k > 0.0 && lambda_m.is_finite()) {
+        return 0.0;
+    }
+    let l2 = lambda_m * lambda_m;
+    (2.0 * PI * LIGHT_SPEED * BOLTZMANN * temp_k / (l2 * l2)).min(f64::MAX)
+}
+
+/// Photon energy [J] at which the blackbody's distribution per unit energy (or frequency)
+/// peaks at `temp_k` [K]: E = x kT with x of [`super::constants::energy_peak_x`] (about
+/// 2.8214). A different peak from [`peak_wavelength`]'s (hc/lambda_max = 4.9651 kT). 0 for
+/// a temperature that is not positive.
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting comparisons: `!(x > 0.0)` also refuses NaN
+pub fn peak_energy(temp_k: f64) -> f64 {
+    if !(temp_k > 0.0) {
+        return 0.0;
+    }
+    super::constants::energy_peak_x() * BOLTZMANN * temp_k
+}
+
+/// Total hemispherical photon exitance of a black surface [photons s^-1 m^-2]:
+/// 2 pi (kT)^3 / (h^3 c^2) * 2 zeta(3) (Planck's law over all energies; the integral
+/// int_0^inf x^2/(e^x - 1) dx = 2 zeta(3)). `temp_k` [K].
+pub fn photon_exitance(temp_k: f64) -> f64 {
+    band_photon_flux_energy(0.0, f64::INFINITY, temp_k)
 }
 
 /// Total hemispherical emissive power of a black surface, sigma T^4 [W m^-2]

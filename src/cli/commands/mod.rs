@@ -4,6 +4,7 @@
 //! Architecture invariant: a command imports `cli::args` and `cli::shared`, never another
 //! command; this registry is the only list of commands (dispatch and help read it).
 
+mod blackbody;
 mod cell;
 mod cool;
 mod eval;
@@ -27,6 +28,7 @@ pub const ALL: &[&Command] = &[
     &mismatch::COMMAND,
     &losses::COMMAND,
     &map::COMMAND,
+    &blackbody::COMMAND,
 ];
 
 /// The command called `name`.
