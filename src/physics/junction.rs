@@ -634,7 +634,6 @@ pub fn best_of(results: &[CellResult]) -> Option<CellResult> {
 /// `None` for an empty sweep. Costs about 30 cells beyond the sweep.
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting checks: `!(x > 0.0)` also refuses NaN
 pub fn best_gap(light: &Illumination, template: &Cell, results: &[CellResult]) -> Option<CellResult> {
-    const INV_PHI: f64 = 0.618_033_988_749_895; // (sqrt 5 - 1) / 2
     let (i, grid_best) =
         results.iter().copied().enumerate().fold(None, |best: Option<(usize, CellResult)>, (i, r)| match best {
             Some((_, b)) if b.efficiency >= r.efficiency => best,
@@ -642,35 +641,13 @@ pub fn best_gap(light: &Illumination, template: &Cell, results: &[CellResult]) -
         })?;
     let lo_gap = results.get(i.wrapping_sub(1)).map_or(grid_best.gap_j, |r| r.gap_j);
     let hi_gap = results.get(i + 1).map_or(grid_best.gap_j, |r| r.gap_j);
-    let (mut lo, mut hi) = (lo_gap.min(hi_gap), lo_gap.max(hi_gap));
+    let (lo, hi) = (lo_gap.min(hi_gap), lo_gap.max(hi_gap));
     let tolerance = 1e-7 * CHARGE; // 1e-7 eV [J]
     if !(hi - lo > tolerance) {
         return Some(grid_best);
     }
     let at = |gap_j: f64| solve_cell(light, &Cell { gap_j, ..*template });
-    let mut a = hi - INV_PHI * (hi - lo);
-    let mut c = lo + INV_PHI * (hi - lo);
-    let (mut ra, mut rc) = (at(a), at(c));
-    // each step shrinks the bracket by 0.618: 100 steps cover any finite start
-    for _ in 0..100 {
-        if hi - lo < tolerance {
-            break;
-        }
-        if ra.efficiency > rc.efficiency {
-            hi = c;
-            c = a;
-            rc = ra;
-            a = hi - INV_PHI * (hi - lo);
-            ra = at(a);
-        } else {
-            lo = a;
-            a = c;
-            ra = rc;
-            c = lo + INV_PHI * (hi - lo);
-            rc = at(c);
-        }
-    }
-    let refined = if ra.efficiency > rc.efficiency { ra } else { rc };
+    let (_, refined) = super::special::golden_max(at, |r| r.efficiency, lo, hi, tolerance);
     Some(if refined.efficiency > grid_best.efficiency { refined } else { grid_best })
 }
 

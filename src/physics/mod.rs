@@ -11,6 +11,7 @@ pub mod mismatch;
 pub mod order;
 pub mod planck;
 pub mod radiator;
+pub mod solar_thermal;
 pub mod sources;
 pub mod special;
 pub mod spectrum;

@@ -496,6 +496,41 @@ pub fn exp_integral_3(x: f64) -> f64 {
     h * (-x).exp()
 }
 
+/// The maximum of a unimodal `score(f(x))` on [`lo`, `hi`] by golden-section search (Kiefer,
+/// Proc. AMS 4, 502 (1953)): each step shrinks the bracket by 0.618 until it is narrower than
+/// `tol` (in x's unit; 100 steps cover any finite start). Returns the better of the last two
+/// interior points, (x, f(x)).
+pub fn golden_max<R: Copy>(f: impl Fn(f64) -> R, score: impl Fn(&R) -> f64, lo: f64, hi: f64, tol: f64) -> (f64, R) {
+    const INV_PHI: f64 = 0.618_033_988_749_895; // (sqrt 5 - 1) / 2
+    let (mut lo, mut hi) = (lo, hi);
+    let mut a = hi - INV_PHI * (hi - lo);
+    let mut c = lo + INV_PHI * (hi - lo);
+    let (mut ra, mut rc) = (f(a), f(c));
+    for _ in 0..100 {
+        if hi - lo < tol {
+            break;
+        }
+        if score(&ra) > score(&rc) {
+            hi = c;
+            c = a;
+            rc = ra;
+            a = hi - INV_PHI * (hi - lo);
+            ra = f(a);
+        } else {
+            lo = a;
+            a = c;
+            ra = rc;
+            c = lo + INV_PHI * (hi - lo);
+            rc = f(c);
+        }
+    }
+    if score(&ra) > score(&rc) {
+        (a, ra)
+    } else {
+        (c, rc)
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
