@@ -4,7 +4,7 @@
 //! tolerances are half a unit of the last digit quoted, widened where the paper rounds
 //! to two digits (54 %).
 
-use glowgap::physics::constants::{ev, to_ev};
+use glowgap::physics::constants::{ev, to_ev, MAX_CONCENTRATION};
 use glowgap::physics::solar_thermal::*;
 
 fn sun(concentration: f64) -> ThermalSetup {
@@ -14,7 +14,7 @@ fn sun(concentration: f64) -> ThermalSetup {
 /// The black absorber at full concentration: about 85.4 % of work near 2544 K.
 #[test]
 fn black_absorber_at_full_concentration() {
-    let (t, w) = best_temperature(&sun(FULL_CONCENTRATION), 0.0);
+    let (t, w) = best_temperature(&sun(MAX_CONCENTRATION), 0.0);
     println!("black absorber, full concentration: {w} at {t} K");
     assert!((w - 0.854).abs() < 5e-4, "work efficiency {w}");
     assert!((t - 2544.0).abs() < 1.0, "best temperature {t} K");

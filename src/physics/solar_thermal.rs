@@ -18,7 +18,7 @@
 //!
 //! Architecture invariant: pure functions of SI numbers, no NaN for any finite input.
 
-use super::constants::{MAX_CONCENTRATION, SUN_DILUTION};
+use super::constants::SUN_DILUTION;
 use super::planck::{band_power_energy, stefan_boltzmann};
 use super::special::golden_max;
 
@@ -27,7 +27,7 @@ use super::special::golden_max;
 pub struct ThermalSetup {
     /// the blackbody sun's temperature [K]
     pub sun_temp_k: f64,
-    /// suns, 1 to [`MAX_CONCENTRATION`]
+    /// suns, 1 to `constants::MAX_CONCENTRATION`
     pub concentration: f64,
     /// the ambient's (and the sky's) temperature [K]
     pub ambient_k: f64,
@@ -86,10 +86,6 @@ pub fn best_temperature(s: &ThermalSetup, cutoff_j: f64) -> (f64, f64) {
 /// photons above it carry under 0.01 % of its power), each cutoff at its best temperature.
 pub fn best_step(s: &ThermalSetup) -> (f64, f64, f64) {
     let kts = super::constants::thermal_energy(s.sun_temp_k);
-    let (ec, w) = golden_max(|ec| best_temperature(s, ec).1, |w| *w, 0.0, 10.0 * kts, 1e-9 * kts);
-    (ec, best_temperature(s, ec).0, w)
+    let (ec, (t, w)) = golden_max(|ec| best_temperature(s, ec), |best| best.1, 0.0, 10.0 * kts, 1e-9 * kts);
+    (ec, t, w)
 }
-
-/// Full concentration ([`MAX_CONCENTRATION`] suns), the limit every step-absorber figure is
-/// quoted at in the literature besides one sun.
-pub const FULL_CONCENTRATION: f64 = MAX_CONCENTRATION;

@@ -8,6 +8,7 @@
 use crate::cli::args::{OptionDoc, Parsed, Spec};
 use crate::cli::shared::output::print_json;
 use crate::cli::shared::{Command, Failure, Out};
+use crate::physics::constants::{ev, wavelength_of_energy};
 use crate::report::blackbody::{spectrum_row, BlackbodyReport};
 use std::io::Write;
 
@@ -102,7 +103,7 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
         "{:<34} {:.4} eV ({:.4} um)",
         "Peak per unit energy",
         r.peak_energy_ev,
-        1.239_841_984_332_002_7 / r.peak_energy_ev
+        wavelength_of_energy(ev(r.peak_energy_ev)) * 1e6
     )?;
     writeln!(out, "{:<34} {:.6e} W/m2", "Exitance (sigma T^4)", r.exitance_w_m2)?;
     writeln!(out, "{:<34} {:.6e} photons/(m2 s)", "Photon exitance", r.photon_exitance_m2_s)?;
