@@ -16,3 +16,4 @@ pub mod sources;
 pub mod special;
 pub mod spectrum;
 pub mod stack;
+pub mod tpv;
