@@ -16,6 +16,7 @@ use crate::physics::spectrum::Spectrum;
 use serde::{Deserialize, Serialize};
 
 mod choices;
+pub mod hot;
 pub mod radiator;
 pub mod stack;
 
@@ -164,7 +165,7 @@ pub const GAP_RANGE_EV: (f64, f64) = (0.01, 20.0);
 /// Accepted cell-temperature range [K].
 pub const CELL_TEMP_RANGE_K: (f64, f64) = (1.0, 10_000.0);
 
-fn check_range(what: &str, v: f64, lo: f64, hi: f64, unit: &str, hint: &str) -> Result<(), String> {
+pub(crate) fn check_range(what: &str, v: f64, lo: f64, hi: f64, unit: &str, hint: &str) -> Result<(), String> {
     if v.is_nan() {
         return Err(format!("the {what} is not a number; give a value from {lo} to {hi} {unit} ({hint})"));
     }
@@ -293,6 +294,8 @@ pub enum Panel {
     Radiator,
     /// the multi-junction stack
     Stack,
+    /// hot emitters: the blackbody, TPV pairs, solar-thermal absorbers
+    Hot,
 }
 
 /// View choices that are part of what a link reproduces.
@@ -335,6 +338,7 @@ pub struct Scenario {
     pub view: ViewSettings,
     pub radiator: radiator::RadiatorScenario,
     pub stack: stack::StackScenario,
+    pub hot: hot::HotScenario,
 }
 
 impl Scenario {
@@ -354,6 +358,7 @@ impl Scenario {
         let mut warnings = self.cell.to_physics()?.warnings;
         warnings.extend(self.radiator.to_physics()?.warnings);
         warnings.extend(self.stack.check(&self.cell)?);
+        warnings.extend(self.hot.check()?);
         Ok(warnings)
     }
 }

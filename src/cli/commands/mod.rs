@@ -4,6 +4,7 @@
 //! Architecture invariant: a command imports `cli::args` and `cli::shared`, never another
 //! command; this registry is the only list of commands (dispatch and help read it).
 
+mod absorber;
 mod blackbody;
 mod cell;
 mod cool;
@@ -14,6 +15,7 @@ mod mismatch;
 mod optimize;
 mod stack;
 mod sweep;
+mod tpv;
 
 use super::shared::Command;
 
@@ -29,6 +31,8 @@ pub const ALL: &[&Command] = &[
     &losses::COMMAND,
     &map::COMMAND,
     &blackbody::COMMAND,
+    &tpv::COMMAND,
+    &absorber::COMMAND,
 ];
 
 /// The command called `name`.

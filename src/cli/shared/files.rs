@@ -14,6 +14,7 @@ use crate::formats::spectrum_csv::{parse_spectrum_csv, ColumnHints};
 use crate::formats::units::{AxisUnit, ValueKind, ValueUnit};
 use crate::formats::{Hint, TableError, TableKind};
 use crate::physics::absorber::AbsorptanceTable;
+use crate::scenario::hot::ReflectanceSpec;
 use crate::scenario::radiator::{EmissivityTable, EmitterSpec, RadiatorScenario, SkySpec, TransmittanceTable};
 use crate::scenario::{Scenario, SourceSpec, TableSpec};
 
@@ -305,6 +306,40 @@ pub fn resolve_radiator_files(sc: &mut RadiatorScenario, p: &Parsed) -> Result<(
     }
     Ok(())
 }
+
+/// Read an emitter profile's `file:PATH` (with `--emitter-*` options) into a table, for the
+/// commands other than `cool` that take an emitter (`tpv`, `absorber`).
+pub fn resolve_emitter_file(spec: &mut EmitterSpec, p: &Parsed) -> Result<(), String> {
+    let hints = ["emitter-axis", "emitter-values", "emitter-column"].iter().any(|o| p.text(o).is_some());
+    if hints && !matches!(spec, EmitterSpec::File { .. }) {
+        return Err("--emitter-axis, --emitter-values and --emitter-column apply only to --emitter file:PATH".into());
+    }
+    if let EmitterSpec::File { path } = spec {
+        *spec = emissivity_table(read_optical_file(path, EMITTER_FILE, p)?);
+    }
+    Ok(())
+}
+
+/// Read `--subgap-reflectance file:PATH`: an optical table against wavelength whose header
+/// names its quantity (reflectance, or absorptance/emissivity taken as 1 - R; fractions or
+/// percent), stored as the reflectance.
+pub fn resolve_reflectance_file(spec: &mut ReflectanceSpec) -> Result<(), String> {
+    if let ReflectanceSpec::File { path } = spec {
+        let hints = OpticalHints::default();
+        let (text, name) = read_text(path, "reflectance file", TableKind::Emissivity)?;
+        let t = parse_emissivity_csv(&text, &hints, &name)
+            .map_err(|e| file_error("reflectance file", path, &e, REFLECTANCE_FILE))?;
+        *spec = ReflectanceSpec::Table {
+            name: t.name,
+            wavelength_m: t.wavelength_m,
+            reflectance: t.values.iter().map(|a| 1.0 - a).collect(),
+        };
+    }
+    Ok(())
+}
+
+/// `--subgap-reflectance file:PATH`: units only from the header.
+pub const REFLECTANCE_FILE: FileOptions = FileOptions { prefix: None, kind: TableKind::Emissivity };
 
 fn emissivity_table(t: OpticalTable) -> EmitterSpec {
     EmitterSpec::Table(EmissivityTable { name: t.name, wavelength_m: t.wavelength_m, emissivity: t.values })

@@ -41,7 +41,11 @@ pub const SHARED_DOCS: &[OptionDoc] = &[
         arg: "N",
         text: "which value column of a multi-column file, 1 (default) = the first after the axis",
     },
-    OptionDoc { name: "concentration", arg: "X", text: "suns, 1 (default) up to the sun-disc limit (about 46,239)" },
+    OptionDoc {
+        name: "concentration",
+        arg: "X",
+        text: "suns, 1 (default) up to the sun-disc limit (about 46,239); max for that limit",
+    },
     OptionDoc { name: "cell-temp", arg: "K", text: "cell temperature in K, default 300" },
     OptionDoc { name: "ere", arg: "F", text: "external radiative efficiency, a fraction in (0, 1], default 1" },
     OptionDoc { name: "emission", arg: "SIDE", text: "front (default, perfect back mirror) | both" },
@@ -66,7 +70,7 @@ pub fn apply_common(p: &Parsed, sc: &mut CellScenario) -> Result<(), String> {
     if let Some(s) = p.text("spectrum") {
         sc.spectrum = SourceSpec::parse(s)?;
     }
-    if let Some(x) = p.number("concentration", "concentration", "suns")? {
+    if let Some(x) = concentration(p)? {
         sc.concentration = x;
     }
     if let Some(t) = p.number("cell-temp", "cell temperature", "K")? {
@@ -99,6 +103,15 @@ pub fn apply_common(p: &Parsed, sc: &mut CellScenario) -> Result<(), String> {
         );
     }
     Ok(())
+}
+
+/// `--concentration X|max`: suns, or `max` for the sun-disc limit
+/// (`constants::MAX_CONCENTRATION`, about 46,239).
+pub fn concentration(p: &Parsed) -> Result<Option<f64>, String> {
+    match p.text("concentration") {
+        Some(t) if t.trim().eq_ignore_ascii_case("max") => Ok(Some(crate::physics::constants::MAX_CONCENTRATION)),
+        _ => p.number("concentration", "concentration", "suns (or max)"),
+    }
 }
 
 /// `--connection series|independent`.
