@@ -2,12 +2,13 @@
 //! redraws as the user edits, and works offline.
 //!
 //! Flow: controls and plots edit the scenario signal ([`state::Ctx::edit`] checks every
-//! edit); the panel in front (the cell, [`radiator`] or [`stack`], chosen by the tab bar
+//! edit); the panel in front (the cell, [`radiator`], [`stack`] or [`hot`], chosen by the tab bar
 //! and kept in the scenario's view settings) has one effect that computes (with caches
 //! such as [`crate::view::cell::CellCache`]) and redraws its canvases; one effect of the page writes the
 //! link and the saved state ([`share`]) after every change.
 
 pub mod cell;
+pub mod hot;
 pub mod import;
 pub mod radiator;
 pub mod share;
@@ -102,8 +103,12 @@ pub fn watch_sizes(ctx: Ctx, canvases: Vec<NodeRef<html::Canvas>>) {
 }
 
 /// The panels in tab order: (panel, hook, tab text).
-const PANELS: [(Panel, &str, &str); 3] =
-    [(Panel::Cell, "cell", "Solar cell"), (Panel::Radiator, "radiator", "Radiator"), (Panel::Stack, "stack", "Stack")];
+const PANELS: [(Panel, &str, &str); 4] = [
+    (Panel::Cell, "cell", "Solar cell"),
+    (Panel::Radiator, "radiator", "Radiator"),
+    (Panel::Stack, "stack", "Stack"),
+    (Panel::Hot, "hot", "Hot emitters"),
+];
 
 /// The tab bar that brings a panel to the front (arrow keys move between tabs).
 fn panel_tabs(ctx: Ctx, panel: Memo<Panel>) -> impl IntoView {
@@ -256,11 +261,13 @@ fn App() -> impl IntoView {
         Panel::Cell => "Detailed-balance limit of a single-junction solar cell",
         Panel::Radiator => "Radiative balance of a surface facing the sky",
         Panel::Stack => "Detailed-balance limits of multi-junction stacks",
+        Panel::Hot => "Blackbodies, thermophotovoltaic pairs and solar-thermal absorbers",
     };
     let body = move || match panel.get() {
         Panel::Cell => view! { <cell::CellPanel /> }.into_any(),
         Panel::Radiator => view! { <radiator::RadiatorPanel /> }.into_any(),
         Panel::Stack => view! { <stack::StackPanel /> }.into_any(),
+        Panel::Hot => view! { <hot::HotPanel /> }.into_any(),
     };
 
     view! {

@@ -11,6 +11,7 @@ pub mod controls;
 pub mod export;
 pub mod format;
 pub mod hints;
+pub mod hot;
 pub mod input;
 pub mod radiator;
 pub mod resample;
