@@ -165,3 +165,21 @@ fn bad_input_is_one_line_naming_the_option() {
     expect_usage_error(&["absorber", "--temp", "500", "--concentration", "0.5"], "--concentration");
     expect_usage_error(&["absorber", "--temp", "500", "--hc", "-1"], "--hc");
 }
+
+#[test]
+fn a_reflectance_file_of_one_value_is_that_number() {
+    // a flat table (held at its end values beyond its range) must give exactly the constant's
+    // figures, up to the grid's integration of a table (linear pieces) against the constant
+    let dir = std::env::temp_dir().join(format!("glowgap-refl-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let path = dir.join("flat.csv");
+    std::fs::write(&path, "wavelength_um,reflectance\n0.3,0.93\n2.0,0.93\n30,0.93\n").unwrap();
+    let file = format!("file:{}", path.display());
+    let a = json(&["tpv", "--emitter-temp", "1900", "--gap", "0.72", "--subgap-reflectance", &file, "--json"]);
+    let b = json(&["tpv", "--emitter-temp", "1900", "--gap", "0.72", "--subgap-reflectance", "0.93", "--json"]);
+    for k in ["efficiency", "heat_in_w_cm2", "subgap_heat_w_cm2", "pmax_w_cm2"] {
+        assert!((f(&a, k) - f(&b, k)).abs() <= 1e-12 * f(&b, k).abs(), "{k}: {a} {b}");
+    }
+    expect_usage_error(&["tpv", "--emitter-temp", "1900", "--subgap-reflectance", "file:/no/such/file.csv"], "file");
+    std::fs::remove_dir_all(&dir).ok();
+}
