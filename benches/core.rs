@@ -9,6 +9,10 @@
 //!   `glowgap map` process for the 500 x 500 series map at least 10x faster than
 //!   benches/map_numpy.py's compute, with the same best point, in under 64 MB.
 //!
+//! * hot emitters: one TPV evaluation with a profile emitter under 2 ms, a 1,000-gap TPV
+//!   sweep under 50 ms and one best step absorber under 20 ms, each printed beside the
+//!   vectorized numpy script benches/tpv_numpy.py for the same work.
+//!
 //! Whole-process figures are the median of 5 runs of target/release/glowgap; the machine
 //! may be shared, so read medians and ratios of one run, not single numbers.
 
@@ -73,6 +77,78 @@ fn main() {
     sweep_37001(rounds, quick);
     radiator_balance(rounds);
     stack_map(rounds);
+    hot_emitters(rounds, quick);
+}
+
+/// Hot emitters: one TPV evaluation with a profile emitter from scratch (goal < 2 ms), a
+/// 1,000-gap TPV sweep (goal < 50 ms) and one best step absorber under AM1.5D at 100 suns
+/// (goal < 20 ms), the last two next to the vectorized numpy script benches/tpv_numpy.py
+/// for the same work in this same run. Printed only.
+fn hot_emitters(rounds: usize, quick: bool) {
+    use glowgap::physics::radiator::emissivity::Profile;
+    use glowgap::physics::solar_thermal::{best_cutoff, AbsorberSetup};
+    use glowgap::physics::stack::Connection;
+    use glowgap::physics::tpv::{Tpv, TpvSetup};
+    let profile = TpvSetup {
+        emitter: Profile::Points { points: vec![(0.5e-6, 0.9), (2.0e-6, 0.8), (4.0e-6, 0.2), (10e-6, 0.1)] },
+        emitter_temp_k: 2000.0,
+        view_factor: 1.0,
+        subgap_absorptance: Profile::Grey { emissivity: 0.05 },
+        cell_temp_k: 300.0,
+        ere: 1.0,
+    };
+    let eval = median_per_call(rounds, 20, || {
+        black_box(Tpv::new(black_box(&profile)).solve(&[ev(0.74)], Connection::Series));
+    });
+    println!("bench tpv_eval_profile_emitter      {:>10.3} ms   (goal < 2 ms; setup and solve)", eval * 1e3);
+    let black = TpvSetup { emitter: Profile::blackbody(), ..profile };
+    let tpv = Tpv::new(&black);
+    let gaps: Vec<f64> = (0..1000).map(|i| ev(0.4 + 1.2 * i as f64 / 999.0)).collect();
+    let sweep = median_per_call(rounds, 1, || {
+        black_box(tpv.sweep(black_box(&gaps)));
+    });
+    let pts = tpv.sweep(&gaps);
+    let best = pts.iter().max_by(|a, b| a.efficiency.total_cmp(&b.efficiency)).copied().unwrap_or_default();
+    println!(
+        "bench tpv_sweep_1000_gaps           {:>10.3} ms   (goal < 50 ms; best {:.6} eV, {:.9} %)",
+        sweep * 1e3,
+        best.gap_j / glowgap::physics::constants::CHARGE,
+        best.efficiency * 100.0
+    );
+    let setup = AbsorberSetup { source: Source::am15d(), concentration: 100.0, ambient_k: 300.0, hc_w_m2k: 0.0 };
+    let abs = median_per_call(rounds.min(11), 1, || {
+        black_box(best_cutoff(black_box(&setup)));
+    });
+    let b = best_cutoff(&setup);
+    println!(
+        "bench absorber_best_am15d_100x      {:>10.3} ms   (goal < 20 ms; {:.6} um, {:.4} K, {:.9} %)",
+        abs * 1e3,
+        b.cutoff_m.unwrap_or(f64::NAN) * 1e6,
+        b.temp_k,
+        b.work_efficiency * 100.0
+    );
+    let Some(out) = run_numpy_script("tpv_numpy.py", "numpy_hot_emitters", Some(if quick { "1" } else { "5" })) else {
+        return;
+    };
+    if let Some(np) = number_after(&out, "numpy_tpv_sweep_seconds=") {
+        println!(
+            "bench numpy_tpv_sweep_1000_gaps     {:>10.3} ms   (ratio numpy/glowgap {:.2}x; numpy best {:.6} eV, {:.9} %)",
+            np * 1e3,
+            np / sweep,
+            number_after(&out, "best_eff_gap_ev=").unwrap_or(f64::NAN),
+            number_after(&out, "best_efficiency=").unwrap_or(f64::NAN) * 100.0
+        );
+    }
+    if let Some(np) = number_after(&out, "numpy_absorber_best_seconds=") {
+        println!(
+            "bench numpy_absorber_best           {:>10.3} ms   (ratio numpy/glowgap {:.2}x; numpy {:.6} um, {:.4} K, {:.9} %)",
+            np * 1e3,
+            np / abs,
+            number_after(&out, "best_cutoff_um=").unwrap_or(f64::NAN),
+            number_after(&out, "best_temp_k=").unwrap_or(f64::NAN),
+            number_after(&out, "best_work_efficiency=").unwrap_or(f64::NAN) * 100.0
+        );
+    }
 }
 
 /// The 200 x 200 two-junction series map on AM1.5G (goal < 30 ms), the same map at

@@ -177,3 +177,50 @@ fn full_concentration_black_absorber_is_best() {
     assert!((best.work_efficiency - 0.854).abs() < 0.001, "{}", best.work_efficiency);
     assert!((best.temp_k - 2544.0).abs() < 1.0, "{}", best.temp_k);
 }
+
+#[test]
+fn tpv_obeys_the_second_law_across_the_accepted_ranges() {
+    // For any emitter hotter than the cell: finite figures, heat flows from the emitter,
+    // and neither efficiency reaches the Carnot bound 1 - Tc/Te (second law; common practice).
+    let mut state = 0x9e37_79b9_7f4a_7c15_u64;
+    let mut next = move || {
+        state = state.wrapping_mul(6_364_136_223_846_793_005).wrapping_add(1_442_695_040_888_963_407);
+        (state >> 11) as f64 / (1u64 << 53) as f64
+    };
+    for case in 0..300 {
+        let tc = 1.0 + 999.0 * next();
+        let te = tc * (1.0 + 20.0 * next());
+        let te = te.min(10_000.0);
+        if te <= tc * 1.001 {
+            continue;
+        }
+        let n = 1 + (next() * 3.0) as usize;
+        let mut gaps: Vec<f64> = (0..n).map(|_| 0.01 + 5.0 * next()).collect();
+        gaps.sort_by(|a, b| b.total_cmp(a));
+        gaps.dedup();
+        let emitter = match case % 3 {
+            0 => Profile::blackbody(),
+            1 => Profile::Grey { emissivity: next() },
+            _ => Profile::Points { points: vec![(0.5e-6, next()), (3e-6, next()), (20e-6, next())] },
+        };
+        let setup = TpvSetup {
+            emitter,
+            emitter_temp_k: te,
+            view_factor: 0.05 + 0.95 * next(),
+            subgap_absorptance: Profile::Grey { emissivity: next() },
+            cell_temp_k: tc,
+            ere: 10f64.powf(-6.0 * next()),
+        };
+        let gaps_j: Vec<f64> = gaps.iter().map(|&g| ev(g)).collect();
+        for c in [Connection::Series, Connection::Independent] {
+            let r = Tpv::new(&setup).solve(&gaps_j, c);
+            let what = format!("case {case}: {setup:?} gaps {gaps:?} {c:?}: {r:?}");
+            for x in [r.efficiency, r.pmax, r.heat_in, r.subgap_heat, r.jsc, r.voc, r.max_efficiency] {
+                assert!(x.is_finite(), "{what}");
+            }
+            assert!(r.heat_in >= 0.0 && r.pmax >= 0.0, "{what}");
+            assert!(r.efficiency <= r.max_efficiency * (1.0 + 1e-12) + 1e-300, "{what}");
+            assert!(r.max_efficiency < r.carnot, "{what}");
+        }
+    }
+}

@@ -10,6 +10,7 @@
 mod common;
 
 use glowgap::codec;
+use glowgap::scenario::hot::HotScenario;
 use glowgap::scenario::radiator::{
     AngularSpec, EmissivityTable, EmitterSpec, RadiatorScenario, SkySpec, SolarBandSpec, TransmittanceTable,
 };
@@ -108,6 +109,7 @@ fn page_scenarios() -> Vec<(&'static str, Scenario)> {
                 reference_spectrum: SourceSpec::Am15d,
             },
         },
+        hot: HotScenario::default(),
     };
     let ev_j = 1.602176634e-19;
     let radiator_panel = Scenario {
@@ -177,6 +179,7 @@ fn page_scenarios() -> Vec<(&'static str, Scenario)> {
             }),
             mismatch: MismatchSettings::default(),
         },
+        hot: HotScenario::default(),
     };
     let optimize_any = Scenario {
         view: ViewSettings { panel: Panel::Cell, ..ViewSettings::default() },

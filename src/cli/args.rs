@@ -28,6 +28,7 @@ pub struct Spec {
 
 /// The help of one option: `--name ARG  text`. `text` states the unit and the default (or
 /// that the option is required); further lines of `text` are indented under the first.
+#[derive(Clone, Copy)]
 pub struct OptionDoc {
     /// without the leading dashes
     pub name: &'static str,

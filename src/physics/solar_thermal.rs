@@ -17,6 +17,7 @@
 //! hemisphere's view, the ambient the rest.
 //!
 //! Architecture invariant: pure functions of SI numbers, no NaN for any finite input.
+#![allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose here: it also refuses NaN
 
 use super::constants::{HC, SUN_DILUTION};
 use super::planck::{band_power_energy, stefan_boltzmann};

@@ -53,6 +53,7 @@
 //! independent scipy reference in the tests).
 //!
 //! Architecture invariant: pure functions of SI numbers, no NaN for any finite input.
+#![allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose here: it also refuses NaN
 
 use super::constants::{thermal_energy, BOLTZMANN, CHARGE, HC, PHOTON_FLUX_PREFACTOR};
 use super::planck::{band_photon_flux_energy, band_power_energy};
@@ -491,7 +492,20 @@ impl Tpv {
             return (self.gen_above[0], self.heat_above[0], self.heat_below[0]);
         }
         if e >= self.edges[n - 1] {
-            return (self.gen_above[n - 1], self.heat_above[n - 1], self.heat_below[n - 1]);
+            // above the grid (a gap beyond 60 kTe): integrate what is left from e up, on
+            // panels of half the smaller kT, to 40 of the larger kT above e (the rest carries
+            // under e^-40 of it)
+            let (small, large) = (self.kte.min(self.ktc), self.kte.max(self.ktc));
+            let panels = (80.0 * large / small).ceil().clamp(1.0, 4000.0) as usize;
+            let w = 40.0 * large / panels as f64;
+            let (mut g, mut h) = (0.0, 0.0);
+            for k in 0..panels {
+                let a = e + k as f64 * w;
+                let (x, y, _) = self.cell_parts(a, a + w);
+                g += x;
+                h += y;
+            }
+            return (finite(g), finite(h), self.heat_below[n - 1]);
         }
         let i = self.cell_of(e);
         if e == self.edges[i] {

@@ -5,6 +5,7 @@
 //!
 //! Architecture invariant: holds what the user chose and nothing computed; every accepted
 //! range of these settings lives here.
+#![allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose here: it also refuses NaN
 
 use super::radiator::EmitterSpec;
 use super::stack::check_gaps;

@@ -10,6 +10,7 @@
 use crate::cli::args::{OptionDoc, Parsed, Spec};
 use crate::cli::shared::files::{read_spectrum_file, resolve_emitter_file};
 use crate::cli::shared::options::concentration;
+use crate::cli::shared::options::EMITTER_FILE_DOCS;
 use crate::cli::shared::output::{print_json, warn};
 use crate::cli::shared::{Command, Failure, Out};
 use crate::report::hot::AbsorberReport;
@@ -85,23 +86,9 @@ pub const COMMAND: Command = Command {
             text: "search the step cutoff and the temperature of the largest work efficiency\n\
                    (adds best_temp_k and best_cutoff_um, null when black is best)",
         },
-        OptionDoc {
-            name: "emitter-axis",
-            arg: "U",
-            text: "with --emitter file:PATH: the file's wavelength unit, nm, um or cm-1\n\
-                   (default: from the header)",
-        },
-        OptionDoc {
-            name: "emitter-values",
-            arg: "KIND",
-            text: "with --emitter file:PATH: emissivity, absorptance or reflectance, % for percent\n\
-                   (default: from the header)",
-        },
-        OptionDoc {
-            name: "emitter-column",
-            arg: "N",
-            text: "with --emitter file:PATH: the value column, the axis being 0 (default 1)",
-        },
+        EMITTER_FILE_DOCS[0],
+        EMITTER_FILE_DOCS[1],
+        EMITTER_FILE_DOCS[2],
         OptionDoc {
             name: "spectrum-axis",
             arg: "U",

@@ -15,12 +15,36 @@ use crate::cli::shared::output::{
 };
 use crate::cli::shared::{Command, Failure, Out};
 use crate::physics::stack::solve_stack;
+use crate::physics::tpv::Tpv;
+use crate::report::blackbody::BlackbodyReport;
+use crate::report::hot::{AbsorberReport, TpvReport};
 use crate::report::stack::StackReport;
 
+/// A report as JSON, or as its rows of label and value.
+fn print_rows<T: serde::Serialize>(
+    out: Out,
+    report: &T,
+    json: bool,
+    rows: impl Fn(&T) -> Vec<(&'static str, String)>,
+) -> Result<(), Failure> {
+    if json {
+        return print_json(out, report);
+    }
+    for (label, value) in rows(report) {
+        writeln!(out, "{label:<32} {value}")?;
+    }
+    Ok(())
+}
+
 pub const COMMAND: Command = Command {
-    spec: Spec { command: "eval", valued: &[], flags: &["json", "radiator", "stack"], max_positional: 1 },
+    spec: Spec {
+        command: "eval",
+        valued: &[],
+        flags: &["json", "radiator", "stack", "tpv", "absorber", "blackbody"],
+        max_positional: 1,
+    },
     about: "the figures of a share link or scenario file (- = standard input), as the page shows them",
-    usage: "eval LINK|FILE|- [--json] [--radiator | --stack]",
+    usage: "eval LINK|FILE|- [--json] [--radiator | --stack | --tpv | --absorber | --blackbody]",
     docs: &[
         OptionDoc {
             name: "radiator",
@@ -31,6 +55,24 @@ pub const COMMAND: Command = Command {
             name: "stack",
             arg: "",
             text: "the scenario's stack (Stack tab) instead of its cell (default: the cell)",
+        },
+        OptionDoc {
+            name: "tpv",
+            arg: "",
+            text: "the scenario's thermophotovoltaic pair (Hot emitters tab) instead of its cell\n\
+                   (default: the cell)",
+        },
+        OptionDoc {
+            name: "absorber",
+            arg: "",
+            text: "the scenario's solar-thermal absorber (Hot emitters tab) instead of its cell\n\
+                   (default: the cell)",
+        },
+        OptionDoc {
+            name: "blackbody",
+            arg: "",
+            text: "the scenario's blackbody card (Hot emitters tab) instead of its cell\n\
+                   (default: the cell)",
         },
     ],
     run,
@@ -44,8 +86,11 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
             "'glowgap eval' needs a share link, a scenario file or - for standard input, e.g. glowgap eval 'http://127.0.0.1:8080/#g1.…'".into(),
         ));
     };
-    if p.flag("radiator") && p.flag("stack") {
-        return Err(Failure::Usage("'glowgap eval': choose one of --radiator and --stack".into()));
+    let parts = ["radiator", "stack", "tpv", "absorber", "blackbody"];
+    if parts.iter().filter(|f| p.flag(f)).count() > 1 {
+        return Err(Failure::Usage(
+            "'glowgap eval': choose one of --radiator, --stack, --tpv, --absorber and --blackbody".into(),
+        ));
     }
     let (scenario, warnings) = open_scenario(what)?;
     warn(&warnings);
@@ -61,6 +106,31 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
             return print_json(out, &report);
         }
         write_stack_table(out, &report, &setup.light.source.name(), &scenario.cell)?;
+        return Ok(());
+    }
+    if p.flag("tpv") {
+        let inputs = scenario.hot.tpv.to_physics()?;
+        let r = Tpv::new(&inputs.setup).solve(&inputs.gaps_j, inputs.connection);
+        return print_rows(out, &TpvReport::new(&r), json, |r| r.rows());
+    }
+    if p.flag("absorber") {
+        let (setup, surface, temp_k, _) = scenario.hot.absorber.to_physics()?;
+        return print_rows(out, &AbsorberReport::at(&setup, &surface, temp_k), json, |r| r.rows());
+    }
+    if p.flag("blackbody") {
+        let b = &scenario.hot.blackbody;
+        let report = BlackbodyReport::new(b.temp_k, b.band_um.map(|[a, c]| (a, c)));
+        if json {
+            return print_json(out, &report);
+        }
+        writeln!(out, "{:<32} {} K", "Temperature", report.temp_k)?;
+        writeln!(out, "{:<32} {:.4} um", "Peak per unit wavelength", report.peak_wavelength_um)?;
+        writeln!(out, "{:<32} {:.4} eV", "Peak per unit energy", report.peak_energy_ev)?;
+        writeln!(out, "{:<32} {:.6e} W/m2", "Exitance (sigma T^4)", report.exitance_w_m2)?;
+        writeln!(out, "{:<32} {:.6e} photons/(m2 s)", "Photon exitance", report.photon_exitance_m2_s)?;
+        if let (Some([a, c]), Some(w), Some(f)) = (b.band_um, report.band_exitance_w_m2, report.band_fraction) {
+            writeln!(out, "{:<32} {w:.6e} W/m2, {:.4} % of the total", format!("Band {a}-{c} um"), f * 100.0)?;
+        }
         return Ok(());
     }
     if !scenario.stack.absorber.is_step() {

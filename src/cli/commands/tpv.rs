@@ -9,6 +9,7 @@
 
 use crate::cli::args::{OptionDoc, Parsed, Spec};
 use crate::cli::shared::files::{resolve_emitter_file, resolve_reflectance_file};
+use crate::cli::shared::options::EMITTER_FILE_DOCS;
 use crate::cli::shared::options::{connection, MAX_GRID_POINTS};
 use crate::cli::shared::output::print_json;
 use crate::cli::shared::{Command, Failure, Out};
@@ -93,23 +94,9 @@ pub const COMMAND: Command = Command {
             text: "one junction's gap from FROM to TO eV in steps of STEP (both ends included):\n\
                    efficiency and power density at each, and the two optima (default: no sweep)",
         },
-        OptionDoc {
-            name: "emitter-axis",
-            arg: "U",
-            text: "with --emitter file:PATH: the file's wavelength unit, nm, um or cm-1\n\
-                   (default: from the header)",
-        },
-        OptionDoc {
-            name: "emitter-values",
-            arg: "KIND",
-            text: "with --emitter file:PATH: emissivity, absorptance or reflectance, % for percent\n\
-                   (default: from the header)",
-        },
-        OptionDoc {
-            name: "emitter-column",
-            arg: "N",
-            text: "with --emitter file:PATH: the value column, the axis being 0 (default 1)",
-        },
+        EMITTER_FILE_DOCS[0],
+        EMITTER_FILE_DOCS[1],
+        EMITTER_FILE_DOCS[2],
         OptionDoc {
             name: "json",
             arg: "",
@@ -146,7 +133,7 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     let sc = scenario(&p)?;
     let inputs = sc.to_physics()?;
     if p.flag("link") {
-        let mut scenario = Scenario { ..Default::default() };
+        let mut scenario = Scenario::default();
         scenario.hot.tpv = sc;
         scenario.view.panel = Panel::Hot;
         writeln!(out, "{}", crate::codec::encode_fragment(&scenario))?;
@@ -250,8 +237,10 @@ fn caution(out: Out, temp_k: f64) -> Result<(), Failure> {
 
 /// The pair from the options, on the scenario's defaults; data files read.
 fn scenario(p: &Parsed) -> Result<TpvScenario, String> {
-    let mut sc = TpvScenario::default();
-    sc.emitter_temp_k = p.required_number("emitter-temp", "emitter temperature", "K", "tpv")?;
+    let mut sc = TpvScenario {
+        emitter_temp_k: p.required_number("emitter-temp", "emitter temperature", "K", "tpv")?,
+        ..TpvScenario::default()
+    };
     if p.text("gap").is_some() && p.text("gaps").is_some() {
         return Err("give one of --gap (one junction) and --gaps (a stack)".into());
     }
@@ -277,7 +266,7 @@ fn scenario(p: &Parsed) -> Result<TpvScenario, String> {
         }
     }
     if p.text("connection").is_some() {
-        sc.connection = connection(p)?.into();
+        sc.connection = connection(p)?;
     }
     if let Some(e) = p.text("emitter") {
         sc.emitter = EmitterSpec::parse(e).map_err(|m| format!("--emitter: {m}"))?;

@@ -105,6 +105,27 @@ pub fn apply_common(p: &Parsed, sc: &mut CellScenario) -> Result<(), String> {
     Ok(())
 }
 
+/// The options that describe an `--emitter file:PATH` (for `tpv` and `absorber`).
+pub const EMITTER_FILE_DOCS: [OptionDoc; 3] = [
+    OptionDoc {
+        name: "emitter-axis",
+        arg: "U",
+        text: "with --emitter file:PATH: the file's wavelength unit, nm, um or cm-1\n\
+               (default: from the header)",
+    },
+    OptionDoc {
+        name: "emitter-values",
+        arg: "KIND",
+        text: "with --emitter file:PATH: emissivity, absorptance or reflectance, % for percent\n\
+               (default: from the header)",
+    },
+    OptionDoc {
+        name: "emitter-column",
+        arg: "N",
+        text: "with --emitter file:PATH: the value column, the axis being 0 (default 1)",
+    },
+];
+
 /// `--concentration X|max`: suns, or `max` for the sun-disc limit
 /// (`constants::MAX_CONCENTRATION`, about 46,239).
 pub fn concentration(p: &Parsed) -> Result<Option<f64>, String> {
