@@ -10,6 +10,10 @@
 //!
 //! * [`controls`]: the settings of the three cards; [`figures`]: figures and cautions;
 //! * [`cards`]: the plot cards (read-outs, the band drag, downloads); [`plots`]: drawing.
+//!
+//! Architecture invariant: the panel computes no physics of its own; it draws what
+//! `view::hot` returns, edits only `Scenario.hot` (and `view.panel`) through `Ctx::edit`, and
+//! keys every message by `Control`.
 
 pub mod cards;
 pub mod controls;
