@@ -209,7 +209,7 @@ fn apply(stack: StackState, job: Started, r: SearchReply, elapsed: f64) -> Optio
         None => "with gaps".into(),
     };
     let text = format!(
-        "Best {}-junction {} stack {within} from {} to {} eV: {} eV, {} % (the design had {}). {} stacks evaluated in {} s.",
+        "Best {}-junction {} stack {within} from {} to {} eV: {} eV, {} % (the design had {}). {} stacks evaluated in {}.",
         job.junctions,
         job.connection.label(),
         fmt::field(r.from_ev, 4),
@@ -218,7 +218,8 @@ fn apply(stack: StackState, job: Started, r: SearchReply, elapsed: f64) -> Optio
         fixed(r.efficiency * 100.0, 2),
         job.before,
         thousands(r.evaluations as f64),
-        fixed(elapsed / 1000.0, 1)
+        // below a second in whole milliseconds (a fast search read "0.0 s")
+        if elapsed < 1000.0 { format!("{} ms", fixed(elapsed.max(1.0), 0)) } else { format!("{} s", fixed(elapsed / 1000.0, 1)) }
     );
     stack.search.try_set(SearchState::Done(text))
 }
