@@ -416,7 +416,7 @@ const SOURCES: &[(&str, &str)] = &[
     ("blackbody", "Blackbody sun"),
 ];
 const SURFACES: &[(&str, &str)] =
-    &[("black", "Black"), ("step", "Step: absorbs below a cutoff wavelength"), ("profile", "Emissivity profile")];
+    &[("black", "Black"), ("step", "Step at a cutoff wavelength"), ("profile", "Emissivity profile")];
 
 fn surface_key(s: &SurfaceSpec) -> &'static str {
     match s {
