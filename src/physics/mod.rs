@@ -5,6 +5,7 @@ pub mod absorber;
 pub mod batch;
 pub mod constants;
 pub mod data;
+pub mod film;
 pub mod junction;
 pub mod losses;
 pub mod mismatch;
