@@ -78,3 +78,17 @@ fn hemispherical_emissivity_of_a_smooth_dielectric() {
         assert!((got - want).abs() < 1e-9, "n = {n}: {got} against {want}");
     }
 }
+
+#[test]
+fn the_hemispherical_rule_meets_the_closed_form() {
+    // the page's and the command line's rule (Gauss-Legendre in cos theta) against the
+    // closed form of a smooth dielectric (Dunkle; Siegel & Howell), via the scipy values
+    let text = std::fs::read_to_string("tests/fixtures/film_hemispherical.csv").unwrap();
+    for line in text.lines().filter(|l| !l.starts_with('#') && !l.starts_with("n,") && !l.trim().is_empty()) {
+        let (n, want) = line.split_once(',').unwrap();
+        let (n, want): (f64, f64) = (n.parse().unwrap(), want.parse().unwrap());
+        let got = 1.0 - glowgap::physics::film::hemispherical(1.0, &[], Complex::real(n), 1e-6).reflectance;
+        println!("n = {n}: hemispherical emissivity {got} against {want}, error {:.1e}", got - want);
+        assert!((got - want).abs() < 1e-12, "n = {n}: {got} against {want}");
+    }
+}

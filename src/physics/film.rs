@@ -259,6 +259,28 @@ pub fn coherent_mean(n0: f64, layers: &[Layer], substrate: Complex, lambda_m: f6
     }
 }
 
+/// Points of the angular rule of [`hemispherical`].
+pub const HEMISPHERICAL_POINTS: usize = 96;
+
+/// Hemispherical (cos-weighted, polarization-averaged) values:
+/// X_h = 2 int_0^(pi/2) X(theta) cos(theta) sin(theta) dtheta = int_0^1 X 2c dc with
+/// c = cos(theta), by the [`HEMISPHERICAL_POINTS`]-point Gauss-Legendre rule in c (X is smooth
+/// in c away from a critical angle; for a smooth dielectric it meets the closed form to
+/// 2e-16, tests/film_reference.rs).
+pub fn hemispherical(n0: f64, layers: &[Layer], substrate: Complex, lambda_m: f64) -> Response {
+    use std::sync::OnceLock;
+    static RULE: OnceLock<super::radiator::quadrature::GaussRule> = OnceLock::new();
+    let rule = RULE.get_or_init(|| super::radiator::quadrature::GaussRule::new(HEMISPHERICAL_POINTS));
+    let (mut r, mut t) = (0.0, 0.0);
+    for (c, w) in rule.on(0.0, 1.0) {
+        let x = coherent_mean(n0, layers, substrate, lambda_m, c.clamp(0.0, 1.0).acos());
+        r += w * 2.0 * c * x.reflectance;
+        t += w * 2.0 * c * x.transmittance;
+    }
+    let (r, t) = (r.clamp(0.0, 1.0), t.clamp(0.0, 1.0));
+    Response { reflectance: r, transmittance: t, absorptance: (1.0 - r - t).max(0.0) }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

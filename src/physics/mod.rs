@@ -8,6 +8,7 @@ pub mod data;
 pub mod film;
 pub mod junction;
 pub mod losses;
+pub mod materials;
 pub mod mismatch;
 pub mod order;
 pub mod planck;

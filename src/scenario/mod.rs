@@ -16,6 +16,7 @@ use crate::physics::spectrum::Spectrum;
 use serde::{Deserialize, Serialize};
 
 mod choices;
+pub mod film;
 pub mod hot;
 pub mod radiator;
 pub mod stack;

@@ -9,6 +9,7 @@ mod blackbody;
 mod cell;
 mod cool;
 mod eval;
+mod film;
 mod losses;
 mod map;
 mod mismatch;
@@ -33,6 +34,7 @@ pub const ALL: &[&Command] = &[
     &blackbody::COMMAND,
     &tpv::COMMAND,
     &absorber::COMMAND,
+    &film::COMMAND,
 ];
 
 /// The command called `name`.

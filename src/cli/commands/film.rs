@@ -1,0 +1,267 @@
+//! `glowgap film`: the reflectance, transmittance into the substrate and absorptance of a
+//! layer stack (the transfer-matrix method) at one wavelength or over a range, at one angle
+//! and polarization, optionally with the hemispherical values; or the list of built-in
+//! materials with their sources.
+//!
+//! Architecture invariant: imports only `cli::args` and `cli::shared` of the cli; the stack
+//! is checked by `scenario::film`, every figure comes from `physics::film`.
+
+use crate::cli::args::{OptionDoc, Parsed, Spec};
+use crate::cli::shared::output::print_json;
+use crate::cli::shared::{Command, Failure, Out};
+use crate::physics::film::{coherent, coherent_mean, hemispherical, Polarization, Response};
+use crate::physics::materials::{parse_nk_table, BUILTINS};
+use crate::scenario::film::{film_inputs, LayerSpec, MaterialSpec};
+use serde::Serialize;
+
+pub const COMMAND: Command = Command {
+    spec: Spec {
+        command: "film",
+        valued: &[
+            "layers",
+            "substrate",
+            "incident-medium",
+            "wavelength",
+            "from",
+            "to",
+            "step",
+            "angle",
+            "polarization",
+        ],
+        flags: &["hemispherical", "json", "csv", "materials"],
+        max_positional: 0,
+    },
+    about: "a layer stack's reflectance, transmittance and absorptance (thin-film optics)",
+    usage: "film [--layers LAYER,LAYER,...] [--substrate MAT] [--incident-medium MAT]\n\
+            (--wavelength UM | --from UM --to UM --step UM) [--angle DEG]\n\
+            [--polarization s|p|mean] [--hemispherical] [--json | --csv]\n\
+            or: glowgap film --materials",
+    docs: &[
+        OptionDoc {
+            name: "layers",
+            arg: "LAYER,...",
+            text: "the layers, the first on the side the light comes from, each MAT:THICKNESS_NM\n\
+                   (default: none, a bare substrate); MAT is a built-in name, n=REAL, nk=N/K or\n\
+                   file:PATH (a wavelength_um,n,k table)",
+        },
+        OptionDoc { name: "substrate", arg: "MAT", text: "the semi-infinite substrate, default n=1" },
+        OptionDoc { name: "incident-medium", arg: "MAT", text: "where the light comes from, lossless, default n=1" },
+        OptionDoc {
+            name: "wavelength",
+            arg: "UM",
+            text: "one vacuum wavelength in um (required unless --from/--to/--step)",
+        },
+        OptionDoc {
+            name: "from",
+            arg: "UM",
+            text: "the first wavelength in um (with --to and --step; required there)",
+        },
+        OptionDoc { name: "to", arg: "UM", text: "the last wavelength in um, included (required with --from)" },
+        OptionDoc { name: "step", arg: "UM", text: "the wavelength step in um (required with --from)" },
+        OptionDoc {
+            name: "angle",
+            arg: "DEG",
+            text: "angle of incidence in the incident medium, 0 to below 90, default 0",
+        },
+        OptionDoc { name: "polarization", arg: "P", text: "s | p | mean (default: mean, unpolarized light)" },
+        OptionDoc {
+            name: "hemispherical",
+            arg: "",
+            text: "also the hemispherical (cos-weighted, unpolarized) reflectance, transmittance and\n\
+                   absorptance",
+        },
+        OptionDoc {
+            name: "json",
+            arg: "",
+            text: "print JSON {\"points\": [{\"wavelength_um\", \"reflectance\", \"transmittance\",\n\
+                   \"absorptance\"}...]}, with --hemispherical also \"hemispherical_reflectance\",\n\
+                   \"hemispherical_transmittance\", \"hemispherical_absorptance\"",
+        },
+        OptionDoc { name: "csv", arg: "", text: "print CSV with a header line" },
+        OptionDoc { name: "materials", arg: "", text: "list the built-in materials with their sources and ranges" },
+    ],
+    run,
+};
+
+/// The most wavelengths of one run.
+const MAX_POINTS: f64 = 1e6;
+
+#[derive(Serialize)]
+struct Point {
+    wavelength_um: f64,
+    reflectance: f64,
+    transmittance: f64,
+    absorptance: f64,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    hemispherical_reflectance: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    hemispherical_transmittance: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    hemispherical_absorptance: Option<f64>,
+}
+
+#[derive(Serialize)]
+struct Points {
+    points: Vec<Point>,
+}
+
+fn run(args: &[String], out: Out) -> Result<(), Failure> {
+    let p = COMMAND.spec.parse(args)?;
+    if p.flag("materials") {
+        for b in BUILTINS {
+            let m = (b.build)();
+            let um = |x: f64| format!("{}", (x * 1e10).round() / 1e4);
+            writeln!(out, "{:<10} {} ({} to {} um); {}", b.name, b.what, um(m.range_m.0), um(m.range_m.1), m.source)?;
+        }
+        writeln!(out, "{:<10} any constant index, e.g. n=1.5 or nk=2.1/0.05", "n=, nk=")?;
+        return Ok(());
+    }
+    if p.flag("json") && p.flag("csv") {
+        return Err(Failure::Usage("'glowgap film': choose one of --json and --csv".into()));
+    }
+    let material = |opt: &str, default: &str| -> Result<MaterialSpec, String> {
+        let text = p.text(opt).unwrap_or(default);
+        read_file(MaterialSpec::parse(text).map_err(|e| format!("--{opt}: {e}"))?).map_err(|e| format!("--{opt}: {e}"))
+    };
+    let incident = material("incident-medium", "n=1")?;
+    let substrate = material("substrate", "n=1")?;
+    let mut layers = Vec::new();
+    if let Some(list) = p.text("layers") {
+        for (i, l) in list.split(',').filter(|l| !l.trim().is_empty()).enumerate() {
+            let mut spec = LayerSpec::parse(l).map_err(|e| format!("--layers: {e}"))?;
+            spec.material = read_file(spec.material).map_err(|e| format!("--layers, layer {}: {e}", i + 1))?;
+            layers.push(spec);
+        }
+    }
+    let inputs = film_inputs(&incident, &layers, &substrate).map_err(|e| {
+        if e.starts_with("layer") {
+            format!("--layers: {e}")
+        } else if e.contains("incident") {
+            format!("--incident-medium: {e}")
+        } else {
+            format!("--substrate: {e}")
+        }
+    })?;
+    let angle = p.number("angle", "angle of incidence", "degrees")?.unwrap_or(0.0);
+    if !(0.0..90.0).contains(&angle) {
+        return Err(Failure::Usage(format!(
+            "--angle {angle} is out of range; give 0 to below 90 degrees, e.g. --angle 30"
+        )));
+    }
+    let pol = match p.text("polarization").map(|s| s.trim().to_ascii_lowercase()) {
+        None => None,
+        Some(s) if s == "mean" => None,
+        Some(s) if s == "s" => Some(Polarization::S),
+        Some(s) if s == "p" => Some(Polarization::P),
+        Some(s) => return Err(Failure::Usage(format!("--polarization '{s}' is not known; use s, p or mean"))),
+    };
+    let wavelengths = wavelengths(&p)?;
+    let hemi = p.flag("hemispherical");
+    let mut points = Vec::with_capacity(wavelengths.len());
+    for &l_um in &wavelengths {
+        let (n0, st, sub) =
+            inputs.at(l_um * 1e-6).map_err(|e| format!("at {l_um} um: {e}; choose wavelengths inside it"))?;
+        let th = angle.to_radians();
+        let r: Response = match pol {
+            Some(pol) => coherent(n0, &st, sub, l_um * 1e-6, th, pol),
+            None => coherent_mean(n0, &st, sub, l_um * 1e-6, th),
+        };
+        let h = hemi.then(|| hemispherical(n0, &st, sub, l_um * 1e-6));
+        points.push(Point {
+            wavelength_um: l_um,
+            reflectance: r.reflectance,
+            transmittance: r.transmittance,
+            absorptance: r.absorptance,
+            hemispherical_reflectance: h.map(|h| h.reflectance),
+            hemispherical_transmittance: h.map(|h| h.transmittance),
+            hemispherical_absorptance: h.map(|h| h.absorptance),
+        });
+    }
+    if p.flag("json") {
+        return print_json(out, &Points { points });
+    }
+    let csv = p.flag("csv");
+    if csv {
+        let extra =
+            if hemi { ",hemispherical_reflectance,hemispherical_transmittance,hemispherical_absorptance" } else { "" };
+        writeln!(out, "wavelength_um,reflectance,transmittance,absorptance{extra}")?;
+    } else {
+        let extra = if hemi { "   hemi R     hemi T     hemi A" } else { "" };
+        writeln!(out, "{:>14} {:>10} {:>10} {:>10}{extra}", "wavelength um", "R", "T", "A")?;
+    }
+    for pt in &points {
+        if csv {
+            let mut line = format!("{},{},{},{}", pt.wavelength_um, pt.reflectance, pt.transmittance, pt.absorptance);
+            if let (Some(a), Some(b), Some(c)) =
+                (pt.hemispherical_reflectance, pt.hemispherical_transmittance, pt.hemispherical_absorptance)
+            {
+                line += &format!(",{a},{b},{c}");
+            }
+            writeln!(out, "{line}")?;
+        } else {
+            let mut line = format!(
+                "{:>14.6} {:>10.6} {:>10.6} {:>10.6}",
+                pt.wavelength_um, pt.reflectance, pt.transmittance, pt.absorptance
+            );
+            if let (Some(a), Some(b), Some(c)) =
+                (pt.hemispherical_reflectance, pt.hemispherical_transmittance, pt.hemispherical_absorptance)
+            {
+                line += &format!(" {a:>10.6} {b:>10.6} {c:>10.6}");
+            }
+            writeln!(out, "{line}")?;
+        }
+    }
+    Ok(())
+}
+
+/// A `file:PATH` material read as a wavelength_um,n,k table.
+fn read_file(spec: MaterialSpec) -> Result<MaterialSpec, String> {
+    let MaterialSpec::File { path } = &spec else { return Ok(spec) };
+    let text = std::fs::read_to_string(path).map_err(|e| format!("cannot read the n,k file '{path}': {e}"))?;
+    let (wavelength_m, n, k) = parse_nk_table(&text).map_err(|e| format!("the n,k file '{path}', {e}"))?;
+    Ok(MaterialSpec::Table { name: path.clone(), wavelength_m, n, k })
+}
+
+/// `--wavelength UM` or `--from --to --step` (both ends included).
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
+fn wavelengths(p: &Parsed) -> Result<Vec<f64>, String> {
+    let one = p.number("wavelength", "wavelength", "um")?;
+    let grid = [
+        p.number("from", "first wavelength", "um")?,
+        p.number("to", "last wavelength", "um")?,
+        p.number("step", "wavelength step", "um")?,
+    ];
+    match (one, grid) {
+        (Some(l), [None, None, None]) => {
+            if !(l > 0.0 && l.is_finite()) {
+                return Err(format!("--wavelength {l} must be a positive number of um, e.g. --wavelength 0.55"));
+            }
+            Ok(vec![l])
+        }
+        (None, [Some(a), Some(b), Some(s)]) => {
+            if !(a > 0.0 && b >= a && b.is_finite()) {
+                return Err(format!("--from {a} --to {b}: give two positive wavelengths in um, the shorter first"));
+            }
+            if !(s > 0.0) {
+                return Err(format!("--step {s} must be positive, e.g. --step 0.01 (um)"));
+            }
+            let steps = ((b - a) / s).floor();
+            if steps + 1.0 > MAX_POINTS {
+                return Err(format!(
+                    "--from/--to/--step make {} wavelengths, more than {MAX_POINTS}; give a larger --step",
+                    steps + 1.0
+                ));
+            }
+            let n = steps as usize;
+            let mut v: Vec<f64> = (0..=n).map(|i| a + s * i as f64).collect();
+            if b - v[n] > 1e-9 * s {
+                v.push(b);
+            } else {
+                v[n] = b;
+            }
+            Ok(v)
+        }
+        (Some(_), _) => Err("give either --wavelength or --from/--to/--step, not both".into()),
+        _ => Err("give a wavelength: --wavelength UM, or --from UM --to UM --step UM, e.g. --wavelength 0.55".into()),
+    }
+}
