@@ -99,3 +99,100 @@ fn film_bad_input_is_one_line() {
     expect_usage_error(&["film", "--wavelength", "20", "--substrate", "silica"], "silica");
     expect_usage_error(&["film", "--wavelength", "0.5", "--polarization", "x"], "--polarization");
 }
+
+#[test]
+fn film_emitter_of_a_bare_dielectric_meets_the_closed_forms() {
+    // An opaque smooth dielectric (k -> 0 but absorbing, so eps = 1 - R): its normal
+    // emittance is 1 - ((n - 1)/(n + 1))^2 (Fresnel, Born & Wolf 1.5.3) and its hemispherical
+    // emittance the closed form of Dunkle (Siegel & Howell, Thermal Radiation Heat Transfer),
+    // here from tests/fixtures/film_hemispherical.csv (scipy, tests/reference/gen_film.py).
+    // Tolerance 1e-9: the film table's 24-point angular rule is exact to ~1e-14 for this
+    // smooth integrand, and the spectral integrals of a constant are exact to 1e-10.
+    let text = std::fs::read_to_string("tests/fixtures/film_hemispherical.csv").unwrap();
+    for row in common::fixture_rows(&text).iter().skip(1) {
+        let n = common::num(&row[0]);
+        let want_h = common::num(&row[1]);
+        let sub = format!("nk={n}/1e-12");
+        let v = json(&["cool", "--emitter", "film", "--substrate", &sub, "--sky", "space", "--json"]);
+        let normal = 1.0 - ((n - 1.0) / (n + 1.0)).powi(2);
+        let got_n = v["thermal_emittance"].as_f64().unwrap();
+        let got_h = v["hemispherical_emittance"].as_f64().unwrap();
+        assert!((got_n - normal).abs() < 1e-9, "n = {n}: normal {got_n} vs {normal}");
+        assert!((got_h - want_h).abs() < 1e-9, "n = {n}: hemispherical {got_h} vs {want_h}");
+        // emitted = eps_h sigma T^4 at 300 K (sigma: CODATA 2018, 5.670374419e-8 W/m2K4)
+        let emitted = v["emitted_w_m2"].as_f64().unwrap();
+        let want = want_h * 5.670374419e-8 * 300f64.powi(4);
+        assert!((emitted / want - 1.0).abs() < 1e-9, "n = {n}: {emitted} vs {want}");
+    }
+    // over a lossless substrate what enters is carried away: a bare one emits nothing
+    let v = json(&["cool", "--emitter", "film", "--substrate", "n=1.5", "--sky", "space", "--json"]);
+    assert!(v["emitted_w_m2"].as_f64().unwrap().abs() < 1e-9);
+}
+
+#[test]
+fn film_emitter_bad_input_names_the_option() {
+    expect_usage_error(&["cool", "--emitter", "film", "--cutoff", "60"], "--cutoff");
+    expect_usage_error(&["cool", "--emitter", "film", "--solar", "0.1"], "--solar");
+    expect_usage_error(&["cool", "--layers", "silica-ir:100"], "--emitter film");
+    expect_usage_error(&["cool", "--emitter", "film", "--layers", "silica-ir:-1"], "--layers");
+    expect_usage_error(&["cool", "--emitter", "film", "--substrate", "nk=1.5/-1"], "substrate");
+    expect_usage_error(&["cool", "--emitter", "film", "--layers", "file:/no/such/file:100"], "--layers");
+}
+
+#[test]
+fn a_thick_sheet_is_incoherent_as_in_a_spectrophotometer() {
+    // 1 mm of lossless glass (n = 1.5) in air reflects 2 R1 / (1 + R1), R1 = (0.5/2.5)^2,
+    // the textbook sum over multiple reflections without interference (e.g. Macleod,
+    // Thin-Film Optical Filters, on thick substrates); marked coherent it shows fringes
+    let r1: f64 = 0.04;
+    let want = 2.0 * r1 / (1.0 + r1);
+    for l in ["0.5", "0.5003", "1.2"] {
+        let v = json(&["film", "--layers", "n=1.5:1000000", "--wavelength", l, "--json"]);
+        let r = v["points"][0]["reflectance"].as_f64().unwrap();
+        assert!((r - want).abs() < 1e-12, "{l}: {r}");
+    }
+    let fringe: Vec<f64> = ["0.5", "0.50005"]
+        .iter()
+        .map(|l| {
+            let v = json(&["film", "--layers", "n=1.5:1000000:coherent", "--wavelength", l, "--json"]);
+            v["points"][0]["reflectance"].as_f64().unwrap()
+        })
+        .collect();
+    assert!((fringe[0] - fringe[1]).abs() > 0.01, "{fringe:?}");
+}
+
+#[test]
+fn user_tables_in_other_units_and_permittivity_read_the_same() {
+    // N = 2 + 0.1i: eps = 3.99 + 0.4i; at 2 um = 5000 cm-1. The same stack given by a
+    // constant index and by tables in um (n,k) and cm-1 (eps1,eps2) must agree.
+    let dir = std::env::temp_dir().join(format!("glowgap-nk-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let a = dir.join("a.csv");
+    let b = dir.join("b.csv");
+    std::fs::write(&a, "wavelength_um,n,k\n1,2,0.1\n3,2,0.1\n").unwrap();
+    std::fs::write(&b, "# permittivity\nwavenumber_cm-1,eps1,eps2\n10000,3.99,0.4\n3000,3.99,0.4\n").unwrap();
+    let r = |mat: &str| {
+        let layers = format!("{mat}:150");
+        let v = json(&[
+            "film",
+            "--layers",
+            &layers,
+            "--substrate",
+            "n=1.5",
+            "--wavelength",
+            "2",
+            "--angle",
+            "30",
+            "--json",
+        ]);
+        v["points"][0]["reflectance"].as_f64().unwrap()
+    };
+    let want = r("nk=2/0.1");
+    assert!((r(&format!("file:{}", a.display())) - want).abs() < 1e-12);
+    assert!((r(&format!("file:{}", b.display())) - want).abs() < 1e-12);
+    // a bad line is named
+    std::fs::write(&a, "wavelength_um,n,k\n1,2,0.1\n2,2,oops\n").unwrap();
+    let layers = format!("file:{}:150", a.display());
+    expect_usage_error(&["film", "--layers", &layers, "--wavelength", "1.5"], "line 3");
+    std::fs::remove_dir_all(&dir).ok();
+}

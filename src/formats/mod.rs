@@ -4,7 +4,8 @@
 //!
 //! Layout: `units` (the vocabulary of units and quantities in headers and options), `table`
 //! (the line scanner and the error type every reader shares), and one reader per kind of
-//! table: `spectrum_csv`, `emissivity_csv` (emissivity and sky transmittance), `eqe_csv`.
+//! table: `spectrum_csv`, `emissivity_csv` (emissivity and sky transmittance), `eqe_csv`,
+//! `nk_csv` (a material's n,k or permittivity).
 //!
 //! Architecture invariant: readers are pure functions of text (no I/O, no front-end words:
 //! no option or control is named in a message); `units` imports no reader, `table` imports
@@ -12,6 +13,7 @@
 
 pub mod emissivity_csv;
 pub mod eqe_csv;
+pub mod nk_csv;
 pub mod spectrum_csv;
 pub mod table;
 pub mod units;

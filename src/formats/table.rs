@@ -426,6 +426,33 @@ impl TableScan<'_> {
         Ok(())
     }
 
+    /// Every data line as numbers: (1-based line, its fields read as numbers), each line
+    /// with at least `columns` fields, all finite. For tables whose columns are read
+    /// together (such as n and k).
+    pub(crate) fn read_rows(&self, columns: usize) -> Result<Vec<(usize, Vec<f64>)>, TableError> {
+        let ctx = Context { sep: self.sep, sep_line: self.first_line, value_col: 1 };
+        let mut out = Vec::new();
+        for d in data_lines(self.text, self.header_line.is_some()) {
+            let fields = split_fields(d.content, self.sep, false);
+            if fields.len() < columns {
+                return Err(TableError::at(
+                    d.line,
+                    format!(
+                        "{} field(s) separated by {}, but every data line needs {columns}",
+                        fields.len(),
+                        self.sep.describe()
+                    ),
+                ));
+            }
+            let mut row = Vec::with_capacity(columns);
+            for (i, f) in fields.iter().take(columns).enumerate() {
+                row.push(read_field(f, d.line, i, &ctx)?);
+            }
+            out.push((d.line, row));
+        }
+        Ok(out)
+    }
+
     /// Read the axis (column 0) and the value column `value_col` of every data line:
     /// finite numbers, a positive axis, non-negative values, no repeated axis value, one
     /// direction throughout. Returned ascending along the axis.

@@ -128,12 +128,29 @@ impl Neg for Complex {
     }
 }
 
-/// One layer: its complex index (k >= 0 absorbs) and thickness [m].
+/// One layer: its complex index (k >= 0 absorbs), thickness [m], and whether it is taken
+/// as incoherent (a thick sheet whose fringes average out; see [`COHERENCE_LIMIT_M`]).
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Layer {
     pub index: Complex,
     pub thickness_m: f64,
+    pub incoherent: bool,
 }
+
+impl Layer {
+    /// A coherent layer of index `index` and thickness `thickness_m` [m].
+    pub fn new(index: Complex, thickness_m: f64) -> Layer {
+        Layer { index, thickness_m, incoherent: false }
+    }
+}
+
+/// Layers thicker than this [m] are treated incoherently unless the user says otherwise:
+/// 10 um of n = 1.5 puts the fringes lambda / (2 n d) = 1/60 of the wavelength apart at
+/// 0.5 um (Delta lambda / lambda = lambda / (2 n d), from the phase 4 pi n d / lambda), finer
+/// than the bandwidth of usual spectrophotometer data, so what is measured is their average;
+/// thinner layers (interference coatings) keep their fringes. A stated rule of thumb (common
+/// practice, no single source); mark a layer `:coherent` or `:incoherent` to override it.
+pub const COHERENCE_LIMIT_M: f64 = 10e-6;
 
 /// Polarization of the incident light.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -152,6 +169,29 @@ pub struct Response {
     pub absorptance: f64,
 }
 
+impl Response {
+    fn from_rt(r: f64, t: f64) -> Response {
+        let clean = |x: f64| if x.is_finite() { x.clamp(0.0, 1.0) } else { 0.0 };
+        let (r, t) = (clean(r), clean(t));
+        let t = t.min(1.0 - r);
+        Response { reflectance: r, transmittance: t, absorptance: (1.0 - r - t).max(0.0) }
+    }
+
+    /// R and T each clamped to [0, 1] but not to R + T <= 1: seen from inside a lossy sheet
+    /// the split into incident and reflected power is approximate, and the sum may exceed 1
+    /// by O(k/n) there; the cascade of [`pair`] needs the values as they are.
+    fn raw(r: f64, t: f64) -> Response {
+        let clean = |x: f64| if x.is_finite() { x.clamp(0.0, 1.0) } else { 0.0 };
+        let (r, t) = (clean(r), clean(t));
+        Response { reflectance: r, transmittance: t, absorptance: (1.0 - r - t).max(0.0) }
+    }
+
+    /// The mean of two responses (unpolarized light from s and p).
+    pub fn mean(a: Response, b: Response) -> Response {
+        Response::from_rt(0.5 * (a.reflectance + b.reflectance), 0.5 * (a.transmittance + b.transmittance))
+    }
+}
+
 /// Largest single-pass attenuation exponent kept in a layer (Byrnes' cap).
 const OPACITY_CAP: f64 = 35.0;
 
@@ -164,34 +204,191 @@ fn kz(n: Complex, s: f64) -> Complex {
     k
 }
 
-/// Fresnel (r, t) from medium (n_j, kz_j) to (n_k, kz_k).
-fn fresnel(pol: Polarization, nj: Complex, kj: Complex, nk: Complex, kk: Complex) -> (Complex, Complex) {
-    match pol {
-        Polarization::S => {
-            let d = kj + kk;
-            ((kj - kk) / d, kj.scale(2.0) / d)
+/// The tilted admittances (s, p) of a medium of index `n` with kz = `k`: eta_s = N cos =
+/// kz, eta_p = N / cos = N^2 / kz (in units of the free-space admittance).
+fn admittances(n: Complex, k: Complex) -> (Complex, Complex) {
+    let p = if k.norm_sqr() > 0.0 { n * n / k } else { Complex::new(f64::MAX, 0.0) };
+    (k, p)
+}
+
+/// The field vector [B, C] at one interface with its scale: the true vector is
+/// (b, c) * e^log_scale (kept so that stacks of opaque layers stay finite).
+#[derive(Clone, Copy)]
+struct Field {
+    b: Complex,
+    c: Complex,
+    log_scale: f64,
+}
+
+impl Field {
+    fn renormalized(mut self) -> Field {
+        let m = self.b.norm_sqr().max(self.c.norm_sqr());
+        if m > 1e200 || (m < 1e-200 && m > 0.0) {
+            let f = m.sqrt();
+            self.b = self.b.scale(1.0 / f);
+            self.c = self.c.scale(1.0 / f);
+            self.log_scale += f.ln();
         }
-        Polarization::P => {
-            let a = nk * nk * kj;
-            let b = nj * nj * kk;
-            let d = a + b;
-            ((a - b) / d, (nj * nk * kj).scale(2.0) / d)
-        }
+        self
     }
 }
 
-type M2 = [[Complex; 2]; 2];
-
-fn mat_mul(a: &M2, b: &M2) -> M2 {
-    [
-        [a[0][0] * b[0][0] + a[0][1] * b[1][0], a[0][0] * b[0][1] + a[0][1] * b[1][1]],
-        [a[1][0] * b[0][0] + a[1][1] * b[1][0], a[1][0] * b[0][1] + a[1][1] * b[1][1]],
-    ]
+/// The coherent responses (s, p) of `layers` (all taken coherent) between an incident
+/// medium of index `n_in` and `substrate`, with Snell's invariant `s_inv` = n0 sin(theta0),
+/// at vacuum wavelength `lambda_m` [m]; when `per_layer` is given, each layer's share of the
+/// absorbed power (s, p) is written there.
+///
+/// The characteristic-matrix form (Macleod, Thin-Film Optical Filters, ch. 2): with
+/// delta_j = 2 pi kz_j d_j / lambda and tilted admittances eta_j,
+///   [B; C] = prod_j [[cos delta_j, -i sin delta_j / eta_j], [-i eta_j sin delta_j,
+///   cos delta_j]] [1; eta_sub]
+/// (the signs of the e^(-i omega t), N = n + ik convention); then
+///   R = |(eta_0 B - C) / (eta_0 B + C)|^2,  T = 4 Re(eta_0) Re(eta_sub) / |eta_0 B + C|^2,
+/// and the power crossing the top of layer j is 4 Re(eta_0) Re(B_j conj(C_j)) /
+/// |eta_0 B + C|^2 (the same ratio one interface down), so each layer absorbs the
+/// difference between the flux at its top and at its bottom. For a lossless incident
+/// medium this is the exact transfer-matrix result (checked against the tmm library to
+/// 1e-12); for a lossy one (a thick absorbing sheet seen from inside, in the incoherent
+/// cascade) it is the usual approximation that splits the fields as if it were lossless.
+fn coherent_pair(
+    n_in: Complex,
+    s_inv: f64,
+    layers: &[Layer],
+    substrate: Complex,
+    lambda_m: f64,
+    per_layer: Option<&mut Vec<(f64, f64)>>,
+) -> (Response, Response) {
+    let k_sub = kz(substrate, s_inv);
+    let (eta_sub_s, eta_sub_p) = admittances(substrate, k_sub);
+    let mut fs = Field { b: Complex::ONE, c: eta_sub_s, log_scale: 0.0 };
+    let mut fp = Field { b: Complex::ONE, c: eta_sub_p, log_scale: 0.0 };
+    let mut fluxes: Vec<(Field, Field)> = Vec::new();
+    let keep = per_layer.is_some();
+    if keep {
+        fluxes.push((fs, fp));
+    }
+    let minus_i = Complex::new(0.0, -1.0);
+    for l in layers.iter().rev() {
+        let k = kz(l.index, s_inv);
+        let (eta_s, eta_p) = admittances(l.index, k);
+        let delta = k.scale(2.0 * PI * l.thickness_m.max(0.0) / lambda_m);
+        let delta = Complex::new(delta.re, delta.im.min(OPACITY_CAP));
+        // e^(i delta) and e^(-i delta); cos = (e+ + e-) / 2, -i sin = (e- - e+) / 2
+        let e_plus = (Complex::new(0.0, 1.0) * delta).exp();
+        let e_minus = (minus_i * delta).exp();
+        let cos = (e_plus + e_minus).scale(0.5);
+        let misin = (e_minus - e_plus).scale(0.5);
+        let step = |f: Field, eta: Complex| {
+            Field { b: cos * f.b + misin / eta * f.c, c: misin * eta * f.b + cos * f.c, log_scale: f.log_scale }
+                .renormalized()
+        };
+        fs = step(fs, eta_s);
+        fp = step(fp, eta_p);
+        if keep {
+            fluxes.push((fs, fp));
+        }
+    }
+    let k0 = kz(n_in, s_inv);
+    let (eta0_s, eta0_p) = admittances(n_in, k0);
+    let finish = |f: Field, eta0: Complex, eta_sub: Complex| {
+        let y = eta0 * f.b + f.c;
+        let r = (eta0 * f.b - f.c) / y;
+        let scale = (-2.0 * f.log_scale).exp();
+        let t = 4.0 * eta0.re * eta_sub.re.max(0.0) / y.norm_sqr() * scale;
+        (Response::raw(r.norm_sqr(), t), y, f.log_scale)
+    };
+    let (rs, ys, ls) = finish(fs, eta0_s, eta_sub_s);
+    let (rp, yp, lp) = finish(fp, eta0_p, eta_sub_p);
+    if let Some(out) = per_layer {
+        out.clear();
+        // fluxes[0] is at the substrate, fluxes[len] at the top of the first layer
+        let flux = |f: &Field, eta0: Complex, y: Complex, top: f64| {
+            let v = 4.0 * eta0.re * (f.b * f.c.conj()).re / y.norm_sqr() * (2.0 * (f.log_scale - top)).exp();
+            if v.is_finite() {
+                v
+            } else {
+                0.0
+            }
+        };
+        let n = layers.len();
+        for j in 0..n {
+            let (top, bottom) = (&fluxes[n - j], &fluxes[n - j - 1]);
+            let a_s = flux(&top.0, eta0_s, ys, ls) - flux(&bottom.0, eta0_s, ys, ls);
+            let a_p = flux(&top.1, eta0_p, yp, lp) - flux(&bottom.1, eta0_p, yp, lp);
+            out.push((a_s.max(0.0), a_p.max(0.0)));
+        }
+    }
+    (rs, rp)
 }
 
-/// The coherent response of `layers` between the lossless incident medium of index `n0`
-/// and the substrate `substrate`, at vacuum wavelength `lambda_m` [m] and angle `theta0`
-/// [rad] (0 <= theta0 < pi/2) in the incident medium, for polarization `pol`.
+/// The responses (s, p) of a stack in which some layers may be incoherent, from the
+/// lossless incident medium `n0` at angle `theta0` [rad] and wavelength `lambda_m` [m].
+///
+/// Incoherent layers split the stack into coherent groups. Each group between two thick
+/// media is solved coherently from both sides; the thick layer between groups passes the
+/// intensity fraction P = exp(-4 pi Im(kz) d / lambda) per crossing; and the groups combine
+/// by adding intensities over all round trips (the net-radiation, or intensity-matrix,
+/// method: e.g. Centurioni, Appl. Opt. 44, 7532 (2005); Byrnes, arXiv:1603.02720, sec. 5):
+///   R = R_a + T_a T_a' P^2 R_b / (1 - R_a' R_b P^2),   T = T_a P T_b / (1 - R_a' R_b P^2),
+/// with primes for light met from the back. A 1 mm glass sheet thus reflects
+/// 2 R_1 / (1 + R_1) when lossless (tested), as in a spectrophotometer.
+fn pair(n0: f64, layers: &[Layer], substrate: Complex, lambda_m: f64, theta0: f64) -> (Response, Response) {
+    if !(n0 > 0.0 && lambda_m > 0.0 && lambda_m.is_finite() && theta0.is_finite()) {
+        return (Response::default(), Response::default());
+    }
+    let s_inv = n0 * theta0.sin();
+    let n_in = Complex::real(n0);
+    if !layers.iter().any(|l| l.incoherent) {
+        let (s, p) = coherent_pair(n_in, s_inv, layers, substrate, lambda_m, None);
+        return (Response::from_rt(s.reflectance, s.transmittance), Response::from_rt(p.reflectance, p.transmittance));
+    }
+    // thick media: the incident medium, each incoherent layer, the substrate
+    let mut thick: Vec<(Complex, f64)> = vec![(n_in, 0.0)];
+    let mut groups: Vec<Vec<Layer>> = vec![Vec::new()];
+    for l in layers {
+        if l.incoherent {
+            thick.push((l.index, l.thickness_m.max(0.0)));
+            groups.push(Vec::new());
+        } else if let Some(g) = groups.last_mut() {
+            g.push(*l);
+        }
+    }
+    thick.push((substrate, 0.0));
+    let both = |from: Complex, group: &[Layer], to: Complex| {
+        let forward = coherent_pair(from, s_inv, group, to, lambda_m, None);
+        let reversed: Vec<Layer> = group.iter().rev().copied().collect();
+        let back = coherent_pair(to, s_inv, &reversed, from, lambda_m, None);
+        (forward, back)
+    };
+    let combine = |pol: usize| {
+        let pick = |x: (Response, Response)| if pol == 0 { x.0 } else { x.1 };
+        let (f, b) = both(thick[0].0, &groups[0], thick[1].0);
+        let (f, b) = (pick(f), pick(b));
+        let (mut r, mut t, mut rb, mut tb) = (f.reflectance, f.transmittance, b.reflectance, b.transmittance);
+        for i in 1..thick.len() - 1 {
+            let (n, d) = thick[i];
+            let k = kz(n, s_inv);
+            let p = (-4.0 * PI * k.im.max(0.0) * d / lambda_m).exp();
+            let (f, b) = both(n, &groups[i], thick[i + 1].0);
+            let (f, b) = (pick(f), pick(b));
+            let denom = 1.0 - rb * f.reflectance * p * p;
+            let denom = if denom > 1e-300 { denom } else { 1e-300 };
+            let r_new = r + t * tb * p * p * f.reflectance / denom;
+            let t_new = t * p * f.transmittance / denom;
+            let rb_new = b.reflectance + b.transmittance * f.transmittance * p * p * rb / denom;
+            let tb_new = b.transmittance * p * tb / denom;
+            (r, t, rb, tb) = (r_new, t_new, rb_new, tb_new);
+        }
+        Response::from_rt(r, t)
+    };
+    (combine(0), combine(1))
+}
+
+/// The response of `layers` between the lossless incident medium of index `n0` and the
+/// substrate `substrate`, at vacuum wavelength `lambda_m` [m] and angle `theta0` [rad]
+/// (0 <= theta0 < pi/2) in the incident medium, for polarization `pol`. Layers marked
+/// incoherent are treated so (see [`pair`]); with none, this is the coherent
+/// transfer-matrix result.
 pub fn coherent(
     n0: f64,
     layers: &[Layer],
@@ -200,62 +397,43 @@ pub fn coherent(
     theta0: f64,
     pol: Polarization,
 ) -> Response {
-    if !(n0 > 0.0 && lambda_m > 0.0 && lambda_m.is_finite() && theta0.is_finite()) {
-        return Response::default();
+    let (s, p) = pair(n0, layers, substrate, lambda_m, theta0);
+    match pol {
+        Polarization::S => s,
+        Polarization::P => p,
     }
-    let s = n0 * theta0.sin();
-    let n_in = Complex::real(n0);
-    let k_in = kz(n_in, s);
-    let (mut n_prev, mut k_prev) = (n_in, k_in);
-    let mut m: M2 = [[Complex::ONE, Complex::ZERO], [Complex::ZERO, Complex::ONE]];
-    let mut first = true;
-    let mut pending_phase: Option<Complex> = None;
-    let media = layers.iter().map(|l| (l.index, l.thickness_m.max(0.0))).chain(std::iter::once((substrate, 0.0)));
-    for (idx, (n, d)) in media.enumerate() {
-        let k = kz(n, s);
-        // propagate through the previous layer
-        if let Some(delta) = pending_phase.take() {
-            let delta = Complex::new(delta.re, delta.im.min(OPACITY_CAP));
-            let e_minus = (Complex::new(0.0, -1.0) * delta).exp();
-            let e_plus = (Complex::new(0.0, 1.0) * delta).exp();
-            m = mat_mul(&m, &[[e_minus, Complex::ZERO], [Complex::ZERO, e_plus]]);
-        }
-        let (r, t) = fresnel(pol, n_prev, k_prev, n, k);
-        let inv_t = Complex::ONE / t;
-        let interface = [[inv_t, r * inv_t], [r * inv_t, inv_t]];
-        m = if first { interface } else { mat_mul(&m, &interface) };
-        first = false;
-        if idx < layers.len() {
-            pending_phase = Some(k.scale(2.0 * PI * d / lambda_m));
-        }
-        n_prev = n;
-        k_prev = k;
-    }
-    let r = m[1][0] / m[0][0];
-    let t = Complex::ONE / m[0][0];
-    let reflectance = r.norm_sqr();
-    let transmittance = match pol {
-        Polarization::S => t.norm_sqr() * k_prev.re / k_in.re,
-        Polarization::P => {
-            let cos_sub = k_prev / n_prev;
-            let cos_in = k_in / n_in;
-            t.norm_sqr() * (n_prev * cos_sub.conj()).re / (n_in * cos_in.conj()).re
-        }
-    };
-    let clean = |x: f64| if x.is_finite() { x.clamp(0.0, 1.0) } else { 0.0 };
-    let reflectance = clean(reflectance);
-    let transmittance = clean(transmittance);
-    Response { reflectance, transmittance, absorptance: (1.0 - reflectance - transmittance).max(0.0) }
 }
 
 /// The mean of the s and p responses (unpolarized light).
 pub fn coherent_mean(n0: f64, layers: &[Layer], substrate: Complex, lambda_m: f64, theta0: f64) -> Response {
-    let a = coherent(n0, layers, substrate, lambda_m, theta0, Polarization::S);
-    let b = coherent(n0, layers, substrate, lambda_m, theta0, Polarization::P);
-    Response {
-        reflectance: 0.5 * (a.reflectance + b.reflectance),
-        transmittance: 0.5 * (a.transmittance + b.transmittance),
-        absorptance: 0.5 * (a.absorptance + b.absorptance),
+    let (s, p) = pair(n0, layers, substrate, lambda_m, theta0);
+    Response::mean(s, p)
+}
+
+/// Each layer's absorptance (fraction of the incident power, unpolarized: the mean of s and
+/// p) for an all-coherent stack, from the flux at its top and bottom (see
+/// [`coherent_pair`]); they sum to the stack's absorptance. Incoherent marks are ignored
+/// here (the whole stack is taken coherent).
+pub fn layer_absorptance(n0: f64, layers: &[Layer], substrate: Complex, lambda_m: f64, theta0: f64) -> Vec<f64> {
+    if !(n0 > 0.0 && lambda_m > 0.0 && lambda_m.is_finite() && theta0.is_finite()) {
+        return vec![0.0; layers.len()];
+    }
+    let mut out = Vec::with_capacity(layers.len());
+    coherent_pair(Complex::real(n0), n0 * theta0.sin(), layers, substrate, lambda_m, Some(&mut out));
+    out.into_iter().map(|(a, b)| 0.5 * (a + b)).collect()
+}
+
+/// The stack's emissivity toward angle `theta0` [rad] (unpolarized, fraction 0-1), by
+/// Kirchhoff's law equal to its absorptance for light arriving from there: 1 - R - T over a
+/// lossless substrate (what enters it is carried away, and nothing comes back out of it),
+/// and 1 - R over an absorbing one (it takes in what enters and, at the same temperature,
+/// emits it back out).
+pub fn emissivity(n0: f64, layers: &[Layer], substrate: Complex, lambda_m: f64, theta0: f64) -> f64 {
+    let r = coherent_mean(n0, layers, substrate, lambda_m, theta0);
+    if substrate.im > 0.0 {
+        1.0 - r.reflectance
+    } else {
+        r.absorptance
     }
 }
 
@@ -277,8 +455,7 @@ pub fn hemispherical(n0: f64, layers: &[Layer], substrate: Complex, lambda_m: f6
         r += w * 2.0 * c * x.reflectance;
         t += w * 2.0 * c * x.transmittance;
     }
-    let (r, t) = (r.clamp(0.0, 1.0), t.clamp(0.0, 1.0));
-    Response { reflectance: r, transmittance: t, absorptance: (1.0 - r - t).max(0.0) }
+    Response::from_rt(r, t)
 }
 
 #[cfg(test)]
@@ -286,7 +463,7 @@ mod tests {
     use super::*;
 
     fn layer(n: f64, k: f64, d_nm: f64) -> Layer {
-        Layer { index: Complex::new(n, k), thickness_m: d_nm * 1e-9 }
+        Layer::new(Complex::new(n, k), d_nm * 1e-9)
     }
 
     #[test]

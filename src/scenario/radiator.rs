@@ -3,7 +3,9 @@
 //! checks every value, says how to fix a bad one, and builds the SI physics inputs of
 //! [`crate::physics::radiator`].
 
+use super::film::{film_inputs, LayerSpec, MaterialSpec};
 use super::{check_range, SourceSpec};
+use crate::physics::radiator::layered::{film_table, FILM_SPAN_M};
 use crate::physics::radiator::{
     AngularModel, Emitter, Profile, Sky, SolarBand, Sun, Surroundings, Transmittance, STEADY_SEARCH_K,
 };
@@ -103,7 +105,26 @@ pub enum EmitterSpec {
     File { path: String },
     /// a measured emissivity carried inside the scenario
     Table(EmissivityTable),
+    /// a layer stack in air on a substrate, the first layer facing out; its emissivity by
+    /// wavelength and direction comes from the transfer-matrix method
+    Film {
+        #[serde(default)]
+        layers: Vec<LayerSpec>,
+        #[serde(default = "air")]
+        substrate: MaterialSpec,
+    },
 }
+
+fn air() -> MaterialSpec {
+    MaterialSpec::Index { n: 1.0, k: 0.0 }
+}
+
+/// Most layers of a film emitter.
+pub const MAX_FILM_LAYERS: usize = 100;
+
+/// Wavelengths [m] a film's materials should cover for the balance: the solar band from
+/// 0.3 um and the thermal band of a surface near ambient to 30 um.
+pub const FILM_NEEDED_M: (f64, f64) = (0.3e-6, 30e-6);
 
 fn one() -> f64 {
     1.0
@@ -274,6 +295,9 @@ impl EmitterSpec {
         if lower == "blackbody" || lower == "black" {
             return Ok(EmitterSpec::Blackbody);
         }
+        if lower == "film" {
+            return Ok(EmitterSpec::Film { layers: Vec::new(), substrate: air() });
+        }
         if let Some(rest) = lower.strip_prefix("grey:").or_else(|| lower.strip_prefix("gray:")) {
             return Ok(EmitterSpec::Grey { emissivity: number(rest, "emissivity")? });
         }
@@ -324,7 +348,7 @@ impl EmitterSpec {
         }
         Err(format!(
             "unknown emitter '{text}'; use blackbody, grey:EPS (e.g. grey:0.9), window:L1-L2 in um \
-             (e.g. window:8-13, optionally ,in=EPS,out=EPS,edge=UM), points:UM=EPS,... or file:PATH"
+             (e.g. window:8-13, optionally ,in=EPS,out=EPS,edge=UM), points:UM=EPS,..., file:PATH or film"
         ))
     }
 
@@ -340,13 +364,48 @@ impl EmitterSpec {
             EmitterSpec::Points { points } => format!("{} control points", points.len()),
             EmitterSpec::File { path } => format!("file {path}"),
             EmitterSpec::Table(t) => format!("measured '{}' ({} points)", t.name, t.wavelength_m.len()),
+            EmitterSpec::Film { layers, substrate } => {
+                let list: Vec<String> = layers.iter().map(|l| l.text()).collect();
+                if list.is_empty() {
+                    format!("bare substrate {}", substrate.text())
+                } else {
+                    format!("film {} on {}", list.join(", "), substrate.text())
+                }
+            }
+        }
+    }
+
+    /// What a film's materials leave uncovered of [`FILM_NEEDED_M`] (nothing for the other
+    /// profiles, or when the film does not check out).
+    pub fn film_warnings(&self) -> Vec<String> {
+        match self {
+            EmitterSpec::Film { layers, substrate } => {
+                film_inputs(&air(), layers, substrate).map(|f| f.held_warnings(FILM_NEEDED_M)).unwrap_or_default()
+            }
+            _ => Vec::new(),
         }
     }
 
     /// Check the values and build the physics profile.
-    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
     pub fn to_profile(&self) -> Result<Profile, String> {
+        self.to_profile_facing(&[])
+    }
+
+    /// [`EmitterSpec::to_profile`], with a film's emissivity kept exactly toward each
+    /// direction of `exact_mu` (cos theta; the normal always is).
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
+    pub fn to_profile_facing(&self, exact_mu: &[f64]) -> Result<Profile, String> {
         match self {
+            EmitterSpec::Film { layers, substrate } => {
+                if layers.len() > MAX_FILM_LAYERS {
+                    return Err(format!("a film takes at most {MAX_FILM_LAYERS} layers; it has {}", layers.len()));
+                }
+                let inputs = film_inputs(&air(), layers, substrate)?;
+                let mut mu = vec![1.0];
+                mu.extend_from_slice(exact_mu);
+                let table = film_table(|l| inputs.at_held(l), FILM_SPAN_M, &mu);
+                Ok(Profile::Directional(std::sync::Arc::new(table)))
+            }
             EmitterSpec::Blackbody => Ok(Profile::blackbody()),
             EmitterSpec::Grey { emissivity } => {
                 check_fraction("grey emissivity", *emissivity)?;
@@ -477,7 +536,25 @@ impl RadiatorScenario {
             ));
         }
 
-        let profile = self.emitter.to_profile()?;
+        let is_film = matches!(self.emitter, EmitterSpec::Film { .. });
+        if is_film {
+            if self.solar_band.is_some() {
+                return Err("a separate solar-band profile does not apply to a layer stack, which sets the solar \
+                            band itself; remove the solar-band profile"
+                    .into());
+            }
+            if matches!(self.angular, AngularSpec::CutOff { .. }) {
+                return Err("the angular cut-off does not apply to a layer stack, whose emission by direction \
+                            comes from its layers; choose the Lambertian (no cut-off) model"
+                    .into());
+            }
+            warnings.extend(self.emitter.film_warnings());
+        }
+        let sun_mu: Vec<f64> = match (&self.sun, self.sun_zenith_deg.is_finite()) {
+            (Some(_), true) => vec![self.sun_zenith_deg.to_radians().cos().clamp(0.0, 1.0)],
+            _ => Vec::new(),
+        };
+        let profile = self.emitter.to_profile_facing(&sun_mu)?;
         let solar = match &self.solar_band {
             None => None,
             Some(s) => {

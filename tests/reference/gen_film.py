@@ -200,16 +200,8 @@ def tmm_rt(pol, n0, layers, n_sub, angle_deg, lam):
 
 
 # ----------------------------------- independent characteristic matrix
-def _q(n, s):
-    """N cos(theta) on the forward branch: Im q >= 0, and Re q > 0 if real."""
-    q = np.sqrt(complex(n) ** 2 - complex(s * s, 0.0))
-    if q.imag < 0.0 or (q.imag == 0.0 and q.real < 0.0):
-        q = -q
-    return q
-
-
-def _eta(pol, n, q):
-    return q if pol == "s" else complex(n) ** 2 / q
+_q = sq.forward_q
+_eta = sq.tilted_admittance
 
 
 def admittance_rt(pol, n0, layers, n_sub, angle_deg, lam):

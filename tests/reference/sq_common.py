@@ -206,3 +206,19 @@ class BlackbodySun:
 
     def photon_flux_above(self, gap_j):
         return self.flux_scale * bose_integral(2, gap_j / (K_BOLTZ * self.ts), math.inf)
+
+
+# ------------------------------------------------- thin-film helpers
+def forward_q(n, s):
+    """N cos(theta) on the forward branch: Im q >= 0, and Re q > 0 if real."""
+    import numpy as np
+
+    q = np.sqrt(complex(n) ** 2 - complex(s * s, 0.0))
+    if q.imag < 0.0 or (q.imag == 0.0 and q.real < 0.0):
+        q = -q
+    return q
+
+
+def tilted_admittance(pol, n, q):
+    """The tilted admittance: q for s, N^2 / q for p (free-space units)."""
+    return q if pol == "s" else complex(n) ** 2 / q

@@ -6,9 +6,10 @@
 //! Architecture invariant: imports only `cli::args` and `cli::shared` of the cli.
 
 use crate::cli::args::{OptionDoc, Parsed, Spec};
-use crate::cli::shared::files::resolve_radiator_files;
+use crate::cli::shared::files::{film_error, resolve_radiator_files};
 use crate::cli::shared::output::print_radiator;
 use crate::cli::shared::{Command, Failure, Out};
+use crate::scenario::film::{film_inputs, LayerSpec, MaterialSpec};
 use crate::scenario::radiator::{AngularSpec, EmitterSpec, RadiatorScenario, SkySpec, SolarBandSpec};
 use crate::scenario::{Scenario, SourceSpec};
 
@@ -17,6 +18,8 @@ pub const COMMAND: Command = Command {
         command: "cool",
         valued: &[
             "emitter",
+            "layers",
+            "substrate",
             "sky",
             "ambient",
             "surface",
@@ -48,8 +51,16 @@ pub const COMMAND: Command = Command {
             name: "emitter",
             arg: "EMIT",
             text: "blackbody (default) | grey:EPS | window:L1-L2[,in=EPS,out=EPS,edge=UM]\n\
-                   | points:UM=EPS,UM=EPS,... (linear on a log axis) | file:PATH\n\
-                   (wavelengths in um; files: emissivity, absorptance or reflectance)",
+                   | points:UM=EPS,UM=EPS,... (linear on a log axis) | file:PATH | film\n\
+                   (wavelengths in um; files: emissivity, absorptance or reflectance; film: the\n\
+                   layer stack of --layers on --substrate, its own angular behaviour)",
+        },
+        OptionDoc { name: "layers", arg: "LAYER,...", text: super::film::LAYERS_DOC },
+        OptionDoc {
+            name: "substrate",
+            arg: "MAT",
+            text: "what the film lies on, default n=1; over a lossless one the emissivity is\n\
+                   1 - R - T, over an absorbing one (k > 0) 1 - R",
         },
         OptionDoc {
             name: "solar",
@@ -167,6 +178,9 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
         None => None,
     };
     resolve_radiator_files(&mut sc, &p)?;
+    if let EmitterSpec::Film { layers, substrate } = &sc.emitter {
+        film_inputs(&MaterialSpec::Index { n: 1.0, k: 0.0 }, layers, substrate).map_err(film_error)?;
+    }
     if p.flag("link") {
         sc.to_physics()?; // refuse to link a scenario that cannot be computed
         let scenario = Scenario { radiator: sc, ..Default::default() };
@@ -197,6 +211,27 @@ fn parse_curve(text: &str) -> Result<(f64, f64, f64), String> {
 fn apply_options(p: &Parsed, sc: &mut RadiatorScenario) -> Result<(), String> {
     if let Some(e) = p.text("emitter") {
         sc.emitter = EmitterSpec::parse(e)?;
+    }
+    let film_options = p.text("layers").is_some() || p.text("substrate").is_some();
+    if let EmitterSpec::Film { layers, substrate } = &mut sc.emitter {
+        if let Some(list) = p.text("layers") {
+            for l in list.split(',').filter(|l| !l.trim().is_empty()) {
+                layers.push(LayerSpec::parse(l).map_err(|e| format!("--layers: {e}"))?);
+            }
+        }
+        if let Some(m) = p.text("substrate") {
+            *substrate = MaterialSpec::parse(m).map_err(|e| format!("--substrate: {e}"))?;
+        }
+        if p.text("cutoff").is_some() {
+            return Err("--cutoff does not apply to a film, whose emission by direction comes from its layers; \
+                        remove --cutoff"
+                .into());
+        }
+        if p.text("solar").is_some() {
+            return Err("--solar does not apply to a film, which sets the solar band itself; remove --solar".into());
+        }
+    } else if film_options {
+        return Err("--layers and --substrate describe a film and need --emitter film".into());
     }
     if let Some(s) = p.text("sky") {
         sc.sky = SkySpec::parse(s)?;

@@ -7,12 +7,20 @@
 //! is checked by `scenario::film`, every figure comes from `physics::film`.
 
 use crate::cli::args::{OptionDoc, Parsed, Spec};
+use crate::cli::shared::files::{film_error, resolve_material};
 use crate::cli::shared::output::print_json;
 use crate::cli::shared::{Command, Failure, Out};
 use crate::physics::film::{coherent, coherent_mean, hemispherical, Polarization, Response};
-use crate::physics::materials::{parse_nk_table, BUILTINS};
+use crate::physics::materials::BUILTINS;
 use crate::scenario::film::{film_inputs, LayerSpec, MaterialSpec};
 use serde::Serialize;
+
+/// What `--layers` takes (shared with `glowgap cool --emitter film`).
+pub const LAYERS_DOC: &str = "the layers, the first facing the light, each\n\
+    MAT:THICKNESS_NM[:coherent|:incoherent] (default: none, a bare substrate;\n\
+    layers over 10 um are incoherent unless marked); MAT is a built-in name, n=REAL,\n\
+    nk=N/K or file:PATH (a table with a header such as wavelength_um,n,k; axis in nm,\n\
+    um, cm-1 or eV; columns n,k or eps1,eps2)";
 
 pub const COMMAND: Command = Command {
     spec: Spec {
@@ -37,13 +45,7 @@ pub const COMMAND: Command = Command {
             [--polarization s|p|mean] [--hemispherical] [--json | --csv]\n\
             or: glowgap film --materials",
     docs: &[
-        OptionDoc {
-            name: "layers",
-            arg: "LAYER,...",
-            text: "the layers, the first on the side the light comes from, each MAT:THICKNESS_NM\n\
-                   (default: none, a bare substrate); MAT is a built-in name, n=REAL, nk=N/K or\n\
-                   file:PATH (a wavelength_um,n,k table)",
-        },
+        OptionDoc { name: "layers", arg: "LAYER,...", text: LAYERS_DOC },
         OptionDoc { name: "substrate", arg: "MAT", text: "the semi-infinite substrate, default n=1" },
         OptionDoc { name: "incident-medium", arg: "MAT", text: "where the light comes from, lossless, default n=1" },
         OptionDoc {
@@ -121,7 +123,8 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     }
     let material = |opt: &str, default: &str| -> Result<MaterialSpec, String> {
         let text = p.text(opt).unwrap_or(default);
-        read_file(MaterialSpec::parse(text).map_err(|e| format!("--{opt}: {e}"))?).map_err(|e| format!("--{opt}: {e}"))
+        resolve_material(MaterialSpec::parse(text).map_err(|e| format!("--{opt}: {e}"))?)
+            .map_err(|e| format!("--{opt}: {e}"))
     };
     let incident = material("incident-medium", "n=1")?;
     let substrate = material("substrate", "n=1")?;
@@ -129,19 +132,11 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     if let Some(list) = p.text("layers") {
         for (i, l) in list.split(',').filter(|l| !l.trim().is_empty()).enumerate() {
             let mut spec = LayerSpec::parse(l).map_err(|e| format!("--layers: {e}"))?;
-            spec.material = read_file(spec.material).map_err(|e| format!("--layers, layer {}: {e}", i + 1))?;
+            spec.material = resolve_material(spec.material).map_err(|e| format!("--layers, layer {}: {e}", i + 1))?;
             layers.push(spec);
         }
     }
-    let inputs = film_inputs(&incident, &layers, &substrate).map_err(|e| {
-        if e.starts_with("layer") {
-            format!("--layers: {e}")
-        } else if e.contains("incident") {
-            format!("--incident-medium: {e}")
-        } else {
-            format!("--substrate: {e}")
-        }
-    })?;
+    let inputs = film_inputs(&incident, &layers, &substrate).map_err(film_error)?;
     let angle = p.number("angle", "angle of incidence", "degrees")?.unwrap_or(0.0);
     if !(0.0..90.0).contains(&angle) {
         return Err(Failure::Usage(format!(
@@ -212,14 +207,6 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
         }
     }
     Ok(())
-}
-
-/// A `file:PATH` material read as a wavelength_um,n,k table.
-fn read_file(spec: MaterialSpec) -> Result<MaterialSpec, String> {
-    let MaterialSpec::File { path } = &spec else { return Ok(spec) };
-    let text = std::fs::read_to_string(path).map_err(|e| format!("cannot read the n,k file '{path}': {e}"))?;
-    let (wavelength_m, n, k) = parse_nk_table(&text).map_err(|e| format!("the n,k file '{path}', {e}"))?;
-    Ok(MaterialSpec::Table { name: path.clone(), wavelength_m, n, k })
 }
 
 /// `--wavelength UM` or `--from --to --step` (both ends included).

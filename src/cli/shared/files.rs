@@ -10,10 +10,12 @@ use crate::cli::args::Parsed;
 use crate::codec;
 use crate::formats::emissivity_csv::{parse_emissivity_csv, parse_transmittance_csv, OpticalHints, OpticalTable};
 use crate::formats::eqe_csv::parse_eqe_csv;
+use crate::formats::nk_csv::parse_nk_csv;
 use crate::formats::spectrum_csv::{parse_spectrum_csv, ColumnHints};
 use crate::formats::units::{AxisUnit, ValueKind, ValueUnit};
 use crate::formats::{Hint, TableError, TableKind};
 use crate::physics::absorber::AbsorptanceTable;
+use crate::scenario::film::{FilmError, FilmPart, LayerSpec, MaterialSpec};
 use crate::scenario::hot::ReflectanceSpec;
 use crate::scenario::radiator::{EmissivityTable, EmitterSpec, RadiatorScenario, SkySpec, TransmittanceTable};
 use crate::scenario::{Scenario, SourceSpec, TableSpec};
@@ -304,6 +306,40 @@ pub fn resolve_radiator_files(sc: &mut RadiatorScenario, p: &Parsed) -> Result<(
     if let Some(SourceSpec::File { path }) = &sc.sun {
         sc.sun = Some(read_spectrum_file(path, p)?);
     }
+    if let EmitterSpec::Film { layers, substrate } = &mut sc.emitter {
+        resolve_film_files(layers, substrate)?;
+    }
+    Ok(())
+}
+
+/// Read a material's `file:PATH` (an n,k or eps1,eps2 table, `formats::nk_csv`) into a
+/// table the scenario carries; other materials pass through.
+pub fn resolve_material(spec: MaterialSpec) -> Result<MaterialSpec, String> {
+    let MaterialSpec::File { path } = &spec else { return Ok(spec) };
+    let fix = "give a text table of optical constants, one point per line, e.g. wavelength_um,n,k";
+    let (text, name) = read_text_within(path, "the n,k file", MAX_DATA_FILE_BYTES, fix)?;
+    let d = parse_nk_csv(&text).map_err(|e| format!("the n,k file '{path}', {e}"))?;
+    Ok(MaterialSpec::Table { name, wavelength_m: d.wavelength_m, n: d.n, k: d.k })
+}
+
+/// A stack's problem in the words of the command line: the option that holds the part.
+pub fn film_error(e: FilmError) -> String {
+    match e.part {
+        FilmPart::Incident => format!("--incident-medium: {}", e.message),
+        FilmPart::Layer(i) => format!("--layers, layer {}: {}", i + 1, e.message),
+        FilmPart::Substrate => format!("--substrate: {}", e.message),
+    }
+}
+
+/// Read every `file:` material of a film's layers (named `--layers`) and substrate (named
+/// `--substrate`).
+pub fn resolve_film_files(layers: &mut [LayerSpec], substrate: &mut MaterialSpec) -> Result<(), String> {
+    for (i, l) in layers.iter_mut().enumerate() {
+        let m = std::mem::replace(&mut l.material, MaterialSpec::Index { n: 1.0, k: 0.0 });
+        l.material = resolve_material(m).map_err(|e| format!("--layers, layer {}: {e}", i + 1))?;
+    }
+    let m = std::mem::replace(substrate, MaterialSpec::Index { n: 1.0, k: 0.0 });
+    *substrate = resolve_material(m).map_err(|e| format!("--substrate: {e}"))?;
     Ok(())
 }
 

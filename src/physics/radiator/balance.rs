@@ -201,7 +201,7 @@ impl Balance {
         // for the broadband figure)
         let mut sky_alone = Vec::with_capacity(grid.bands.len() + grid.nodes.len());
         let absorbed_sky = grid.weights(|l| {
-            let (alone, share) = sky_and_share(&emitter.angular, emitter.normal(l), sky.along(l, ta));
+            let (alone, share) = emitter.sky_share(l, sky.along(l, ta));
             sky_alone.push(alone);
             share
         });

@@ -11,6 +11,9 @@
 //! close with exact band integrals of Planck's law.
 
 use super::angular::{clamp_fraction, AngularModel};
+use super::balance::sky_and_share;
+use super::layered::Directional;
+use super::sky::SkyPath;
 
 /// A spectral emissivity eps(lambda) at normal incidence. Wavelengths in metres.
 #[derive(Debug, Clone, PartialEq)]
@@ -30,6 +33,9 @@ pub enum Profile {
     /// A measured table (wavelength [m], emissivity), ascending, interpolated linearly in
     /// wavelength and held at its end values beyond the measured range.
     Table { wavelength_m: Vec<f64>, emissivity: Vec<f64> },
+    /// A layer stack's emissivity by wavelength and direction ([`Directional`]); its
+    /// angular behaviour is its own, so the emitter's angular model does not apply.
+    Directional(std::sync::Arc<Directional>),
 }
 
 /// A wavelength range on which a profile is constant: (from [m], to [m], emissivity).
@@ -89,6 +95,7 @@ impl Profile {
                 let n = wavelength_m.len().min(emissivity.len());
                 interpolate(n, |i| (wavelength_m[i], emissivity[i]), lambda_m, false)
             }
+            Profile::Directional(d) => d.at(lambda_m, 1.0),
         };
         clamp_fraction(v)
     }
@@ -111,6 +118,7 @@ impl Profile {
             }
             Profile::Points { points } => points.iter().map(|p| p.0).collect(),
             Profile::Table { wavelength_m, .. } => wavelength_m.clone(),
+            Profile::Directional(d) => d.wavelength_m.clone(),
         }
         .into_iter()
         .filter(|l| l.is_finite() && *l > 0.0)
@@ -204,18 +212,43 @@ impl Emitter {
         }
     }
 
+    /// The stack table that sets the emissivity at `lambda_m` [m], if a stack does.
+    fn table_at(&self, lambda_m: f64) -> Option<&Directional> {
+        match (&self.solar, &self.profile) {
+            (Some(s), _) if lambda_m < s.below_m => None,
+            (_, Profile::Directional(d)) => Some(d),
+            _ => None,
+        }
+    }
+
     /// Directional spectral emissivity (fraction 0-1) at `lambda_m` [m] and mu = cos(theta)
     /// (dimensionless).
     #[inline]
     pub fn directional(&self, lambda_m: f64, mu: f64) -> f64 {
-        self.angular.apply(self.normal(lambda_m), mu)
+        match self.table_at(lambda_m) {
+            Some(d) => d.at(lambda_m, mu),
+            None => self.angular.apply(self.normal(lambda_m), mu),
+        }
     }
 
     /// Hemispherical spectral emissivity (fraction 0-1) at `lambda_m` [m] (closed form in
-    /// angle, [`AngularModel::hemispherical`]).
+    /// angle, [`AngularModel::hemispherical`], or a stack's angular rule).
     #[inline]
     pub fn hemispherical(&self, lambda_m: f64) -> f64 {
-        self.angular.hemispherical(self.normal(lambda_m))
+        match self.table_at(lambda_m) {
+            Some(d) => d.hemispherical(lambda_m),
+            None => self.angular.hemispherical(self.normal(lambda_m)),
+        }
+    }
+
+    /// The sky's hemispherical emissivity along `path` and the emitter's share of it at
+    /// `lambda_m` [m] (both dimensionless; [`sky_and_share`] for a profile with an angular
+    /// model, the stack's angular rule for a stack).
+    pub fn sky_share(&self, lambda_m: f64, path: SkyPath) -> (f64, f64) {
+        match self.table_at(lambda_m) {
+            Some(d) => (sky_and_share(&AngularModel::Lambertian, 1.0, path).0, d.sky_share(lambda_m, path)),
+            None => sky_and_share(&self.angular, self.normal(lambda_m), path),
+        }
     }
 
     /// Wavelengths [m] where the emitter's profile changes behaviour.

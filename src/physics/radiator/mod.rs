@@ -5,6 +5,8 @@
 //!   logistic edges, control points on a log axis, measured tables) and the emitter with
 //!   its optional solar-band profile;
 //! * [`angular`]: directional behaviour (Lambertian, angular cut-off);
+//! * [`layered`]: layer stacks, whose emissivity depends on wavelength and direction
+//!   together (a table from the transfer-matrix method);
 //! * [`sky`]: box sky, space, imported zenith transmittance, and the angular law
 //!   eps_sky = 1 - t^(1/cos theta); [`clear_sky`]: the spectral clear-sky model;
 //! * [`solar`]: absorbed sunlight; [`balance`]: P_net(T), its parts, the steady temperature;
@@ -19,6 +21,7 @@ pub mod angular;
 pub mod balance;
 pub mod clear_sky;
 pub mod emissivity;
+pub mod layered;
 pub mod merit;
 pub mod quadrature;
 pub mod sky;

@@ -384,6 +384,7 @@ pub fn emitter_text(e: &EmitterSpec) -> String {
         }
         EmitterSpec::File { path } => format!("file:{path}"),
         EmitterSpec::Table(t) => format!("measured: {}", t.name),
+        EmitterSpec::Film { .. } => "film".into(),
     }
 }
 

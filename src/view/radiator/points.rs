@@ -88,6 +88,17 @@ fn ascending(mut pts: Vec<[f64; 2]>) -> Vec<[f64; 2]> {
     pts
 }
 
+/// [`TABLE_SAMPLES`] points of `profile` from `lo` to `hi` [um], evenly on a log axis.
+fn sampled(profile: &crate::physics::radiator::Profile, lo: f64, hi: f64) -> Vec<[f64; 2]> {
+    let n = TABLE_SAMPLES;
+    (0..n)
+        .map(|i| {
+            let l = lo * (hi / lo).powf(i as f64 / (n - 1) as f64);
+            [l, profile.at(l * 1e-6)]
+        })
+        .collect()
+}
+
 /// Any profile as control points that draw (nearly) the same curve: a grey profile as two
 /// points, a window with short ramps at its edges, a measured table sampled at
 /// logarithmically spaced wavelengths. `None` for a file not yet read.
@@ -121,6 +132,8 @@ pub fn as_points(spec: &EmitterSpec) -> Option<Vec<[f64; 2]>> {
                 ]
             }
         }
+        // the film's normal emissivity, sampled like a table over the editor's range
+        EmitterSpec::Film { .. } => sampled(&spec.to_profile().ok()?, r0, r1),
         EmitterSpec::Table(t) => {
             let profile = spec.to_profile().ok()?;
             let first = t.wavelength_m.first()? * 1e6;
@@ -129,13 +142,7 @@ pub fn as_points(spec: &EmitterSpec) -> Option<Vec<[f64; 2]>> {
             if !(hi > lo) {
                 vec![[lo, profile.at(lo * 1e-6)]]
             } else {
-                let n = TABLE_SAMPLES;
-                (0..n)
-                    .map(|i| {
-                        let l = lo * (hi / lo).powf(i as f64 / (n - 1) as f64);
-                        [l, profile.at(l * 1e-6)]
-                    })
-                    .collect()
+                sampled(&profile, lo, hi)
             }
         }
         EmitterSpec::File { .. } => return None,
