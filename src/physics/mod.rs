@@ -13,6 +13,7 @@ pub mod mismatch;
 pub mod order;
 pub mod planck;
 pub mod radiator;
+pub mod search;
 pub mod solar_thermal;
 pub mod sources;
 pub mod special;

@@ -20,6 +20,7 @@ use crate::physics::batch::map_indexed;
 use crate::physics::constants::CHARGE;
 use crate::physics::junction::{Cell, Illumination};
 use crate::physics::order::{sort_descending_by, sort_numbers};
+use crate::physics::search;
 
 /// Where a fixed gap must sit in the stack.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -116,6 +117,24 @@ impl Objective<'_, '_> {
         let out = map_indexed(n, |i| value(p, &free(i)));
         self.count(n as u64);
         out
+    }
+}
+
+impl search::Objective for Objective<'_, '_> {
+    fn value(&mut self, x: &[f64]) -> f64 {
+        self.efficiency(x)
+    }
+    fn values(&mut self, n: usize, xs: &(dyn Fn(usize) -> Vec<f64> + Sync)) -> Vec<f64> {
+        let p = self.p;
+        let out = map_indexed(n, |i| value(p, &xs(i)));
+        self.count(n as u64);
+        out
+    }
+    /// gaps sorted top first
+    fn canon(&self, mut x: Vec<f64>) -> Vec<f64> {
+        sort_numbers(&mut x);
+        x.reverse();
+        x
     }
 }
 
@@ -374,28 +393,6 @@ pub fn grid_maxima(tops_j: &[f64], bottoms_j: &[f64], eff: &[f64]) -> Vec<(Vec<f
     maxima
 }
 
-/// A small deterministic generator (SplitMix64; Steele, Lea & Flood, OOPSLA 2014).
-struct SplitMix(u64);
-
-impl SplitMix {
-    /// The next 64 random bits (SplitMix64 increment and mix).
-    fn next_u64(&mut self) -> u64 {
-        self.0 = self.0.wrapping_add(0x9E37_79B9_7F4A_7C15);
-        let mut z = self.0;
-        z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
-        z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
-        z ^ (z >> 31)
-    }
-    /// uniform in [0, 1)
-    fn unit(&mut self) -> f64 {
-        (self.next_u64() >> 11) as f64 / (1u64 << 53) as f64
-    }
-    /// uniform index in 0..n
-    fn below(&mut self, n: usize) -> usize {
-        (self.unit() * n as f64) as usize % n.max(1)
-    }
-}
-
 /// Seed of the evolution; fixed so that results are reproducible.
 const EVOLUTION_SEED: u64 = 0x6c6f_7767_6170_0001;
 /// Generations of the evolution at most.
@@ -403,142 +400,23 @@ const MAX_GENERATIONS: usize = 400;
 /// Stop once the population's efficiencies agree to this (absolute efficiency).
 const SPREAD_TOL: f64 = 1e-10;
 
-/// Differential evolution (Storn & Price, J. Global Optim. 11, 341 (1997): DE/rand/1/bin,
-/// crossover 0.9) over `d` free gaps in [lo, hi] [J]; returns the best few distinct
-/// members of the last population, best first.
+/// Differential evolution ([`search::evolve`]) over `d` free gaps in [lo, hi] [J]; returns
+/// the best few members of the last population that differ by 0.02 eV, best first.
 fn evolve(obj: &mut Objective, d: usize, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
-    let mut rng = SplitMix(EVOLUTION_SEED ^ (d as u64) << 8 ^ (obj.p.junctions as u64));
-    let np = (12 * d).max(24);
-    let canon = |mut x: Vec<f64>| {
-        sort_numbers(&mut x);
-        x.reverse();
-        x
+    let settings = search::Evolution {
+        seed: EVOLUTION_SEED ^ (d as u64) << 8 ^ (obj.p.junctions as u64),
+        population: (12 * d).max(24),
+        generations: MAX_GENERATIONS,
+        spread_tol: SPREAD_TOL,
+        apart: 0.02 * CHARGE,
+        keep: POLISHED_STARTS,
     };
-    // stratified start: member i draws each coordinate from its own slice of the range
-    let mut pop: Vec<Vec<f64>> = (0..np)
-        .map(|i| {
-            canon(
-                (0..d)
-                    .map(|_| lo + (hi - lo) * ((i as f64 + rng.unit()) / np as f64 * 0.5 + rng.unit() * 0.5))
-                    .collect(),
-            )
-        })
-        .collect();
-    let mut fit: Vec<f64> = obj.efficiencies(np, |i| pop[i].clone());
-    for _ in 0..MAX_GENERATIONS {
-        let weight = 0.5 + 0.5 * rng.unit(); // dither (Storn & Price 1997, sec. 5)
-        for i in 0..np {
-            let mut pick = || loop {
-                let r = rng.below(np);
-                if r != i {
-                    break r;
-                }
-            };
-            let (r1, mut r2, mut r3) = (pick(), pick(), pick());
-            while r2 == r1 {
-                r2 = pick();
-            }
-            while r3 == r1 || r3 == r2 {
-                r3 = pick();
-            }
-            let jrand = rng.below(d);
-            let trial: Vec<f64> = (0..d)
-                .map(|k| {
-                    if k == jrand || rng.unit() < 0.9 {
-                        let v = pop[r1][k] + weight * (pop[r2][k] - pop[r3][k]);
-                        // out of bounds: go part of the way from the parent to the bound
-                        if v < lo {
-                            lo + rng.unit() * (pop[i][k] - lo)
-                        } else if v > hi {
-                            hi - rng.unit() * (hi - pop[i][k])
-                        } else {
-                            v
-                        }
-                    } else {
-                        pop[i][k]
-                    }
-                })
-                .collect();
-            let trial = canon(trial);
-            let e = obj.efficiency(&trial);
-            if e >= fit[i] {
-                pop[i] = trial;
-                fit[i] = e;
-            }
-        }
-        let (mn, mx) = fit.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), &e| (a.min(e), b.max(e)));
-        if mx - mn <= SPREAD_TOL {
-            break;
-        }
-    }
-    let mut members: Vec<(Vec<f64>, f64)> = pop.into_iter().zip(fit).collect();
-    sort_descending_by(&mut members, |m| m.1);
-    // keep members that differ from every better one by at least 0.02 eV in some gap
-    let apart = 0.02 * CHARGE;
-    let mut kept: Vec<(Vec<f64>, f64)> = Vec::new();
-    for m in members {
-        if kept.iter().all(|k| k.0.iter().zip(&m.0).any(|(a, b)| (a - b).abs() > apart)) {
-            kept.push(m);
-        }
-        if kept.len() == POLISHED_STARTS {
-            break;
-        }
-    }
-    kept
+    search::evolve(obj, &vec![lo; d], &vec![hi; d], &settings)
 }
 
-/// Simplex polish of a maximum from `x0` (efficiency `e0`), first steps `step` [J], inside
-/// [lo, hi] [J]. Standard coefficients (reflection 1, expansion 2, contraction 1/2, shrink 1/2;
-/// Nelder & Mead, Comput. J. 7, 308 (1965)).
+/// Simplex polish ([`search::nelder_mead`]) of a maximum from `x0` (efficiency `e0`), first
+/// steps `step` [J], inside [lo, hi] [J], to 0.1 ueV (far below any gap that matters).
 fn nelder_mead(obj: &mut Objective, x0: &[f64], e0: f64, step: f64, lo: f64, hi: f64) -> (Vec<f64>, f64) {
     let d = x0.len();
-    let clamp = |x: Vec<f64>| x.into_iter().map(|v| v.clamp(lo, hi)).collect::<Vec<f64>>();
-    let mut simplex: Vec<(Vec<f64>, f64)> = vec![(x0.to_vec(), e0)];
-    for k in 0..d {
-        let mut x = x0.to_vec();
-        x[k] = if x[k] + step <= hi { x[k] + step } else { x[k] - step };
-        let x = clamp(x);
-        let e = obj.efficiency(&x);
-        simplex.push((x, e));
-    }
-    let tol = 1e-7 * CHARGE; // 0.1 ueV: far below any gap that matters
-    for _ in 0..(400 * d) {
-        sort_descending_by(&mut simplex, |s| s.1);
-        let size = simplex[1..]
-            .iter()
-            .map(|(x, _)| x.iter().zip(&simplex[0].0).map(|(a, b)| (a - b).abs()).fold(0.0, f64::max))
-            .fold(0.0, f64::max);
-        if size < tol {
-            break;
-        }
-        let centroid: Vec<f64> =
-            (0..d).map(|k| simplex[..d].iter().map(|(x, _)| x[k]).sum::<f64>() / d as f64).collect();
-        let worst = simplex[d].clone();
-        let along = |t: f64| clamp(centroid.iter().zip(&worst.0).map(|(c, w)| c + t * (c - w)).collect());
-        let xr = along(1.0);
-        let er = obj.efficiency(&xr);
-        if er > simplex[0].1 {
-            let xe = along(2.0);
-            let ee = obj.efficiency(&xe);
-            simplex[d] = if ee > er { (xe, ee) } else { (xr, er) };
-        } else if er > simplex[d - 1].1 {
-            simplex[d] = (xr, er);
-        } else {
-            let xc = if er > worst.1 { along(0.5) } else { along(-0.5) };
-            let ec = obj.efficiency(&xc);
-            if ec > worst.1.max(er) {
-                simplex[d] = (xc, ec);
-            } else {
-                let best = simplex[0].0.clone();
-                for v in simplex.iter_mut().skip(1) {
-                    let x: Vec<f64> = v.0.iter().zip(&best).map(|(a, b)| b + 0.5 * (a - b)).collect();
-                    let e = obj.efficiency(&x);
-                    *v = (x, e);
-                }
-            }
-        }
-    }
-    sort_descending_by(&mut simplex, |s| s.1);
-    let (x, e) = simplex.swap_remove(0);
-    (x, e)
+    search::nelder_mead(obj, x0, e0, &vec![step; d], &vec![lo; d], &vec![hi; d], &vec![1e-7 * CHARGE; d])
 }
