@@ -13,6 +13,12 @@
 //!   sweep under 50 ms and one best step absorber under 20 ms, each printed beside the
 //!   vectorized numpy script benches/tpv_numpy.py for the same work.
 //!
+//! * films: a 10-layer stack's hemispherical emissivity on 3000 wavelengths (24 directions
+//!   plus the normal, both polarizations) under 10 ms, beside benches/film_numpy.py for the
+//!   same work; the same stack's radiator table on its own fringe-resolving grid; one full
+//!   film evaluation in the balance; a 5-layer thickness search for net cooling power
+//!   (goal: under 2 s in the page, where it runs single-threaded in a worker).
+//!
 //! Whole-process figures are the median of 5 runs of target/release/glowgap; the machine
 //! may be shared, so read medians and ratios of one run, not single numbers.
 
@@ -78,6 +84,7 @@ fn main() {
     radiator_balance(rounds);
     stack_map(rounds);
     hot_emitters(rounds, quick);
+    films(rounds, quick);
 }
 
 /// Hot emitters: one TPV evaluation with a profile emitter from scratch (goal < 2 ms), a
@@ -473,4 +480,88 @@ fn cli_peak_memory() {
         }
         Err(e) => println!("bench cli_sweep_37001_peak_memory   skipped ({e})"),
     }
+}
+
+/// Film emitters: the 10-layer table of benches/film_numpy.py, the radiator's own table of
+/// the same stack, and a 5-layer thickness search.
+fn films(rounds: usize, quick: bool) {
+    use glowgap::physics::film::{emissivity, Complex, Layer};
+    use glowgap::physics::radiator::design::{Design, Target};
+    use glowgap::physics::radiator::layered::{film_table, Directional, FILM_SPAN_M};
+    use glowgap::physics::radiator::{Sky, Sun};
+    let ten: Vec<Layer> = (0..10)
+        .map(|i| {
+            if i % 2 == 0 {
+                Layer::new(Complex::new(2.1, 0.002), 150e-9)
+            } else {
+                Layer::new(Complex::new(1.45, 0.01), 250e-9)
+            }
+        })
+        .collect();
+    let sub = Complex::new(0.1, 60.0);
+    let grid: Vec<f64> = (0..3000).map(|i| 0.25e-6 * (200f64).powf(i as f64 / 2999.0)).collect();
+    let build = || {
+        Directional::build(grid.clone(), &[1.0], |l, mus| {
+            mus.iter().map(|mu| emissivity(1.0, &ten, sub, l, mu.acos())).collect()
+        })
+    };
+    let t = median_per_call(rounds.min(11), 1, || {
+        black_box(build());
+    });
+    let table = build();
+    let mean = grid.iter().map(|l| table.hemispherical(*l)).sum::<f64>() / grid.len() as f64;
+    println!(
+        "bench film_10_layers_3000_wavelengths {:>8.3} ms   (goal < 10 ms; 13 directions x 2 polarizations; mean hemispherical {:.12})",
+        t * 1e3,
+        mean
+    );
+    let stack = |_: f64| (1.0, ten.clone(), sub);
+    let own = median_per_call(rounds.min(11), 1, || {
+        black_box(film_table(stack, FILM_SPAN_M, &[1.0]));
+    });
+    let n_own = film_table(stack, FILM_SPAN_M, &[1.0]).wavelength_m.len();
+    println!(
+        "bench film_10_layers_radiator_table {:>9.3} ms   ({n_own} fringe-resolving wavelengths, 0.25-200 um)",
+        own * 1e3
+    );
+    if let Some(out) = run_numpy_script("film_numpy.py", "numpy_film", Some(if quick { "1" } else { "5" })) {
+        if let Some(np) = number_after(&out, "numpy_film_seconds=") {
+            println!(
+                "bench numpy_film_10_layers_3000      {:>10.3} ms   (ratio numpy/glowgap {:.2}x; numpy mean hemispherical {})",
+                np * 1e3,
+                np / t,
+                out.split_whitespace()
+                    .find_map(|t| t.strip_prefix("mean_hemispherical="))
+                    .unwrap_or("?")
+            );
+        }
+    }
+    // a 5-layer search for net cooling power under AM1.5G and a clear sky
+    let five = |_: f64| {
+        (
+            1.0,
+            vec![
+                Layer::new(Complex::new(1.95, 0.001), 100e-9),
+                Layer::new(Complex::new(1.4, 0.02), 500e-9),
+                Layer::new(Complex::new(1.95, 0.001), 100e-9),
+                Layer::new(Complex::new(1.4, 0.02), 300e-9),
+                Layer::new(Complex::new(2.3, 0.05), 50e-9),
+            ],
+            sub,
+        )
+    };
+    let sky = Sky::Clear { pwv_m: 0.015 };
+    let sun = Sun { source: Source::am15g(), zenith_rad: 0.0, scale: 1.0 };
+    let design = Design::new(five, &[true; 5], 1e-6, Target::NetPower, &sky, Some(&sun), 300.0, 0.0);
+    let start = [100e-9, 500e-9, 100e-9, 300e-9, 50e-9];
+    let clock = Instant::now();
+    let found = design.run(&start, 1e-6, None);
+    let s = clock.elapsed().as_secs_f64();
+    println!(
+        "bench film_search_5_layers_net_power {:>7.1} ms   (goal < 2 s in the page; {} evaluations on {} wavelengths, {:.3} W/m2)",
+        s * 1e3,
+        found.evaluations,
+        design.wavelengths(),
+        found.value
+    );
 }

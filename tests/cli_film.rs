@@ -196,3 +196,57 @@ fn user_tables_in_other_units_and_permittivity_read_the_same() {
     expect_usage_error(&["film", "--layers", &layers, "--wavelength", "1.5"], "line 3");
     std::fs::remove_dir_all(&dir).ok();
 }
+
+#[test]
+fn thickness_search_recovers_a_layer_from_its_airy_spectrum() {
+    // Target: the normal emissivity 1 - R of one lossless layer (n = 2, 250 nm) on an
+    // opaque n = 1.5 substrate, from the Airy sum of the two interfaces (Born & Wolf,
+    // Principles of Optics, 1.6.4): R = (r1^2 + r2^2 + 2 r1 r2 cos 2d) /
+    // (1 + r1^2 r2^2 + 2 r1 r2 cos 2d), r1 = (1 - 2)/(1 + 2), r2 = (2 - 1.5)/(2 + 1.5),
+    // d = 2 pi n t / lambda. Starting from 600 nm, the search must find 250 nm, the one
+    // thickness in 0-1000 nm whose spectrum matches at every wavelength (the misfit's only
+    // zero). Tolerance 1 nm: the target is linear between 240 points on a log axis.
+    let (r1, r2) = (-1.0 / 3.0, 0.5 / 3.5);
+    let pts: Vec<String> = (0..240)
+        .map(|i| {
+            let l = 0.28 * (60.0f64 / 0.28).powf(i as f64 / 239.0);
+            let c = (2.0 * 2.0 * std::f64::consts::PI * 2.0 * 250e-3 / l).cos();
+            let r = (r1 * r1 + r2 * r2 + 2.0 * r1 * r2 * c) / (1.0 + r1 * r1 * r2 * r2 + 2.0 * r1 * r2 * c);
+            format!("{l}={}", 1.0 - r)
+        })
+        .collect();
+    let goal = format!("spectrum:points:{}", pts.join(","));
+    let v = json(&[
+        "film",
+        "--optimize",
+        &goal,
+        "--layers",
+        "n=2:600",
+        "--substrate",
+        "nk=1.5/1e-9",
+        "--max-thickness",
+        "1000",
+        "--json",
+    ]);
+    let t = v["layers"][0]["thickness_nm"].as_f64().unwrap();
+    assert!((t - 250.0).abs() < 1.0, "{t} nm; {v}");
+    assert!(v["search_value"].as_f64().unwrap() < 1e-3);
+    assert!(v["evaluations"].as_u64().unwrap() > 10);
+    assert!(v["radiator"]["net_w_m2"].is_number());
+}
+
+#[test]
+fn thickness_search_bad_input_names_the_option() {
+    let base = ["film", "--layers", "silica-ir:300", "--substrate", "ag"];
+    let with = |extra: &[&str]| -> Vec<String> { base.iter().chain(extra).map(|s| s.to_string()).collect() };
+    let run = |extra: &[&str], needle: &str| {
+        let args = with(extra);
+        let refs: Vec<&str> = args.iter().map(String::as_str).collect();
+        expect_usage_error(&refs, needle);
+    };
+    run(&["--optimize", "coldest"], "--optimize");
+    run(&["--optimize", "net-power", "--wavelength", "1"], "--wavelength");
+    run(&["--optimize", "net-power", "--max-thickness", "0"], "thickness");
+    run(&["--sky", "space", "--wavelength", "1"], "--optimize");
+    expect_usage_error(&["film", "--optimize", "steady"], "--layers");
+}

@@ -267,7 +267,6 @@ fn coherent_pair(
     if keep {
         fluxes.push((fs, fp));
     }
-    let minus_i = Complex::new(0.0, -1.0);
     for l in layers.iter().rev() {
         let k = kz(l.index, s_inv);
         let (eta_s, eta_p) = admittances(l.index, k);
@@ -275,7 +274,8 @@ fn coherent_pair(
         let delta = Complex::new(delta.re, delta.im.min(OPACITY_CAP));
         // e^(i delta) and e^(-i delta); cos = (e+ + e-) / 2, -i sin = (e- - e+) / 2
         let e_plus = (Complex::new(0.0, 1.0) * delta).exp();
-        let e_minus = (minus_i * delta).exp();
+        // e^(-i delta) = 1 / e^(i delta): |e+| >= e^-35 after the cap, so no overflow
+        let e_minus = Complex::ONE / e_plus;
         let cos = (e_plus + e_minus).scale(0.5);
         let misin = (e_minus - e_plus).scale(0.5);
         let step = |f: Field, eta: Complex| {

@@ -5,6 +5,7 @@
 
 use super::film::{film_inputs, LayerSpec, MaterialSpec};
 use super::{check_range, SourceSpec};
+use crate::physics::radiator::design::{Design, Target};
 use crate::physics::radiator::layered::{film_table, FILM_SPAN_M};
 use crate::physics::radiator::{
     AngularModel, Emitter, Profile, Sky, SolarBand, Sun, Surroundings, Transmittance, STEADY_SEARCH_K,
@@ -117,6 +118,16 @@ pub enum EmitterSpec {
 
 fn air() -> MaterialSpec {
     MaterialSpec::Index { n: 1.0, k: 0.0 }
+}
+
+/// The key of a film's table: its layers, substrate and exact directions.
+type FilmKey = (Vec<LayerSpec>, MaterialSpec, Vec<f64>);
+
+thread_local! {
+    /// The last film table built on this thread: a scenario is checked and then evaluated,
+    /// and a page redraws with the same film, so the table is built once for both.
+    static LAST_FILM: std::cell::RefCell<Option<(FilmKey, std::sync::Arc<crate::physics::radiator::layered::Directional>)>> =
+        const { std::cell::RefCell::new(None) };
 }
 
 /// Most layers of a film emitter.
@@ -403,8 +414,15 @@ impl EmitterSpec {
                 let inputs = film_inputs(&air(), layers, substrate)?;
                 let mut mu = vec![1.0];
                 mu.extend_from_slice(exact_mu);
-                let table = film_table(|l| inputs.at_held(l), FILM_SPAN_M, &mu);
-                Ok(Profile::Directional(std::sync::Arc::new(table)))
+                let key = (layers.clone(), substrate.clone(), mu.clone());
+                if let Some(hit) =
+                    LAST_FILM.with(|c| c.borrow().as_ref().filter(|(k, _)| *k == key).map(|(_, t)| t.clone()))
+                {
+                    return Ok(Profile::Directional(hit));
+                }
+                let table = std::sync::Arc::new(film_table(|l| inputs.at_held(l), FILM_SPAN_M, &mu));
+                LAST_FILM.with(|c| *c.borrow_mut() = Some((key, table.clone())));
+                Ok(Profile::Directional(table))
             }
             EmitterSpec::Blackbody => Ok(Profile::blackbody()),
             EmitterSpec::Grey { emissivity } => {
@@ -680,5 +698,102 @@ impl RadiatorScenario {
             surface_k,
             warnings,
         })
+    }
+}
+
+/// What a film's thickness search aims for.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "type", rename_all = "kebab-case")]
+pub enum FilmGoal {
+    /// the largest net cooling power at ambient
+    NetPower,
+    /// the lowest steady temperature
+    Steady,
+    /// the normal emissivity closest to a profile (least squares)
+    Spectrum { profile: EmitterSpec },
+}
+
+impl FilmGoal {
+    /// Parse `net-power | steady | spectrum:EMIT` (EMIT as for an emitter, e.g.
+    /// spectrum:window:8-13).
+    pub fn parse(text: &str) -> Result<FilmGoal, String> {
+        let t = text.trim();
+        match t.to_ascii_lowercase().as_str() {
+            "net-power" | "power" => return Ok(FilmGoal::NetPower),
+            "steady" | "steady-temperature" => return Ok(FilmGoal::Steady),
+            _ => {}
+        }
+        if let Some(rest) = t.get(..9).filter(|p| p.eq_ignore_ascii_case("spectrum:")).and(t.get(9..)) {
+            let profile = EmitterSpec::parse(rest)?;
+            if matches!(profile, EmitterSpec::Film { .. }) {
+                return Err("a target spectrum must be a profile, e.g. spectrum:window:8-13".into());
+            }
+            return Ok(FilmGoal::Spectrum { profile });
+        }
+        Err(format!("unknown target '{t}'; use net-power, steady or spectrum:EMIT (e.g. spectrum:window:8-13,in=0.95)"))
+    }
+}
+
+/// Largest thickness a search may give a layer [nm], accepted range.
+pub const SEARCH_MAX_THICKNESS_NM: (f64, f64) = (1.0, 20_000.0);
+
+impl RadiatorScenario {
+    /// The thickness search of this scenario's film emitter toward `goal`, each searched
+    /// layer (every coherent one) at most `max_nm` [nm] thick, and the starting thicknesses
+    /// [m] of the searched layers.
+    pub fn film_design(&self, goal: &FilmGoal, max_nm: f64) -> Result<(Design, Vec<f64>), String> {
+        let EmitterSpec::Film { layers, substrate } = &self.emitter else {
+            return Err("the thickness search needs a film emitter (layers on a substrate)".into());
+        };
+        check_range(
+            "largest thickness of the search",
+            max_nm,
+            SEARCH_MAX_THICKNESS_NM.0,
+            SEARCH_MAX_THICKNESS_NM.1,
+            "nm",
+            "e.g. 2000",
+        )?;
+        let setup = self.to_physics()?;
+        let inputs = film_inputs(&air(), layers, substrate)?;
+        let (_, start, _) = inputs.at_held(1e-6);
+        let vary: Vec<bool> = start.iter().map(|l| !l.incoherent).collect();
+        if !vary.iter().any(|v| *v) {
+            return Err(
+                "the film has no layer whose thickness can be searched (thick incoherent layers are kept)".into()
+            );
+        }
+        let target = match goal {
+            FilmGoal::NetPower => Target::NetPower,
+            FilmGoal::Steady => Target::SteadyTemperature,
+            FilmGoal::Spectrum { profile } => {
+                Target::Spectrum(profile.to_profile().map_err(|e| format!("target: {e}"))?)
+            }
+        };
+        let s = &setup.surroundings;
+        let design = Design::new(
+            |l| inputs.at_held(l),
+            &vary,
+            max_nm * 1e-9,
+            target,
+            &s.sky,
+            s.sun.as_ref(),
+            s.ambient_k,
+            s.h_c,
+        );
+        let first: Vec<f64> =
+            start.iter().filter(|l| !l.incoherent).map(|l| l.thickness_m.min(max_nm * 1e-9)).collect();
+        Ok((design, first))
+    }
+
+    /// This scenario with its film's layers at thicknesses `thickness_m` [m] (rounded to 0.01
+    /// nm); other emitters unchanged.
+    pub fn with_film_thicknesses(&self, thickness_m: &[f64]) -> RadiatorScenario {
+        let mut sc = self.clone();
+        if let EmitterSpec::Film { layers, .. } = &mut sc.emitter {
+            for (l, d) in layers.iter_mut().zip(thickness_m) {
+                l.thickness_nm = (d * 1e11).round() / 100.0;
+            }
+        }
+        sc
     }
 }

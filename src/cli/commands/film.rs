@@ -7,12 +7,17 @@
 //! is checked by `scenario::film`, every figure comes from `physics::film`.
 
 use crate::cli::args::{OptionDoc, Parsed, Spec};
-use crate::cli::shared::files::{film_error, resolve_material};
+use crate::cli::shared::files::{film_error, resolve_material, resolve_radiator_files};
+use crate::cli::shared::options::radiator_options;
 use crate::cli::shared::output::print_json;
+use crate::cli::shared::output::{print_radiator, warn};
 use crate::cli::shared::{Command, Failure, Out};
 use crate::physics::film::{coherent, coherent_mean, hemispherical, Polarization, Response};
 use crate::physics::materials::BUILTINS;
+use crate::physics::radiator::evaluate;
+use crate::report::radiator::RadiatorReport;
 use crate::scenario::film::{film_inputs, LayerSpec, MaterialSpec};
+use crate::scenario::radiator::{EmitterSpec, FilmGoal, RadiatorScenario};
 use serde::Serialize;
 
 /// What `--layers` takes (shared with `glowgap cool --emitter film`).
@@ -35,6 +40,14 @@ pub const COMMAND: Command = Command {
             "step",
             "angle",
             "polarization",
+            "optimize",
+            "max-thickness",
+            "sky",
+            "sun",
+            "sun-zenith",
+            "sun-scale",
+            "ambient",
+            "hc",
         ],
         flags: &["hemispherical", "json", "csv", "materials"],
         max_positional: 0,
@@ -43,6 +56,8 @@ pub const COMMAND: Command = Command {
     usage: "film [--layers LAYER,LAYER,...] [--substrate MAT] [--incident-medium MAT]\n\
             (--wavelength UM | --from UM --to UM --step UM) [--angle DEG]\n\
             [--polarization s|p|mean] [--hemispherical] [--json | --csv]\n\
+            or: glowgap film --optimize TARGET [--layers ...] [--substrate MAT] [--max-thickness NM]\n\
+            \x20   [--sky SKY] [--sun SPEC] [--sun-zenith DEG] [--ambient K] [--hc W_PER_M2K] [--json]\n\
             or: glowgap film --materials",
     docs: &[
         OptionDoc { name: "layers", arg: "LAYER,...", text: LAYERS_DOC },
@@ -80,6 +95,33 @@ pub const COMMAND: Command = Command {
                    \"hemispherical_transmittance\", \"hemispherical_absorptance\"",
         },
         OptionDoc { name: "csv", arg: "", text: "print CSV with a header line" },
+        OptionDoc {
+            name: "optimize",
+            arg: "TARGET",
+            text: "search the thicknesses of the coherent layers of the film emitter (in air, as in\n\
+                   glowgap cool --emitter film) for: net-power (the largest net cooling power at\n\
+                   ambient) | steady (the lowest steady temperature) | spectrum:EMIT (the normal\n\
+                   emissivity closest to a profile, e.g. spectrum:window:8-13); default: no search",
+        },
+        OptionDoc {
+            name: "max-thickness",
+            arg: "NM",
+            text: "the thickest a searched layer may become, in nm, default 2000",
+        },
+        OptionDoc { name: "sky", arg: "SKY", text: "with --optimize: the sky, as in glowgap cool (default box)" },
+        OptionDoc {
+            name: "sun",
+            arg: "SPEC|none",
+            text: "with --optimize: the sun, as in glowgap cool (default none)",
+        },
+        OptionDoc { name: "sun-zenith", arg: "DEG", text: "with --optimize: the sun's zenith angle, default 0" },
+        OptionDoc { name: "sun-scale", arg: "X", text: "with --optimize: factor on the sun's irradiance, default 1" },
+        OptionDoc { name: "ambient", arg: "K", text: "with --optimize: ambient air temperature in K, default 300" },
+        OptionDoc {
+            name: "hc",
+            arg: "W_PER_M2K",
+            text: "with --optimize: convection coefficient from the air in W/m²K, default 0",
+        },
         OptionDoc { name: "materials", arg: "", text: "list the built-in materials with their sources and ranges" },
     ],
     run,
@@ -120,6 +162,14 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     }
     if p.flag("json") && p.flag("csv") {
         return Err(Failure::Usage("'glowgap film': choose one of --json and --csv".into()));
+    }
+    if let Some(goal) = p.text("optimize") {
+        return optimize(&p, goal, out);
+    }
+    for o in ["max-thickness", "sky", "sun", "sun-zenith", "sun-scale", "ambient", "hc"] {
+        if p.text(o).is_some() {
+            return Err(Failure::Usage(format!("--{o} applies only to a thickness search; add --optimize TARGET")));
+        }
     }
     let material = |opt: &str, default: &str| -> Result<MaterialSpec, String> {
         let text = p.text(opt).unwrap_or(default);
@@ -251,4 +301,97 @@ fn wavelengths(p: &Parsed) -> Result<Vec<f64>, String> {
         (Some(_), _) => Err("give either --wavelength or --from/--to/--step, not both".into()),
         _ => Err("give a wavelength: --wavelength UM, or --from UM --to UM --step UM, e.g. --wavelength 0.55".into()),
     }
+}
+
+#[derive(Serialize)]
+struct FoundLayer {
+    material: String,
+    thickness_nm: f64,
+}
+
+#[derive(Serialize)]
+struct Search {
+    target: String,
+    layers: Vec<FoundLayer>,
+    layers_text: String,
+    /// the target's value on the search grid: W/m2, K, or the rms emissivity misfit
+    search_value: f64,
+    search_unit: &'static str,
+    start_value: f64,
+    evaluations: u64,
+    seconds: f64,
+    wavelengths: usize,
+    radiator: RadiatorReport,
+}
+
+/// `glowgap film --optimize TARGET ...`: the thickness search, then the full balance of the
+/// stack it found.
+fn optimize(p: &Parsed, goal_text: &str, out: Out) -> Result<(), Failure> {
+    for o in ["wavelength", "from", "to", "step", "angle", "polarization", "incident-medium"] {
+        if p.text(o).is_some() {
+            return Err(Failure::Usage(format!(
+                "--{o} does not apply to a thickness search, which uses the radiator's whole spectrum in air; remove it"
+            )));
+        }
+    }
+    if p.flag("hemispherical") || p.flag("csv") {
+        return Err(Failure::Usage("--hemispherical and --csv do not apply to --optimize; use --json".into()));
+    }
+    let goal = FilmGoal::parse(goal_text).map_err(|e| format!("--optimize: {e}"))?;
+    let max_nm = p.number("max-thickness", "largest layer thickness", "nm")?.unwrap_or(2000.0);
+    let mut sc = RadiatorScenario { emitter: EmitterSpec::parse("film")?, ..Default::default() };
+    radiator_options(p, &mut sc)?;
+    resolve_radiator_files(&mut sc, p)?;
+    if let EmitterSpec::Film { layers, substrate } = &sc.emitter {
+        if layers.is_empty() {
+            return Err(Failure::Usage(
+                "--optimize needs layers to search; give them with --layers, e.g. --layers hfo2:100,silica-ir:500"
+                    .into(),
+            ));
+        }
+        film_inputs(&MaterialSpec::Index { n: 1.0, k: 0.0 }, layers, substrate).map_err(film_error)?;
+    }
+    let (design, start) = sc.film_design(&goal, max_nm).map_err(|e| format!("--optimize: {e}"))?;
+    let clock = std::time::Instant::now();
+    let start_value = design.value(&start);
+    let found = design.run(&start, max_nm * 1e-9, None);
+    let seconds = clock.elapsed().as_secs_f64();
+    let best = sc.with_film_thicknesses(&found.thickness_m);
+    let setup = best.to_physics()?;
+    warn(&setup.warnings);
+    let report = RadiatorReport::from(&evaluate(&setup.emitter, &setup.surroundings, setup.surface_k));
+    let EmitterSpec::Film { layers, .. } = &best.emitter else { return Err(Failure::Output) };
+    let (target, unit) = match goal {
+        FilmGoal::NetPower => ("net-power".to_string(), "W/m2"),
+        FilmGoal::Steady => ("steady".to_string(), "K"),
+        FilmGoal::Spectrum { profile } => (format!("spectrum:{}", profile.label()), "rms emissivity difference"),
+    };
+    let search = Search {
+        target,
+        layers: layers
+            .iter()
+            .map(|l| FoundLayer { material: l.material.text(), thickness_nm: l.thickness_nm })
+            .collect(),
+        layers_text: layers.iter().map(|l| l.text()).collect::<Vec<_>>().join(","),
+        search_value: found.value,
+        search_unit: unit,
+        start_value,
+        evaluations: found.evaluations,
+        seconds,
+        wavelengths: design.wavelengths(),
+        radiator: report,
+    };
+    if p.flag("json") {
+        return print_json(out, &search);
+    }
+    writeln!(out, "{:<32} {}", "Target", search.target)?;
+    writeln!(out, "{:<32} {}", "Layers found", search.layers_text)?;
+    writeln!(
+        out,
+        "{:<32} {:.4} {unit} (from {:.4} at the start; search grid of {} wavelengths)",
+        "Search value", search.search_value, search.start_value, search.wavelengths
+    )?;
+    writeln!(out, "{:<32} {} in {:.2} s", "Evaluations", search.evaluations, search.seconds)?;
+    writeln!(out, "full balance of the layers found:")?;
+    print_radiator(&best, false, None, out)
 }

@@ -8,6 +8,8 @@
 
 use super::files::read_spectrum_file;
 use crate::cli::args::{OptionDoc, Parsed};
+use crate::scenario::film::{LayerSpec, MaterialSpec};
+use crate::scenario::radiator::{AngularSpec, EmitterSpec, RadiatorScenario, SkySpec, SolarBandSpec};
 use crate::scenario::{check_gap_ev, check_gap_range, CellScenario, SourceSpec};
 use crate::scenario::{Connection, Emission, JvModel};
 
@@ -185,4 +187,97 @@ pub fn check_gap_grid(from_ev: f64, to_ev: f64, step_ev: f64) -> Result<f64, Str
 fn round_up_2(x: f64) -> f64 {
     let scale = 10f64.powf(x.log10().floor() - 1.0);
     (x / scale).ceil() * scale
+}
+
+/// The radiator options of `glowgap cool` (emitter, film, sky, air, sun, cut-off) onto a
+/// radiator scenario; a command without some of them simply never sees them.
+pub fn radiator_options(p: &Parsed, sc: &mut RadiatorScenario) -> Result<(), String> {
+    if let Some(e) = p.text("emitter") {
+        sc.emitter = EmitterSpec::parse(e)?;
+    }
+    let film_options = p.text("layers").is_some() || p.text("substrate").is_some();
+    if let EmitterSpec::Film { layers, substrate } = &mut sc.emitter {
+        if let Some(list) = p.text("layers") {
+            for l in list.split(',').filter(|l| !l.trim().is_empty()) {
+                layers.push(LayerSpec::parse(l).map_err(|e| format!("--layers: {e}"))?);
+            }
+        }
+        if let Some(m) = p.text("substrate") {
+            *substrate = MaterialSpec::parse(m).map_err(|e| format!("--substrate: {e}"))?;
+        }
+        if p.text("cutoff").is_some() {
+            return Err("--cutoff does not apply to a film, whose emission by direction comes from its layers; \
+                        remove --cutoff"
+                .into());
+        }
+        if p.text("solar").is_some() {
+            return Err("--solar does not apply to a film, which sets the solar band itself; remove --solar".into());
+        }
+    } else if film_options {
+        return Err("--layers and --substrate describe a film and need --emitter film".into());
+    }
+    if let Some(s) = p.text("sky") {
+        sc.sky = SkySpec::parse(s)?;
+    }
+    if let Some(t) = p.number("ambient", "ambient air temperature", "K")? {
+        sc.ambient_k = t;
+    }
+    if let Some(t) = p.number("surface", "surface temperature", "K")? {
+        sc.surface_k = Some(t);
+    }
+    if let Some(h) = p.number("hc", "convection coefficient", "W/m²K")? {
+        sc.h_c_w_m2k = h;
+    }
+    if let Some(s) = p.text("sun") {
+        sc.sun = if s.trim().eq_ignore_ascii_case("none") {
+            None
+        } else {
+            Some(SourceSpec::parse(s).map_err(|e| format!("--sun: {e}, or none"))?)
+        };
+    }
+    for (name, what) in [("sun-zenith", "sun's zenith angle"), ("sun-scale", "irradiance scale")] {
+        if p.text(name).is_some() && sc.sun.is_none() {
+            return Err(format!("--{name} sets the {what} and needs the sun on, e.g. --sun am1.5g"));
+        }
+    }
+    if let Some(z) = p.number("sun-zenith", "sun's zenith angle", "deg")? {
+        sc.sun_zenith_deg = z;
+    }
+    if let Some(s) = p.number("sun-scale", "irradiance scale", "a factor, 1 = as tabulated")? {
+        sc.sun_scale = s;
+    }
+    if let Some(s) = p.text("solar") {
+        let profile = match s.trim().parse::<f64>() {
+            Ok(v) => EmitterSpec::Grey { emissivity: v },
+            Err(_) => EmitterSpec::parse(s).map_err(|e| format!("--solar: {e}"))?,
+        };
+        let below = p
+            .number("solar-below", "solar-band limit", "um")?
+            .unwrap_or(crate::scenario::radiator::DEFAULT_SOLAR_BELOW_UM);
+        sc.solar_band = Some(SolarBandSpec { below_um: below, profile });
+    } else if p.text("solar-below").is_some() {
+        return Err("--solar-below sets where the solar-band profile ends and needs --solar, e.g. --solar 0.03".into());
+    }
+    if let Some(c) = p.text("cutoff") {
+        let (angle, beyond) = match c.split_once(':') {
+            Some((a, b)) => (a, Some(b)),
+            None => (c, None),
+        };
+        let num = |s: &str, what: &str| {
+            s.trim().parse::<f64>().map_err(|_| {
+                format!(
+                    "--cutoff '{c}': the {what} '{}' is not a number; write DEG[:EPS], e.g. --cutoff 60:0",
+                    s.trim()
+                )
+            })
+        };
+        sc.angular = AngularSpec::CutOff {
+            angle_deg: num(angle, "angle")?,
+            beyond: match beyond {
+                Some(b) => num(b, "emissivity beyond")?,
+                None => 0.0,
+            },
+        };
+    }
+    Ok(())
 }

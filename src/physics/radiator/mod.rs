@@ -20,6 +20,7 @@
 pub mod angular;
 pub mod balance;
 pub mod clear_sky;
+pub mod design;
 pub mod emissivity;
 pub mod layered;
 pub mod merit;

@@ -410,6 +410,7 @@ fn evolve(obj: &mut Objective, d: usize, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64
         spread_tol: SPREAD_TOL,
         apart: 0.02 * CHARGE,
         keep: POLISHED_STARTS,
+        batch: false,
     };
     search::evolve(obj, &vec![lo; d], &vec![hi; d], &settings)
 }
