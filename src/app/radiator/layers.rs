@@ -795,7 +795,7 @@ fn layer_table(rad: RadiatorState) -> impl IntoView {
     view! {
         <datalist id="film-materials">{options}</datalist>
         <div class="film-table-wrap">
-            <table class="points-table film-table" data-control=HOOK.as_str()>
+            <table class="film-table" data-control=HOOK.as_str()>
                 <caption class="visually-hidden">"Layers from the sky side down, then the substrate"</caption>
                 <thead>
                     <tr><th scope="col">"#"</th><th scope="col">"Material"</th><th scope="col">"Thickness"</th><th scope="col"><span class="visually-hidden">"Move or remove"</span></th></tr>
