@@ -99,6 +99,10 @@ controls! {
     AbsSunTemp => "abs-sun-temp",
     AbsAmbient => "abs-ambient",
     AbsHc => "abs-hc",
+    EmitterKind => "emitter-kind",
+    FilmLayers => "film-layers",
+    FilmSubstrate => "film-substrate",
+    FilmStack => "film-stack",
 }
 
 impl std::fmt::Display for Control {

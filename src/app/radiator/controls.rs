@@ -421,6 +421,7 @@ pub fn surface_section(rad: RadiatorState) -> impl IntoView {
             notes.join(" ")
         })
     };
+    let is_film = Memo::new(move |_| ctx.scenario.with(|s| matches!(s.radiator.emitter, EmitterSpec::Film { .. })));
     let has_band = Memo::new(move |_| ctx.scenario.with(|s| s.radiator.solar_band.is_some()));
     let file_hint = view! {
         <p class="hint" id="h-emissivity-file">
@@ -439,6 +440,9 @@ pub fn surface_section(rad: RadiatorState) -> impl IntoView {
     view! {
         <section class="panel-section" aria-labelledby="surface-h">
             <h2 id="surface-h">"Surface"</h2>
+            {super::layers::emitter_switch(rad)}
+            <p class="hint" hidden=move || !is_film.get()>"The emissivity comes from the layer stack: edit its layers in the “Layer stack” card beside the plots."</p>
+            <div class="profile-controls" hidden=move || is_film.get()>
             <div class="presets" role="group" aria-labelledby="rad-presets-h">
                 <p id="rad-presets-h" class="presets-title">"Start from " <span class="muted">"(illustrative shapes of our own, not products)"</span></p>
                 <div class="chips">{chips}{measured}</div>
@@ -451,6 +455,7 @@ pub fn surface_section(rad: RadiatorState) -> impl IntoView {
             </button>
             {drop}
             {error_line(ctx, Control::EmissivityFile)}
+            </div>
         </section>
     }
 }

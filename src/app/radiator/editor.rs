@@ -39,6 +39,13 @@ fn commit(rad: RadiatorState, hook: Control, points: Vec<[f64; 2]>) -> bool {
     mark("gg-edit");
     let ctx = rad.ctx;
     let before = ctx.scenario.with_untracked(|s| s.radiator.emitter.clone());
+    if matches!(before, EmitterSpec::Film { .. }) {
+        ctx.set_error(
+            hook,
+            "The layer stack sets this emissivity; choose “profile” under Surface to shape a profile by points.".into(),
+        );
+        return false;
+    }
     let ok = ctx.edit(hook, |s| s.radiator.emitter = EmitterSpec::Points { points });
     if ok && !matches!(before, EmitterSpec::Points { .. }) {
         let again = match (&before, preset_of(&before)) {

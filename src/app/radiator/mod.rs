@@ -12,6 +12,8 @@
 //! * [`editor`]: the editor's pointer and keys, the table of points;
 //! * [`controls`]: surface, sky and air, sun; [`import`]: measured tables;
 //! * [`figures`]: headline figures and cautions; [`cards`]: the two read-only plots;
+//! * [`layers`]: the "Emitter: profile | layers" switch and the layer-stack editor (table,
+//!   bar diagram, reflectance/transmittance/absorptance and the emissivity map);
 //! * [`plots`]: drawing; [`export`]: SVG, PNG and CSV files.
 
 pub mod cards;
@@ -20,6 +22,7 @@ pub mod editor;
 pub mod export;
 pub mod figures;
 pub mod import;
+pub mod layers;
 pub mod plots;
 pub mod state;
 
@@ -104,8 +107,10 @@ fn render_effect(rad: RadiatorState, canvases: [NodeRef<html::Canvas>; 3]) {
 pub fn RadiatorPanel() -> impl IntoView {
     let rad = expect_context::<RadiatorState>();
     let canvases: [NodeRef<html::Canvas>; 3] = [NodeRef::new(), NodeRef::new(), NodeRef::new()];
+    let film_canvases: [NodeRef<html::Canvas>; 3] = [NodeRef::new(), NodeRef::new(), NodeRef::new()];
     render_effect(rad, canvases);
-    watch_sizes(rad.ctx, canvases.to_vec());
+    layers::film_effect(rad, film_canvases);
+    watch_sizes(rad.ctx, canvases.iter().chain(film_canvases.iter()).copied().collect());
     view! {
         <main class="layout rad-layout">
             <aside class="panel" aria-label="Radiator settings">
@@ -116,6 +121,7 @@ pub fn RadiatorPanel() -> impl IntoView {
             <section class="results" aria-label="Radiator results">
                 {figures::figures(rad)}
                 <div class="plots rad-plots">
+                    {layers::film_cards(rad, film_canvases)}
                     {editor::editor_card(rad, canvases[0])}
                     {cards::balance_card(rad, canvases[1])}
                     {cards::curve_card(rad, canvases[2])}

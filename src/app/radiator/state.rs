@@ -10,8 +10,12 @@ use leptos::prelude::*;
 
 use crate::app::state::Ctx;
 use crate::app::widgets::plot::Frame;
-use crate::scenario::radiator::{EmissivityTable, EmitterSpec, RadiatorScenario, SkySpec, TransmittanceTable};
+use crate::scenario::film::{LayerSpec, MaterialSpec};
+use crate::scenario::radiator::{
+    AngularSpec, EmissivityTable, EmitterSpec, RadiatorScenario, SkySpec, SolarBandSpec, TransmittanceTable,
+};
 use crate::scenario::SourceSpec;
+use crate::view::radiator::film::{builtin_materials, FilmView, MaterialInfo};
 use crate::view::radiator::{RadiatorCache, RadiatorView};
 
 /// The radiator's plots.
@@ -46,6 +50,96 @@ impl Slot {
     }
 }
 
+/// The layer stack's plots.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum FilmSlot {
+    /// the stack as bars (drag a layer's top edge)
+    Stack,
+    /// reflectance, transmittance and absorptance against wavelength
+    Spectrum,
+    /// the emissivity over wavelength and angle
+    Map,
+}
+
+impl FilmSlot {
+    pub const ALL: [FilmSlot; 3] = [FilmSlot::Stack, FilmSlot::Spectrum, FilmSlot::Map];
+
+    /// The test hook and file-name part.
+    pub fn slug(self) -> &'static str {
+        match self {
+            FilmSlot::Stack => "film-stack",
+            FilmSlot::Spectrum => "film-rta",
+            FilmSlot::Map => "film-map",
+        }
+    }
+
+    pub fn index(self) -> usize {
+        self as usize
+    }
+}
+
+/// What the profile was before the user switched to layers: the profile, its solar-band
+/// profile and angular model (a stack sets both itself).
+pub type SavedProfile = (EmitterSpec, Option<SolarBandSpec>, AngularSpec);
+
+/// A drag of a layer's top edge: the layer, the pointer's start [CSS px], the thickness
+/// then [nm] and the diagram's scale held during the drag [CSS px per nm].
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct EdgeDrag {
+    pub layer: usize,
+    pub y0: f64,
+    pub d0: f64,
+    pub px_per_nm: f64,
+}
+
+/// The substrate's row in [`FilmState::row_error`].
+pub const SUBSTRATE_ROW: usize = usize::MAX;
+
+/// The layer-stack editor's state.
+#[derive(Clone, Copy)]
+pub struct FilmState {
+    pub view: RwSignal<Option<Arc<FilmView>>>,
+    pub frames: RwSignal<[Frame; 3]>,
+    pub plot_errors: RwSignal<[Option<String>; 3]>,
+    /// the layers while a thickness is dragged or a key held (committed on release)
+    pub draft: RwSignal<Option<Vec<LayerSpec>>>,
+    pub drag: StoredValue<Option<EdgeDrag>>,
+    /// the layer the keys act on
+    pub focused: RwSignal<Option<usize>>,
+    /// the curves' second angle [deg], if any
+    pub angle: RwSignal<Option<f64>>,
+    /// the table row that the message of [`crate::view::controls::Control::FilmLayers`] is
+    /// about, shown beside it ([`SUBSTRATE_ROW`] for the substrate)
+    pub row_error: RwSignal<Option<usize>>,
+    /// the profile kept while layers are in use, and the stack kept while a profile is
+    pub saved_profile: StoredValue<Option<SavedProfile>>,
+    pub saved_film: StoredValue<Option<(Vec<LayerSpec>, MaterialSpec)>>,
+    /// the built-in materials with their sources and ranges
+    pub materials: StoredValue<Arc<Vec<MaterialInfo>>>,
+}
+
+impl FilmState {
+    fn new() -> FilmState {
+        FilmState {
+            view: RwSignal::new(None),
+            frames: RwSignal::new([Frame::default(); 3]),
+            plot_errors: RwSignal::new([None, None, None]),
+            draft: RwSignal::new(None),
+            drag: StoredValue::new(None),
+            focused: RwSignal::new(None),
+            angle: RwSignal::new(Some(60.0)),
+            row_error: RwSignal::new(None),
+            saved_profile: StoredValue::new(None),
+            saved_film: StoredValue::new(None),
+            materials: StoredValue::new(Arc::new(builtin_materials())),
+        }
+    }
+
+    pub fn frame(&self, slot: FilmSlot) -> Frame {
+        self.frames.with_untracked(|f| f[slot.index()])
+    }
+}
+
 /// Shared handles of the radiator panel; all are cheap to copy.
 #[derive(Clone, Copy)]
 pub struct RadiatorState {
@@ -70,6 +164,8 @@ pub struct RadiatorState {
     pub last_sun: RwSignal<SourceSpec>,
     /// the precipitable water last chosen [cm] (kept while another sky is in use)
     pub last_pwv: RwSignal<f64>,
+    /// the layer-stack editor
+    pub film: FilmState,
 }
 
 /// Precipitable water offered first for the clear sky [cm]: a mid-latitude summer-ish sky.
@@ -91,9 +187,13 @@ impl RadiatorState {
             user_sky: RwSignal::new(None),
             last_sun: RwSignal::new(SourceSpec::Am15g),
             last_pwv: RwSignal::new(DEFAULT_PWV_CM),
+            film: FilmState::new(),
         };
         // remember what any scenario brings (links, files, edits)
         let remember = move |r: &RadiatorScenario| {
+            if let EmitterSpec::Film { layers, substrate } = &r.emitter {
+                rad.film.saved_film.set_value(Some((layers.clone(), substrate.clone())));
+            }
             if let EmitterSpec::Table(t) = &r.emitter {
                 if rad.user_emissivity.with_untracked(|u| u.as_ref() != Some(t)) {
                     rad.user_emissivity.set(Some(t.clone()));

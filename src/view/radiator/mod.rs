@@ -238,7 +238,13 @@ impl RadiatorCache {
         let xs = samples(range, &emitter.knots());
         let eps = xs.iter().map(|v| emitter.normal(10f64.powf(*v) * 1e-6)).collect();
         let editable = matches!(sc.emitter, EmitterSpec::Points { .. });
-        let handles = as_points(&sc.emitter).unwrap_or_default();
+        // a layer stack is edited as layers, not as points (and sampling it would build its
+        // table a second time)
+        let handles = if matches!(sc.emitter, EmitterSpec::Film { .. }) {
+            Vec::new()
+        } else {
+            as_points(&sc.emitter).unwrap_or_default()
+        };
         Ok(RadiatorView {
             scenario: sc.clone(),
             report,
@@ -275,6 +281,7 @@ pub fn balance_amounts(c: &RadiatorView) -> [f64; 5] {
 }
 
 pub mod csv;
+pub mod film;
 pub mod points;
 
 #[cfg(test)]

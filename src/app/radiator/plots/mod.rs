@@ -5,6 +5,7 @@
 pub mod balance;
 pub mod curve;
 pub mod editor;
+pub mod film;
 
 use crate::app::widgets::plot::Backend;
 use plotters::coord::Shift;
