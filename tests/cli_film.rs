@@ -250,3 +250,29 @@ fn thickness_search_bad_input_names_the_option() {
     run(&["--sky", "space", "--wavelength", "1"], "--optimize");
     expect_usage_error(&["film", "--optimize", "steady"], "--layers");
 }
+
+#[test]
+fn a_film_travels_in_the_share_link() {
+    // the link of `cool --emitter film` opens in `eval` with the same figures
+    let args = [
+        "cool",
+        "--emitter",
+        "film",
+        "--layers",
+        "hfo2:80,silica-ir:900,n=1.5:2000000",
+        "--substrate",
+        "ag",
+        "--sun",
+        "am1.5g",
+        "--sky",
+        "clear:pwv=2",
+    ];
+    let out = glowgap(&[&args[..], &["--link"]].concat());
+    assert!(out.status.success());
+    let link = String::from_utf8(out.stdout).unwrap();
+    let direct = json(&[&args[..], &["--json"]].concat());
+    let opened = json(&["eval", link.trim(), "--radiator", "--json"]);
+    for key in ["net_w_m2", "sun_absorbed_w_m2", "solar_reflectance", "window_emissivity"] {
+        assert_eq!(direct[key], opened[key], "{key}");
+    }
+}
