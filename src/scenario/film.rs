@@ -203,7 +203,8 @@ impl FilmInputs {
     }
 
     /// One warning for each material whose valid range leaves part of `needed_m` [m]
-    /// uncovered: there [`FilmInputs::at_held`] holds its index at the end values.
+    /// uncovered: there [`FilmInputs::at_held`] holds its index at the end values (a
+    /// material covering all of `needed_m` avoids it).
     pub fn held_warnings(&self, needed_m: (f64, f64)) -> Vec<String> {
         let mut seen: Vec<&str> = Vec::new();
         let mut out = Vec::new();
@@ -215,13 +216,10 @@ impl FilmInputs {
             }
             seen.push(&m.name);
             out.push(format!(
-                "{} is known from {} to {} um only; outside that its index is held at the end values \
-                 (the stack's figures there are rough; a material covering {}-{} um avoids this)",
+                "{} is known from {} to {} um; beyond, its index is held at the end values (figures there are rough)",
                 m.name,
                 round_um(lo),
                 round_um(hi),
-                round_um(needed_m.0),
-                round_um(needed_m.1)
             ));
         }
         out
