@@ -276,3 +276,31 @@ fn a_film_travels_in_the_share_link() {
         assert_eq!(direct[key], opened[key], "{key}");
     }
 }
+
+#[test]
+fn per_layer_absorption_on_the_command_line() {
+    // tests/fixtures/film_tmm_layers.csv, case a1 at normal incidence and 500 nm (tmm's
+    // absorp_in_each_layer, tests/reference/gen_film_layers.py): 0.2527151856303622,
+    // ~0, 0.14792750604124708
+    let v = json(&[
+        "film",
+        "--layers",
+        "nk=2/0.1:120,n=1.46:200,nk=3.5/0.5:30",
+        "--substrate",
+        "n=1.5",
+        "--wavelength",
+        "0.5",
+        "--per-layer",
+        "--json",
+    ]);
+    let a: Vec<f64> =
+        v["points"][0]["layer_absorptance"].as_array().unwrap().iter().map(|x| x.as_f64().unwrap()).collect();
+    let want = [0.2527151856303622, 0.0, 0.14792750604124708];
+    for (g, w) in a.iter().zip(want) {
+        assert!((g - w).abs() < 1e-12, "{a:?}");
+    }
+    let total = v["points"][0]["absorptance"].as_f64().unwrap();
+    assert!((a.iter().sum::<f64>() - total).abs() < 1e-12);
+    expect_usage_error(&["film", "--layers", "n=1.5:20000", "--wavelength", "1", "--per-layer"], "--per-layer");
+    expect_usage_error(&["film", "--wavelength", "1", "--per-layer", "--polarization", "s"], "--polarization");
+}

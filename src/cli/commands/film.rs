@@ -12,7 +12,7 @@ use crate::cli::shared::options::radiator_options;
 use crate::cli::shared::output::print_json;
 use crate::cli::shared::output::{print_radiator, warn};
 use crate::cli::shared::{Command, Failure, Out};
-use crate::physics::film::{coherent, coherent_mean, hemispherical, Polarization, Response};
+use crate::physics::film::{coherent, coherent_mean, hemispherical, layer_absorptance, Polarization, Response};
 use crate::physics::materials::BUILTINS;
 use crate::physics::radiator::evaluate;
 use crate::report::radiator::RadiatorReport;
@@ -49,7 +49,7 @@ pub const COMMAND: Command = Command {
             "ambient",
             "hc",
         ],
-        flags: &["hemispherical", "json", "csv", "materials"],
+        flags: &["hemispherical", "per-layer", "json", "csv", "materials"],
         max_positional: 0,
     },
     about: "a layer stack's reflectance, transmittance and absorptance (thin-film optics)",
@@ -95,6 +95,12 @@ pub const COMMAND: Command = Command {
                    \"hemispherical_transmittance\", \"hemispherical_absorptance\"",
         },
         OptionDoc { name: "csv", arg: "", text: "print CSV with a header line" },
+        OptionDoc {
+            name: "per-layer",
+            arg: "",
+            text: "also each layer's absorptance (unpolarized, coherent stacks):\n\
+                   JSON \"layer_absorptance\", CSV and text columns A1, A2, ...",
+        },
         OptionDoc {
             name: "optimize",
             arg: "TARGET",
@@ -142,6 +148,8 @@ struct Point {
     hemispherical_transmittance: Option<f64>,
     #[serde(skip_serializing_if = "Option::is_none")]
     hemispherical_absorptance: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    layer_absorptance: Option<Vec<f64>>,
 }
 
 #[derive(Serialize)]
@@ -202,6 +210,17 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     };
     let wavelengths = wavelengths(&p)?;
     let hemi = p.flag("hemispherical");
+    let per_layer = p.flag("per-layer");
+    if per_layer && pol.is_some() {
+        return Err(Failure::Usage(
+            "--per-layer gives unpolarized values; remove --polarization or set it to mean".into(),
+        ));
+    }
+    if per_layer && inputs.layers.iter().any(|l| l.2) {
+        return Err(Failure::Usage(
+            "--per-layer needs a coherent stack; mark thick layers :coherent or leave out --per-layer".into(),
+        ));
+    }
     let mut points = Vec::with_capacity(wavelengths.len());
     for &l_um in &wavelengths {
         let (n0, st, sub) =
@@ -220,6 +239,7 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
             hemispherical_reflectance: h.map(|h| h.reflectance),
             hemispherical_transmittance: h.map(|h| h.transmittance),
             hemispherical_absorptance: h.map(|h| h.absorptance),
+            layer_absorptance: per_layer.then(|| layer_absorptance(n0, &st, sub, l_um * 1e-6, th)),
         });
     }
     if p.flag("json") {
@@ -229,10 +249,13 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     if csv {
         let extra =
             if hemi { ",hemispherical_reflectance,hemispherical_transmittance,hemispherical_absorptance" } else { "" };
-        writeln!(out, "wavelength_um,reflectance,transmittance,absorptance{extra}")?;
+        let layers: String = (1..=inputs.layers.len()).filter(|_| per_layer).map(|i| format!(",A{i}")).collect();
+        writeln!(out, "wavelength_um,reflectance,transmittance,absorptance{extra}{layers}")?;
     } else {
         let extra = if hemi { "   hemi R     hemi T     hemi A" } else { "" };
-        writeln!(out, "{:>14} {:>10} {:>10} {:>10}{extra}", "wavelength um", "R", "T", "A")?;
+        let layers: String =
+            (1..=inputs.layers.len()).filter(|_| per_layer).map(|i| format!(" {:>10}", format!("A{i}"))).collect();
+        writeln!(out, "{:>14} {:>10} {:>10} {:>10}{extra}{layers}", "wavelength um", "R", "T", "A")?;
     }
     for pt in &points {
         if csv {
@@ -241,6 +264,9 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
                 (pt.hemispherical_reflectance, pt.hemispherical_transmittance, pt.hemispherical_absorptance)
             {
                 line += &format!(",{a},{b},{c}");
+            }
+            for a in pt.layer_absorptance.iter().flatten() {
+                line += &format!(",{a}");
             }
             writeln!(out, "{line}")?;
         } else {
@@ -252,6 +278,9 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
                 (pt.hemispherical_reflectance, pt.hemispherical_transmittance, pt.hemispherical_absorptance)
             {
                 line += &format!(" {a:>10.6} {b:>10.6} {c:>10.6}");
+            }
+            for a in pt.layer_absorptance.iter().flatten() {
+                line += &format!(" {a:>10.6}");
             }
             writeln!(out, "{line}")?;
         }
