@@ -512,6 +512,31 @@ mod tests {
     }
 
     #[test]
+    fn transmittance_is_reciprocal_and_absorption_is_not() {
+        // Reciprocity (e.g. Born & Wolf, Principles of Optics, on Stokes' relations; for
+        // absorbing stacks Macleod, Thin-Film Optical Filters, ch. 2): between equal media a
+        // stack transmits the same from either side at the same angle, even when it absorbs;
+        // its reflectance (and so its absorptance) may differ between the two sides.
+        let l = [layer(2.0, 0.1, 120.0), layer(1.46, 0.0, 200.0), layer(3.5, 0.5, 30.0)];
+        let rev: Vec<Layer> = l.iter().rev().copied().collect();
+        let mut r_differs = false;
+        for deg in [0.0, 25.0, 55.0, 80.0] {
+            for pol in [Polarization::S, Polarization::P] {
+                let th = f64::to_radians(deg);
+                let a = coherent(1.5, &l, Complex::real(1.5), 600e-9, th, pol);
+                let b = coherent(1.5, &rev, Complex::real(1.5), 600e-9, th, pol);
+                assert!((a.transmittance - b.transmittance).abs() < 1e-14, "{deg} {pol:?}: {a:?} {b:?}");
+                r_differs |= (a.reflectance - b.reflectance).abs() > 1e-3;
+            }
+        }
+        assert!(r_differs);
+        // and the per-layer shares add up to the stack's absorptance
+        let parts = layer_absorptance(1.0, &l, Complex::real(1.5), 600e-9, 0.7);
+        let total = coherent_mean(1.0, &l, Complex::real(1.5), 600e-9, 0.7).absorptance;
+        assert!((parts.iter().sum::<f64>() - total).abs() < 1e-14);
+    }
+
+    #[test]
     fn quarter_wave_mirror_matches_macleods_formula() {
         // (HL)^N H at its design wavelength, normal incidence (Macleod, Thin-Film Optical
         // Filters): R = ((1 - (nH/nL)^(2N) nH^2/ns) / (1 + (nH/nL)^(2N) nH^2/ns))^2, n0 = 1
