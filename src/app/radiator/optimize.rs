@@ -18,6 +18,7 @@ use super::optimize_worker::{FilmJob, FilmReply};
 use super::RadiatorState;
 use crate::app::state::{mark, sentence};
 use crate::app::widgets::worker::{Background, WorkerReply};
+use crate::report::radiator::RadiatorMetric;
 use crate::scenario::film::{LayerSpec, MaterialSpec};
 use crate::scenario::radiator::{EmitterSpec, FilmGoal, RadiatorScenario, SEARCH_MAX_THICKNESS_NM};
 use crate::view::controls::Control;
@@ -135,6 +136,8 @@ struct Started {
     id: u64,
     radiator: RadiatorScenario,
     goal: FilmGoal,
+    /// [nm]
+    max_nm: f64,
 }
 
 struct Runner {
@@ -238,9 +241,20 @@ fn on_message(rad: RadiatorState, m: WorkerReply) {
 /// The search value in words, with its unit.
 fn value_words(goal: &FilmGoal, v: f64) -> String {
     match goal {
-        FilmGoal::NetPower => format!("net cooling power at ambient {} W/m²", fixed(v, 1)),
-        FilmGoal::Steady => format!("steady temperature {} K", fixed(v, 1)),
-        FilmGoal::Spectrum { .. } => format!("rms emissivity difference {}", fixed(v, 4)),
+        FilmGoal::NetPower => format!("net cooling power at ambient {}", value_short(goal, v)),
+        FilmGoal::Steady => format!("steady temperature {}", value_short(goal, v)),
+        FilmGoal::Spectrum { profile } => {
+            format!("rms emissivity difference from {} {}", profile.label(), value_short(goal, v))
+        }
+    }
+}
+
+/// The search value with its unit only.
+fn value_short(goal: &FilmGoal, v: f64) -> String {
+    match goal {
+        FilmGoal::NetPower => format!("{} W/m²", fixed(v, 1)),
+        FilmGoal::Steady => format!("{} K", fixed(v, 1)),
+        FilmGoal::Spectrum { .. } => fixed(v, 4),
     }
 }
 
@@ -292,10 +306,16 @@ fn apply(rad: RadiatorState, job: Started, r: FilmReply, elapsed: f64) {
         .zip(&found)
         .map(|(a, b)| FoundRow { material: a.material.text(), before_nm: a.thickness_nm, after_nm: b.thickness_nm })
         .collect();
+    let at_bound = found.iter().filter(|l| l.thickness_nm >= job.max_nm - 0.005).count();
+    let bound = match at_bound {
+        0 => String::new(),
+        1 => " One layer reached the largest thickness; a larger one may do better.".into(),
+        n => format!(" {n} layers reached the largest thickness; a larger one may do better."),
+    };
     let summary = format!(
-        "Applied. On the search's grid: {} (the previous stack had {}). {} of {} layers searched; {} stacks evaluated in {}.",
+        "Applied. On the search's coarse grid: {} ({} before). {} of {} layers searched; {} stacks evaluated in {}.{bound}",
         value_words(&job.goal, r.value),
-        value_words(&job.goal, r.start_value),
+        value_short(&job.goal, r.start_value),
         r.variables,
         layers.len(),
         thousands(r.evaluations as f64),
@@ -408,7 +428,7 @@ pub fn start(rad: RadiatorState) {
     let posted = RUNNER.with(|r| {
         let mut r = r.borrow_mut();
         let r = r.as_mut()?;
-        r.job = Some(Started { id, radiator: s.radiator.clone(), goal });
+        r.job = Some(Started { id, radiator: s.radiator.clone(), goal, max_nm });
         Some(r.worker.post(id, "glowgap_film_search", &job_text, ""))
     });
     if posted != Some(true) {
@@ -524,6 +544,21 @@ pub fn optimize_group(rad: RadiatorState) -> impl IntoView {
         SearchState::Failed(t) => Some(t),
         _ => ctx.error_of(Control::FilmOptimize),
     };
+    // the full evaluation of the layers applied, while they are the stack shown
+    let full = move || {
+        let applied = opt.revert.with(|r| r.as_ref().map(|(_, a)| a.clone()))?;
+        rad.computed.with(|c| {
+            let c = c.as_ref()?;
+            let same = matches!(&c.scenario.emitter, EmitterSpec::Film { layers, .. } if *layers == applied);
+            same.then(|| {
+                format!(
+                    "Full evaluation of the layers applied (the figures at the top): net cooling power {}, steady temperature {}.",
+                    c.report.display(RadiatorMetric::NetPower),
+                    c.report.display(RadiatorMetric::SteadyTemp)
+                )
+            })
+        })
+    };
     let result = move || {
         outcome().map(|o| {
             let rows = o
@@ -552,6 +587,7 @@ pub fn optimize_group(rad: RadiatorState) -> impl IntoView {
                     aria-live="polite"
                 >
                     <p>{o.summary.clone()}</p>
+                    <p data-info="film-optimize-full">{full}</p>
                     <table class="film-found-table">
                         <caption class="visually-hidden">"Layers found by the thickness search"</caption>
                         <thead><tr><th scope="col">"#"</th><th scope="col">"Material"</th><th scope="col">"Before (nm)"</th><th scope="col">"Found (nm)"</th></tr></thead>
