@@ -142,7 +142,7 @@ test('optimize thicknesses: cancel leaves the stack, bad settings are named', as
   await page.locator('[data-action="film-optimize"]').click();
   assert.ok(await page.locator('[data-progress="film-optimize"]').isHidden());
   await max.fill('50000');
-  assert.match(await page.locator('[data-error="film-max-thickness"]').innerText(), /^Largest thickness: .*out of range.*1 to 20000 nm/);
+  assert.match(await page.locator('[data-error="film-max-thickness"]').innerText(), /^The largest thickness 50000 nm is out of range.*1 to 20000 nm/);
 
   // a bad target emissivity: named under its field
   await page.locator('[data-control="film-target"]').selectOption('spectrum');

@@ -366,8 +366,8 @@ fn parse_max(text: &str) -> Result<f64, String> {
             field(hi, 6)
         ));
     };
-    crate::scenario::check_range("largest thickness", v, lo, hi, "nm", "e.g. 2000")
-        .map_err(|e| format!("Largest thickness: {}", sentence(&e)))?;
+    // the scenario's message names the field ("The largest thickness ... nm is out of range")
+    crate::scenario::check_range("largest thickness", v, lo, hi, "nm", "e.g. 2000").map_err(|e| sentence(&e))?;
     Ok(v)
 }
 
@@ -612,7 +612,7 @@ pub fn optimize_group(rad: RadiatorState) -> impl IntoView {
                     <select id=target_id data-control=Control::FilmTarget.as_str() on:change=on_target disabled=running>
                         {option(TargetKind::NetPower, "highest net cooling power at ambient (W/m²)")}
                         {option(TargetKind::Steady, "lowest steady temperature (K)")}
-                        {option(TargetKind::Spectrum, "match a target emissivity (normal incidence)")}
+                        {option(TargetKind::Spectrum, "match a target emissivity")}
                     </select>
                 </div>
                 <div class="field" class:has-error=move || profile_error().is_some() hidden=move || !spectrum()>
@@ -631,7 +631,7 @@ pub fn optimize_group(rad: RadiatorState) -> impl IntoView {
                         />
                         <span class="unit">"µm, 0-1"</span>
                     </div>
-                    <p class="hint" id=format!("h-{}", Control::FilmTargetProfile)>"e.g. window:8-13 (1 from 8 to 13 µm, 0 elsewhere; add ,in=0.95,out=0.05), grey:0.9, or points:0.3=0.05,8=0.95 (µm=emissivity)."</p>
+                    <p class="hint" id=format!("h-{}", Control::FilmTargetProfile)>"Compared with the stack's emissivity at normal incidence. E.g. window:8-13 (1 from 8 to 13 µm, 0 elsewhere; add ,in=0.95,out=0.05), grey:0.9, or points:0.3=0.05,8=0.95 (µm=emissivity)."</p>
                     <p class="field-error" id=format!("e-{}", Control::FilmTargetProfile) data-error=Control::FilmTargetProfile.as_str() aria-live="polite">{profile_error}</p>
                 </div>
                 <div class="field" class:has-error=move || max_error().is_some()>
