@@ -103,6 +103,10 @@ controls! {
     FilmLayers => "film-layers",
     FilmSubstrate => "film-substrate",
     FilmStack => "film-stack",
+    FilmTarget => "film-target",
+    FilmTargetProfile => "film-target-profile",
+    FilmMaxThickness => "film-max-thickness",
+    FilmOptimize => "film-optimize",
 }
 
 impl std::fmt::Display for Control {

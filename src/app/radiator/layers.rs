@@ -8,7 +8,7 @@
 //! While an edge is dragged or a key held, the stack is a draft drawn on the coarse grids
 //! of [`crate::view::radiator::film`] and committed (with the balance evaluated) on release.
 //!
-//! Where the thickness optimizer will go: [`optimize_slot`].
+//! Under the table: the thickness search ([`super::optimize`]).
 
 use std::cell::Cell;
 use std::rc::Rc;
@@ -748,12 +748,6 @@ fn layer_row(rad: RadiatorState, i: usize, count: Memo<usize>) -> impl IntoView 
     }
 }
 
-/// Where the thickness optimizer's control will go (not built yet: the optimizer itself
-/// belongs to the physics and would run in the background worker).
-fn optimize_slot() -> impl IntoView {
-    view! { <div class="film-optimize" data-slot="optimize-thicknesses" hidden=true></div> }
-}
-
 /// The table of layers, the substrate and the note on what lies behind it.
 fn layer_table(rad: RadiatorState) -> impl IntoView {
     let ctx = rad.ctx;
@@ -816,10 +810,10 @@ fn layer_table(rad: RadiatorState) -> impl IntoView {
         <p class="hint" hidden=move || count.get() != 0>"No layers: the bare substrate faces the sky. Add a layer to start a stack."</p>
         <div class="points-actions">
             <button type="button" class="small" data-action="add-layer" on:click=add>"Add layer"</button>
-            {optimize_slot()}
         </div>
         <p class="hint substrate-note">{note}</p>
         <p class="hint">"Type a material's name (the list filters as you type) or a constant index: n=1.5 (lossless) or nk=2.1/0.05. Each built-in material is known over its range only; beyond it its index is held at the end values (the warnings above the figures say where)."</p>
+        {super::optimize::optimize_group(rad)}
     }
 }
 

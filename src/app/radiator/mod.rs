@@ -14,6 +14,8 @@
 //! * [`figures`]: headline figures and cautions; [`cards`]: the two read-only plots;
 //! * [`layers`]: the "Emitter: profile | layers" switch and the layer-stack editor (table,
 //!   bar diagram, reflectance/transmittance/absorptance and the emissivity map);
+//! * [`optimize`]: "Optimize thicknesses", the film thickness search under the layer table,
+//!   run in the background worker ([`optimize_worker`]);
 //! * [`plots`]: drawing; [`export`]: SVG, PNG and CSV files.
 
 pub mod cards;
@@ -23,6 +25,8 @@ pub mod export;
 pub mod figures;
 pub mod import;
 pub mod layers;
+pub mod optimize;
+pub mod optimize_worker;
 pub mod plots;
 pub mod state;
 

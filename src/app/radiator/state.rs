@@ -8,6 +8,7 @@ use std::sync::Arc;
 
 use leptos::prelude::*;
 
+use super::optimize::OptimizeState;
 use crate::app::state::Ctx;
 use crate::app::widgets::plot::Frame;
 use crate::scenario::film::{LayerSpec, MaterialSpec};
@@ -116,6 +117,8 @@ pub struct FilmState {
     pub saved_film: StoredValue<Option<(Vec<LayerSpec>, MaterialSpec)>>,
     /// the built-in materials with their sources and ranges
     pub materials: StoredValue<Arc<Vec<MaterialInfo>>>,
+    /// the thickness search: its settings, where it stands, the thicknesses to revert to
+    pub optimize: OptimizeState,
 }
 
 impl FilmState {
@@ -132,6 +135,7 @@ impl FilmState {
             saved_profile: StoredValue::new(None),
             saved_film: StoredValue::new(None),
             materials: StoredValue::new(Arc::new(builtin_materials())),
+            optimize: OptimizeState::new(),
         }
     }
 

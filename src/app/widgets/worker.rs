@@ -1,8 +1,8 @@
 //! Work off the page's main thread: a module worker made from a blob loads the page's own
 //! WebAssembly module once and, for each message, calls the entry point the message names
 //! (a `#[wasm_bindgen]` function `fn(job: &str, text: &str, progress: &Function) -> String`),
-//! posting progress and the answer back. The gap search and the reading of long data files
-//! use it, so the page keeps drawing while they run.
+//! posting progress and the answer back. The gap search, the film thickness search and the
+//! reading of long data files use it, so the page keeps drawing while they run.
 //!
 //! Architecture invariant: one worker script and one message format for every kind of
 //! background job; what a job computes is the view's or the physics' own code.
