@@ -15,6 +15,7 @@ pub mod planck;
 pub mod radiator;
 pub mod search;
 pub mod solar_thermal;
+pub mod silicon;
 pub mod sources;
 pub mod special;
 pub mod spectrum;
