@@ -10,6 +10,7 @@ use serde::{Deserialize, Serialize};
 pub mod blackbody;
 pub mod hot;
 pub mod radiator;
+pub mod real;
 pub mod stack;
 
 /// `x` with `decimals` decimals, without the minus sign of a value that rounds to zero

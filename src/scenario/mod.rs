@@ -19,6 +19,7 @@ mod choices;
 pub mod film;
 pub mod hot;
 pub mod radiator;
+pub mod real;
 pub mod stack;
 
 pub use choices::{Axis, Connection, Emission, FixAt, JvModel, Quantity};
