@@ -188,7 +188,7 @@ pub struct RealCellResult {
 
 /// The cell of absorber `abs` under `light` at `temp_k` [K] with `doping`; Auger
 /// recombination of silicon when `auger`. The maximum power point of J(V) (module docs):
-/// Voc by bisection, then golden section on V J(V), both to 1e-12 V.
+/// Voc by bisection, then golden section on V J(V) (`special::golden_max`), both to 1e-12 V.
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn solve_real(
     light: &Illumination,
@@ -242,27 +242,7 @@ pub fn solve_real(
         }
     }
     let voc = 0.5 * (lo + hi);
-    let power = |v: f64| v * current(v);
-    let g = 0.5 * (5f64.sqrt() - 1.0);
-    let (mut a_, mut b_) = (0.0, voc);
-    let (mut c, mut d) = (b_ - g * (b_ - a_), a_ + g * (b_ - a_));
-    let (mut fc, mut fd) = (power(c), power(d));
-    while b_ - a_ > 1e-12 {
-        if fc > fd {
-            b_ = d;
-            d = c;
-            fd = fc;
-            c = b_ - g * (b_ - a_);
-            fc = power(c);
-        } else {
-            a_ = c;
-            c = d;
-            fc = fd;
-            d = a_ + g * (b_ - a_);
-            fd = power(d);
-        }
-    }
-    let vmp = 0.5 * (a_ + b_);
+    let (vmp, _) = super::special::golden_max(|v: f64| v * current(v), |p| *p, 0.0, voc, 1e-12);
     let jmp = current(vmp);
     let (r, au) = parts(vmp);
     let input = light.input_power();

@@ -10,6 +10,7 @@ use crate::cli::shared::options::{apply_common, with_light_and_cell_options};
 use crate::cli::shared::output::{print_cell, print_json, warn, write_absorber_cell};
 use crate::cli::shared::{Command, Failure, Out};
 use crate::physics::silicon::{solve_real, RealAbsorber};
+use crate::physics::special::golden_max;
 use crate::report::real::{RealCellReport, ThicknessPoint};
 use crate::scenario::film::MaterialSpec;
 use crate::scenario::real::{DopingType, RealAbsorberSpec, RealMaterial, TrappingSpec};
@@ -244,18 +245,10 @@ fn cell_real(p: &Parsed, sc: CellScenario, text: &str, out: Out) -> Result<(), F
         }
         // the best point, refined by golden section in ln(thickness) between its neighbours
         let i = (0..n).max_by(|&x, &y| points[x].efficiency.total_cmp(&points[y].efficiency)).unwrap_or(0);
-        let (mut lo, mut hi) = (ts[i.saturating_sub(1)].ln(), ts[(i + 1).min(n - 1)].ln());
+        let (lo, hi) = (ts[i.saturating_sub(1)].ln(), ts[(i + 1).min(n - 1)].ln());
         let eff = |lt: f64| spec.with_thickness(lt.exp()).map(|(ab, _)| solve(&ab).efficiency).unwrap_or(0.0);
-        let g = 0.5 * (5f64.sqrt() - 1.0);
-        while hi - lo > 1e-6 {
-            let (c, d) = (hi - g * (hi - lo), lo + g * (hi - lo));
-            if eff(c) > eff(d) {
-                hi = d;
-            } else {
-                lo = c;
-            }
-        }
-        let best_t = (0.5 * (lo + hi)).exp();
+        let (best_ln, _) = golden_max(eff, |e| *e, lo, hi, 1e-6);
+        let best_t = best_ln.exp();
         let (ab, _) = spec.with_thickness(best_t).map_err(|e| format!("--thickness-sweep: {e}"))?;
         let best = RealCellReport::new(&solve(&ab), edge, best_t, auger, spec.trapping.label(), input);
         if p.flag("json") {

@@ -325,10 +325,10 @@ impl Design {
 }
 
 /// The steady temperature [K] of a net power `net(T)` that increases with T: found in
-/// [1, 3000] K by bisection with false-position steps; the nearer end when there is no root.
+/// [1, 3000] K by bisection to 1e-4 K; the nearer end when there is no root.
 fn steady(net: &dyn Fn(f64) -> f64) -> f64 {
     let (mut a, mut b) = (1.0, 3000.0);
-    let (mut fa, fb) = (net(a), net(b));
+    let (fa, fb) = (net(a), net(b));
     if fa >= 0.0 {
         return a;
     }
@@ -340,7 +340,6 @@ fn steady(net: &dyn Fn(f64) -> f64) -> f64 {
         let fc = net(c);
         if fc < 0.0 {
             a = c;
-            fa = fc;
         } else {
             b = c;
         }
@@ -348,7 +347,6 @@ fn steady(net: &dyn Fn(f64) -> f64) -> f64 {
             break;
         }
     }
-    let _ = fa;
     0.5 * (a + b)
 }
 
