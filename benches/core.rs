@@ -181,6 +181,7 @@ fn stack_map(rounds: usize) {
         fixed: None,
         range_j: (ev(SEARCH_RANGE_EV.0), ev(SEARCH_RANGE_EV.1)),
         seeds: vec![],
+        extras: Default::default(),
     };
     let best = optimize(&p);
     let opt = median_per_call(rounds.min(5), 1, || {

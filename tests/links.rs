@@ -108,6 +108,8 @@ fn page_scenarios() -> Vec<(&'static str, Scenario)> {
                 reference_eqe: Some(eqe_nm("reference cell", &[300.0, 600.0, 1000.0, 1150.0], &[0.5, 0.92, 0.85, 0.0])),
                 reference_spectrum: SourceSpec::Am15d,
             },
+            bottom: None,
+            luminescent_coupling: 0.0,
         },
         hot: HotScenario::default(),
     };
@@ -178,6 +180,8 @@ fn page_scenarios() -> Vec<(&'static str, Scenario)> {
                 eqe: vec![0.0, 0.5, 0.9, 0.95, 0.8],
             }),
             mismatch: MismatchSettings::default(),
+            bottom: None,
+            luminescent_coupling: 0.0,
         },
         hot: HotScenario::default(),
     };
@@ -196,6 +200,8 @@ fn page_scenarios() -> Vec<(&'static str, Scenario)> {
             map: MapSettings { top_from_ev: 1.0, top_to_ev: 3.0, bottom_from_ev: 0.3, bottom_to_ev: 1.9, points: 500 },
             absorber: AbsorberSpec::Step,
             mismatch: MismatchSettings::default(),
+            bottom: None,
+            luminescent_coupling: 0.0,
         },
         ..Scenario::default()
     };

@@ -55,6 +55,7 @@ fn problem(light: &Illumination, connection: Connection, junctions: usize) -> Pr
         fixed: None,
         range_j: (ev(SEARCH_RANGE_EV.0), ev(SEARCH_RANGE_EV.1)),
         seeds: vec![],
+        extras: Default::default(),
     }
 }
 

@@ -35,6 +35,7 @@ fn observed_search_finds_the_same_optimum_and_reports_progress() {
             fixed: None,
             range_j: (ev(0.5), ev(2.5)),
             seeds: vec![vec![ev(1.7), ev(1.1), ev(0.7)][..n].to_vec()],
+            extras: Default::default(),
         };
         let plain = optimize(&p);
         let mut seen = Vec::new();
@@ -121,6 +122,7 @@ fn refining_the_best_points_of_the_map_finds_the_scipy_optimum() {
             fixed: None,
             range_j: (bottoms[0], tops[tops.len() - 1]),
             seeds: vec![],
+            extras: Default::default(),
         };
         let polished: Vec<_> = maxima.iter().take(POLISHED_STARTS).map(|(x, _)| refine(&p, x, step)).collect();
         for (o, (_, e)) in polished.iter().zip(&maxima) {
@@ -165,6 +167,7 @@ fn refine_refuses_what_it_cannot_use() {
         fixed: None,
         range_j: (ev(0.5), ev(2.5)),
         seeds: vec![],
+        extras: Default::default(),
     };
     // the wrong number of free gaps, a non-finite start, an empty range: an empty answer
     assert!(refine(&p, &[ev(1.7)], ev(0.01)).gaps_j.is_empty());

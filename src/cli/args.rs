@@ -119,6 +119,8 @@ fn example_for(name: &str) -> &'static str {
         "emission" => "front",
         "approx" => "exact",
         "temp" => "1500",
+        "luminescent-coupling" => "0.3",
+        "doping" => "1e15",
         _ => "VALUE",
     }
 }

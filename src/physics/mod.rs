@@ -13,6 +13,7 @@ pub mod mismatch;
 pub mod order;
 pub mod planck;
 pub mod radiator;
+pub mod real_cell;
 pub mod search;
 pub mod silicon;
 pub mod solar_thermal;

@@ -57,3 +57,15 @@ pub struct ThicknessPoint {
     pub jsc_ma_cm2: f64,
     pub voc_v: f64,
 }
+
+impl ThicknessPoint {
+    /// The point of thickness `thickness_um` [um] with result `r`.
+    pub fn new(thickness_um: f64, r: &RealCellResult) -> ThicknessPoint {
+        ThicknessPoint {
+            thickness_um,
+            efficiency: r.efficiency,
+            jsc_ma_cm2: r.jsc / A_PER_M2_PER_MA_PER_CM2,
+            voc_v: r.voc,
+        }
+    }
+}

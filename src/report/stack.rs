@@ -49,6 +49,41 @@ pub struct StackReport {
     pub limiting_subcell: Option<usize>,
     /// top first
     pub subcells: Vec<SubcellReport>,
+    /// the real absorber of the bottom subcell, if it is one
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub bottom: Option<BottomReport>,
+    /// fraction of each subcell's radiative emission absorbed by the one below (shown when
+    /// above 0)
+    #[serde(skip_serializing_if = "is_zero")]
+    pub luminescent_coupling: f64,
+}
+
+fn is_zero(x: &f64) -> bool {
+    *x == 0.0
+}
+
+/// The real absorber under a stack.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct BottomReport {
+    pub absorber: String,
+    pub thickness_um: f64,
+    pub light_trapping: String,
+    /// true when Auger recombination is included (silicon)
+    pub auger_limited: bool,
+}
+
+impl StackReport {
+    /// This report with the stack scenario's real bottom cell and luminescent coupling.
+    pub fn with_extras(mut self, st: &crate::scenario::stack::StackScenario) -> StackReport {
+        self.bottom = st.bottom.as_ref().map(|b| BottomReport {
+            absorber: b.material_name(),
+            thickness_um: b.thickness_um,
+            light_trapping: b.trapping.label().to_string(),
+            auger_limited: b.auger_limited(),
+        });
+        self.luminescent_coupling = st.luminescent_coupling;
+        self
+    }
 }
 
 impl From<&StackResult> for StackReport {
@@ -76,6 +111,8 @@ impl From<&StackResult> for StackReport {
                     excess_jsc_ma_cm2: ma(s.excess_jsc),
                 })
                 .collect(),
+            bottom: None,
+            luminescent_coupling: 0.0,
         }
     }
 }
@@ -197,7 +234,8 @@ impl OptimumReport {
         stack: &StackResult,
     ) -> OptimumReport {
         OptimumReport {
-            junctions: o.gaps_j.len(),
+            // a real bottom cell is a junction too, without a gap of its own in `gaps_ev`
+            junctions: o.gaps_j.len().max(stack.subcells.len()),
             connection: connection.into(),
             gaps_ev: o.gaps_j.iter().map(|&g| to_ev(g)).collect(),
             efficiency: o.efficiency,
@@ -303,6 +341,8 @@ pub enum AbsorberKind {
     Urbach,
     /// a measured EQE table
     Measured,
+    /// a real absorber (silicon or an alpha / n,k table)
+    Real,
 }
 
 impl AbsorberKind {
@@ -313,6 +353,7 @@ impl AbsorberKind {
             AbsorberSpec::Step => AbsorberKind::Step,
             AbsorberSpec::Urbach { .. } => AbsorberKind::Urbach,
             AbsorberSpec::Measured(_) => AbsorberKind::Measured,
+            AbsorberSpec::Real(_) => AbsorberKind::Real,
         }
     }
 }

@@ -4,11 +4,17 @@
 //! Architecture invariant: holds what the user chose and nothing computed; every accepted
 //! range of a real absorber's settings lives here.
 
+use crate::physics::junction::Illumination;
+use crate::physics::real_cell::RealCellModel;
 use crate::physics::silicon::{Doping, RealAbsorber, Trapping};
+use crate::physics::stack::mixed::RealBottom;
 use serde::{Deserialize, Serialize};
+use std::sync::Arc;
 
 /// Accepted absorber thicknesses [um].
 pub const THICKNESS_RANGE_UM: (f64, f64) = (0.01, 100_000.0);
+/// Accepted thickness-sweep points.
+pub const SWEEP_POINTS: (usize, usize) = (2, 10_000);
 /// Accepted doping densities [cm^-3].
 pub const DOPING_RANGE_CM3: (f64, f64) = (0.0, 1e20);
 
@@ -111,6 +117,15 @@ impl RealAbsorberSpec {
         matches!(self.material, RealMaterial::Silicon)
     }
 
+    /// The material's name: `silicon`, or the table's name or path.
+    pub fn material_name(&self) -> String {
+        match &self.material {
+            RealMaterial::Silicon => "silicon".into(),
+            RealMaterial::Table { name, .. } => name.clone(),
+            RealMaterial::File { path } => path.clone(),
+        }
+    }
+
     /// A short description.
     pub fn label(&self) -> String {
         let m = match &self.material {
@@ -174,4 +189,50 @@ impl RealAbsorberSpec {
         };
         Ok((abs, doping))
     }
+}
+
+/// A real absorber ready to solve at any thickness: the model under one light and cell
+/// temperature, and the chosen thickness and trapping.
+#[derive(Debug, Clone)]
+pub struct RealSetup {
+    pub model: Arc<RealCellModel>,
+    /// [m]
+    pub thickness_m: f64,
+    pub trapping: Trapping,
+    /// Auger recombination included (silicon)
+    pub auger: bool,
+}
+
+impl RealSetup {
+    /// The bottom subcell of a stack.
+    pub fn bottom(&self) -> RealBottom {
+        RealBottom { model: self.model.clone(), thickness_m: self.thickness_m, trapping: self.trapping }
+    }
+}
+
+impl RealAbsorberSpec {
+    /// Check every setting and build the model under `light` at `cell_temp_k` [K].
+    pub fn setup(&self, light: &Illumination, cell_temp_k: f64) -> Result<RealSetup, String> {
+        let (abs, doping) = self.to_physics()?;
+        let auger = self.auger_limited();
+        let model = RealCellModel::new(&abs, light, cell_temp_k, doping, auger);
+        Ok(RealSetup { model: Arc::new(model), thickness_m: abs.thickness_m, trapping: abs.trapping, auger })
+    }
+}
+
+/// Check a thickness sweep FROM to TO um with N points (log-spaced); returns the
+/// thicknesses [um].
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
+pub fn thickness_sweep(from_um: f64, to_um: f64, points: usize) -> Result<Vec<f64>, String> {
+    let (lo, hi) = THICKNESS_RANGE_UM;
+    let (nlo, nhi) = SWEEP_POINTS;
+    if !(from_um >= lo && to_um <= hi && from_um < to_um) {
+        return Err(format!(
+            "the thickness range {from_um}-{to_um} um is not usable; give two thicknesses from {lo} to {hi} um, the thinner first"
+        ));
+    }
+    if !(nlo..=nhi).contains(&points) {
+        return Err(format!("the thickness sweep needs {nlo} to {nhi} points, {points} given"));
+    }
+    Ok((0..points).map(|i| from_um * (to_um / from_um).powf(i as f64 / (points - 1) as f64)).collect())
 }

@@ -8,14 +8,17 @@
 //! fractions); [`StackScenario::to_physics`] and its siblings check every value once and say
 //! what is accepted.
 
+use super::real::RealAbsorberSpec;
 use super::{
     check_gap_ev, check_gap_range, check_gap_setting, Axis, CellScenario, CellSetup, Connection, FixAt, SourceSpec,
 };
 use crate::physics::absorber::{Absorptance, AbsorptanceTable};
+use crate::physics::constants::to_ev;
 use crate::physics::constants::{ev, thermal_energy};
 use crate::physics::junction::{Cell, Illumination};
+use crate::physics::stack::mixed::{solve_mixed, StackExtras};
 use crate::physics::stack::optimize::{FixedGap, Problem, SEARCH_RANGE_EV};
-use crate::physics::stack::{Connection as PhysicsConnection, MAX_JUNCTIONS};
+use crate::physics::stack::{solve_stack, Connection as PhysicsConnection, StackResult, MAX_JUNCTIONS};
 use serde::{Deserialize, Serialize};
 use std::sync::Arc;
 
@@ -31,6 +34,12 @@ pub struct StackScenario {
     /// the single cell's absorptance; a step at the cell's gap by default
     pub absorber: AbsorberSpec,
     pub mismatch: MismatchSettings,
+    /// a real absorber (e.g. silicon) as the bottom subcell, under the gaps of `gaps_ev`;
+    /// none by default (every subcell a step)
+    pub bottom: Option<RealAbsorberSpec>,
+    /// the fraction of each subcell's radiative emission absorbed by the subcell below it,
+    /// 0 (none, the default) to 1
+    pub luminescent_coupling: f64,
 }
 
 impl Default for StackScenario {
@@ -42,6 +51,8 @@ impl Default for StackScenario {
             map: MapSettings::default(),
             absorber: AbsorberSpec::Step,
             mismatch: MismatchSettings::default(),
+            bottom: None,
+            luminescent_coupling: 0.0,
         }
     }
 }
@@ -138,6 +149,9 @@ pub enum AbsorberSpec {
     Urbach { urbach_mev: f64 },
     /// a measured EQE
     Measured(EqeTableSpec),
+    /// a real absorber (silicon or an alpha / n,k table) of a given thickness; its table,
+    /// not the cell's band gap, sets the absorption
+    Real(RealAbsorberSpec),
 }
 
 impl AbsorberSpec {
@@ -167,6 +181,10 @@ impl AbsorberSpec {
                 Ok(Absorptance::Urbach { gap_j: ev(gap_ev), urbach_j: ev(urbach_mev * 1e-3) })
             }
             AbsorberSpec::Measured(t) => Ok(Absorptance::Table(t.to_table()?)),
+            AbsorberSpec::Real(r) => {
+                let (abs, _) = r.to_physics()?;
+                abs.absorptance().ok_or_else(|| "the absorber's table has fewer than two rows".to_string())
+            }
         }
     }
 }
@@ -198,20 +216,48 @@ pub struct StackSetup {
     /// [J], top first
     pub gaps_j: Vec<f64>,
     pub connection: PhysicsConnection,
+    /// a real bottom cell and luminescent coupling, if any
+    pub extras: StackExtras,
     pub warnings: Vec<String>,
+}
+
+impl StackSetup {
+    /// Solve the stack (the plain step-cell solver when there are no extras).
+    pub fn solve(&self) -> StackResult {
+        if self.extras.is_plain() {
+            solve_stack(&self.light, &self.cell, &self.gaps_j, self.connection)
+        } else {
+            solve_mixed(&self.light, &self.cell, &self.gaps_j, &self.extras, self.connection)
+        }
+    }
 }
 
 /// Check a list of gaps [eV] given top first: 2 to 6 of them, each in the accepted range,
 /// strictly descending. Returns them in J.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
 pub fn check_gaps(gaps_ev: &[f64]) -> Result<Vec<f64>, String> {
-    let example = "e.g. 1.8,1.1 (top cell first)";
-    if gaps_ev.len() < 2 || gaps_ev.len() > MAX_JUNCTIONS {
+    check_gaps_over(gaps_ev, false)
+}
+
+/// [`check_gaps`] for the step subcells over a real bottom cell when `real_bottom`: then 1
+/// to 5 gaps (the bottom cell is the last junction).
+#[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
+pub fn check_gaps_over(gaps_ev: &[f64], real_bottom: bool) -> Result<Vec<f64>, String> {
+    if real_bottom {
+        if gaps_ev.is_empty() || gaps_ev.len() >= MAX_JUNCTIONS {
+            return Err(format!(
+                "a stack on a real bottom cell needs 1 to {} band gaps above it, {} given; give them top first, \
+                 e.g. 1.71,silicon:300",
+                MAX_JUNCTIONS - 1,
+                gaps_ev.len()
+            ));
+        }
+    } else if gaps_ev.len() < 2 || gaps_ev.len() > MAX_JUNCTIONS {
         return Err(format!(
-            "a stack needs 2 to {MAX_JUNCTIONS} band gaps, {} given; give them top first, {example}",
+            "a stack needs 2 to {MAX_JUNCTIONS} band gaps, {} given; give them top first, e.g. 1.8,1.1 (top cell first)",
             gaps_ev.len()
         ));
     }
+    let example = "e.g. 1.8,1.1 (top cell first)";
     for (i, g) in gaps_ev.iter().enumerate() {
         check_gap_ev(*g).map_err(|e| format!("subcell {}: {e}", i + 1))?;
     }
@@ -235,9 +281,10 @@ impl StackScenario {
     /// optimizer's settings, the map's axes, the single cell's absorptance and any mismatch
     /// inputs. Returns the warnings worth showing.
     pub fn check(&self, cell: &CellScenario) -> Result<Vec<String>, String> {
-        check_gaps(&self.gaps_ev)?;
+        check_gaps_over(&self.gaps_ev, self.bottom.is_some())?;
         self.optimize.check()?;
         self.map.check()?;
+        self.check_extras()?;
         let mut warnings = Vec::new();
         self.absorber.to_physics(cell.gap_ev, cell.cell_temp_k, &mut warnings)?;
         self.mismatch.check()?;
@@ -246,10 +293,58 @@ impl StackScenario {
 
     /// Check the stack and build its physics inputs under the cell panel's light and cell.
     pub fn to_physics(&self, cell: &CellScenario) -> Result<StackSetup, String> {
-        let gaps_j = check_gaps(&self.gaps_ev)?;
-        let CellSetup { light, cell, warnings } = cell.to_physics()?;
-        Ok(StackSetup { light, cell, gaps_j, connection: self.connection.into(), warnings })
+        let gaps_j = check_gaps_over(&self.gaps_ev, self.bottom.is_some())?;
+        let CellSetup { light, cell, mut warnings } = cell.to_physics()?;
+        let extras = self.extras(&light, cell.temp_k)?;
+        if let Some(b) = &extras.bottom {
+            let edge = b.model.edge_j(b.thickness_m, b.trapping);
+            if gaps_j.last().is_some_and(|&g| g <= edge) {
+                warnings.push(format!(
+                    "the lowest band gap above the bottom cell is not above its absorption edge ({:.3} eV): the step \
+                     cell takes the light the bottom cell could use",
+                    to_ev(edge)
+                ));
+            }
+        }
+        Ok(StackSetup { light, cell, gaps_j, connection: self.connection.into(), extras, warnings })
     }
+
+    /// Check the real bottom cell's settings and the luminescent coupling.
+    pub fn check_extras(&self) -> Result<(), String> {
+        check_coupling(self.luminescent_coupling)?;
+        if let Some(b) = &self.bottom {
+            b.to_physics().map_err(|e| format!("bottom cell: {e}"))?;
+        }
+        Ok(())
+    }
+
+    /// The real bottom cell (its model under `light` at `cell_temp_k` [K]) and coupling.
+    pub fn extras(&self, light: &Illumination, cell_temp_k: f64) -> Result<StackExtras, String> {
+        check_coupling(self.luminescent_coupling)?;
+        let bottom = match &self.bottom {
+            Some(b) => Some(b.setup(light, cell_temp_k).map_err(|e| format!("bottom cell: {e}"))?.bottom()),
+            None => None,
+        };
+        Ok(StackExtras { bottom, coupling: self.luminescent_coupling })
+    }
+
+    /// The optimizer's problem for this stack's settings under `setup` (its light, cells,
+    /// connection and extras): with a real bottom cell the optimizer searches the gaps
+    /// above it, and `optimize.junctions` counts the bottom cell too.
+    pub fn problem<'a>(&self, setup: &'a StackSetup) -> Result<Problem<'a>, String> {
+        self.optimize.to_problem_with(&setup.light, &setup.cell, setup.connection, setup.extras.clone())
+    }
+}
+
+/// Check a luminescent-coupling fraction.
+pub fn check_coupling(x: f64) -> Result<(), String> {
+    if !(0.0..=1.0).contains(&x) {
+        return Err(format!(
+            "the luminescent coupling {x} is out of range; give a fraction from 0 (none) to 1 (all of a subcell's \
+             emission reaches the one below), e.g. 0.3"
+        ));
+    }
+    Ok(())
 }
 
 impl OptimizeSettings {
@@ -270,7 +365,34 @@ impl OptimizeSettings {
             fixed,
             range_j: (ev(self.from_ev), ev(self.to_ev)),
             seeds: Vec::new(),
+            extras: Default::default(),
         })
+    }
+
+    /// [`OptimizeSettings::to_problem`] with a real bottom cell and luminescent coupling:
+    /// with a real bottom cell the optimizer searches the gaps above it, and `junctions`
+    /// counts the bottom cell too.
+    pub fn to_problem_with<'a>(
+        &self,
+        light: &'a Illumination,
+        cell: &Cell,
+        connection: impl Into<PhysicsConnection>,
+        extras: StackExtras,
+    ) -> Result<Problem<'a>, String> {
+        let mut p = self.to_problem(light, cell, connection)?;
+        if extras.bottom.is_some() {
+            if self.junctions < 2 {
+                return Err("with a real bottom cell the stack needs at least 2 junctions (the bottom cell and one \
+                            above it); give --junctions 2 or more"
+                    .into());
+            }
+            if self.fix_ev.is_some() {
+                return Err("the real bottom cell is fixed already; leave out --fix (the gap held fixed)".into());
+            }
+            p.junctions = self.junctions - 1;
+        }
+        p.extras = extras;
+        Ok(p)
     }
 
     /// Check the number of junctions, the search range and the fixed gap (what does not

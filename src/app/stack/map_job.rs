@@ -248,6 +248,7 @@ fn polish_next(stack: StackState, id: u64, starts: Rc<Vec<Vec<f64>>>, k: usize, 
             fixed: None,
             range_j: (ev(lo), ev(hi)),
             seeds: Vec::new(),
+            extras: Default::default(),
         };
         let found = refine(&p, &starts[k], ev(grid_step(tops).max(grid_step(bottoms))));
         let best = match best {

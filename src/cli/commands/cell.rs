@@ -5,15 +5,10 @@
 
 use crate::cli::args::{OptionDoc, Parsed, Spec};
 use crate::cli::shared::files::read_eqe_file;
-use crate::cli::shared::files::resolve_material;
-use crate::cli::shared::options::{apply_common, with_light_and_cell_options};
-use crate::cli::shared::output::{print_cell, print_json, warn, write_absorber_cell};
+use crate::cli::shared::options::{apply_common, real_absorber, with_light_and_cell_options};
+use crate::cli::shared::output::{print_cell, warn, write_absorber_cell, write_real_cell};
 use crate::cli::shared::{Command, Failure, Out};
-use crate::physics::silicon::{solve_real, RealAbsorber};
-use crate::physics::special::golden_max;
-use crate::report::real::{RealCellReport, ThicknessPoint};
-use crate::scenario::film::MaterialSpec;
-use crate::scenario::real::{DopingType, RealAbsorberSpec, RealMaterial, TrappingSpec};
+use crate::scenario::real::thickness_sweep;
 use crate::scenario::stack::{AbsorberSpec, EqeTableSpec, StackScenario};
 use crate::scenario::{CellScenario, Scenario};
 
@@ -69,18 +64,6 @@ pub const COMMAND: Command = Command {
             text: "a real absorber instead of a step: silicon:THICKNESS_UM (Green 2008 absorption, Auger\n\
                    by Richter 2012) or file:PATH:THICKNESS_UM (an n,k table, radiative limit only);\n\
                    default: none, an ideal step at --gap",
-        },
-        OptionDoc {
-            name: "light-trapping",
-            arg: "MODEL",
-            text: "with --absorber: lambertian (default, 4n² with a rear mirror) | single-pass |\n\
-                   double-pass",
-        },
-        OptionDoc { name: "doping-type", arg: "n|p", text: "with --absorber: the doping type, default n" },
-        OptionDoc {
-            name: "doping",
-            arg: "CM3",
-            text: "with --absorber: the doping density in cm^-3, default 0 (undoped)",
         },
         OptionDoc {
             name: "thickness-sweep",
@@ -177,7 +160,6 @@ fn cell_with_absorber(p: &Parsed, sc: CellScenario, out: Out) -> Result<(), Fail
 }
 
 /// `glowgap cell --absorber silicon:UM ...`: a real absorber's cell, or a thickness sweep.
-#[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting checks: `!(x > 0.0)` also refuses NaN
 fn cell_real(p: &Parsed, sc: CellScenario, text: &str, out: Out) -> Result<(), Failure> {
     for o in ["eqe", "urbach", "measured-voc", "gap"] {
         if p.text(o).is_some() {
@@ -186,109 +168,34 @@ fn cell_real(p: &Parsed, sc: CellScenario, text: &str, out: Out) -> Result<(), F
             )));
         }
     }
-    if p.flag("link") {
-        return Err(Failure::Usage("--link is not available with --absorber yet; use --json".into()));
-    }
-    let mut spec = RealAbsorberSpec::parse(text).map_err(|e| format!("--absorber: {e}"))?;
-    if let Some(t) = p.text("light-trapping") {
-        spec.trapping = TrappingSpec::parse(t).map_err(|e| format!("--light-trapping: {e}"))?;
-    }
-    if let Some(t) = p.text("doping-type") {
-        spec.doping_type = match t.trim().to_ascii_lowercase().as_str() {
-            "n" => DopingType::N,
-            "p" => DopingType::P,
-            other => return Err(Failure::Usage(format!("--doping-type '{other}' is not known; use n or p"))),
-        };
-    }
-    if let Some(d) = p.number("doping", "doping density", "cm^-3")? {
-        spec.doping_cm3 = d;
-    }
-    if let RealMaterial::File { path } = &spec.material {
-        let MaterialSpec::Table { name, wavelength_m, n, k } =
-            resolve_material(MaterialSpec::File { path: path.clone() }).map_err(|e| format!("--absorber: {e}"))?
-        else {
-            return Err(Failure::Output);
-        };
-        spec.material = RealMaterial::Table { name, wavelength_m, n, k };
-    }
-    let setup = sc.to_physics()?;
+    let spec = real_absorber(p, "absorber", text)?;
     if sc.ere != 1.0 {
         warn(&["--ere is not used with --absorber: its recombination is radiative (reciprocity) plus Auger".into()]);
     }
-    let (abs, doping) = spec.to_physics().map_err(|e| format!("--absorber: {e}"))?;
-    let auger = spec.auger_limited();
-    let solve = |a: &RealAbsorber| solve_real(&setup.light, a, sc.cell_temp_k, doping, auger);
-    let edge = abs.absorptance().map(|a| a.edge_j()).unwrap_or(0.0);
-    let input = setup.light.input_power();
-    if let Some(sweep) = p.text("thickness-sweep") {
-        let bad = || format!("--thickness-sweep '{sweep}' is not FROM:TO:N in um, e.g. 10:1000:50");
-        let parts: Vec<&str> = sweep.split(':').collect();
-        let [a, b, n] = parts.as_slice() else { return Err(Failure::Usage(bad())) };
-        let (a, b): (f64, f64) = (a.trim().parse().map_err(|_| bad())?, b.trim().parse().map_err(|_| bad())?);
-        let n: usize = n.trim().parse().map_err(|_| bad())?;
-        if !(a > 0.0 && b > a && (2..=10_000).contains(&n)) {
-            return Err(Failure::Usage(format!(
-                "--thickness-sweep '{sweep}': give 0 < FROM < TO and 2 to 10000 points"
-            )));
+    let sweep = match p.text("thickness-sweep") {
+        None => None,
+        Some(sweep) => {
+            let bad = || format!("--thickness-sweep '{sweep}' is not FROM:TO:N in um, e.g. 10:1000:50");
+            let parts: Vec<&str> = sweep.split(':').collect();
+            let [a, b, n] = parts.as_slice() else { return Err(Failure::Usage(bad())) };
+            let a: f64 = a.trim().parse().map_err(|_| bad())?;
+            let b: f64 = b.trim().parse().map_err(|_| bad())?;
+            let n: usize = n.trim().parse().map_err(|_| bad())?;
+            Some(thickness_sweep(a, b, n).map_err(|e| format!("--thickness-sweep: {e}"))?)
         }
-        let ts: Vec<f64> = (0..n).map(|i| a * (b / a).powf(i as f64 / (n - 1) as f64)).collect();
-        let mut points = Vec::with_capacity(n);
-        for &t in &ts {
-            let (ab, _) = spec.with_thickness(t).map_err(|e| format!("--thickness-sweep: {e}"))?;
-            let r = solve(&ab);
-            points.push(ThicknessPoint {
-                thickness_um: t,
-                efficiency: r.efficiency,
-                jsc_ma_cm2: r.jsc / 10.0,
-                voc_v: r.voc,
-            });
+    };
+    let scenario = Scenario {
+        cell: sc,
+        stack: StackScenario { absorber: AbsorberSpec::Real(spec), ..Default::default() },
+        ..Default::default()
+    };
+    if p.flag("link") {
+        if sweep.is_some() {
+            return Err(Failure::Usage("--link holds one thickness; leave out --thickness-sweep".into()));
         }
-        // the best point, refined by golden section in ln(thickness) between its neighbours
-        let i = (0..n).max_by(|&x, &y| points[x].efficiency.total_cmp(&points[y].efficiency)).unwrap_or(0);
-        let (lo, hi) = (ts[i.saturating_sub(1)].ln(), ts[(i + 1).min(n - 1)].ln());
-        let eff = |lt: f64| spec.with_thickness(lt.exp()).map(|(ab, _)| solve(&ab).efficiency).unwrap_or(0.0);
-        let (best_ln, _) = golden_max(eff, |e| *e, lo, hi, 1e-6);
-        let best_t = best_ln.exp();
-        let (ab, _) = spec.with_thickness(best_t).map_err(|e| format!("--thickness-sweep: {e}"))?;
-        let best = RealCellReport::new(&solve(&ab), edge, best_t, auger, spec.trapping.label(), input);
-        if p.flag("json") {
-            let v = serde_json::json!({"points": points, "best_thickness_um": best_t, "best": best});
-            return print_json(out, &v);
-        }
-        writeln!(out, "{:>14} {:>12} {:>14} {:>10}", "thickness um", "efficiency %", "Jsc mA/cm²", "Voc V")?;
-        for pt in &points {
-            writeln!(
-                out,
-                "{:>14.4} {:>12.4} {:>14.4} {:>10.5}",
-                pt.thickness_um,
-                pt.efficiency * 100.0,
-                pt.jsc_ma_cm2,
-                pt.voc_v
-            )?;
-        }
-        writeln!(out, "best: {:.2} um, {:.4} %", best_t, best.cell.efficiency * 100.0)?;
+        scenario.check()?;
+        writeln!(out, "{}", crate::codec::encode_fragment(&scenario))?;
         return Ok(());
     }
-    let report = RealCellReport::new(&solve(&abs), edge, spec.thickness_um, auger, spec.trapping.label(), input);
-    if p.flag("json") {
-        return print_json(out, &report);
-    }
-    let c = &report.cell;
-    let rows = [
-        ("Absorber", spec.label()),
-        ("Source", setup.light.source.name()),
-        ("Efficiency", format!("{:.2} %", c.efficiency * 100.0)),
-        ("Short-circuit current Jsc", format!("{:.3} mA/cm²", c.jsc_ma_cm2)),
-        ("Open-circuit voltage Voc", format!("{:.4} V", c.voc_v)),
-        ("Fill factor", format!("{:.4}", c.ff)),
-        ("Voltage at max power Vmp", format!("{:.4} V", c.vmp_v)),
-        ("Current at max power Jmp", format!("{:.3} mA/cm²", c.jmp_ma_cm2)),
-        ("Radiative loss at Vmp", format!("{:.4} mA/cm²", report.radiative_mpp_ma_cm2)),
-        ("Auger loss at Vmp", format!("{:.4} mA/cm²", report.auger_mpp_ma_cm2)),
-        ("Absorption edge (half maximum)", format!("{:.4} eV", c.gap_ev)),
-    ];
-    for (k, v) in rows {
-        writeln!(out, "{k:<32} {v}")?;
-    }
-    Ok(())
+    write_real_cell(&scenario, sweep.as_deref(), p.flag("json"), out)
 }

@@ -4,26 +4,40 @@
 //! Architecture invariant: imports only `cli::args` and `cli::shared` of the cli.
 
 use crate::cli::args::{OptionDoc, Spec};
-use crate::cli::shared::options::{apply_common, connection, with_light_and_cell_options};
-use crate::cli::shared::output::{connection_words, print_json, warn, write_stack_table};
+use crate::cli::shared::options::{apply_common, connection, real_absorber, with_light_and_cell_options};
+use crate::cli::shared::output::{connection_words, print_json, warn, write_stack_extras, write_stack_table};
 use crate::cli::shared::{Command, Failure, Out};
+use crate::physics::stack::mixed::solve_mixed;
 use crate::physics::stack::optimize::optimize as run_optimizer;
 use crate::physics::stack::{solve_stack, StackResult};
 use crate::report::stack::OptimumReport;
-use crate::scenario::stack::OptimizeSettings;
+use crate::scenario::stack::{OptimizeSettings, StackScenario};
 use crate::scenario::CellScenario;
 use crate::scenario::{Connection, FixAt};
 
 pub const COMMAND: Command = Command {
     spec: Spec {
         command: "optimize",
-        valued: with_light_and_cell_options!("junctions", "connection", "fix", "fix-at", "from", "to"),
+        valued: with_light_and_cell_options!(
+            "junctions",
+            "connection",
+            "fix",
+            "fix-at",
+            "from",
+            "to",
+            "bottom",
+            "light-trapping",
+            "doping-type",
+            "doping",
+            "luminescent-coupling"
+        ),
         flags: &["json"],
         max_positional: 0,
     },
     about: "the best band gaps of a stack of 1 to 6 junctions",
     usage: "optimize --junctions N [--connection C] [--fix EV [--fix-at any|top|bottom]]\n\
-            [--from EV --to EV] [SOURCE AND CELL OPTIONS] [--json]",
+            [--from EV --to EV] [--bottom silicon:UM [--light-trapping MODEL] [--doping-type n|p --doping CM3]]\n\
+            [--luminescent-coupling F] [SOURCE AND CELL OPTIONS] [--json]",
     docs: &[
         OptionDoc { name: "junctions", arg: "N", text: "number of junctions, 1 to 6, required" },
         OptionDoc {
@@ -38,6 +52,12 @@ pub const COMMAND: Command = Command {
         },
         OptionDoc { name: "from", arg: "EV", text: "lowest band gap searched, in eV, default 0.2" },
         OptionDoc { name: "to", arg: "EV", text: "highest band gap searched, in eV, default 4.5" },
+        OptionDoc {
+            name: "bottom",
+            arg: "MAT:UM",
+            text: "a real bottom cell under the searched gaps, silicon:THICKNESS_UM or\n\
+                   file:PATH:THICKNESS_UM; it counts in --junctions (default: none, every cell a step)",
+        },
     ],
     run,
 };
@@ -75,16 +95,36 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     let conn = connection(&p)?;
     let mut sc = CellScenario::default();
     apply_common(&p, &mut sc)?;
+    let bottom = match p.text("bottom") {
+        Some(t) => Some(real_absorber(&p, "bottom", t)?),
+        None => {
+            for o in ["light-trapping", "doping-type", "doping"] {
+                if p.text(o).is_some() {
+                    return Err(Failure::Usage(format!(
+                        "--{o} applies to a real bottom cell; add one, e.g. --bottom silicon:300"
+                    )));
+                }
+            }
+            None
+        }
+    };
+    let luminescent_coupling =
+        p.number("luminescent-coupling", "luminescent coupling", "a fraction, 0 to 1")?.unwrap_or(0.0);
+    let st = StackScenario { bottom, luminescent_coupling, connection: conn, ..Default::default() };
     let setup = sc.to_physics()?;
     warn(&setup.warnings);
-    let problem = settings.to_problem(&setup.light, &setup.cell, conn)?;
+    let extras = st.extras(&setup.light, setup.cell.temp_k)?;
+    let problem = settings.to_problem_with(&setup.light, &setup.cell, conn, extras.clone())?;
     let best = run_optimizer(&problem);
-    let stack_r = if best.gaps_j.len() >= 2 {
+    let stack_r = if !extras.is_plain() {
+        solve_mixed(&setup.light, &setup.cell, &best.gaps_j, &extras, conn.into())
+    } else if best.gaps_j.len() >= 2 {
         solve_stack(&setup.light, &setup.cell, &best.gaps_j, conn.into())
     } else {
         one_cell_stack(&setup, &best.gaps_j, conn)
     };
-    let report = OptimumReport::new(&best, conn, settings.fix_ev, &stack_r);
+    let mut report = OptimumReport::new(&best, conn, settings.fix_ev, &stack_r);
+    report.stack = report.stack.with_extras(&st);
     if p.flag("json") {
         return print_json(out, &report);
     }
@@ -107,6 +147,7 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     writeln!(out, "{:<28} {}", "Evaluations", report.evaluations)?;
     writeln!(out)?;
     write_stack_table(out, &report.stack, &setup.light.source.name(), &sc)?;
+    write_stack_extras(out, &report.stack)?;
     Ok(())
 }
 

@@ -6,10 +6,12 @@
 //! scenario (`to_physics`, `check_gap_ev`, `check_gap_range`), never by range checks of their
 //! own; the messages put the option's name in front of the scenario's words.
 
-use super::files::read_spectrum_file;
+use super::files::{read_spectrum_file, resolve_material};
+use super::Failure;
 use crate::cli::args::{OptionDoc, Parsed};
 use crate::scenario::film::{LayerSpec, MaterialSpec};
 use crate::scenario::radiator::{AngularSpec, EmitterSpec, RadiatorScenario, SkySpec, SolarBandSpec};
+use crate::scenario::real::{DopingType, RealAbsorberSpec, RealMaterial, TrappingSpec};
 use crate::scenario::{check_gap_ev, check_gap_range, CellScenario, SourceSpec};
 use crate::scenario::{Connection, Emission, JvModel};
 
@@ -65,6 +67,24 @@ pub const SHARED_DOCS: &[OptionDoc] = &[
                instead of the figures",
     },
     OptionDoc { name: "csv", arg: "", text: "print CSV with a header line instead of the table" },
+    OptionDoc {
+        name: "light-trapping",
+        arg: "MODEL",
+        text: "with a real absorber: lambertian (default, 4n² with a rear mirror) | single-pass |\n\
+               double-pass",
+    },
+    OptionDoc { name: "doping-type", arg: "n|p", text: "with a real absorber: the doping type, default n" },
+    OptionDoc {
+        name: "doping",
+        arg: "CM3",
+        text: "with a real absorber: the doping density in cm^-3, default 0 (undoped)",
+    },
+    OptionDoc {
+        name: "luminescent-coupling",
+        arg: "F",
+        text: "fraction of each subcell's radiative emission absorbed by the subcell below, 0 to 1,\n\
+               default 0 (none)",
+    },
 ];
 
 /// Options shared by the cell commands, applied onto a scenario.
@@ -280,4 +300,33 @@ pub fn radiator_options(p: &Parsed, sc: &mut RadiatorScenario) -> Result<(), Str
         };
     }
     Ok(())
+}
+
+/// A real absorber from the text `text` of `--OPTION` (`silicon:UM` or `file:PATH:UM`) with
+/// `--light-trapping`, `--doping-type` and `--doping` applied; a `file:` table is read here.
+pub fn real_absorber(p: &Parsed, option: &str, text: &str) -> Result<RealAbsorberSpec, Failure> {
+    let mut spec = RealAbsorberSpec::parse(text).map_err(|e| format!("--{option}: {e}"))?;
+    if let Some(t) = p.text("light-trapping") {
+        spec.trapping = TrappingSpec::parse(t).map_err(|e| format!("--light-trapping: {e}"))?;
+    }
+    if let Some(t) = p.text("doping-type") {
+        spec.doping_type = match t.trim().to_ascii_lowercase().as_str() {
+            "n" => DopingType::N,
+            "p" => DopingType::P,
+            other => return Err(Failure::Usage(format!("--doping-type '{other}' is not known; use n or p"))),
+        };
+    }
+    if let Some(d) = p.number("doping", "doping density", "cm^-3")? {
+        spec.doping_cm3 = d;
+    }
+    if let RealMaterial::File { path } = &spec.material {
+        let MaterialSpec::Table { name, wavelength_m, n, k } =
+            resolve_material(MaterialSpec::File { path: path.clone() }).map_err(|e| format!("--{option}: {e}"))?
+        else {
+            return Err(Failure::Output);
+        };
+        spec.material = RealMaterial::Table { name, wavelength_m, n, k };
+    }
+    spec.to_physics().map_err(|e| format!("--{option}: {e}"))?;
+    Ok(spec)
 }

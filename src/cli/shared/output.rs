@@ -11,6 +11,7 @@ use crate::physics::absorber::{ere_from_voc, solve_absorber};
 use crate::physics::junction::solve_cell;
 use crate::physics::radiator::evaluate;
 use crate::report::radiator::RadiatorReport;
+use crate::report::real::{RealCellReport, ThicknessPoint};
 use crate::report::stack::{AbsorberKind, AbsorberReport, StackMetric, StackReport};
 use crate::report::CellReport;
 use crate::scenario::radiator::{AngularSpec, RadiatorScenario};
@@ -137,6 +138,29 @@ pub fn with_gaps_as_given(mut r: StackReport, gaps_ev: &[f64]) -> StackReport {
     r
 }
 
+/// The real bottom cell and the luminescent coupling of a stack, when it has them.
+pub fn write_stack_extras(out: Out, r: &StackReport) -> std::io::Result<()> {
+    if let Some(b) = &r.bottom {
+        writeln!(
+            out,
+            "bottom cell: {}, {} um, {} light trapping{} (its gap column is the absorption edge at half maximum)",
+            b.absorber,
+            b.thickness_um,
+            b.light_trapping,
+            if b.auger_limited { ", Auger limited" } else { ", radiative limit" }
+        )?;
+    }
+    if r.luminescent_coupling > 0.0 {
+        writeln!(
+            out,
+            "luminescent coupling: {} of each subcell's emission reaches the one below (Jsc column as coupled at the \
+             operating point)",
+            r.luminescent_coupling
+        )?;
+    }
+    Ok(())
+}
+
 /// The stack as a table.
 pub fn write_stack_table(out: Out, r: &StackReport, source: &str, sc: &CellScenario) -> std::io::Result<()> {
     writeln!(out, "{:<28} {} junctions, {}", "Stack", r.subcells.len(), connection_words(r.connection))?;
@@ -177,6 +201,68 @@ pub fn write_stack_table(out: Out, r: &StackReport, source: &str, sc: &CellScena
     Ok(())
 }
 
+/// The cell of `scenario`, whose absorber is a real one, at its thickness; or with
+/// `sweep` (thicknesses [um]) every point of the sweep and the best thickness.
+pub fn write_real_cell(scenario: &Scenario, sweep: Option<&[f64]>, json: bool, out: Out) -> Result<(), Failure> {
+    let AbsorberSpec::Real(spec) = &scenario.stack.absorber else {
+        return Err(Failure::Usage("the scenario's absorber is not a real absorber".into()));
+    };
+    let setup = scenario.cell.to_physics()?;
+    warn(&setup.warnings);
+    let real = spec.setup(&setup.light, scenario.cell.cell_temp_k)?;
+    let label = spec.trapping.label();
+    let report = |r: &crate::physics::silicon::RealCellResult, w_m: f64, w_um: f64| {
+        let edge = real.model.edge_j(w_m, real.trapping);
+        RealCellReport::new(r, edge, w_um, real.auger, label, real.model.input_power())
+    };
+    if let Some(ts) = sweep {
+        let ws: Vec<f64> = ts.iter().map(|t| t * 1e-6).collect();
+        let rs = real.model.sweep(&ws, real.trapping);
+        let points: Vec<ThicknessPoint> = ts.iter().zip(&rs).map(|(&t, r)| ThicknessPoint::new(t, r)).collect();
+        let (best_m, best_r) = real.model.best_thickness(ws[0], ws[ws.len() - 1], real.trapping);
+        let best = report(&best_r, best_m, best_m * 1e6);
+        if json {
+            let v = serde_json::json!({"points": points, "best_thickness_um": best_m * 1e6, "best": best});
+            return print_json(out, &v);
+        }
+        writeln!(out, "{:>14} {:>12} {:>14} {:>10}", "thickness um", "efficiency %", "Jsc mA/cm²", "Voc V")?;
+        for pt in &points {
+            writeln!(
+                out,
+                "{:>14.4} {:>12.4} {:>14.4} {:>10.5}",
+                pt.thickness_um,
+                pt.efficiency * 100.0,
+                pt.jsc_ma_cm2,
+                pt.voc_v
+            )?;
+        }
+        writeln!(out, "best: {:.2} um, {:.4} %", best_m * 1e6, best.cell.efficiency * 100.0)?;
+        return Ok(());
+    }
+    let r = report(&real.model.solve(real.thickness_m, real.trapping), real.thickness_m, spec.thickness_um);
+    if json {
+        return print_json(out, &r);
+    }
+    let c = &r.cell;
+    let rows = [
+        ("Absorber", spec.label()),
+        ("Source", setup.light.source.name()),
+        ("Efficiency", format!("{:.2} %", c.efficiency * 100.0)),
+        ("Short-circuit current Jsc", format!("{:.3} mA/cm²", c.jsc_ma_cm2)),
+        ("Open-circuit voltage Voc", format!("{:.4} V", c.voc_v)),
+        ("Fill factor", format!("{:.4}", c.ff)),
+        ("Voltage at max power Vmp", format!("{:.4} V", c.vmp_v)),
+        ("Current at max power Jmp", format!("{:.3} mA/cm²", c.jmp_ma_cm2)),
+        ("Radiative loss at Vmp", format!("{:.4} mA/cm²", r.radiative_mpp_ma_cm2)),
+        ("Auger loss at Vmp", format!("{:.4} mA/cm²", r.auger_mpp_ma_cm2)),
+        ("Absorption edge (half maximum)", format!("{:.4} eV", c.gap_ev)),
+    ];
+    for (k, v) in rows {
+        writeln!(out, "{k:<32} {v}")?;
+    }
+    Ok(())
+}
+
 /// The cell of `scenario` with the scenario's absorptance.
 pub fn write_absorber_cell(
     scenario: &Scenario,
@@ -184,6 +270,9 @@ pub fn write_absorber_cell(
     json: bool,
     out: Out,
 ) -> Result<(), Failure> {
+    if let AbsorberSpec::Real(_) = &scenario.stack.absorber {
+        return write_real_cell(scenario, None, json, out);
+    }
     let sc = &scenario.cell;
     let mut setup = sc.to_physics()?;
     let a = scenario.stack.absorber.to_physics(sc.gap_ev, sc.cell_temp_k, &mut setup.warnings)?;
@@ -219,6 +308,7 @@ pub fn write_absorber_cell(
         AbsorberSpec::Measured(t) => {
             format!("measured EQE '{}' (reciprocity J-V; gap shown: half-maximum edge)", t.name)
         }
+        AbsorberSpec::Real(r) => r.label(),
     };
     writeln!(out, "{:<28} {}", "Absorptance", what)?;
     match report.log10_j0_rad_ma_cm2 {

@@ -26,6 +26,7 @@
 //!   subcell's voltage, one to one with J, as the variable).
 
 pub mod map;
+pub mod mixed;
 pub mod optimize;
 pub mod series;
 

@@ -15,6 +15,7 @@
 //! Two equal gaps mean a subcell with no band to absorb: for independent connection it
 //! delivers nothing and the others are unchanged; in series its zero current stops the stack.
 
+use super::mixed::{mixed_efficiency, StackExtras};
 use super::{stack_efficiency, Connection, MAX_JUNCTIONS};
 use crate::physics::batch::map_indexed;
 use crate::physics::constants::CHARGE;
@@ -57,6 +58,9 @@ pub struct Problem<'a> {
     /// extra starting points (free gaps only, any order), e.g. a smaller stack's optimum;
     /// the result is never worse than the best of them
     pub seeds: Vec<Vec<f64>>,
+    /// a real bottom cell under the step subcells (not counted in `junctions`) and
+    /// luminescent coupling ([`super::mixed`]); none by default
+    pub extras: StackExtras,
 }
 
 /// Default search range of the free gaps [eV].
@@ -159,7 +163,11 @@ fn value(p: &Problem, free: &[f64]) -> f64 {
     if g.len() < before && p.connection == Connection::Series {
         return 0.0;
     }
-    let e = stack_efficiency(p.light, &p.cell, &g, p.connection);
+    let e = if p.extras.is_plain() {
+        stack_efficiency(p.light, &p.cell, &g, p.connection)
+    } else {
+        mixed_efficiency(p.light, &p.cell, &g, &p.extras, p.connection)
+    };
     if e.is_finite() {
         e
     } else {
@@ -192,7 +200,8 @@ pub fn optimize_observed(p: &Problem, observer: &mut dyn FnMut(u64)) -> Optimum 
 fn free_part(p: &Problem) -> Option<(usize, f64, f64)> {
     let n_free = p.junctions.saturating_sub(usize::from(p.fixed.is_some()));
     let (lo, hi) = free_bounds(p);
-    let valid = (1..=MAX_JUNCTIONS).contains(&p.junctions)
+    let most = MAX_JUNCTIONS - usize::from(p.extras.bottom.is_some());
+    let valid = (1..=most).contains(&p.junctions)
         && lo.is_finite()
         && hi.is_finite()
         && lo > 0.0
@@ -337,7 +346,7 @@ fn grid_1d(obj: &mut Objective, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
 fn grid_2d(obj: &mut Objective, lo: f64, hi: f64) -> Vec<(Vec<f64>, f64)> {
     let xs = grid_points(lo, hi, GRID_2D_EV);
     let n = xs.len();
-    let grid: Vec<f64> = if obj.p.fixed.is_none() {
+    let grid: Vec<f64> = if obj.p.fixed.is_none() && obj.p.extras.is_plain() {
         // the two-junction map: rows are the top gap, columns the bottom gap
         let m = super::map::tandem_map(obj.p.light, &obj.p.cell, obj.p.connection, &xs, &xs);
         obj.count((n * (n - 1) / 2) as u64);

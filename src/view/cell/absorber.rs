@@ -39,10 +39,11 @@ fn urbach_curve(a: &Absorptance, gap_j: f64, urbach_j: f64) -> Vec<(f64, f64)> {
         .collect()
 }
 
-/// The measured cell of `s` next to the ideal step, or None for a step absorber.
+/// The measured cell of `s` next to the ideal step, or None for a step or real absorber.
 pub fn absorber_view(s: &Scenario) -> Result<Option<AbsorberView>, String> {
     let (kind, name) = match &s.stack.absorber {
-        AbsorberSpec::Step => return Ok(None),
+        // a real absorber has its own view (`view::cell::real`)
+        AbsorberSpec::Step | AbsorberSpec::Real(_) => return Ok(None),
         AbsorberSpec::Urbach { urbach_mev } => {
             (AbsorberKind::Urbach, format!("Urbach tail of {} meV", field(*urbach_mev, 6)))
         }

@@ -1,0 +1,299 @@
+//! The fast path for cells of a real absorber ([`super::silicon`]): everything that does not
+//! depend on the thickness is integrated once per light and temperature, so a thickness
+//! sweep, a drag of the thickness control or a stack optimizer costs one pass over the
+//! absorption table per evaluation.
+//!
+//! The absorptance a(E) is piecewise linear in photon energy E between the refined table
+//! points x_k ([`RealAbsorber::refined`]), exactly as the table absorptance of
+//! `RealAbsorber::absorptance` that the scalar path (`absorber::photocurrent`,
+//! `absorber::ln_dark_current`) integrates. On interval k with t = (E - x_k)/(x_(k+1) - x_k):
+//!
+//!   Jsc = q X sum_k [ a_k S0_k + a_(k+1) S1_k ],  S0_k = integral (1 - t) Phi_src dE,
+//!   S1_k = integral t Phi_src dE (`absorber::weighted_photon_flux`, the source's own
+//!   quadrature);
+//!
+//!   J0_rad = q g (2 pi / h^3 c^2) e^(-E_ref/kT) sum_k [ a_k B0_k + a_(k+1) B1_k ],
+//!   B_k = integral (1 - t or t) E^2 e^(-(E - E_ref)/kT) / (1 - e^(-E/kT)) dE,
+//!
+//! by 8-point Gauss-Legendre on panels no wider than kT/2 (the same rule and panel width
+//! as `absorber::ln_dark_current`), scaled by E_ref (the lowest table energy) so nothing
+//! underflows. The J-V equations and the maximum power point are those of `solve_real`.
+//!
+//! A cell under other cells (the bottom of a stack) sees only photons below the gap above
+//! it: [`RealCellModel::diode`] takes that upper edge and integrates the interval it cuts
+//! on the fly.
+//!
+//! Architecture invariant: pure functions of SI numbers; no NaN for any finite input.
+
+use super::absorber::weighted_photon_flux;
+use super::constants::{thermal_energy, CHARGE, PHOTON_FLUX_PREFACTOR};
+use super::junction::Illumination;
+use super::silicon::{richter_auger, silicon_ni, trapped_absorptance, Doping, RealAbsorber, RealCellResult, Trapping};
+
+/// 8-point Gauss-Legendre on [-1, 1], half the nodes (symmetric; A&S table 25.4, n = 8).
+const GL_X: [f64; 4] =
+    [0.183_434_642_495_649_78, 0.525_532_409_916_329, 0.796_666_477_413_626_7, 0.960_289_856_497_536_2];
+const GL_W: [f64; 4] =
+    [0.362_683_783_378_361_66, 0.313_706_645_877_886_9, 0.222_381_034_453_374_43, 0.101_228_536_290_377_06];
+
+/// A real absorber's cell under one light at one temperature, ready for any thickness.
+#[derive(Debug, Clone)]
+pub struct RealCellModel {
+    light: Illumination,
+    /// refined photon energies [J], ascending, with alpha [m^-1] and n there
+    grid: Vec<f64>,
+    alpha: Vec<f64>,
+    index: Vec<f64>,
+    /// per interval: q X S0_k, q X S1_k [A m^-2]
+    sun0: Vec<f64>,
+    sun1: Vec<f64>,
+    /// per interval: B0_k, B1_k scaled by e^(E_ref/kT) [J^3]
+    bb0: Vec<f64>,
+    bb1: Vec<f64>,
+    /// ln of q g (2 pi / h^3 c^2) e^(-E_ref/kT) [ln(A m^-2 J^-3)]
+    ln_bb_scale: f64,
+    kt: f64,
+    ni: f64,
+    n0: f64,
+    p0: f64,
+    auger: bool,
+    input: f64,
+}
+
+/// One real-absorber diode at one thickness: J(V) = Jsc + extra - J_rad(V) - J_Auger(V).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct RealDiode {
+    /// photocurrent [A m^-2]
+    pub jsc: f64,
+    /// ln of the radiative dark current [ln(A m^-2)]
+    pub ln_j0: f64,
+    thickness_m: f64,
+    kt: f64,
+    ni: f64,
+    n0: f64,
+    p0: f64,
+    auger: bool,
+}
+
+impl RealDiode {
+    /// (radiative, Auger) recombination currents [A m^-2] at voltage `v` [V].
+    pub fn recombination(&self, v: f64) -> (f64, f64) {
+        let x = (CHARGE * v / self.kt).min(700.0);
+        let rad = (self.ln_j0 + x).exp() - self.ln_j0.exp();
+        let aug = if self.auger {
+            // dn from (n0 + dn)(p0 + dn) = ni^2 e^x, in the cancellation-free form
+            let s = self.n0 + self.p0;
+            let c = self.ni * self.ni * x.exp_m1();
+            let dn = 2.0 * c / (s + (s * s + 4.0 * c).max(0.0).sqrt());
+            CHARGE * self.thickness_m * richter_auger(self.n0 + dn, self.p0 + dn, self.n0, self.p0, self.ni)
+        } else {
+            0.0
+        };
+        let ok = |r: f64| if r.is_finite() { r } else { f64::MAX };
+        (ok(rad), ok(aug))
+    }
+
+    /// J(V) [A m^-2] with `extra` photocurrent [A m^-2] (luminescent coupling) added.
+    pub fn current(&self, v: f64, extra: f64) -> f64 {
+        let (r, a) = self.recombination(v);
+        self.jsc + extra - r - a
+    }
+
+    /// The voltage [V] where J(V) = `j` [A m^-2] with `extra` photocurrent, by bisection to
+    /// 1e-13 V on [-0.5, 3] V (J falls monotonically with V).
+    pub fn voltage_at(&self, j: f64, extra: f64) -> f64 {
+        let (mut lo, mut hi) = (-0.5, 3.0);
+        for _ in 0..200 {
+            let mid = 0.5 * (lo + hi);
+            if self.current(mid, extra) > j {
+                lo = mid;
+            } else {
+                hi = mid;
+            }
+            if hi - lo < 1e-13 {
+                break;
+            }
+        }
+        0.5 * (lo + hi)
+    }
+
+    /// The cell alone at its maximum power point, with `extra` photocurrent [A m^-2]:
+    /// Voc by bisection, then golden section on V J(V) to 1e-12 V. `input` is the incident
+    /// power [W m^-2].
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a > b) on purpose: it also refuses NaN
+    pub fn solve(&self, extra: f64, input: f64) -> RealCellResult {
+        let jsc = self.jsc + extra;
+        if !(jsc > 0.0) {
+            return RealCellResult::default();
+        }
+        let voc = self.voltage_at(0.0, extra).max(0.0);
+        let (vmp, _) = super::special::golden_max(|v: f64| v * self.current(v, extra), |p| *p, 0.0, voc, 1e-12);
+        let jmp = self.current(vmp, extra).max(0.0);
+        let (r, au) = self.recombination(vmp);
+        RealCellResult {
+            jsc,
+            voc,
+            vmp,
+            jmp,
+            efficiency: if input > 0.0 { vmp * jmp / input } else { 0.0 },
+            j_radiative_mpp: r,
+            j_auger_mpp: au,
+        }
+    }
+}
+
+impl RealCellModel {
+    /// The model of `material` (its thickness unused) under `light` at `temp_k` [K] with
+    /// `doping`; silicon's Auger recombination when `auger`. The cell emits through its
+    /// front only (the light-trapping models have a mirror behind the absorber).
+    pub fn new(material: &RealAbsorber, light: &Illumination, temp_k: f64, doping: Doping, auger: bool) -> Self {
+        let temp_k = if temp_k.is_finite() && temp_k > 0.0 { temp_k } else { 300.0 };
+        let (grid, alpha, index) = material.refined();
+        let kt = thermal_energy(temp_k);
+        let q_x = CHARGE * light.concentration;
+        let intervals = grid.len().saturating_sub(1);
+        let (mut sun0, mut sun1) = (Vec::with_capacity(intervals), Vec::with_capacity(intervals));
+        let (mut bb0, mut bb1) = (Vec::with_capacity(intervals), Vec::with_capacity(intervals));
+        let e_ref = grid.first().copied().unwrap_or(0.0);
+        for w in grid.windows(2) {
+            let (a, b) = (w[0], w[1]);
+            let t = |e: f64| ((e - a) / (b - a)).clamp(0.0, 1.0);
+            let all = weighted_photon_flux(&light.source, a, b, &[], f64::INFINITY, &|_| 1.0);
+            let upper = weighted_photon_flux(&light.source, a, b, &[], f64::INFINITY, &t);
+            sun0.push(q_x * (all - upper).max(0.0));
+            sun1.push(q_x * upper);
+            let (mut s0, mut s1) = (0.0, 0.0);
+            let panels = (((b - a) / (0.5 * kt)).ceil() as usize).clamp(1, 10_000);
+            for p in 0..panels {
+                let pa = a + (b - a) * p as f64 / panels as f64;
+                let pb = a + (b - a) * (p + 1) as f64 / panels as f64;
+                let (mid, half) = (0.5 * (pa + pb), 0.5 * (pb - pa));
+                for (x, wt) in GL_X.iter().zip(GL_W) {
+                    for e in [mid - half * x, mid + half * x] {
+                        let f = e * e * (-(e - e_ref) / kt).exp() / -(-e / kt).exp_m1();
+                        let f = if f.is_finite() { f * half * wt } else { 0.0 };
+                        s0 += (1.0 - t(e)) * f;
+                        s1 += t(e) * f;
+                    }
+                }
+            }
+            bb0.push(s0);
+            bb1.push(s1);
+        }
+        let ln_bb_scale = (CHARGE * PHOTON_FLUX_PREFACTOR).ln() - e_ref / kt;
+        let ni = silicon_ni(temp_k);
+        let (n0, p0) = match doping {
+            Doping::Undoped => (ni, ni),
+            Doping::NType(d) => (d.max(ni), ni * ni / d.max(ni)),
+            Doping::PType(d) => (ni * ni / d.max(ni), d.max(ni)),
+        };
+        RealCellModel {
+            light: light.clone(),
+            grid,
+            alpha,
+            index,
+            sun0,
+            sun1,
+            bb0,
+            bb1,
+            ln_bb_scale,
+            kt,
+            ni,
+            n0,
+            p0,
+            auger,
+            input: light.input_power(),
+        }
+    }
+
+    /// Incident power [W m^-2].
+    pub fn input_power(&self) -> f64 {
+        self.input
+    }
+
+    /// The lowest photon energy the absorber's table covers [J] (its absorption edge for
+    /// the purpose of ordering it under other cells).
+    pub fn lowest_energy_j(&self) -> f64 {
+        self.grid.first().copied().unwrap_or(0.0)
+    }
+
+    /// The absorptance at the refined points for thickness `thickness_m` [m] and `trapping`.
+    pub fn absorptance(&self, thickness_m: f64, trapping: Trapping) -> Vec<f64> {
+        self.alpha.iter().zip(&self.index).map(|(&al, &n)| trapped_absorptance(al, n, thickness_m, trapping)).collect()
+    }
+
+    /// The absorption edge [J]: the lowest refined point where the absorptance reaches half
+    /// its largest value (the gap a reader compares with a step cell's).
+    pub fn edge_j(&self, thickness_m: f64, trapping: Trapping) -> f64 {
+        let a = self.absorptance(thickness_m, trapping);
+        let half = 0.5 * a.iter().copied().fold(0.0, f64::max);
+        a.iter().position(|&v| v >= half && v > 0.0).map_or(0.0, |i| self.grid[i])
+    }
+
+    /// (photon energy [J], absorptance) at the refined points.
+    pub fn absorptance_curve(&self, thickness_m: f64, trapping: Trapping) -> Vec<(f64, f64)> {
+        self.grid.iter().copied().zip(self.absorptance(thickness_m, trapping)).collect()
+    }
+
+    /// The diode of thickness `thickness_m` [m] with `trapping`, seeing only photons below
+    /// `upper_j` [J] (infinity when nothing is above it).
+    pub fn diode(&self, thickness_m: f64, trapping: Trapping, upper_j: f64) -> RealDiode {
+        let w = if thickness_m.is_finite() { thickness_m.max(0.0) } else { 0.0 };
+        let a = self.absorptance(w, trapping);
+        let mut jsc = 0.0;
+        let mut bb = 0.0;
+        for k in 0..self.sun0.len() {
+            bb += a[k] * self.bb0[k] + a[k + 1] * self.bb1[k];
+            let (lo, hi) = (self.grid[k], self.grid[k + 1]);
+            if hi <= upper_j {
+                jsc += a[k] * self.sun0[k] + a[k + 1] * self.sun1[k];
+            } else if lo < upper_j {
+                let (a0, a1) = (a[k], a[k + 1]);
+                let lerp = |e: f64| a0 + (a1 - a0) * ((e - lo) / (hi - lo)).clamp(0.0, 1.0);
+                let part = weighted_photon_flux(&self.light.source, lo, upper_j, &[], f64::INFINITY, &lerp);
+                jsc += CHARGE * self.light.concentration * part;
+            }
+        }
+        let ln_j0 = if bb > 0.0 { self.ln_bb_scale + bb.ln() } else { f64::NEG_INFINITY };
+        RealDiode {
+            jsc: if jsc.is_finite() { jsc.max(0.0) } else { 0.0 },
+            ln_j0,
+            thickness_m: w,
+            kt: self.kt,
+            ni: self.ni,
+            n0: self.n0,
+            p0: self.p0,
+            auger: self.auger,
+        }
+    }
+
+    /// The single cell of thickness `thickness_m` [m] with `trapping`.
+    pub fn solve(&self, thickness_m: f64, trapping: Trapping) -> RealCellResult {
+        self.diode(thickness_m, trapping, f64::INFINITY).solve(0.0, self.input)
+    }
+
+    /// The cell at every thickness of `thicknesses_m` [m] (on every core natively).
+    pub fn sweep(&self, thicknesses_m: &[f64], trapping: Trapping) -> Vec<RealCellResult> {
+        super::batch::map_indexed(thicknesses_m.len(), |i| self.solve(thicknesses_m[i], trapping))
+    }
+
+    /// The most efficient thickness [m] between `from_m` and `to_m` [m] (golden section
+    /// on ln W to 1e-6 relative, after a 24-point scan that brackets the best point).
+    pub fn best_thickness(&self, from_m: f64, to_m: f64, trapping: Trapping) -> (f64, RealCellResult) {
+        let (lo, hi) = (from_m.max(1e-9).ln(), to_m.max(from_m.max(1e-9)).ln());
+        let eval = |u: f64| self.solve(u.exp(), trapping);
+        let scan = 24;
+        let mut best = (0usize, f64::NEG_INFINITY);
+        for i in 0..=scan {
+            let e = eval(lo + (hi - lo) * i as f64 / scan as f64).efficiency;
+            if e > best.1 {
+                best = (i, e);
+            }
+        }
+        let step = (hi - lo) / scan as f64;
+        let a = (lo + step * best.0.saturating_sub(1) as f64).max(lo);
+        let b = (lo + step * (best.0 + 1) as f64).min(hi);
+        let (u, r) = super::special::golden_max(eval, |r| r.efficiency, a, b, 1e-6);
+        (u.exp(), r)
+    }
+}
