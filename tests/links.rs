@@ -97,7 +97,14 @@ fn page_scenarios() -> Vec<(&'static str, Scenario)> {
                 from_ev: 0.6,
                 to_ev: 2.5,
             },
-            map: MapSettings { top_from_ev: 1.4, top_to_ev: 2.2, bottom_from_ev: 0.7, bottom_to_ev: 1.3, points: 51 },
+            map: MapSettings {
+                top_from_ev: 1.4,
+                top_to_ev: 2.2,
+                bottom_from_ev: 0.7,
+                bottom_to_ev: 1.3,
+                points: 51,
+                ..Default::default()
+            },
             absorber: AbsorberSpec::Urbach { urbach_mev: 25.0 },
             mismatch: MismatchSettings {
                 test_eqe: Some(eqe_nm(
@@ -172,7 +179,14 @@ fn page_scenarios() -> Vec<(&'static str, Scenario)> {
                 from_ev: 0.5,
                 to_ev: 3.0,
             },
-            map: MapSettings { top_from_ev: 1.5, top_to_ev: 2.0, bottom_from_ev: 0.8, bottom_to_ev: 1.2, points: 2 },
+            map: MapSettings {
+                top_from_ev: 1.5,
+                top_to_ev: 2.0,
+                bottom_from_ev: 0.8,
+                bottom_to_ev: 1.2,
+                points: 2,
+                ..Default::default()
+            },
             absorber: AbsorberSpec::Measured(EqeTableSpec {
                 name: "hand-made wavenumber EQE".into(),
                 axis: Axis::Wavenumber,
@@ -197,7 +211,14 @@ fn page_scenarios() -> Vec<(&'static str, Scenario)> {
                 from_ev: 0.4,
                 to_ev: 4.0,
             },
-            map: MapSettings { top_from_ev: 1.0, top_to_ev: 3.0, bottom_from_ev: 0.3, bottom_to_ev: 1.9, points: 500 },
+            map: MapSettings {
+                top_from_ev: 1.0,
+                top_to_ev: 3.0,
+                bottom_from_ev: 0.3,
+                bottom_to_ev: 1.9,
+                points: 500,
+                ..Default::default()
+            },
             absorber: AbsorberSpec::Step,
             mismatch: MismatchSettings::default(),
             bottom: None,

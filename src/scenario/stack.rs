@@ -96,11 +96,22 @@ pub struct MapSettings {
     pub bottom_to_ev: f64,
     /// points along each axis, 2 to [`MAX_MAP_POINTS`]
     pub points: usize,
+    /// with a real bottom cell the map's second axis is its thickness [um], log-spaced
+    pub thickness_from_um: f64,
+    pub thickness_to_um: f64,
 }
 
 impl Default for MapSettings {
     fn default() -> Self {
-        MapSettings { top_from_ev: 1.2, top_to_ev: 2.4, bottom_from_ev: 0.5, bottom_to_ev: 1.5, points: 121 }
+        MapSettings {
+            top_from_ev: 1.2,
+            top_to_ev: 2.4,
+            bottom_from_ev: 0.5,
+            bottom_to_ev: 1.5,
+            points: 121,
+            thickness_from_um: 10.0,
+            thickness_to_um: 1000.0,
+        }
     }
 }
 
@@ -442,7 +453,15 @@ impl MapSettings {
             return Err(format!("the map needs 2 to {MAX_MAP_POINTS} points along each axis, {} given", self.points));
         }
         check_gap_range("map's top-gap range", self.top_from_ev, self.top_to_ev)?;
-        check_gap_range("map's bottom-gap range", self.bottom_from_ev, self.bottom_to_ev)
+        check_gap_range("map's bottom-gap range", self.bottom_from_ev, self.bottom_to_ev)?;
+        self.thicknesses().map(drop)
+    }
+
+    /// The thickness axis [m] of a map over a real bottom cell (log-spaced).
+    pub fn thicknesses(&self) -> Result<Vec<f64>, String> {
+        super::real::thickness_sweep(self.thickness_from_um, self.thickness_to_um, self.points)
+            .map(|ts| ts.into_iter().map(|t| t * 1e-6).collect())
+            .map_err(|e| format!("the map's {}", e.trim_start_matches("the ")))
     }
 
     /// Check the axes; returns (top gaps, bottom gaps) [J].

@@ -297,3 +297,33 @@ pub fn mixed_efficiency(
         0.0
     }
 }
+
+/// The efficiency map of stacks of one step top cell over a real bottom cell: `eff[i * m +
+/// k]` is the stack of top gap `tops_j[i]` [J] and bottom thickness `thicknesses_m[k]` [m]
+/// (`m` = `thicknesses_m.len()`), the bottom cell being `bottom` at that thickness, every
+/// row on every core natively. With `coupling` as [`StackExtras::coupling`].
+pub fn thickness_map(
+    light: &Illumination,
+    template: &Cell,
+    bottom: &RealBottom,
+    tops_j: &[f64],
+    thicknesses_m: &[f64],
+    connection: Connection,
+    coupling: f64,
+) -> Vec<f64> {
+    let m = thicknesses_m.len();
+    let rows = crate::physics::batch::map_indexed(tops_j.len(), |i| {
+        thicknesses_m
+            .iter()
+            .map(|&w| {
+                let extras = StackExtras { bottom: Some(RealBottom { thickness_m: w, ..bottom.clone() }), coupling };
+                mixed_efficiency(light, template, &tops_j[i..=i], &extras, connection)
+            })
+            .collect::<Vec<f64>>()
+    });
+    let mut out = Vec::with_capacity(tops_j.len() * m);
+    for r in rows {
+        out.extend(r);
+    }
+    out
+}
