@@ -85,6 +85,7 @@ fn main() {
     stack_map(rounds);
     hot_emitters(rounds, quick);
     films(rounds, quick);
+    silicon(rounds, quick);
 }
 
 /// Hot emitters: one TPV evaluation with a profile emitter from scratch (goal < 2 ms), a
@@ -481,6 +482,94 @@ fn cli_peak_memory() {
         }
         Err(e) => println!("bench cli_sweep_37001_peak_memory   skipped ({e})"),
     }
+}
+
+/// Silicon (real absorber): one cell from scratch (goal < 1 ms), one re-solve at a new
+/// thickness with the model kept (what a drag of the thickness costs), a 100-point
+/// thickness sweep from scratch (goal < 50 ms) beside benches/silicon_numpy.py in the same
+/// run, the best top gap over 300 um silicon, and a 121 x 121 top-gap by thickness map.
+fn silicon(rounds: usize, quick: bool) {
+    use glowgap::physics::real_cell::RealCellModel;
+    use glowgap::physics::silicon::{Doping, RealAbsorber, Trapping};
+    use glowgap::physics::stack::mixed::{thickness_map, RealBottom, StackExtras};
+    use glowgap::physics::stack::optimize::{optimize, Problem, SEARCH_RANGE_EV};
+    use glowgap::physics::stack::Connection;
+    use std::sync::Arc;
+    let light = Illumination::one_sun(Source::am15g());
+    let si = RealAbsorber::silicon(110e-6, Trapping::Lambertian).unwrap();
+    let one = median_per_call(rounds, 20, || {
+        let m = RealCellModel::new(black_box(&si), &light, 300.0, Doping::Undoped, true);
+        black_box(m.solve(110e-6, Trapping::Lambertian));
+    });
+    let model = RealCellModel::new(&si, &light, 300.0, Doping::Undoped, true);
+    let again = median_per_call(rounds, 200, || {
+        black_box(model.solve(black_box(123e-6), Trapping::Lambertian));
+    });
+    let ws: Vec<f64> = (0..100).map(|i| 1e-6 * 1000f64.powf(i as f64 / 99.0)).collect();
+    let mut best = (0.0, 0.0);
+    let sweep100 = median_per_call(rounds, 3, || {
+        let m = RealCellModel::new(&si, &light, 300.0, Doping::Undoped, true);
+        let rs = m.sweep(black_box(&ws), Trapping::Lambertian);
+        let i = (0..rs.len()).max_by(|&a, &b| rs[a].efficiency.total_cmp(&rs[b].efficiency)).unwrap_or(0);
+        best = (ws[i], rs[i].efficiency);
+    });
+    println!("bench silicon_cell_from_scratch     {:>10.3} ms   (goal < 1 ms)", one * 1e3);
+    println!("bench silicon_cell_new_thickness    {:>10.3} us   (model kept: a thickness drag)", again * 1e6);
+    println!(
+        "bench silicon_sweep_100_points      {:>10.3} ms   (goal < 50 ms; best {:.1} um, {:.4} %)",
+        sweep100 * 1e3,
+        best.0 * 1e6,
+        best.1 * 100.0
+    );
+    if let Some(out) = run_numpy_script("silicon_numpy.py", "numpy_silicon_sweep", Some(if quick { "1" } else { "20" }))
+    {
+        match number_after(&out, "numpy_silicon_sweep_seconds=") {
+            Some(np_s) => {
+                println!(
+                    "bench numpy_silicon_sweep_100       {:>10.3} ms   (best {} um, {})",
+                    np_s * 1e3,
+                    number_after(&out, "best_thickness_um=").unwrap_or(f64::NAN),
+                    number_after(&out, "best_efficiency=").unwrap_or(f64::NAN)
+                );
+                println!("bench ratio numpy/glowgap silicon   {:>10.1} x", np_s / sweep100);
+            }
+            None => println!("bench numpy_silicon_sweep_100       skipped (no timing line in the script's output)"),
+        }
+    }
+    let si300 = RealAbsorber::silicon(300e-6, Trapping::Lambertian).unwrap();
+    let bottom = RealBottom {
+        model: Arc::new(RealCellModel::new(&si300, &light, 298.15, Doping::Undoped, true)),
+        thickness_m: 300e-6,
+        trapping: Trapping::Lambertian,
+    };
+    let p = Problem {
+        light: &light,
+        cell: Cell { temp_k: 298.15, ..Cell::ideal(1.0) },
+        connection: Connection::Series,
+        junctions: 1,
+        fixed: None,
+        range_j: (ev(SEARCH_RANGE_EV.0), ev(SEARCH_RANGE_EV.1)),
+        seeds: vec![],
+        extras: StackExtras { bottom: Some(bottom.clone()), coupling: 0.0 },
+    };
+    let found = optimize(&p);
+    let opt = median_per_call(rounds.min(5), 1, || {
+        black_box(optimize(black_box(&p)));
+    });
+    println!(
+        "bench tandem_on_silicon_best_top    {:>10.3} ms   ({:.4} eV, {:.3} %, {} evaluations)",
+        opt * 1e3,
+        found.gaps_j.first().copied().unwrap_or(0.0) / glowgap::physics::constants::CHARGE,
+        found.efficiency * 100.0,
+        found.evaluations
+    );
+    let tops: Vec<f64> = (0..121).map(|i| ev(1.2 + 1.2 * i as f64 / 120.0)).collect();
+    let thick: Vec<f64> = (0..121).map(|i| 10e-6 * 100f64.powf(i as f64 / 120.0)).collect();
+    let cell = Cell { temp_k: 298.15, ..Cell::ideal(1.0) };
+    let map = median_per_call(rounds.min(5), 1, || {
+        black_box(thickness_map(&light, &cell, &bottom, &tops, &thick, Connection::Series, 0.0));
+    });
+    println!("bench silicon_map_121x121_series    {:>10.3} ms", map * 1e3);
 }
 
 /// Film emitters: the 10-layer table of benches/film_numpy.py, the radiator's own table of

@@ -68,7 +68,7 @@ pub struct RealAbsorber {
 
 /// Sub-points per table interval where the absorptance is sampled (ln alpha linear in E
 /// between the table's points, which follows an absorption edge closely).
-const REFINE: usize = 8;
+const REFINE: usize = 32;
 
 impl RealAbsorber {
     /// From a table of n and k by vacuum wavelength [m] (any order): alpha = 4 pi k / lambda.
@@ -170,22 +170,46 @@ pub fn silicon_ni(temp_k: f64) -> f64 {
     9.65e15 * (t / 300.0).powf(1.5) * (-(eg / (2.0 * thermal_energy(t)) - eg / (2.0 * thermal_energy(300.0)))).exp()
 }
 
-/// The Auger recombination rate of silicon [m^-3 s^-1] at electron and hole densities `n`,
-/// `p` [m^-3] with equilibrium densities `n0`, `p0` [m^-3] and intrinsic density `ni`
-/// [m^-3] (Richter et al. 2012, module docs; evaluated in their cm units).
-pub fn richter_auger(n: f64, p: f64, n0: f64, p0: f64, ni: f64) -> f64 {
-    let cm = 1e-6; // m^-3 -> cm^-3
-    let (n, p, n0, p0, ni) = (n * cm, p * cm, n0 * cm, p0 * cm, ni * cm);
-    let dn = ((n - n0) + (p - p0)).max(0.0) * 0.5;
-    let g_eeh = 1.0 + 13.0 * (1.0 - (n0 / 3.3e17).powf(0.66).tanh());
-    let g_ehh = 1.0 + 7.5 * (1.0 - (p0 / 7e17).powf(0.63).tanh());
-    let r = (n * p - ni * ni) * (2.5e-31 * g_eeh * n0 + 8.5e-32 * g_ehh * p0 + 3.0e-29 * dn.powf(0.92));
-    let r = r / cm; // cm^-3 s^-1 -> m^-3 s^-1
-    if r.is_finite() {
-        r.max(0.0)
-    } else {
-        0.0
+/// The Auger recombination of silicon (Richter et al. 2012, module docs) at fixed
+/// equilibrium densities, with the part that depends only on them worked out once.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct RichterAuger {
+    /// n0 + p0 [cm^-3]
+    sum_cm: f64,
+    /// 2.5e-31 g_eeh n0 + 8.5e-32 g_ehh p0 [cm^3 s^-1 ... in their units: cm^-3 x cm^6 s^-1]
+    equilibrium: f64,
+}
+
+impl RichterAuger {
+    /// At equilibrium electron and hole densities `n0`, `p0` [m^-3] (n0 p0 = ni^2).
+    pub fn new(n0: f64, p0: f64) -> RichterAuger {
+        let cm = 1e-6; // m^-3 -> cm^-3
+        let (n0, p0) = (n0 * cm, p0 * cm);
+        let g_eeh = 1.0 + 13.0 * (1.0 - (n0 / 3.3e17).powf(0.66).tanh());
+        let g_ehh = 1.0 + 7.5 * (1.0 - (p0 / 7e17).powf(0.63).tanh());
+        RichterAuger { sum_cm: n0 + p0, equilibrium: 2.5e-31 * g_eeh * n0 + 8.5e-32 * g_ehh * p0 }
     }
+
+    /// The rate [m^-3 s^-1] at excess density `dn` [m^-3]: n p - ni^2 = dn (n0 + p0 + dn)
+    /// (exact for n0 p0 = ni^2, and free of cancellation).
+    pub fn rate(&self, dn: f64) -> f64 {
+        let cm = 1e-6;
+        let dn = (dn * cm).max(0.0);
+        let r = dn * (self.sum_cm + dn) * (self.equilibrium + 3.0e-29 * dn.powf(0.92)) / cm;
+        if r.is_finite() {
+            r
+        } else {
+            0.0
+        }
+    }
+}
+
+/// The Auger recombination rate of silicon [m^-3 s^-1] at electron and hole densities `n`,
+/// `p` [m^-3] with equilibrium densities `n0`, `p0` [m^-3] (n0 p0 = ni^2; Richter et al.
+/// 2012, module docs; evaluated in their cm units).
+pub fn richter_auger(n: f64, p: f64, n0: f64, p0: f64) -> f64 {
+    let dn = ((n - n0) + (p - p0)).max(0.0) * 0.5;
+    RichterAuger::new(n0, p0).rate(dn)
 }
 
 /// A silicon-like cell's figures.

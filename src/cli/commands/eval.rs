@@ -11,10 +11,10 @@
 use crate::cli::args::{OptionDoc, Spec};
 use crate::cli::shared::files::open_scenario;
 use crate::cli::shared::output::{
-    print_cell, print_json, print_radiator, warn, with_gaps_as_given, write_absorber_cell, write_stack_table,
+    print_cell, print_json, print_radiator, warn, with_gaps_as_given, write_absorber_cell, write_stack_extras,
+    write_stack_table,
 };
 use crate::cli::shared::{Command, Failure, Out};
-use crate::physics::stack::solve_stack;
 use crate::physics::tpv::Tpv;
 use crate::report::blackbody::BlackbodyReport;
 use crate::report::hot::{AbsorberReport, TpvReport};
@@ -100,12 +100,13 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     }
     if p.flag("stack") {
         let setup = scenario.stack.to_physics(&scenario.cell)?;
-        let r = solve_stack(&setup.light, &setup.cell, &setup.gaps_j, setup.connection);
-        let report = with_gaps_as_given(StackReport::from(&r), &scenario.stack.gaps_ev);
+        let r = setup.solve();
+        let report = with_gaps_as_given(StackReport::from(&r), &scenario.stack.gaps_ev).with_extras(&scenario.stack);
         if json {
             return print_json(out, &report);
         }
         write_stack_table(out, &report, &setup.light.source.name(), &scenario.cell)?;
+        write_stack_extras(out, &report)?;
         return Ok(());
     }
     if p.flag("tpv") {

@@ -36,8 +36,8 @@ pub const COMMAND: Command = Command {
     },
     about: "the best band gaps of a stack of 1 to 6 junctions",
     usage: "optimize --junctions N [--connection C] [--fix EV [--fix-at any|top|bottom]]\n\
-            [--from EV --to EV] [--bottom silicon:UM [--light-trapping MODEL] [--doping-type n|p --doping CM3]]\n\
-            [--luminescent-coupling F] [SOURCE AND CELL OPTIONS] [--json]",
+            [--from EV --to EV] [--bottom silicon:UM [--light-trapping MODEL]\n\
+            [--doping-type n|p --doping CM3]] [--luminescent-coupling F] [SOURCE AND CELL OPTIONS] [--json]",
     docs: &[
         OptionDoc { name: "junctions", arg: "N", text: "number of junctions, 1 to 6, required" },
         OptionDoc {

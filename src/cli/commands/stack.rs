@@ -27,12 +27,14 @@ pub const COMMAND: Command = Command {
     },
     about: "a multi-junction stack: efficiency and each subcell's currents and voltages",
     usage: "stack --gaps EV,EV[,...][,silicon:UM] [--connection C] [--luminescent-coupling F]\n\
-            [--light-trapping MODEL] [--doping-type n|p --doping CM3] [SOURCE AND CELL OPTIONS] [--json | --link]",
+            [--light-trapping MODEL] [--doping-type n|p --doping CM3]\n\
+            [SOURCE AND CELL OPTIONS] [--json | --link]",
     docs: &[OptionDoc {
         name: "gaps",
         arg: "EV,EV,...",
-        text: "2 to 6 band gaps in eV, top cell first (strictly descending), required; the last may\n\
-               be a real absorber, silicon:THICKNESS_UM or file:PATH:THICKNESS_UM (e.g. 1.71,silicon:300)",
+        text: "2 to 6 band gaps in eV, top cell first (strictly descending), required; the last\n\
+               may be a real absorber, silicon:THICKNESS_UM or file:PATH:THICKNESS_UM\n\
+               (e.g. 1.71,silicon:300)",
     }],
     run,
 };

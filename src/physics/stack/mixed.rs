@@ -16,8 +16,9 @@
 //! * Series connection: one current J. Given J the subcells are solved top down (each
 //!   one's coupled photocurrent is known once the one above is), V(J) = sum V_i(J), and
 //!   P = max J V(J) over the currents every subcell can carry, by golden section to 1e-12
-//!   relative in J. Independent connection: each subcell at its own maximum power point,
-//!   top down, each receiving its upper neighbour's emission at that neighbour's point.
+//!   relative in J (1e-8 where only the efficiency is wanted: the power is flat there).
+//!   Independent connection: each subcell at its own maximum power point, top down, each
+//!   receiving its upper neighbour's emission at that neighbour's point.
 //!
 //! Stacks of step cells without coupling are solved by `stack::solve_stack`; this module
 //! gives the same answers for them (checked in the tests to 1e-9).
@@ -136,12 +137,13 @@ fn subcells(light: &Illumination, template: &Cell, gaps_j: &[f64], extras: &Stac
 fn extras_at(subs: &[Sub], j: f64, coupling: f64) -> Option<Vec<f64>> {
     let mut out = Vec::with_capacity(subs.len());
     let mut extra = 0.0;
-    for s in subs {
+    for (i, s) in subs.iter().enumerate() {
         if s.jsc() + extra < j {
             return None;
         }
         out.push(extra);
-        extra = if coupling > 0.0 { coupling * s.emission(j, extra) } else { 0.0 };
+        // the last subcell's emission reaches no one
+        extra = if coupling > 0.0 && i + 1 < subs.len() { coupling * s.emission(j, extra) } else { 0.0 };
     }
     Some(out)
 }
@@ -160,9 +162,10 @@ fn usable(template: &Cell, gaps_j: &[f64], extras: &StackExtras) -> bool {
         && (0.0..=1.0).contains(&extras.coupling)
 }
 
-/// The series maximum (power [W m^-2], current [A m^-2]) of `subs`.
+/// The series maximum (power [W m^-2], current [A m^-2]) of `subs`, the current found to
+/// `rel_tol` relative (the power, flat at its maximum, to about its square).
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(x > 0.0) on purpose: it also refuses NaN
-fn series_max(subs: &[Sub], coupling: f64) -> (f64, f64) {
+fn series_max(subs: &[Sub], coupling: f64, rel_tol: f64) -> (f64, f64) {
     // the largest current every subcell can carry, by bisection (feasible currents form
     // an interval from 0: each coupled photocurrent falls as the current rises)
     let top = subs.iter().map(Sub::jsc).fold(0.0, f64::max) * (1.0 + coupling * subs.len() as f64);
@@ -186,7 +189,7 @@ fn series_max(subs: &[Sub], coupling: f64) -> (f64, f64) {
         Some(ex) => j * subs.iter().zip(&ex).map(|(s, &e)| s.voltage(j, e)).sum::<f64>(),
         None => 0.0,
     };
-    let (j, p) = golden_max(power, |p| *p, 0.0, jmax, 1e-12 * jmax.max(1e-300));
+    let (j, p) = golden_max(power, |p| *p, 0.0, jmax, rel_tol * jmax.max(1e-300));
     (p.max(0.0), j)
 }
 
@@ -240,7 +243,7 @@ pub fn solve_mixed(
             (out.iter().map(|r| r.jsc).sum(), total, None)
         }
         Connection::Series => {
-            let (p, j) = series_max(&subs, coupling);
+            let (p, j) = series_max(&subs, coupling, 1e-12);
             let ex = extras_at(&subs, j, coupling).unwrap_or_else(|| vec![0.0; subs.len()]);
             // photocurrents as coupled at the operating point
             for ((r, s), &e) in out.iter_mut().zip(&subs).zip(&ex) {
@@ -278,7 +281,8 @@ pub fn mixed_efficiency(
     }
     let (subs, gaps) = subcells(light, template, gaps_j, extras);
     let p = match connection {
-        Connection::Series => series_max(&subs, extras.coupling).0,
+        // 1e-8 in the current is about 1e-16 in the power at its maximum
+        Connection::Series => series_max(&subs, extras.coupling, 1e-8).0,
         Connection::Independent => {
             let mut extra = 0.0;
             let mut total = 0.0;
