@@ -186,7 +186,9 @@ pub fn decode_link(link: &str) -> Result<Scenario, LinkError> {
 /// and the warnings worth showing; the error says what is wrong with the link or file, or
 /// which setting is out of range.
 pub fn open(text: &str) -> Result<(Scenario, Vec<String>), LinkError> {
-    let scenario = decode(text)?;
+    let mut scenario = decode(text)?;
+    // a material's gap at the scenario's cell temperature, whatever the file says
+    scenario.cell.sync_gap();
     let warnings = scenario.check_with_warnings().map_err(LinkError)?;
     Ok((scenario, warnings))
 }

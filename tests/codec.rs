@@ -97,7 +97,16 @@ fn scenario() -> impl Strategy<Value = Scenario> {
     )
         .prop_map(|(gap, spectrum, x, t, ere, emission, approx, axis, quantity, ((from, to, panel), radiator))| {
             Scenario {
-                cell: CellScenario { gap_ev: gap, spectrum, concentration: x, cell_temp_k: t, ere, emission, approx },
+                cell: CellScenario {
+                    gap_ev: gap,
+                    spectrum,
+                    concentration: x,
+                    cell_temp_k: t,
+                    ere,
+                    emission,
+                    approx,
+                    gap_material: None,
+                },
                 view: ViewSettings {
                     spectrum_axis: axis,
                     spectrum_quantity: quantity,

@@ -78,6 +78,7 @@ fn page_scenarios() -> Vec<(&'static str, Scenario)> {
             ere: 0.05,
             emission: Emission::Front,
             approx: JvModel::Exact,
+            gap_material: None,
         },
         view: ViewSettings {
             panel: Panel::Stack,
@@ -136,6 +137,7 @@ fn page_scenarios() -> Vec<(&'static str, Scenario)> {
             ere: 1.0,
             emission: Emission::Both,
             approx: JvModel::Exact,
+            gap_material: None,
         },
         view: ViewSettings {
             panel: Panel::Radiator,

@@ -22,3 +22,4 @@ pub mod special;
 pub mod spectrum;
 pub mod stack;
 pub mod tpv;
+pub mod varshni;

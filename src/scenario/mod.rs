@@ -13,6 +13,7 @@ use crate::physics::constants::{ev, MAX_CONCENTRATION};
 use crate::physics::junction::{Cell, Illumination};
 use crate::physics::sources::Source;
 use crate::physics::spectrum::Spectrum;
+use crate::physics::varshni::{gap_material, GapMaterial, GAP_MATERIALS};
 use serde::{Deserialize, Serialize};
 
 mod choices;
@@ -138,6 +139,9 @@ pub struct CellScenario {
     pub ere: f64,
     pub emission: Emission,
     pub approx: JvModel,
+    /// a material whose gap follows the cell temperature (`physics::varshni`, e.g. "gaas");
+    /// when set, `gap_ev` is that material's gap at `cell_temp_k` ([`CellScenario::sync_gap`])
+    pub gap_material: Option<String>,
 }
 
 impl Default for CellScenario {
@@ -150,6 +154,7 @@ impl Default for CellScenario {
             ere: 1.0,
             emission: Emission::Front,
             approx: JvModel::Exact,
+            gap_material: None,
         }
     }
 }
@@ -210,7 +215,30 @@ pub fn check_gap_range(what: &str, from_ev: f64, to_ev: f64) -> Result<(), Strin
     Ok(())
 }
 
+/// The built-in material of a gap-material key, or a message listing the known ones.
+pub fn check_gap_material(key: &str) -> Result<&'static GapMaterial, String> {
+    gap_material(key).ok_or_else(|| {
+        let known: Vec<&str> = GAP_MATERIALS.iter().map(|m| m.key).collect();
+        format!("the material '{key}' has no built-in band gap; use one of {} or type a gap in eV", known.join(", "))
+    })
+}
+
 impl CellScenario {
+    /// The band gap [eV] in force: the material's at the cell temperature when one is
+    /// chosen (an unknown material keeps `gap_ev`; `to_physics` refuses it), else `gap_ev`.
+    pub fn gap_now(&self) -> f64 {
+        match self.gap_material.as_deref().and_then(gap_material) {
+            Some(m) => m.gap_ev(self.cell_temp_k),
+            None => self.gap_ev,
+        }
+    }
+
+    /// Set `gap_ev` to [`CellScenario::gap_now`]: every front end calls this after an edit
+    /// (or an opened link) so that a material's gap follows the cell temperature.
+    pub fn sync_gap(&mut self) {
+        self.gap_ev = self.gap_now();
+    }
+
     /// Check the band gap [eV] alone, for edits that change nothing else.
     pub fn check_gap(gap_ev: f64) -> Result<(), String> {
         check_gap_ev(gap_ev)
@@ -218,7 +246,11 @@ impl CellScenario {
 
     /// Check every value and convert to SI physics inputs.
     pub fn to_physics(&self) -> Result<CellSetup, String> {
-        check_gap_ev(self.gap_ev)?;
+        if let Some(m) = &self.gap_material {
+            check_gap_material(m)?;
+        }
+        let gap_ev = self.gap_now();
+        check_gap_ev(gap_ev)?;
         check_range("cell temperature", self.cell_temp_k, CELL_TEMP_RANGE_K.0, CELL_TEMP_RANGE_K.1, "K", "e.g. 300")?;
         if self.ere.is_nan() || !(self.ere > 0.0 && self.ere <= 1.0) {
             return Err(format!(
@@ -232,7 +264,7 @@ impl CellScenario {
         Ok(CellSetup {
             light: Illumination { source, concentration: self.concentration },
             cell: Cell {
-                gap_j: ev(self.gap_ev),
+                gap_j: ev(gap_ev),
                 temp_k: self.cell_temp_k,
                 ere: self.ere,
                 emission: self.emission.into(),

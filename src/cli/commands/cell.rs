@@ -8,9 +8,10 @@ use crate::cli::shared::files::read_eqe_file;
 use crate::cli::shared::options::{apply_common, real_absorber, with_light_and_cell_options};
 use crate::cli::shared::output::{print_cell, warn, write_absorber_cell, write_real_cell};
 use crate::cli::shared::{Command, Failure, Out};
+use crate::physics::varshni::gap_material;
 use crate::scenario::real::thickness_sweep;
 use crate::scenario::stack::{AbsorberSpec, EqeTableSpec, StackScenario};
-use crate::scenario::{CellScenario, Scenario};
+use crate::scenario::{check_gap_material, CellScenario, Scenario};
 
 pub const COMMAND: Command = Command {
     spec: Spec {
@@ -39,7 +40,9 @@ pub const COMMAND: Command = Command {
         OptionDoc {
             name: "gap",
             arg: "EV",
-            text: "band gap in eV (0.01 to 20), required; with --eqe the table sets the edge",
+            text: "band gap in eV (0.01 to 20), or a material whose gap follows --cell-temp (Varshni):\n\
+                   gan, gap, alas, gaas, inp, si, ge, gasb, inas, insb; required; with --eqe the\n\
+                   table sets the edge",
         },
         OptionDoc {
             name: "eqe",
@@ -77,7 +80,8 @@ pub const COMMAND: Command = Command {
 
 fn run(args: &[String], out: Out) -> Result<(), Failure> {
     let p = COMMAND.spec.parse(args)?;
-    let mut sc = CellScenario { gap_ev: cell_gap(&p)?, ..Default::default() };
+    let gap_material = p.text("gap").and_then(gap_material).map(|m| m.key.to_string());
+    let mut sc = CellScenario { gap_ev: cell_gap(&p)?, gap_material, ..Default::default() };
     apply_common(&p, &mut sc)?;
     if let Some(a) = p.text("absorber") {
         return cell_real(&p, sc, a, out);
@@ -104,6 +108,15 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
 /// The `--gap`: required, except with `--eqe`, whose table sets the edge (the scenario then
 /// keeps its default gap, which a measured absorptance does not use).
 fn cell_gap(p: &Parsed) -> Result<f64, String> {
+    if let Some(t) = p.text("gap") {
+        if gap_material(t).is_some() {
+            // a material: the gap follows the cell temperature once the options are applied
+            return Ok(CellScenario::default().gap_ev);
+        }
+        if t.trim().parse::<f64>().is_err() && t.trim().chars().all(|c| c.is_ascii_alphabetic()) {
+            return Err(format!("--gap: {}", check_gap_material(t).err().unwrap_or_default()));
+        }
+    }
     match p.number("gap", "band gap", "eV")? {
         Some(g) => Ok(g),
         None if p.text("eqe").is_some() || p.text("absorber").is_some() => Ok(CellScenario::default().gap_ev),

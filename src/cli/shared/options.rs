@@ -98,6 +98,8 @@ pub fn apply_common(p: &Parsed, sc: &mut CellScenario) -> Result<(), String> {
     if let Some(t) = p.number("cell-temp", "cell temperature", "K")? {
         sc.cell_temp_k = t;
     }
+    // a material's gap follows the cell temperature
+    sc.sync_gap();
     if let Some(e) = p.number("ere", "external radiative efficiency", "a fraction above 0, at most 1")? {
         sc.ere = e;
     }
