@@ -8,10 +8,10 @@ use crate::cli::shared::files::read_eqe_file;
 use crate::cli::shared::options::{apply_common, real_absorber, with_light_and_cell_options};
 use crate::cli::shared::output::{print_cell, warn, write_absorber_cell, write_real_cell};
 use crate::cli::shared::{Command, Failure, Out};
-use crate::physics::varshni::gap_material;
+use crate::physics::varshni::{gap_material, GAP_MATERIALS};
 use crate::scenario::real::thickness_sweep;
 use crate::scenario::stack::{AbsorberSpec, EqeTableSpec, StackScenario};
-use crate::scenario::{check_gap_material, CellScenario, Scenario};
+use crate::scenario::{CellScenario, Scenario};
 
 pub const COMMAND: Command = Command {
     spec: Spec {
@@ -114,7 +114,13 @@ fn cell_gap(p: &Parsed) -> Result<f64, String> {
             return Ok(CellScenario::default().gap_ev);
         }
         if t.trim().parse::<f64>().is_err() && t.trim().chars().all(|c| c.is_ascii_alphabetic()) {
-            return Err(format!("--gap: {}", check_gap_material(t).err().unwrap_or_default()));
+            let known: Vec<&str> = GAP_MATERIALS.iter().map(|m| m.key).collect();
+            return Err(format!(
+                "--gap '{}' is not a number nor a material with a built-in band gap; give the band gap in eV, \
+                 e.g. --gap 1.34, or one of {}",
+                t.trim(),
+                known.join(", ")
+            ));
         }
     }
     match p.number("gap", "band gap", "eV")? {
