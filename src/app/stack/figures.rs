@@ -91,7 +91,7 @@ pub fn subcell_table(stack: StackState) -> impl IntoView {
                         };
                         view! {
                             <tr class:limiting=limiting data-subcell=(i + 1).to_string()>
-                                <th scope="row"><i class="stack-swatch" style=swatch aria-hidden="true"></i>{format!("{}{}", i + 1, if i == 0 { " top" } else { "" })}</th>
+                                <th scope="row"><i class="stack-swatch" style=swatch aria-hidden="true"></i>{format!("{}{}", i + 1, if i == 0 { " top" } else if i == v.gaps_ev.len() { " silicon" } else { "" })}</th>
                                 <td>{fmt::gap_ev(s.gap_ev)}</td>
                                 <td>{band}</td>
                                 <td>{fmt::fixed(s.jsc_ma_cm2, 3)}</td>

@@ -162,6 +162,59 @@ pub fn first_silicon() -> RealAbsorberSpec {
     }
 }
 
+/// The caption under the real absorber's exported plots.
+pub fn caption(s: &Scenario, v: &RealView) -> String {
+    let what = format!(
+        "{} {} um, {} light trapping, {}",
+        v.spec.material_name(),
+        crate::view::format::field(v.spec.thickness_um, 6),
+        trapping_words(v.spec.trapping),
+        doping_words(&v.spec)
+    );
+    super::csv::conditions_caption(s, "cell", &what)
+}
+
+/// "undoped" or e.g. "n-type 1e+16 cm^-3".
+pub fn doping_words(r: &RealAbsorberSpec) -> String {
+    if r.doping_cm3 > 0.0 {
+        let t = if r.doping_type == DopingType::N { "n" } else { "p" };
+        format!("{t}-type {} cm⁻³", crate::view::format::sig(r.doping_cm3, 3))
+    } else {
+        "undoped".into()
+    }
+}
+
+/// The efficiency against thickness as CSV (the JSON keys of `glowgap cell --thickness-sweep`).
+pub fn thickness_csv(s: &Scenario, v: &RealView) -> String {
+    use crate::view::format::csv_num;
+    let mut out = format!("# Glowgap: efficiency against absorber thickness\n# {}\n", caption(s, v));
+    out.push_str(&format!("# best thickness in the range: {} um\n", csv_num(v.curve.best_um)));
+    out.push_str("thickness_um,efficiency_percent,jsc_ma_cm2,voc_v\n");
+    for p in &v.curve.points {
+        out.push_str(&format!(
+            "{},{},{},{}\n",
+            csv_num(p.thickness_um),
+            csv_num(p.efficiency * 100.0),
+            csv_num(p.jsc_ma_cm2),
+            csv_num(p.voc_v)
+        ));
+    }
+    out
+}
+
+/// The absorptance against photon energy as CSV, with the ideal step at the same edge.
+pub fn absorptance_csv(s: &Scenario, v: &RealView) -> String {
+    use crate::view::format::csv_num;
+    let mut out = format!("# Glowgap: absorptance against photon energy\n# {}\n", caption(s, v));
+    out.push_str(&format!("# absorption edge (half maximum): {} eV\n", csv_num(v.edge_ev)));
+    out.push_str("photon_energy_ev,absorptance,ideal_step\n");
+    for &(e, a) in &v.absorptance {
+        let step = if e >= v.edge_ev { 1.0 } else { 0.0 };
+        out.push_str(&format!("{},{},{}\n", csv_num(e), csv_num(a), csv_num(step)));
+    }
+    out
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
