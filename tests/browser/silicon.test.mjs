@@ -50,6 +50,8 @@ test('silicon on the Solar cell tab: the published limit, thickness by field, sl
   await page.locator('[data-plot="silicon-absorptance"]').waitFor({ state: 'visible' });
   await page.screenshot({ path: artifact('silicon-cell.png'), fullPage: true });
   await page.locator('.eqe-section').screenshot({ path: artifact('silicon-settings.png') });
+  await page.locator('[data-table="silicon"]').scrollIntoViewIfNeeded();
+  await page.locator('[data-table="silicon"]').screenshot({ path: artifact('silicon-figures.png') });
   await page.locator('[data-card="thickness"]').screenshot({ path: artifact('silicon-thickness.png') });
   await page.locator('[data-card="silicon-absorptance"]').screenshot({ path: artifact('silicon-absorptance.png') });
 
@@ -72,12 +74,13 @@ test('silicon on the Solar cell tab: the published limit, thickness by field, sl
   await canvas.scrollIntoViewIfNeeded();
   const box = await canvas.boundingBox();
   const f = await plotFrame(page, 'thickness');
-  const y = box.y + (f.top + f.bottom) / 2 / (f.scale || 1);
-  const xAt = (t) => box.x + (f.left + (f.right - f.left) * (t / 3)) / (f.scale || 1);
+  // the frame is in CSS px; the axis runs in log10 of the thickness in um
+  const y = box.y + (f.top + f.bottom) / 2;
+  const xAt = (lg) => box.x + f.left + ((lg - f.x[0]) / (f.x[1] - f.x[0])) * (f.right - f.left);
   await page.evaluate(() => performance.clearMarks());
   await page.mouse.move(xAt(1.5), y);
   await page.mouse.down();
-  for (let k = 0; k <= 24; k++) {
+  for (let k = 1; k <= 24; k++) {
     const n0 = await renders(page);
     await page.mouse.move(xAt(1.5 + k * 0.04), y);
     await rendered(page, n0 + 1);

@@ -76,8 +76,8 @@ fn rows(v: &RealView) -> Vec<(&'static str, &'static str, String)> {
         ("Fill factor", "si-ff", r.cell.display(CellMetric::Ff)),
         ("Vmp", "si-vmp", r.cell.display(CellMetric::Vmp)),
         ("Jmp", "si-jmp", r.cell.display(CellMetric::Jmp)),
-        ("Radiative recombination at the maximum power point", "si-radiative", ma(r.radiative_mpp_ma_cm2)),
-        ("Auger recombination at the maximum power point", "si-auger", ma(r.auger_mpp_ma_cm2)),
+        ("Radiative recombination at max power", "si-radiative", ma(r.radiative_mpp_ma_cm2)),
+        ("Auger recombination at max power", "si-auger", ma(r.auger_mpp_ma_cm2)),
         (
             "Absorption edge (half maximum)",
             "si-edge",
@@ -160,10 +160,15 @@ impl Drawing for ThicknessPlot<'_> {
         let v = self.v;
         let pts: Vec<(f64, f64)> =
             v.curve.points.iter().map(|p| (p.thickness_um.log10(), p.efficiency * 100.0)).collect();
-        let emax = pts.iter().map(|p| p.1).fold(v.report.cell.efficiency * 100.0, f64::max).max(1.0);
+        let here = v.report.cell.efficiency * 100.0;
+        let emax = pts.iter().map(|p| p.1).fold(here, f64::max).max(1.0);
+        let emin = pts.iter().map(|p| p.1).fold(here, f64::min).max(0.0);
+        // the curve is flat near its best: the axis starts a little below its lowest point
+        let floor = (emin - 0.15 * (emax - emin)).floor().max(0.0);
         let (lo, hi) = SLIDER_UM;
         let x = AxisSpec::log10(lo, hi, tick_target(look, w, 60.0), "Absorber thickness", "µm");
-        let y = AxisSpec::new(0.0, emax * 1.2, tick_target(look, h, 50.0), "Efficiency limit", "%", true);
+        let top = emax + 0.25 * (emax - floor).max(1.0);
+        let y = AxisSpec::new(floor, top, tick_target(look, h, 50.0), "Efficiency limit", "%", true);
         let (mut c, frame) = chart(root, look, &x, &y, true)?;
         c.draw_series(LineSeries::new(pts, CURVE.stroke_width(look.px(2.0).max(1) as u32))).map_err(err)?;
         let (left, right, top, bottom) = (frame.left as i32, frame.right as i32, frame.top as i32, frame.bottom as i32);

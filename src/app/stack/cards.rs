@@ -17,7 +17,7 @@ use crate::physics::stack::Connection;
 use crate::scenario::{PlotAxis, GAP_RANGE_EV};
 use crate::view::controls::Control;
 use crate::view::export::ExportKind;
-use crate::view::format::{fixed, gap_ev, sig};
+use crate::view::format::{fixed, sig};
 use crate::view::input::{ev_of_nm, tidy};
 use crate::view::spectrum::nearest;
 use crate::view::stack::map::{map_csv, Design, MapStatus};
@@ -154,7 +154,7 @@ fn spectrum_legend(stack: StackState) -> impl IntoView {
                 .map(|(i, s)| {
                     let style = format!("background:{}", colours::css(colours::subcell(i)));
                     view! {
-                        <span class="key"><i class="k-fill" style=style></i>{format!("{}: {} eV, Jsc {} mA/cm²", i + 1, gap_ev(s.gap_ev), fixed(s.jsc_ma_cm2, 2))}</span>
+                        <span class="key"><i class="k-fill" style=style></i>{format!("{}: {}, Jsc {} mA/cm²", i + 1, crate::view::stack::subcell_gap_text(&v.report, i), fixed(s.jsc_ma_cm2, 2))}</span>
                     }
                 })
                 .collect_view();
@@ -415,7 +415,7 @@ fn map_legend(stack: StackState) -> impl IntoView {
         </span>
         <span class="key" data-info="map-best" hidden=move || !has_best()><i class="k-diamond" class:hollow=move || optimum().is_some()></i>{best}</span>
         <span class="key"><i class="k-ring"></i>{design}</span>
-        <span class="key" hidden=move || !series()><i class="k-line k-matched"></i>"currents matched"</span>
+        <span class="key" hidden=move || !series() || thickness()><i class="k-line k-matched"></i>"currents matched"</span>
         <span class="key"><i class="k-fill k-not-stack"></i>"not a stack"</span>
         <span class="key map-timing" data-info="map-timing">{timing}</span>
     }

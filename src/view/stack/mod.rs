@@ -132,6 +132,21 @@ pub fn caption(s: &Scenario, what: &str) -> String {
     crate::view::cell::csv::conditions_caption(s, "cells", what)
 }
 
+/// Subcell `i`'s gap as the page writes it: "1.710 eV", or for a real bottom cell its
+/// absorber, thickness and absorption edge, "silicon 300 µm, edge 1.078 eV".
+pub fn subcell_gap_text(r: &StackReport, i: usize) -> String {
+    let Some(s) = r.subcells.get(i) else { return String::new() };
+    match &r.bottom {
+        Some(b) if i + 1 == r.subcells.len() => format!(
+            "{} {} µm, edge {} eV",
+            b.absorber,
+            crate::view::format::field(b.thickness_um, 6),
+            crate::view::format::fixed(s.gap_ev, 3)
+        ),
+        _ => format!("{} eV", gap_ev(s.gap_ev)),
+    }
+}
+
 /// Which subcell (0 = top) absorbs photons of energy `e_ev`, if any.
 pub fn absorbing(gaps_ev: &[f64], e_ev: f64) -> Option<usize> {
     gaps_ev.iter().position(|g| e_ev >= *g)
