@@ -162,6 +162,26 @@ test('a silicon bottom cell on the Stack tab: the published tandem, coupling, th
   await page.screenshot({ path: artifact('silicon-stack.png'), fullPage: true });
   await page.locator('[data-card="tandem-map"]').screenshot({ path: artifact('silicon-stack-map.png') });
 
+  // a click on the map sets the top gap and the silicon cell's thickness (3 significant digits)
+  const map = page.locator('[data-plot="tandem-map"]');
+  const mf = await plotFrame(page, 'tandem-map');
+  const mbox = await map.boundingBox();
+  const mx = mbox.x + mf.left + ((2 - mf.x[0]) / (mf.x[1] - mf.x[0])) * (mf.right - mf.left);
+  const my = mbox.y + mf.bottom - ((1.8 - mf.y[0]) / (mf.y[1] - mf.y[0])) * (mf.bottom - mf.top);
+  await edit(page, () => page.mouse.click(mx, my));
+  const um = parseFloat(await page.locator('[data-control="bottom-thickness"]').inputValue());
+  assert.ok(Math.abs(um - 100) <= 2, `clicked at 100 um: ${um}`);
+  assert.ok(Math.abs(parseFloat(await page.locator('[data-control="gap-1"]').inputValue()) - 1.8) <= 0.01);
+  // three junctions: two step gaps over the silicon cell
+  await edit(page, () => page.locator('[data-control="junctions"]').selectOption('3'));
+  await page.locator('[data-control="gap-2"]').waitFor();
+  await page.waitForFunction(() => document.querySelector('[data-subcell="3"]')?.textContent.includes('silicon'));
+  await edit(page, () => page.locator('[data-control="junctions"]').selectOption('2'));
+  await page.waitForFunction(() => !document.querySelector('[data-control="gap-2"]'));
+  await edit(page, () => page.locator('[data-control="gap-1"]').fill('1.71'));
+  await edit(page, () => page.locator('[data-control="bottom-thickness"]').fill('300'));
+  assert.equal((await pct(page, 'stack-efficiency')).toFixed(2), (cli.efficiency * 100).toFixed(2));
+
   // luminescent coupling: the command line's figure again
   await edit(page, () => page.locator('[data-control="luminescent-coupling"]').fill('0.3'));
   const coupled = stackJson(['stack', '--gaps', '1.71,silicon:300', '--luminescent-coupling', '0.3', '--json']);
