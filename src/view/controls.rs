@@ -107,6 +107,14 @@ controls! {
     FilmTargetProfile => "film-target-profile",
     FilmMaxThickness => "film-max-thickness",
     FilmOptimize => "film-optimize",
+    SiThickness => "si-thickness",
+    SiTrapping => "si-trapping",
+    SiDoping => "si-doping",
+    StackBottom => "stack-bottom",
+    BottomThickness => "bottom-thickness",
+    BottomTrapping => "bottom-trapping",
+    BottomDoping => "bottom-doping",
+    Coupling => "luminescent-coupling",
 }
 
 impl std::fmt::Display for Control {

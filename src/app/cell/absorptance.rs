@@ -69,23 +69,28 @@ pub fn open_eqe(ctx: Ctx, kept: RwSignal<Option<EqeTableSpec>>, file: web_sys::F
     });
 }
 
+/// An absorptance (or EQE) against wavelength with the ideal step at the same edge.
 pub struct AbsorptancePlot<'a> {
-    pub a: &'a AbsorberView,
+    /// (photon energy [eV], fraction), any order
+    pub points: &'a [(f64, f64)],
+    /// where the ideal step sits [eV]
+    pub edge_ev: f64,
+    /// the y axis' name
+    pub what: &'static str,
 }
 
 impl Drawing for AbsorptancePlot<'_> {
     fn draw(&self, root: &DrawingArea<Backend<'_>, Shift>, look: &Look) -> Result<Frame, String> {
         root.fill(&WHITE).map_err(err)?;
         let (w, h) = root.dim_in_pixel();
-        let pts: Vec<(f64, f64)> = self.a.points.iter().map(|(e, q)| (ev_of_nm(1.0) / e, q * 100.0)).collect();
+        let pts: Vec<(f64, f64)> = self.points.iter().map(|(e, q)| (ev_of_nm(1.0) / e, q * 100.0)).collect();
         let (lo, hi) = pts.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), p| (a.min(p.0), b.max(p.0)));
         let (lo, hi) = if hi > lo { (lo, hi) } else { (300.0, 1200.0) };
         let x = AxisSpec::new(lo, hi, tick_target(look, w, 70.0), "Wavelength", "nm", false);
-        let what = if self.a.kind == AbsorberKind::Urbach { "Absorptance" } else { "EQE" };
-        let y = AxisSpec::new(0.0, 105.0, tick_target(look, h, 40.0), what, "%", false);
+        let y = AxisSpec::new(0.0, 105.0, tick_target(look, h, 40.0), self.what, "%", false);
         let (mut c, frame) = chart(root, look, &x, &y, true)?;
         // the ideal step at the same edge
-        let edge_nm = ev_of_nm(1.0) / self.a.step.cell.gap_ev;
+        let edge_nm = ev_of_nm(1.0) / self.edge_ev;
         if edge_nm > lo {
             let e = edge_nm.min(hi);
             let step = vec![(lo, 100.0), (e, 100.0), (e, 0.0), (hi, 0.0)];
@@ -128,10 +133,11 @@ fn rows(a: &AbsorberView, ere: f64) -> Vec<(String, &'static str, String, String
 }
 
 /// The absorptance choices: (value, `data-control` hook, label).
-const CHOICES: [(&str, &str, &str); 3] = [
+const CHOICES: [(&str, &str, &str); 4] = [
     ("step", "absorber-step", "Ideal step at the band gap"),
     ("urbach", "absorber-urbach", "Step with an Urbach tail below the gap"),
     ("measured", "absorber-measured", "Measured EQE"),
+    ("silicon", "absorber-silicon", "Silicon (real absorption)"),
 ];
 
 /// The Urbach energy offered when the tail is first chosen [meV] (the scenario's example).
@@ -142,6 +148,7 @@ fn kind_of(a: &AbsorberSpec) -> &'static str {
         AbsorberSpec::Step => "step",
         AbsorberSpec::Urbach { .. } => "urbach",
         AbsorberSpec::Measured(_) => "measured",
+        AbsorberSpec::Real(_) => "silicon",
     }
 }
 
@@ -160,6 +167,7 @@ pub fn absorptance_section(cs: CellState, canvas: NodeRef<html::Canvas>) -> impl
         })
     });
     let last_urbach = RwSignal::new(urbach.get_untracked().unwrap_or(FIRST_URBACH_MEV));
+    let kept_real = super::silicon::kept(ctx);
     // bumped when a choice is refused, so the radios show the one in use again
     let refresh = RwSignal::new(0u32);
 
@@ -178,6 +186,7 @@ pub fn absorptance_section(cs: CellState, canvas: NodeRef<html::Canvas>) -> impl
                     false
                 }
             },
+            "silicon" => set_absorber(ctx, Control::Absorber, AbsorberSpec::Real(kept_real.get_untracked())),
             _ => set_absorber(ctx, Control::Absorber, AbsorberSpec::Step),
         };
         if ok {
@@ -295,6 +304,7 @@ pub fn absorptance_section(cs: CellState, canvas: NodeRef<html::Canvas>) -> impl
                 <p class="field-error" id="e-absorber" data-error=Control::Absorber.as_str() aria-live="polite">{move || ctx.error_of(Control::Absorber)}</p>
             </fieldset>
             <div class="sub-field" hidden=move || kind.get() != "urbach">{number_field(ctx, urbach_field, urbach_commit, None)}</div>
+            <div class="sub-field" hidden=move || kind.get() != "silicon">{super::silicon::silicon_settings(cs, kept_real)}</div>
             {drop}
             <p class="field-error" id="e-eqe-file" data-error=Control::EqeFile.as_str() aria-live="polite">{move || ctx.error_of(Control::EqeFile)}</p>
             {table}

@@ -12,6 +12,7 @@ pub mod controls;
 pub mod figures;
 pub mod losses;
 pub mod plots;
+pub mod silicon;
 pub mod state;
 
 use crate::view::controls::Control;
@@ -26,7 +27,7 @@ use super::widgets::plot::render::draw_into;
 use crate::view::cell::absorber::absorber_view;
 use crate::view::cell::losses::loss_view;
 use plots::{CellPlot, PlotKind};
-use state::{CellState, ABSORPTANCE, LOSSES, PLOTS};
+use state::{CellState, ABSORPTANCE, LOSSES, PLOTS, SI_ABSORPTANCE, SI_THICKNESS};
 
 /// How the message on an absorptance that cannot be computed (from a link) begins.
 const ABSORBER_UNUSABLE: &str = "The cell's absorptance cannot be computed:";
@@ -70,7 +71,9 @@ fn render_effect(cs: CellState, canvases: [NodeRef<html::Canvas>; PLOTS]) {
             Ok(a) => {
                 let a = a.map(Arc::new);
                 if let Some(a) = &a {
-                    let plot = absorptance::AbsorptancePlot { a };
+                    let what =
+                        if a.kind == crate::view::cell::absorber::AbsorberKind::Urbach { "Absorptance" } else { "EQE" };
+                    let plot = absorptance::AbsorptancePlot { points: &a.points, edge_ev: a.step.cell.gap_ev, what };
                     draw_into(ABSORPTANCE, &targets[ABSORPTANCE], &plot, &mut frames, &mut errors);
                 }
                 cs.absorber.set(a);
@@ -83,6 +86,24 @@ fn render_effect(cs: CellState, canvases: [NodeRef<html::Canvas>; PLOTS]) {
             }
             Err(e) => {
                 cs.absorber.set(None);
+                ctx.set_error(Control::Absorber, format!("{ABSORBER_UNUSABLE} {}", sentence(&e)));
+            }
+        }
+        let real = cs.real_cache.get_value();
+        match ctx.scenario.with(|s| real.borrow_mut().compute(s)) {
+            Ok(v) => {
+                let v = v.map(Arc::new);
+                if let Some(v) = &v {
+                    let t = silicon::ThicknessPlot { v };
+                    draw_into(SI_THICKNESS, &targets[SI_THICKNESS], &t, &mut frames, &mut errors);
+                    let a = silicon::absorptance_plot(v);
+                    draw_into(SI_ABSORPTANCE, &targets[SI_ABSORPTANCE], &a, &mut frames, &mut errors);
+                    mark("gg-si-drawn");
+                }
+                cs.real.set(v);
+            }
+            Err(e) => {
+                cs.real.set(None);
                 ctx.set_error(Control::Absorber, format!("{ABSORBER_UNUSABLE} {}", sentence(&e)));
             }
         }
@@ -111,6 +132,7 @@ pub fn CellPanel() -> impl IntoView {
             <section class="results" aria-label="Results">
                 {figures::figures(cs)}
                 <div class="plots">
+                    {silicon::silicon_cards(cs, canvases[SI_THICKNESS], canvases[SI_ABSORPTANCE])}
                     {cards::cell_plot_card(cs, PlotKind::Spectrum, canvases[0])}
                     {cards::cell_plot_card(cs, PlotKind::Efficiency, canvases[1])}
                     {cards::cell_plot_card(cs, PlotKind::Jv, canvases[2])}

@@ -11,13 +11,17 @@ use crate::app::state::Ctx;
 use crate::app::widgets::plot::Frame;
 use crate::view::cell::absorber::AbsorberView;
 use crate::view::cell::losses::LossView;
+use crate::view::cell::real::{RealCache, RealView};
 use crate::view::cell::{CellCache, CellView};
 
 /// The panel's plots, by index into [`CellState::frames`]: the three of
-/// [`super::plots::PlotKind`] first, then these two.
+/// [`super::plots::PlotKind`] first, then these four.
 pub const LOSSES: usize = 3;
 pub const ABSORPTANCE: usize = 4;
-pub const PLOTS: usize = 5;
+/// a real absorber's efficiency against thickness and its absorptance
+pub const SI_THICKNESS: usize = 5;
+pub const SI_ABSORPTANCE: usize = 6;
+pub const PLOTS: usize = 7;
 
 /// Shared handles of the cell panel; all are cheap to copy.
 #[derive(Clone, Copy)]
@@ -34,6 +38,10 @@ pub struct CellState {
     pub losses: RwSignal<Option<Arc<LossView>>>,
     /// the cell with its real absorptance next to the ideal step (None for a step)
     pub absorber: RwSignal<Option<Arc<AbsorberView>>>,
+    /// the real absorber's model and thickness curve, kept while another panel is in front
+    pub real_cache: StoredValue<Rc<RefCell<RealCache>>, LocalStorage>,
+    /// the cell with a real absorber (None for the other absorptances)
+    pub real: RwSignal<Option<Arc<RealView>>>,
 }
 
 impl CellState {
@@ -47,6 +55,8 @@ impl CellState {
             plot_errors: RwSignal::new(Default::default()),
             losses: RwSignal::new(None),
             absorber: RwSignal::new(None),
+            real_cache: StoredValue::new_local(Rc::new(RefCell::new(RealCache::default()))),
+            real: RwSignal::new(None),
         }
     }
 

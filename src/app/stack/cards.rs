@@ -17,7 +17,7 @@ use crate::physics::stack::Connection;
 use crate::scenario::{PlotAxis, GAP_RANGE_EV};
 use crate::view::controls::Control;
 use crate::view::export::ExportKind;
-use crate::view::format::{fixed, gap_ev, sig};
+use crate::view::format::{fixed, sig};
 use crate::view::input::{ev_of_nm, tidy};
 use crate::view::spectrum::nearest;
 use crate::view::stack::map::{map_csv, Design, MapStatus};
@@ -154,7 +154,7 @@ fn spectrum_legend(stack: StackState) -> impl IntoView {
                 .map(|(i, s)| {
                     let style = format!("background:{}", colours::css(colours::subcell(i)));
                     view! {
-                        <span class="key"><i class="k-fill" style=style></i>{format!("{}: {} eV, Jsc {} mA/cm²", i + 1, gap_ev(s.gap_ev), fixed(s.jsc_ma_cm2, 2))}</span>
+                        <span class="key"><i class="k-fill" style=style></i>{format!("{}: {}, Jsc {} mA/cm²", i + 1, crate::view::stack::subcell_gap_text(&v.report, i), fixed(s.jsc_ma_cm2, 2))}</span>
                     }
                 })
                 .collect_view();
@@ -199,7 +199,27 @@ const MARKER_REACH_CSS: f64 = 7.0;
 /// another number of junctions is left alone with a message.
 fn place_design(stack: StackState, top: f64, bottom: f64, unit: f64) -> bool {
     let ctx = stack.ctx;
-    let n = ctx.scenario.with_untracked(|s| s.stack.gaps_ev.len());
+    let r = |v: f64| (v / unit).round() * unit;
+    // over a real bottom cell the map's columns are log10 of its thickness [um]
+    let (n, real) = ctx.scenario.with_untracked(|s| (s.stack.gaps_ev.len(), s.stack.bottom.is_some()));
+    if real {
+        if n != 1 {
+            ctx.set_error(
+                Control::TandemMap,
+                format!("The map is for one top cell over the silicon cell and this design has {} junctions; set Junctions to 2 to place it on the map.", n + 1),
+            );
+            return false;
+        }
+        let (lo, hi) = crate::scenario::real::THICKNESS_RANGE_UM;
+        let um = crate::view::format::round_sig(10f64.powf(bottom), 3).clamp(lo, hi);
+        let top = tidy(r(top));
+        return edit_stack(ctx, Control::TandemMap, move |st| {
+            st.gaps_ev = vec![top];
+            if let Some(b) = st.bottom.as_mut() {
+                b.thickness_um = um;
+            }
+        });
+    }
     if n != 2 {
         ctx.set_error(
             Control::TandemMap,
@@ -207,7 +227,6 @@ fn place_design(stack: StackState, top: f64, bottom: f64, unit: f64) -> bool {
         );
         return false;
     }
-    let r = |v: f64| (v / unit).round() * unit;
     set_gaps(ctx, Control::TandemMap, vec![tidy(r(top)), tidy(r(bottom))])
 }
 
@@ -256,7 +275,7 @@ impl PlotBehaviour for MapCard {
         }
         if let Some((pt, pb, pe)) = near(m.best) {
             let lines = vec![
-                format!("best point of the grid: top {} eV · bottom {} eV", fixed(pt, 3), fixed(pb, 3)),
+                format!("best point of the grid: top {} eV · bottom {}", fixed(pt, 3), m.column_text(pb, 3)),
                 format!("{} % ({})", fixed(pe, 2), m.connection.label()),
                 "click to move the design here".into(),
             ];
@@ -264,7 +283,8 @@ impl PlotBehaviour for MapCard {
         }
         let (i, k) = m.nearest(b, t)?;
         let e = m.at(i, k);
-        let mut lines = vec![format!("top {} eV · bottom {} eV", fixed(m.tops_ev[i], 3), fixed(m.bottoms_ev[k], 3))];
+        let mut lines =
+            vec![format!("top {} eV · bottom {}", fixed(m.tops_ev[i], 3), m.column_text(m.bottoms_ev[k], 3))];
         if e.is_finite() {
             lines.push(format!("{} % ({})", fixed(e, 2), m.connection.label()));
             lines.push("click to move the design here".into());
@@ -307,7 +327,11 @@ impl PlotBehaviour for MapCard {
             _ => return false,
         };
         let g = self.stack.gaps();
-        if g.len() == 2 {
+        let thickness = self.stack.ctx.scenario.with_untracked(|s| s.stack.bottom.as_ref().map(|b| b.thickness_um));
+        if let Some(um) = thickness.filter(|_| g.len() == 1) {
+            // across: the thickness by 0.01 decade (Shift: 0.1)
+            place_design(self.stack, tidy(g[0] + dt), um.log10() + 10.0 * db, 1e-3);
+        } else if g.len() == 2 {
             self.place(tidy(g[0] + dt), tidy(g[1] + db));
         } else {
             self.place(0.0, 0.0);
@@ -338,14 +362,21 @@ fn map_legend(stack: StackState) -> impl IntoView {
     };
     let best = move || {
         stack.map.with(|m| {
-            m.as_ref().and_then(|m| m.best).map(|(t, b, e)| {
-                format!("best point of the grid: top {} eV, bottom {} eV, {} %", fixed(t, 3), fixed(b, 3), fixed(e, 2))
+            let m = m.as_ref()?;
+            m.best.map(|(t, b, e)| {
+                format!(
+                    "best point of the grid: top {} eV, bottom {}, {} %",
+                    fixed(t, 3),
+                    m.column_text(b, 3),
+                    fixed(e, 2)
+                )
             })
         })
     };
     let series = move || stack.map.with(|m| m.as_ref().is_some_and(|m| m.connection == Connection::Series));
+    let thickness = move || stack.map.with(|m| m.as_ref().is_some_and(|m| m.thickness));
     let design = move || {
-        let n = stack.ctx.scenario.with(|s| s.stack.gaps_ev.len());
+        let n = stack.ctx.scenario.with(|s| s.stack.gaps_ev.len() + usize::from(s.stack.bottom.is_some()));
         if n == 2 {
             "this design — click or drag to move it".to_string()
         } else {
@@ -376,7 +407,7 @@ fn map_legend(stack: StackState) -> impl IntoView {
         }
     };
     view! {
-        <span class="key" data-info="map-optimum" hidden=move || !has_best()>
+        <span class="key" data-info="map-optimum" hidden=move || !has_best() || thickness()>
             <svg class="k-star" viewBox="0 0 20 20" aria-hidden="true"><polygon points=STAR_KEY></polygon></svg>
             {refined}
             <button type="button" class="small" data-action="use-optimum" title="Make the optimum the design (gaps to 0.1 meV)"
@@ -384,7 +415,7 @@ fn map_legend(stack: StackState) -> impl IntoView {
         </span>
         <span class="key" data-info="map-best" hidden=move || !has_best()><i class="k-diamond" class:hollow=move || optimum().is_some()></i>{best}</span>
         <span class="key"><i class="k-ring"></i>{design}</span>
-        <span class="key" hidden=move || !series()><i class="k-line k-matched"></i>"currents matched"</span>
+        <span class="key" hidden=move || !series() || thickness()><i class="k-line k-matched"></i>"currents matched"</span>
         <span class="key"><i class="k-fill k-not-stack"></i>"not a stack"</span>
         <span class="key map-timing" data-info="map-timing">{timing}</span>
     }
@@ -440,7 +471,7 @@ pub fn map_card(stack: StackState, canvas: NodeRef<html::Canvas>) -> impl IntoVi
         Card {
             slug: "tandem-map",
             title: "Two-junction efficiency map",
-            aria: "Heat map of the limiting efficiency of two-junction stacks against the bottom-cell gap (across) and the top-cell gap (up), with contour lines, the best point of the grid, the optimum refined from the grid and the current design. Click or drag to move a two-junction design; arrow keys step its gaps by 1 meV (Shift: 10 meV): left and right the bottom gap, up and down the top gap.".into(),
+            aria: "Heat map of the limiting efficiency of two-junction stacks against the bottom-cell gap (across; over a silicon bottom cell, its thickness on a logarithmic axis) and the top-cell gap (up), with contour lines, the best point of the grid, the optimum refined from the grid and the current design. Click or drag to move a two-junction design; arrow keys step its gaps by 1 meV (Shift: 10 meV): left and right the bottom gap, up and down the top gap.".into(),
             interactive: true,
             wrap_class: "map-wrap",
             control: None,

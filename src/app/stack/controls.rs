@@ -8,10 +8,14 @@ use leptos::ev;
 use leptos::prelude::*;
 
 use super::{colours, edit_stack, set_gaps, StackState, GAP_HOOKS};
-use crate::app::widgets::fields::{gap_keys, number_field, Field};
+use crate::app::widgets::fields::{gap_keys, number_field, plain_parse, Field};
+use crate::app::widgets::real_fields::{real_fields, RealHooks};
 use crate::physics::stack::MAX_JUNCTIONS;
+use crate::scenario::real::RealAbsorberSpec;
+use crate::scenario::Scenario;
 use crate::scenario::{Connection, Emission, JvModel};
 use crate::scenario::{Panel, GAP_RANGE_EV};
+use crate::view::cell::real::first_silicon;
 use crate::view::format as fmt;
 use crate::view::input::parse_gap;
 use crate::view::input::tidy;
@@ -81,12 +85,16 @@ fn gap_field(stack: StackState, i: usize) -> impl IntoView {
 pub fn editor_section(stack: StackState) -> impl IntoView {
     let ctx = stack.ctx;
     let count = Memo::new(move |_| ctx.scenario.with(|s| s.stack.gaps_ev.len()));
+    let junctions =
+        Memo::new(move |_| ctx.scenario.with(|s| s.stack.gaps_ev.len() + usize::from(s.stack.bottom.is_some())));
     let connection = Memo::new(move |_| ctx.scenario.with(|s| s.stack.connection));
     let on_count = move |ev: ev::Event| {
         let text = event_target_value(&ev);
         match text.parse::<usize>() {
             Ok(n) if (2..=MAX_JUNCTIONS).contains(&n) => {
-                let gaps = resized(&stack.gaps(), n);
+                // a real bottom cell is one of the junctions
+                let real = ctx.scenario.with_untracked(|s| s.stack.bottom.is_some());
+                let gaps = resized(&stack.gaps(), n - usize::from(real));
                 edit_stack(ctx, Control::Junctions, move |st| {
                     st.gaps_ev = gaps;
                     st.optimize.junctions = n;
@@ -109,7 +117,7 @@ pub fn editor_section(stack: StackState) -> impl IntoView {
         edit_stack(ctx, Control::Connection, move |st| st.connection = c);
     };
     let options = (2..=MAX_JUNCTIONS)
-        .map(|n| view! { <option value=n.to_string() prop:selected=move || count.get() == n>{n.to_string()}</option> })
+        .map(|n| view! { <option value=n.to_string() prop:selected=move || junctions.get() == n>{n.to_string()}</option> })
         .collect_view();
     let fields = move || (0..count.get()).map(|i| gap_field(stack, i)).collect_view();
     view! {
@@ -137,6 +145,7 @@ pub fn editor_section(stack: StackState) -> impl IntoView {
                 }}
             </p>
             <div class="stack-gaps">{fields}</div>
+            {bottom_section(stack)}
             <p class="field-error" data-error=Control::StackGaps.as_str() aria-live="polite">{move || stack.error.get().is_some().then(|| ctx.error_of(Control::StackGaps)).flatten()}</p>
             <p class="hint">"Band gaps top cell first, each below the one above. Arrow keys in a field: ±1 meV (Shift: ±10 meV). Drag the markers on the spectrum, or click the map."</p>
         </section>
@@ -171,7 +180,7 @@ pub fn conditions(stack: StackState) -> impl IntoView {
         <section class="panel-section" aria-labelledby="stack-light-h">
             <h2 id="stack-light-h">"Light and cells"</h2>
             <p class="stack-conditions" data-info="stack-conditions">{line}</p>
-            <p class="hint">"Every subcell is an ideal step absorber with the solar cell's settings; no light passes between subcells."</p>
+            <p class="hint">"Every step subcell is an ideal step absorber with the solar cell's settings (a silicon bottom cell has its own absorption); light passes between subcells only by the luminescent coupling set above."</p>
             <button type="button" class="small" data-action="edit-conditions" on:click=move |_| { ctx.edit(Control::Panel, |s| s.view.panel = Panel::Cell); }>
                 "Change them in the Solar cell tab"
             </button>
@@ -179,5 +188,99 @@ pub fn conditions(stack: StackState) -> impl IntoView {
                 "Concentrated sunlight can burn skin and damage eyes. Follow local codes and licensed practice when working with real concentrators."
             </p>
         </section>
+    }
+}
+
+fn bottom_of(s: &Scenario) -> Option<RealAbsorberSpec> {
+    s.stack.bottom.clone()
+}
+
+const BOTTOM_HOOKS: RealHooks = RealHooks {
+    prefix: "bottom",
+    thickness: Control::BottomThickness,
+    trapping: Control::BottomTrapping,
+    doping: Control::BottomDoping,
+    get: bottom_of,
+};
+
+/// The silicon bottom cell first offered: 300 um, Lambertian, undoped.
+fn first_bottom() -> RealAbsorberSpec {
+    RealAbsorberSpec { thickness_um: 300.0, ..first_silicon() }
+}
+
+/// The bottom cell's choice (a step at the lowest gap, or silicon with its settings) and the
+/// luminescent coupling.
+fn bottom_section(stack: StackState) -> impl IntoView {
+    let ctx = stack.ctx;
+    let real = Memo::new(move |_| ctx.scenario.with(|s| s.stack.bottom.is_some()));
+    let kept = StoredValue::new(ctx.scenario.with_untracked(bottom_of).unwrap_or_else(first_bottom));
+    let refresh = RwSignal::new(0u32);
+    let choose = move |silicon: bool| {
+        let ok = if silicon {
+            // the silicon cell takes the place of the lowest step subcell
+            let b = kept.get_value();
+            edit_stack(ctx, Control::StackBottom, move |st| {
+                if st.gaps_ev.len() > 1 {
+                    st.gaps_ev.pop();
+                }
+                st.bottom = Some(b);
+            })
+        } else {
+            // a step subcell below the others takes its place
+            let gaps = stack.gaps();
+            let n = gaps.len() + 1;
+            let gaps = resized(&gaps, n);
+            edit_stack(ctx, Control::StackBottom, move |st| {
+                st.gaps_ev = gaps;
+                st.bottom = None;
+            })
+        };
+        if !ok {
+            refresh.update(|n| *n += 1);
+        }
+    };
+    let commit: Rc<dyn Fn(Control, RealAbsorberSpec) -> bool> = Rc::new(move |hook, b: RealAbsorberSpec| {
+        let kept_b = b.clone();
+        let ok = edit_stack(ctx, hook, move |st| st.bottom = Some(b));
+        if ok {
+            kept.set_value(kept_b);
+        }
+        ok
+    });
+    let coupling = number_field(
+        ctx,
+        Field {
+            label: "Luminescent coupling",
+            unit: "",
+            hook: Control::Coupling,
+            hint: Some("The fraction of each subcell's own light emission that the subcell below absorbs: 0 (none) to 1 (all of it).".into()),
+            example: "0.3",
+            value: Memo::new(move |_| ctx.scenario.with(|s| s.stack.luminescent_coupling)),
+            show: |v| fmt::field(v, 6),
+            parse: plain_parse,
+        },
+        Rc::new(move |x| edit_stack(ctx, Control::Coupling, move |st| st.luminescent_coupling = x)),
+        None,
+    );
+    view! {
+        <fieldset class="choice">
+            <legend>"Bottom subcell"</legend>
+            <label>
+                <input type="radio" name="stack-bottom" data-control="stack-bottom-step" aria-describedby="e-stack-bottom"
+                    prop:checked=move || { refresh.track(); !real.get() } on:change=move |_| choose(false) />
+                "Step (band gap)"
+            </label>
+            <label>
+                <input type="radio" name="stack-bottom" data-control="stack-bottom-silicon" aria-describedby="e-stack-bottom"
+                    prop:checked=move || { refresh.track(); real.get() } on:change=move |_| choose(true) />
+                "Silicon (real absorption)"
+            </label>
+            <p class="field-error" id="e-stack-bottom" data-error=Control::StackBottom.as_str() aria-live="polite">{move || ctx.error_of(Control::StackBottom)}</p>
+        </fieldset>
+        <div class="sub-field" hidden=move || !real.get()>
+            <p class="hint">"The gaps above are the step subcells over the silicon cell. Silicon's absorption is Green's 2008 table at 300 K, its Auger recombination Richter's 2012 parametrization."</p>
+            {real_fields(ctx, BOTTOM_HOOKS, commit)}
+        </div>
+        {coupling}
     }
 }

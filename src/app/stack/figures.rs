@@ -33,7 +33,7 @@ pub fn figures(stack: StackState) -> impl IntoView {
             <p class="summary" data-info="stack-summary">{summary}</p>
             <p class="compute-error" role="alert" hidden=move || error().is_none()>{error}</p>
             <p class="caution-inline">
-                "Detailed-balance limits of an ideal stack of step absorbers: upper bounds set by physics, not predictions of a real device."
+                "Detailed-balance limits of an ideal stack (step absorbers, and a silicon bottom cell limited by radiative and Auger recombination when chosen): upper bounds set by physics, not predictions of a real device."
             </p>
         </section>
     }
@@ -42,8 +42,8 @@ pub fn figures(stack: StackState) -> impl IntoView {
 /// One line on the design: junctions, connection and, in series, the limiting subcell and
 /// the current left unused.
 fn summary_line(r: &StackReport) -> String {
-    let gaps: Vec<String> = r.subcells.iter().map(|s| fmt::gap_ev(s.gap_ev)).collect();
-    let head = format!("{} junctions, {} · gaps {} eV", r.subcells.len(), r.connection.label(), gaps.join(" / "));
+    let gaps: Vec<String> = (0..r.subcells.len()).map(|i| crate::view::stack::subcell_gap_text(r, i)).collect();
+    let head = format!("{} junctions, {} · gaps {}", r.subcells.len(), r.connection.label(), gaps.join(" / "));
     match r.limiting_subcell {
         Some(l) => {
             let unused: f64 = r.subcells.iter().map(|s| s.excess_jsc_ma_cm2).sum();
@@ -91,8 +91,8 @@ pub fn subcell_table(stack: StackState) -> impl IntoView {
                         };
                         view! {
                             <tr class:limiting=limiting data-subcell=(i + 1).to_string()>
-                                <th scope="row"><i class="stack-swatch" style=swatch aria-hidden="true"></i>{format!("{}{}", i + 1, if i == 0 { " top" } else { "" })}</th>
-                                <td>{fmt::gap_ev(s.gap_ev)}</td>
+                                <th scope="row"><i class="stack-swatch" style=swatch aria-hidden="true"></i>{format!("{}{}", i + 1, if i == 0 { " top" } else if i == v.gaps_ev.len() { " silicon" } else { "" })}</th>
+                                <td>{if i == v.gaps_ev.len() { format!("{} (edge)", fmt::fixed(s.gap_ev, 3)) } else { fmt::gap_ev(s.gap_ev) }}</td>
                                 <td>{band}</td>
                                 <td>{fmt::fixed(s.jsc_ma_cm2, 3)}</td>
                                 <td>{fmt::fixed(s.voc_v, 4)}</td>
@@ -150,7 +150,7 @@ pub fn cautions(stack: StackState) -> impl IntoView {
         <footer class="cautions">
             <p>
                 <strong>"Limits, not predictions. "</strong>
-                "Every figure here is a detailed-balance limit: ideal step absorbers stacked widest gap on top, every photon in a subcell's band absorbed, only radiative loss scaled by the ERE, no light exchanged between subcells. Real stacks fall short of it."
+                "Every figure here is a detailed-balance limit: ideal step absorbers stacked widest gap on top, every photon in a subcell's band absorbed, only radiative loss scaled by the ERE (a silicon bottom cell: radiative and Auger), no light exchanged between subcells beyond the luminescent coupling set. Real stacks fall short of it."
             </p>
             <p>
                 <strong>"Concentrated light is dangerous. "</strong>

@@ -15,8 +15,10 @@ use leptos::prelude::*;
 use crate::app::stack::StackState;
 use crate::physics::constants::{ev, to_ev};
 use crate::physics::stack::map::tandem_map;
+use crate::physics::stack::mixed::{thickness_map, RealBottom};
 use crate::physics::stack::optimize::{grid_maxima, refine, Optimum, Problem, POLISHED_STARTS};
 use crate::physics::stack::Connection;
+use crate::scenario::real::RealAbsorberSpec;
 use crate::scenario::stack::MapSettings;
 use crate::scenario::{CellScenario, CellSetup, Scenario};
 use crate::view::cell::same_but_gap;
@@ -30,6 +32,14 @@ struct MapKey {
     cell: CellScenario,
     connection: Connection,
     settings: MapSettings,
+    /// a real bottom cell (its thickness is the map's axis, so left out) and the coupling
+    bottom: (Option<RealAbsorberSpec>, u64),
+}
+
+/// The real bottom cell of `s` without its thickness, and the coupling's bits.
+fn bottom_key(s: &Scenario) -> (Option<RealAbsorberSpec>, u64) {
+    let b = s.stack.bottom.as_ref().map(|b| RealAbsorberSpec { thickness_um: 1.0, ..b.clone() });
+    (b, s.stack.luminescent_coupling.to_bits())
 }
 
 impl MapKey {
@@ -37,6 +47,7 @@ impl MapKey {
         same_but_gap(&self.cell, &s.cell)
             && self.connection == s.stack.connection.to_physics()
             && self.settings == s.stack.map
+            && self.bottom == bottom_key(s)
     }
 }
 
@@ -46,7 +57,10 @@ struct Job {
     key: MapKey,
     setup: Arc<CellSetup>,
     tops_j: Vec<f64>,
+    /// bottom gaps [J], or the bottom cell's thicknesses [m] on a thickness map
     bottoms_j: Vec<f64>,
+    /// the real bottom cell and coupling of a thickness map
+    real: Option<(RealBottom, f64)>,
     eff: Vec<f64>,
     /// next row to compute
     next: usize,
@@ -102,8 +116,17 @@ pub fn ensure(stack: StackState, s: &Scenario) {
 
 fn begin(stack: StackState, s: &Scenario) {
     let setup = crate::view::cell::setup_of(&s.cell);
-    let grid = s.stack.map.grid();
-    let (setup, (tops_j, bottoms_j)) = match (setup, grid) {
+    // over a real bottom cell: top gap by the bottom cell's thickness
+    let grid = s.stack.map.grid().and_then(|(tops, bottoms)| match &s.stack.bottom {
+        None => Ok((tops, bottoms, None)),
+        Some(_) => {
+            let setup = setup.clone()?;
+            let extras = crate::view::stack::extras_of(&setup, s)?;
+            let real = extras.bottom.map(|b| (b, extras.coupling));
+            Ok((tops, s.stack.map.thicknesses()?, real))
+        }
+    });
+    let (setup, (tops_j, bottoms_j, real)) = match (setup, grid) {
         (Ok(a), Ok(b)) => (a, b),
         (Err(e), _) | (_, Err(e)) => {
             stop();
@@ -122,10 +145,12 @@ fn begin(stack: StackState, s: &Scenario) {
                 cell: s.cell.clone(),
                 connection: s.stack.connection.to_physics(),
                 settings: s.stack.map.clone(),
+                bottom: bottom_key(s),
             },
             setup,
             tops_j,
             bottoms_j,
+            real,
             eff: vec![0.0; n],
             next: 0,
             rows: 4,
@@ -166,19 +191,20 @@ fn pump(stack: StackState, id: u64) {
         while job.next < job.tops_j.len() && now() - t0 < SLICE_MS {
             let end = (job.next + job.rows).min(job.tops_j.len());
             let c0 = now();
-            let part = tandem_map(
-                &job.setup.light,
-                &job.setup.cell,
-                job.key.connection,
-                &job.tops_j[job.next..end],
-                &job.bottoms_j,
-            );
+            let tops = &job.tops_j[job.next..end];
+            let (light, cell) = (&job.setup.light, &job.setup.cell);
+            let part = match &job.real {
+                Some((b, coupling)) => {
+                    thickness_map(light, cell, b, tops, &job.bottoms_j, job.key.connection, *coupling)
+                }
+                None => tandem_map(light, cell, job.key.connection, tops, &job.bottoms_j).efficiency,
+            };
             let took = now() - c0;
-            job.eff[job.next * nb..end * nb].copy_from_slice(&part.efficiency);
+            job.eff[job.next * nb..end * nb].copy_from_slice(&part);
             job.next = end;
             job.busy += took;
             // aim for about 3 ms a call
-            let per_row = took / part.top_gaps_j.len().max(1) as f64;
+            let per_row = took / tops.len().max(1) as f64;
             job.rows = if per_row > 0.0 { ((3.0 / per_row) as usize).clamp(1, 64) } else { 64 };
         }
         if job.next < job.tops_j.len() {
@@ -214,7 +240,9 @@ fn pump(stack: StackState, id: u64) {
 fn refine_best(stack: StackState, id: u64) {
     let starts = MAPS.with(|m| {
         let m = m.borrow();
-        let (_, data, _) = m.done.as_ref().filter(|d| d.1.id == id && d.1.refined.is_none() && m.job.is_none())?;
+        // a thickness map shows its grid's best (the refinement searches gaps)
+        let (_, data, _) =
+            m.done.as_ref().filter(|d| d.1.id == id && d.1.refined.is_none() && !d.1.thickness && m.job.is_none())?;
         let tops: Vec<f64> = data.tops_ev.iter().map(|g| ev(*g)).collect();
         let bottoms: Vec<f64> = data.bottoms_ev.iter().map(|g| ev(*g)).collect();
         let starts: Vec<Vec<f64>> =
@@ -288,7 +316,7 @@ fn polish_next(stack: StackState, id: u64, starts: Rc<Vec<Vec<f64>>>, k: usize, 
 }
 
 fn finish(job: &Job) -> MapData {
-    MapData::from_grid(&Grid {
+    let grid = Grid {
         id: job.id,
         connection: job.key.connection,
         setup: &job.setup,
@@ -297,5 +325,10 @@ fn finish(job: &Job) -> MapData {
         efficiency: &job.eff,
         compute_ms: job.busy,
         elapsed_ms: now() - job.started,
-    })
+    };
+    if job.real.is_some() {
+        MapData::from_thickness(&grid, &job.bottoms_j)
+    } else {
+        MapData::from_grid(&grid)
+    }
 }

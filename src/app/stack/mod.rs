@@ -31,7 +31,7 @@ use crate::app::state::{count_render, mark, sentence, Ctx};
 use crate::app::widgets::export::offer;
 use crate::app::widgets::plot::render::{draw_into, expose_frame};
 use crate::app::widgets::plot::Drawing;
-use crate::scenario::stack::{check_gaps, StackScenario};
+use crate::scenario::stack::{check_gaps_over, StackScenario};
 use crate::view::export::ExportKind;
 pub use state::{StackState, GAP_HOOKS, MAP, PLOTS, SPECTRUM};
 
@@ -39,7 +39,8 @@ pub use state::{StackState, GAP_HOOKS, MAP, PLOTS, SPECTRUM};
 /// so only they are checked; a refused set leaves a message under `hook`.
 pub fn set_gaps(ctx: Ctx, hook: Control, gaps: Vec<f64>) -> bool {
     mark("gg-stack-edit");
-    if let Err(e) = check_gaps(&gaps) {
+    let real_bottom = ctx.scenario.with_untracked(|s| s.stack.bottom.is_some());
+    if let Err(e) = check_gaps_over(&gaps, real_bottom) {
         ctx.set_error(hook, sentence(&e));
         return false;
     }
@@ -58,7 +59,7 @@ pub fn set_gaps(ctx: Ctx, hook: Control, gaps: Vec<f64>) -> bool {
 pub fn edit_stack(ctx: Ctx, hook: Control, f: impl FnOnce(&mut StackScenario)) -> bool {
     let mut st = ctx.scenario.with_untracked(|s| s.stack.clone());
     f(&mut st);
-    if let Err(e) = check_gaps(&st.gaps_ev).and_then(|_| st.map.grid().map(|_| ())) {
+    if let Err(e) = check_gaps_over(&st.gaps_ev, st.bottom.is_some()).and_then(|_| st.map.grid().map(|_| ())) {
         ctx.set_error(hook, sentence(&e));
         return false;
     }

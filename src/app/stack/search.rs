@@ -16,7 +16,7 @@ use crate::app::widgets::card::range_input;
 use crate::app::widgets::fields::{gap_keys, number_field, Field};
 use crate::app::widgets::worker::{Background, WorkerReply};
 use crate::report::stack::StackMetric;
-use crate::scenario::stack::{check_gaps, OptimizeSettings};
+use crate::scenario::stack::{check_gaps_over, OptimizeSettings};
 use crate::scenario::Connection;
 use crate::scenario::FixAt;
 use crate::scenario::{CellScenario, Scenario};
@@ -58,6 +58,8 @@ struct Started {
     junctions: usize,
     /// the gap held fixed and where
     fix: (Option<f64>, FixAt),
+    /// the real bottom cell and the luminescent coupling
+    bottom: (Option<crate::scenario::real::RealAbsorberSpec>, f64),
     /// the design's efficiency at the start (display text)
     before: String,
 }
@@ -180,6 +182,7 @@ fn apply(stack: StackState, job: Started, r: SearchReply, elapsed: f64) -> Optio
             && s.stack.connection == job.connection
             && s.stack.gaps_ev.len() == job.junctions
             && (s.stack.optimize.fix_ev, s.stack.optimize.fix_at) == job.fix
+            && (s.stack.bottom.as_ref(), s.stack.luminescent_coupling) == (job.bottom.0.as_ref(), job.bottom.1)
     })?;
     if !still {
         return stack.search.try_set(SearchState::Failed(
@@ -209,12 +212,13 @@ fn apply(stack: StackState, job: Started, r: SearchReply, elapsed: f64) -> Optio
         None => "with gaps".into(),
     };
     let text = format!(
-        "Best {}-junction {} stack {within} from {} to {} eV: {} eV, {} % (the design had {}). {} stacks evaluated in {}.",
-        job.junctions,
+        "Best {}-junction {} stack {within} from {} to {} eV: {} eV{}, {} % (the design had {}). {} stacks evaluated in {}.",
+        job.junctions + usize::from(job.bottom.0.is_some()),
         job.connection.label(),
         fmt::field(r.from_ev, 4),
         fmt::field(r.to_ev, 4),
         shown.join(" / "),
+        if job.bottom.0.is_some() { " over the silicon bottom cell" } else { "" },
         fixed(r.efficiency * 100.0, 2),
         job.before,
         thousands(r.evaluations as f64),
@@ -233,11 +237,10 @@ pub fn start(stack: StackState) {
     ctx.clear_error(Control::Optimize);
     let s: Scenario = ctx.scenario.get_untracked();
     // say what is wrong here rather than from the worker
-    let checked = check_gaps(&s.stack.gaps_ev).and_then(|_| {
-        let setup = crate::view::cell::setup_of(&s.cell)?;
-        let settings =
-            crate::scenario::stack::OptimizeSettings { junctions: s.stack.gaps_ev.len(), ..s.stack.optimize.clone() };
-        settings.to_problem(&setup.light, &setup.cell, s.stack.connection).map(|_| ())
+    let checked = check_gaps_over(&s.stack.gaps_ev, s.stack.bottom.is_some()).and_then(|_| {
+        let (st, _) = super::worker::search_settings(&s.stack);
+        let setup = st.to_physics(&s.cell)?;
+        st.problem(&setup).map(|_| ())
     });
     if let Err(e) = checked {
         ctx.set_error(Control::Optimize, sentence(&e));
@@ -270,6 +273,7 @@ pub fn start(stack: StackState) {
             connection: s.stack.connection,
             junctions: s.stack.gaps_ev.len(),
             fix: (s.stack.optimize.fix_ev, s.stack.optimize.fix_at),
+            bottom: (s.stack.bottom.clone(), s.stack.luminescent_coupling),
             before,
         });
         Some(r.worker.post(id, "glowgap_stack_search", &job, ""))

@@ -8,7 +8,7 @@ use wasm_bindgen::prelude::*;
 
 use crate::physics::constants::{ev, to_ev};
 use crate::physics::stack::optimize::{optimize_observed, FixAt};
-use crate::scenario::stack::OptimizeSettings;
+use crate::scenario::stack::{OptimizeSettings, StackScenario};
 
 /// The search's answer.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -28,10 +28,10 @@ pub struct SearchReply {
 /// number of stacks evaluated so far.
 pub fn run(job: &str, progress: &mut dyn FnMut(u64)) -> Result<SearchReply, String> {
     let s = crate::codec::from_json(job).map_err(|e| e.0)?;
-    let setup = s.cell.to_physics()?;
     let n = s.stack.gaps_ev.len();
-    let settings = OptimizeSettings { junctions: n, ..s.stack.optimize.clone() };
-    let mut problem = settings.to_problem(&setup.light, &setup.cell, s.stack.connection)?;
+    let (st, settings) = search_settings(&s.stack);
+    let setup = st.to_physics(&s.cell)?;
+    let mut problem = st.problem(&setup)?;
     let mut seed: Vec<f64> = s.stack.gaps_ev.iter().map(|g| ev(*g)).collect();
     if let Some(f) = problem.fixed {
         // the fixed gap is not a free variable: drop the design's gap in its place (top or
@@ -65,6 +65,14 @@ pub fn run(job: &str, progress: &mut dyn FnMut(u64)) -> Result<SearchReply, Stri
         from_ev: settings.from_ev,
         to_ev: settings.to_ev,
     })
+}
+
+/// The stack as searched: the optimizer's junctions are the design's (the step gaps, and the
+/// real bottom cell when there is one), the rest of its settings the scenario's.
+pub fn search_settings(st: &StackScenario) -> (StackScenario, OptimizeSettings) {
+    let junctions = st.gaps_ev.len() + usize::from(st.bottom.is_some());
+    let settings = OptimizeSettings { junctions, ..st.optimize.clone() };
+    (StackScenario { optimize: settings.clone(), ..st.clone() }, settings)
 }
 
 /// Entry point for the background worker (`app::widgets::worker`): `job` is a scenario

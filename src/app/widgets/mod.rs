@@ -10,4 +10,5 @@ pub mod export;
 pub mod fields;
 pub mod notices;
 pub mod plot;
+pub mod real_fields;
 pub mod worker;

@@ -7,6 +7,7 @@
 pub mod absorber;
 pub mod csv;
 pub mod losses;
+pub mod real;
 
 use std::sync::Arc;
 

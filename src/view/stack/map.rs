@@ -52,9 +52,67 @@ pub struct MapData {
     pub compute_ms: f64,
     pub elapsed_ms: f64,
     pub source: String,
+    /// the columns are the thickness of a real bottom cell: `bottoms_ev` then holds
+    /// log10 of the thickness in um (evenly spaced, as the axis is drawn), not gaps
+    pub thickness: bool,
 }
 
 impl MapData {
+    /// A column value as the page writes it: "1.120 eV" (`decimals` places), or the
+    /// thickness "300 µm" on a thickness map.
+    pub fn column_text(&self, b: f64, decimals: usize) -> String {
+        if self.thickness {
+            format!("{} µm", crate::view::format::field(10f64.powf(b), 3))
+        } else {
+            format!("{} eV", crate::view::format::fixed(b, decimals))
+        }
+    }
+
+    /// The map of stacks of one step top cell over a real bottom cell: `thicknesses_m` [m]
+    /// (log-spaced, ascending) across, top gaps `tops_j` [J] up, `efficiency` (fraction)
+    /// row-major as `physics::stack::mixed::thickness_map` gives it. No current-matching
+    /// line (the bottom cell has no gap to match).
+    pub fn from_thickness(g: &Grid, thicknesses_m: &[f64]) -> MapData {
+        let bottoms_ev: Vec<f64> = thicknesses_m.iter().map(|t| (t * 1e6).log10()).collect();
+        let eff: Vec<f64> = g.efficiency.iter().map(|e| if e.is_finite() { e * 100.0 } else { f64::NAN }).collect();
+        MapData::assemble(g, bottoms_ev, eff, |_, _| Vec::new(), true)
+    }
+
+    /// The map of grid `g` with these columns and efficiencies [%]; `matched` gives the
+    /// current-matching line from the rows' and the columns' values.
+    fn assemble(
+        g: &Grid,
+        bottoms_ev: Vec<f64>,
+        eff: Vec<f64>,
+        matched: impl Fn(&[f64], &[f64]) -> Vec<(f64, f64)>,
+        thickness: bool,
+    ) -> MapData {
+        let tops_ev: Vec<f64> = g.tops_j.iter().map(|v| to_ev(*v)).collect();
+        let nb = bottoms_ev.len().max(1);
+        let best = eff
+            .iter()
+            .enumerate()
+            .filter(|(_, e)| e.is_finite())
+            .max_by(|a, b| a.1.total_cmp(b.1))
+            .map(|(idx, e)| (tops_ev[idx / nb], bottoms_ev[idx % nb], *e));
+        let matched = matched(&tops_ev, &bottoms_ev);
+        MapData {
+            id: g.id,
+            connection: g.connection,
+            tops_ev,
+            bottoms_ev,
+            eff,
+            best,
+            refined: None,
+            refine_ms: 0.0,
+            matched,
+            compute_ms: g.compute_ms,
+            elapsed_ms: g.elapsed_ms,
+            source: g.setup.light.source.name(),
+            thickness,
+        }
+    }
+
     pub fn at(&self, i: usize, k: usize) -> f64 {
         self.eff.get(i * self.bottoms_ev.len() + k).copied().unwrap_or(f64::NAN)
     }
@@ -88,7 +146,13 @@ pub struct Design {
 }
 
 impl Design {
+    /// Over a real bottom cell the pair is (top gap [eV], log10 of the bottom cell's
+    /// thickness [um]), as the thickness map's columns.
     pub fn of(st: &StackScenario) -> Design {
+        if let Some(b) = &st.bottom {
+            let pair = (st.gaps_ev.len() == 1 && b.thickness_um > 0.0).then(|| (st.gaps_ev[0], b.thickness_um.log10()));
+            return Design { pair, junctions: st.gaps_ev.len() + 1 };
+        }
         let pair = (st.gaps_ev.len() == 2).then(|| (st.gaps_ev[0], st.gaps_ev[1]));
         Design { pair, junctions: st.gaps_ev.len() }
     }
@@ -160,7 +224,7 @@ pub fn map_csv(m: &MapData, what: &str) -> String {
     );
     let _ = writeln!(out, "# Detailed-balance limits of an ideal stack: upper bounds, not predictions of a device.");
     if let Some((t, b, e)) = m.best {
-        let _ = writeln!(out, "# best point of the grid: top {t:.6} eV, bottom {b:.6} eV, {e:.4} %");
+        let _ = writeln!(out, "# best point of the grid: top {t:.6} eV, bottom {}, {e:.4} %", m.column_text(b, 6));
     }
     if let Some((t, b, e)) = m.refined {
         let _ = writeln!(
@@ -168,12 +232,20 @@ pub fn map_csv(m: &MapData, what: &str) -> String {
             "# optimum refined from the grid's best local maxima (simplex): top {t:.6} eV, bottom {b:.6} eV, {e:.4} %"
         );
     }
-    let _ = writeln!(out, "top gap (eV),bottom gap (eV),efficiency (%)");
+    if m.thickness {
+        let _ = writeln!(out, "top gap (eV),bottom thickness (um),efficiency (%)");
+    } else {
+        let _ = writeln!(out, "top gap (eV),bottom gap (eV),efficiency (%)");
+    }
     for (i, t) in m.tops_ev.iter().enumerate() {
         for (k, b) in m.bottoms_ev.iter().enumerate() {
             let e = m.at(i, k);
             let e = if e.is_finite() { format!("{e:.4}") } else { String::new() };
-            let _ = writeln!(out, "{t:.6},{b:.6},{e}");
+            if m.thickness {
+                let _ = writeln!(out, "{t:.6},{},{e}", crate::view::format::csv_num(10f64.powf(*b)));
+            } else {
+                let _ = writeln!(out, "{t:.6},{b:.6},{e}");
+            }
         }
     }
     out
@@ -200,7 +272,6 @@ impl MapData {
     /// The map in display units: gaps in eV, efficiency in percent (NaN where the bottom gap
     /// is not below the top gap), its best grid point and the current-matching line.
     pub fn from_grid(g: &Grid) -> MapData {
-        let tops_ev: Vec<f64> = g.tops_j.iter().map(|v| to_ev(*v)).collect();
         let bottoms_ev: Vec<f64> = g.bottoms_j.iter().map(|v| to_ev(*v)).collect();
         let nb = bottoms_ev.len().max(1);
         let eff: Vec<f64> = g
@@ -209,27 +280,7 @@ impl MapData {
             .enumerate()
             .map(|(idx, e)| if g.bottoms_j[idx % nb] < g.tops_j[idx / nb] { e * 100.0 } else { f64::NAN })
             .collect();
-        let best = eff
-            .iter()
-            .enumerate()
-            .filter(|(_, e)| e.is_finite())
-            .max_by(|a, b| a.1.total_cmp(b.1))
-            .map(|(idx, e)| (tops_ev[idx / nb], bottoms_ev[idx % nb], *e));
-        let matched = matched_line(g.setup, &tops_ev, &bottoms_ev);
-        MapData {
-            id: g.id,
-            connection: g.connection,
-            tops_ev,
-            bottoms_ev,
-            eff,
-            best,
-            refined: None,
-            refine_ms: 0.0,
-            matched,
-            compute_ms: g.compute_ms,
-            elapsed_ms: g.elapsed_ms,
-            source: g.setup.light.source.name(),
-        }
+        MapData::assemble(g, bottoms_ev, eff, |tops, bottoms| matched_line(g.setup, tops, bottoms), false)
     }
 }
 
@@ -271,6 +322,7 @@ mod tests {
             compute_ms: 0.0,
             elapsed_ms: 0.0,
             source: "test".into(),
+            thickness: false,
         }
     }
 

@@ -178,7 +178,13 @@ impl MapPlot<'_> {
         let (mw, _) = main.dim_in_pixel();
         let (b0, b1) = (m.bottoms_ev[0], m.bottoms_ev[m.bottoms_ev.len() - 1]);
         let (t0, t1) = (m.tops_ev[0], m.tops_ev[m.tops_ev.len() - 1]);
-        let x = AxisSpec::new(b0, b1, tick_target(look, mw, 80.0), "Bottom-cell band gap", "eV", false);
+        let x = if m.thickness {
+            // the columns are log10 of the thickness in um
+            let target = tick_target(look, mw, 60.0);
+            AxisSpec::log10(10f64.powf(b0), 10f64.powf(b1), target, "Silicon bottom-cell thickness", "µm")
+        } else {
+            AxisSpec::new(b0, b1, tick_target(look, mw, 80.0), "Bottom-cell band gap", "eV", false)
+        };
         let y = AxisSpec::new(t0, t1, tick_target(look, h, 50.0), "Top-cell band gap", "eV", false);
         let (mut chart, frame) = chart(&main, look, &x, &y, true)?;
         let (lo, hi) = m.range();
@@ -303,11 +309,12 @@ impl MapPlot<'_> {
             (Some((t, b, e)), _) => {
                 let at = at(b, t);
                 let what = if at.is_some() { "optimum" } else { "optimum off the map:" };
-                Some((format!("{what} {} / {} eV · {} %", fixed(t, 3), fixed(b, 3), fixed(e, 2)), at))
+                Some((format!("{what} {} eV / {} · {} %", fixed(t, 3), m.column_text(b, 3), fixed(e, 2)), at))
             }
-            (None, Some((t, b, e))) => {
-                Some((format!("best of the grid {} / {} eV · {} %", fixed(t, 2), fixed(b, 2), fixed(e, 2)), at(b, t)))
-            }
+            (None, Some((t, b, e))) => Some((
+                format!("best of the grid {} eV / {} · {} %", fixed(t, 2), m.column_text(b, 2), fixed(e, 2)),
+                at(b, t),
+            )),
             (None, None) => None,
         }
     }
@@ -369,8 +376,8 @@ impl MapPlot<'_> {
                 draw_ring(root, look, (px, py))?;
                 let e = m.nearest(b, t).map(|(i, k)| m.at(i, k)).filter(|e| e.is_finite());
                 let text = match e {
-                    Some(e) => format!("design {} / {} eV · ≈{} %", gap_ev(t), gap_ev(b), fixed(e, 1)),
-                    None => format!("design {} / {} eV", gap_ev(t), gap_ev(b)),
+                    Some(e) => format!("design {} eV / {} · ≈{} %", gap_ev(t), design_column(m, b), fixed(e, 1)),
+                    None => format!("design {} eV / {}", gap_ev(t), design_column(m, b)),
                 };
                 // above the marker, on the side away from the optimum; else below
                 let left_of_best = m.refined.or(m.best).is_some_and(|(_, bb, _)| b < bb);
@@ -406,6 +413,15 @@ impl MapPlot<'_> {
         }
 
         Ok(())
+    }
+}
+
+/// The design's column value: its bottom gap as typed, or its thickness.
+fn design_column(m: &MapData, b: f64) -> String {
+    if m.thickness {
+        m.column_text(b, 3)
+    } else {
+        format!("{} eV", gap_ev(b))
     }
 }
 

@@ -95,8 +95,10 @@ impl Drawing for SpectrumPlot<'_> {
         let (mut chart, frame) = chart(root, look, &x, &y, true)?;
 
         let gaps = &self.v.gaps_ev;
-        for (i, g) in gaps.iter().enumerate() {
-            let upper = if i == 0 { f64::INFINITY } else { gaps[i - 1] };
+        // the bands: each step subcell's, then a real bottom cell's from its edge
+        let edges: Vec<f64> = gaps.iter().copied().chain(self.v.bottom_edge_ev).collect();
+        for (i, g) in edges.iter().enumerate() {
+            let upper = if i == 0 { f64::INFINITY } else { edges[i - 1] };
             let (a, b) = band_x(sv, *g, upper);
             let pts = band_points(sv, a, b);
             if pts.len() >= 2 {
