@@ -137,6 +137,8 @@ impl Ctx {
     pub fn edit(&self, hook: Control, f: impl FnOnce(&mut Scenario)) -> bool {
         let mut next = self.scenario.get_untracked();
         f(&mut next);
+        // a material's gap follows the cell temperature
+        next.cell.sync_gap();
         match next.check() {
             Ok(()) => {
                 self.clear_error(hook);
@@ -190,8 +192,15 @@ impl Ctx {
         }
         self.clear_error(Control::Gap);
         self.clear_error(Control::GapNm);
-        if self.scenario.with_untracked(|s| s.cell.gap_ev.to_bits() != gap_ev.to_bits()) {
-            self.scenario.update(|s| s.cell.gap_ev = gap_ev);
+        if self
+            .scenario
+            .with_untracked(|s| s.cell.gap_ev.to_bits() != gap_ev.to_bits() || s.cell.gap_material.is_some())
+        {
+            // a typed gap replaces a material's
+            self.scenario.update(|s| {
+                s.cell.gap_ev = gap_ev;
+                s.cell.gap_material = None;
+            });
         }
         true
     }

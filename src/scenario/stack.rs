@@ -394,11 +394,11 @@ impl OptimizeSettings {
         if extras.bottom.is_some() {
             if self.junctions < 2 {
                 return Err("with a real bottom cell the stack needs at least 2 junctions (the bottom cell and one \
-                            above it); give --junctions 2 or more"
+                            above it); raise the number of junctions to 2 or more"
                     .into());
             }
             if self.fix_ev.is_some() {
-                return Err("the real bottom cell is fixed already; leave out --fix (the gap held fixed)".into());
+                return Err("the real bottom cell is fixed already; hold no band gap fixed in the search".into());
             }
             p.junctions = self.junctions - 1;
         }

@@ -40,6 +40,7 @@ controls! {
     Model => "model",
     Gap => "gap",
     GapNm => "gap-nm",
+    GapMaterial => "gap-material",
     CurveRange => "curve-range",
     Absorber => "absorber",
     Urbach => "urbach",

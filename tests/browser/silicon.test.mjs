@@ -220,3 +220,29 @@ test('a silicon bottom cell on the Stack tab: the published tandem, coupling, th
   assert.deepEqual(page.errors, []);
   await context.close();
 });
+
+test('a material gap on the Solar cell tab follows the cell temperature and survives the link', async () => {
+  const { context, page } = await env.fresh();
+  await page.waitForFunction(() => /%$/.test(document.querySelector('[data-metric="efficiency"]')?.textContent || ''), null, { timeout: 20000 });
+  await edit(page, () => page.locator('[data-control="gap-material"]').selectOption('gaas'));
+  // GaAs 1.424 eV at 300 K (Sze & Ng, Physics of Semiconductor Devices, 3rd ed., 2007;
+  // recalled): the Varshni fit of Vurgaftman et al. (2001) within 0.015 eV
+  const g300 = parseFloat(await page.locator('[data-control="gap"]').inputValue());
+  assert.ok(Math.abs(g300 - 1.424) < 0.015, `GaAs at 300 K: ${g300} eV`);
+  // warmer cell, smaller gap: about -0.45 meV/K near room temperature (common practice)
+  await edit(page, () => page.locator('[data-control="cell-temp"]').fill('350'));
+  await page.waitForFunction((g) => parseFloat(document.querySelector('[data-control="gap"]').value) < g - 0.01, g300);
+  const g350 = parseFloat(await page.locator('[data-control="gap"]').inputValue());
+  assert.ok(g300 - g350 > 0.02 && g300 - g350 < 0.025, `${g300} -> ${g350}`);
+  await page.locator('.gap-material').screenshot({ path: artifact('gap-material.png') });
+  // the same figures from the command line
+  const cli = JSON.parse(execFileSync(CLI, ['cell', '--gap', 'gaas', '--cell-temp', '350', '--json'], { encoding: 'utf8' }));
+  assert.equal(g350.toFixed(3), cli.gap_ev.toFixed(3));
+  // the link keeps the material: reload
+  await page.reload();
+  await page.waitForFunction(() => document.querySelector('[data-control="gap-material"]')?.value === 'gaas', null, { timeout: 20000 });
+  // typing a gap replaces the material's
+  await edit(page, () => page.locator('[data-control="gap"]').fill('1.5'));
+  await page.waitForFunction(() => document.querySelector('[data-control="gap-material"]').value === '');
+  await context.close();
+});

@@ -16,6 +16,7 @@ use super::state::CellState;
 use crate::app::state::Ctx;
 use crate::app::widgets::fields::{drop_zone, gap_keys, number_field, plain_parse, Field};
 use crate::physics::constants::MAX_CONCENTRATION;
+use crate::physics::varshni::{gap_material, GAP_MATERIALS};
 use crate::scenario::{Emission, JvModel};
 use crate::scenario::{Scenario, SourceSpec, CELL_TEMP_RANGE_K};
 use crate::view::format as fmt;
@@ -218,6 +219,33 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
         })
         .collect_view();
 
+    // a material whose gap follows the cell temperature (Varshni)
+    let material = Memo::new(move |_| ctx.scenario.with(|s| s.cell.gap_material.clone().unwrap_or_default()));
+    let on_material = move |ev: ev::Event| {
+        let key = event_target_value(&ev);
+        ctx.edit(Control::GapMaterial, |s| s.cell.gap_material = (!key.is_empty()).then_some(key));
+    };
+    let material_options = GAP_MATERIALS
+        .iter()
+        .map(|m| {
+            let key = m.key;
+            view! { <option value=key prop:selected=move || material.get() == key>{m.label}</option> }
+        })
+        .collect_view();
+    let material_source = move || {
+        material.with(|k| {
+            gap_material(k).map(|m| {
+                format!(
+                    "Eg(T) = {} eV − {} meV/K · T² / (T + {} K), {}.",
+                    fmt::field(m.eg0_ev, 6),
+                    fmt::field(m.alpha_ev_per_k * 1e3, 6),
+                    fmt::field(m.beta_k, 6),
+                    m.source
+                )
+            })
+        })
+    };
+
     let temp = Memo::new(move |_| ctx.scenario.with(|s| s.cell.cell_temp_k));
     let temp_view = number_field(
         ctx,
@@ -305,6 +333,15 @@ pub fn cell_panel(cs: CellState) -> impl IntoView {
             <div class="presets" role="group" aria-labelledby="presets-h">
                 <p id="presets-h" class="presets-title">"Typical absorbers " <span class="muted">"(room-temperature values, common practice)"</span></p>
                 <div class="chips">{presets}</div>
+            </div>
+            <div class="field gap-material">
+                <label for="f-gap-material">"Gap follows the cell temperature"</label>
+                <select id="f-gap-material" data-control=Control::GapMaterial.as_str() on:change=on_material aria-describedby="e-gap-material">
+                    <option value="" prop:selected=move || material.with(String::is_empty)>"No: the band gap as typed"</option>
+                    {material_options}
+                </select>
+                <p class="hint" hidden=move || material.with(String::is_empty)>{material_source}</p>
+                <p class="field-error" id="e-gap-material" data-error=Control::GapMaterial.as_str()>{move || ctx.error_of(Control::GapMaterial)}</p>
             </div>
             {temp_view}
             <div class="conc">

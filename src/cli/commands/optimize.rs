@@ -110,6 +110,14 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     };
     let luminescent_coupling =
         p.number("luminescent-coupling", "luminescent coupling", "a fraction, 0 to 1")?.unwrap_or(0.0);
+    if bottom.is_some() && settings.junctions < 2 {
+        return Err(Failure::Usage(
+            "--bottom is a junction too: give --junctions 2 or more (the bottom cell and one above it)".into(),
+        ));
+    }
+    if bottom.is_some() && settings.fix_ev.is_some() {
+        return Err(Failure::Usage("--bottom fixes the bottom cell already; leave out --fix".into()));
+    }
     let st = StackScenario { bottom, luminescent_coupling, connection: conn, ..Default::default() };
     let setup = sc.to_physics()?;
     warn(&setup.warnings);
