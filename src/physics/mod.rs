@@ -16,6 +16,7 @@ pub mod radiator;
 pub mod real_cell;
 pub mod search;
 pub mod silicon;
+pub mod solar_position;
 pub mod solar_thermal;
 pub mod sources;
 pub mod special;
