@@ -19,6 +19,9 @@
 //!   film evaluation in the balance; a 5-layer thickness search for net cooling power
 //!   (goal: under 2 s in the page, where it runs single-threaded in a worker).
 //!
+//! * place and time: one solar position (zenith, azimuth, incidence, equation of time) well
+//!   inside the 0.2 ms that one moment's position and spectrum may take together.
+//!
 //! Whole-process figures are the median of 5 runs of target/release/glowgap; the machine
 //! may be shared, so read medians and ratios of one run, not single numbers.
 
@@ -77,6 +80,7 @@ fn main() {
         black_box(band_power_energy(black_box(ev(0.1)), black_box(ev(0.155)), black_box(300.0)));
     });
     println!("bench planck_band_integral          {:>10.3} ns", band * 1e9);
+    sun_position(rounds);
 
     numpy_comparison(curve, quick);
     cli_peak_memory();
@@ -654,4 +658,23 @@ fn films(rounds: usize, quick: bool) {
         design.wavelengths(),
         found.value
     );
+}
+
+/// One solar position at the worked example's place and moment (the periodic terms are parsed
+/// once, in the warm-up).
+fn sun_position(rounds: usize) {
+    use glowgap::physics::solar_position::{sun_at, CivilTime, Observer, Surface};
+    let when = CivilTime { year: 2003, month: 10, day: 17, hour: 12, minute: 30, second: 30.0, utc_offset_h: -7.0 };
+    let place = Observer {
+        latitude_deg: 39.742476,
+        longitude_deg: -105.1786,
+        elevation_m: 1830.14,
+        pressure_hpa: 820.0,
+        temperature_c: 11.0,
+    };
+    let surface = Surface { tilt_deg: 30.0, azimuth_deg: 170.0 };
+    let t = median_per_call(rounds, 2_000, || {
+        black_box(sun_at(black_box(&when), black_box(&place), black_box(&surface), black_box(67.0)).ok());
+    });
+    println!("bench solar_position_one_moment    {:>10.3} us   (goal: with the spectrum < 200 us)", t * 1e6);
 }
