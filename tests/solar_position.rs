@@ -159,8 +159,8 @@ fn no_nan_anywhere_on_a_grid_with_poles_and_the_date_line() {
                         month: m,
                         day: d,
                         hour: h,
-                        minute: 59,
-                        second: 60.5,
+                        minute: if h == 24 { 0 } else { 59 },
+                        second: if h == 24 { 0.0 } else { 60.5 },
                         utc_offset_h: offset,
                     };
                     let place = Observer {
@@ -196,6 +196,7 @@ fn bad_input_is_a_message_naming_the_fix() {
     let cases: Vec<(CivilTime, Observer, Surface, f64, &str)> = vec![
         (CivilTime { month: 13, ..when }, place, surface, 67.0, "give 1 to 12"),
         (CivilTime { day: 31, month: 9, ..when }, place, surface, 67.0, "give 1 to 30"),
+        (CivilTime { hour: 24, minute: 30, ..when }, place, surface, 67.0, "give 24:00:00"),
         (CivilTime { second: f64::NAN, ..when }, place, surface, 67.0, "second"),
         (CivilTime { year: 7000, ..when }, place, surface, 67.0, "-2000..6000"),
         (when, Observer { latitude_deg: 91.0, ..place }, surface, 67.0, "latitude"),

@@ -77,6 +77,12 @@ impl CivilTime {
                 self.hour, self.minute
             ));
         }
+        if self.hour == 24 && (self.minute > 0 || self.second > 0.0) {
+            return Err(format!(
+                "time 24:{:02}:{} is past the end of the day; give 24:00:00 or a time of the next day",
+                self.minute, self.second
+            ));
+        }
         if !(0.0..61.0).contains(&self.second) {
             return Err(format!("second {} is out of range; give 0 to below 61", self.second));
         }
@@ -512,6 +518,15 @@ mod tests {
     fn the_terms_table_parses_with_the_papers_row_counts() {
         // Row counts of Reda & Andreas (2004) tables A4.2 and A4.3.
         assert!(terms().is_ok(), "{:?}", terms().err());
+    }
+
+    #[test]
+    fn the_terms_file_names_its_sources() {
+        // The committed table must say where it comes from (paper and wheel checksum).
+        let header: String = TERMS_CSV.lines().take_while(|l| l.starts_with('#')).collect();
+        for needle in ["Reda & A. Andreas", "Solar Energy 76", "pvlib 0.16.1", "sha256 "] {
+            assert!(header.contains(needle), "{needle}");
+        }
     }
 
     #[test]
