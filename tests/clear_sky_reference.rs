@@ -6,10 +6,12 @@
 use glowgap::physics::clear_sky::*;
 use proptest::prelude::*;
 
-/// Relative agreement asked of every value; values below `FLOOR` [W m^-2 nm^-1] are compared
-/// absolutely at FLOOR * REL (deep absorption bands fall to 1e-300 and below).
+/// Relative agreement asked of every value, the deepest absorption bands (values near
+/// 1e-40 W m^-2 nm^-1) included. Both sides evaluate the same closed forms in double
+/// precision, so only the rounding of exp and pow can differ (about 1e-15 measured); 1e-9
+/// leaves room for another libm without hiding a changed constant (the report's 1.335 for
+/// 1.3366 moves the direct beam at 300 nm by about 2e-4).
 const REL: f64 = 1e-9;
-const FLOOR: f64 = 1e-12;
 
 struct Row {
     case: usize,
@@ -53,9 +55,14 @@ fn rows() -> Vec<Row> {
         .collect()
 }
 
-/// Largest relative difference over the pairs, with the floor above.
+/// Largest relative difference over the pairs (a reference zero asks for an exact zero).
 fn worst(pairs: &[(f64, f64)]) -> f64 {
-    pairs.iter().map(|&(got, want)| (got - want).abs() / want.abs().max(FLOOR)).fold(0.0, f64::max)
+    let rel = |got: f64, want: f64| match (want == 0.0, got == 0.0) {
+        (true, true) => 0.0,
+        (true, false) => f64::INFINITY,
+        _ => (got - want).abs() / want.abs(),
+    };
+    pairs.iter().map(|&(got, want)| rel(got, want)).fold(0.0, f64::max)
 }
 
 #[test]
