@@ -9,6 +9,8 @@
 //!   `glowgap map` process for the 500 x 500 series map at least 10x faster than
 //!   benches/map_numpy.py's compute, with the same best point, in under 64 MB.
 //!
+//! * one clear-sky spectrum (122 wavelengths) under 0.2 ms with the solar position.
+//!
 //! * hot emitters: one TPV evaluation with a profile emitter under 2 ms, a 1,000-gap TPV
 //!   sweep under 50 ms and one best step absorber under 20 ms, each printed beside the
 //!   vectorized numpy script benches/tpv_numpy.py for the same work.
@@ -82,6 +84,8 @@ fn main() {
     println!("bench planck_band_integral          {:>10.3} ns", band * 1e9);
     sun_position(rounds);
 
+    clear_sky(rounds);
+
     numpy_comparison(curve, quick);
     cli_peak_memory();
     sweep_37001(rounds, quick);
@@ -90,6 +94,31 @@ fn main() {
     hot_emitters(rounds, quick);
     films(rounds, quick);
     silicon(rounds, quick);
+}
+
+/// One clear-sky spectrum (122 wavelengths, Hay-Davies plane of array) and its source.
+/// Goal, with the solar position: under 0.2 ms for a moment. Printed only.
+fn clear_sky(rounds: usize) {
+    use glowgap::physics::clear_sky::{clear_sky_source, clear_sky_spectra, ClearSkyInput};
+    let input = ClearSkyInput {
+        apparent_zenith_rad: 48.19f64.to_radians(),
+        incidence_rad: 11.19f64.to_radians(),
+        tilt_rad: 37f64.to_radians(),
+        ..Default::default()
+    };
+    let one = median_per_call(rounds, 2_000, || {
+        black_box(clear_sky_spectra(black_box(&input)));
+    });
+    let s = clear_sky_spectra(&input);
+    let with_source = median_per_call(rounds, 2_000, || {
+        black_box(clear_sky_source(&clear_sky_spectra(black_box(&input)), "clear sky").ok());
+    });
+    println!(
+        "bench clear_sky_spectrum            {:>10.3} us   (goal with the solar position < 200 us; {:.1} W/m2 on the plane; {:.3} us with the source)",
+        one * 1e6,
+        s.plane_global_total(),
+        with_source * 1e6
+    );
 }
 
 /// Hot emitters: one TPV evaluation with a profile emitter from scratch (goal < 2 ms), a

@@ -3,6 +3,7 @@
 
 pub mod absorber;
 pub mod batch;
+pub mod clear_sky;
 pub mod constants;
 pub mod data;
 pub mod film;
