@@ -24,9 +24,8 @@
 //! zenith, M = 1 / (cos Z + 0.50572 (96.07995 deg - Z)^-1.6364). A zenith of 90 deg or more
 //! (the sun at or below the horizon) gives zero irradiance.
 //!
-//! Which form of the model. The report's text, its appendix code and the later C code of
-//! the same laboratory differ in five places; this module takes, in each, the form of the
-//! C code (so it can be checked tightly against an independent implementation of that form):
+//! Which form of the model. The report's text, its appendix code and the model's later C
+//! code differ in five places; this module takes, in each, the form of the C code:
 //!
 //! * Rayleigh constant 1.3366 (the report prints 1.335);
 //! * mixed-gas constant 118.3 (the report prints 118.93);
@@ -442,24 +441,22 @@ mod tests {
     }
 
     #[test]
+    fn air_mass_follows_the_secant_away_from_the_horizon() {
+        // common practice: M is close to sec Z up to about 60 deg (within 0.5 %) and near 38
+        // at the horizon (Kasten & Young 1989 give 38 as the horizon value, recalled)
+        for z_deg in [0.0f64, 30.0, 60.0] {
+            let sec = 1.0 / z_deg.to_radians().cos();
+            assert!((relative_air_mass(z_deg.to_radians()) / sec - 1.0).abs() < 0.005, "{z_deg}");
+        }
+        assert!((relative_air_mass(90f64.to_radians()) - 38.0).abs() < 0.5);
+    }
+
+    #[test]
     fn distance_factor_spans_perihelion_to_aphelion() {
         // Common practice: (r0/r)^2 is about 1.034 in early January and 0.967 in early July
         // (eccentricity about 0.0167; the values from memory).
         assert!((distance_factor(3.0) - 1.034).abs() < 0.002);
         assert!((distance_factor(185.0) - 0.967).abs() < 0.002);
-        // pvlib 0.16.1 irradiance.get_extra_radiation(day, method='spencer', solar_constant=1)
-        for (day, want) in [(3.0, 1.0350773742999697), (185.0, 0.9665893761731187)] {
-            assert!((distance_factor(day) - want).abs() < 1e-14, "day {day}");
-        }
-    }
-
-    #[test]
-    fn air_mass_is_one_overhead_and_about_38_at_the_horizon() {
-        // pvlib 0.16.1 atmosphere.get_relative_airmass(z, 'kastenyoung1989') at 0, 60, 90 deg
-        for (z_deg, want) in [(0.0, 0.9997119918558381), (60.0, 1.9942928525292494), (90.0, 37.91960837783625)] {
-            let got = relative_air_mass(f64::to_radians(z_deg));
-            assert!((got - want).abs() < 1e-12 * want, "{z_deg} deg: {got}");
-        }
     }
 
     #[test]
