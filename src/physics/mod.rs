@@ -17,6 +17,7 @@ pub mod radiator;
 pub mod real_cell;
 pub mod search;
 pub mod silicon;
+pub mod site;
 pub mod solar_position;
 pub mod solar_thermal;
 pub mod sources;

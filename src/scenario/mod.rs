@@ -19,6 +19,7 @@ use serde::{Deserialize, Serialize};
 mod choices;
 pub mod film;
 pub mod hot;
+pub mod place;
 pub mod radiator;
 pub mod real;
 pub mod stack;
@@ -45,6 +46,8 @@ pub enum SourceSpec {
     File { path: String },
     /// A user spectrum carried inside the scenario, in SI, on its native axis.
     Table(TableSpec),
+    /// The clear-sky plane-of-array global spectrum at a place and moment.
+    ClearSky(place::ClearSkySpec),
 }
 
 /// A user spectrum stored inside a scenario (SI units, native axis and quantity).
@@ -59,7 +62,7 @@ pub struct TableSpec {
 
 impl SourceSpec {
     /// Parse the short text form used on the command line:
-    /// `am1.5g | am1.5d | am0 | blackbody:K | file:PATH`.
+    /// `am1.5g | am1.5d | am0 | blackbody:K | file:PATH | clearsky:lat=..,lon=..,time=..`.
     pub fn parse(text: &str) -> Result<SourceSpec, String> {
         let t = text.trim();
         let lower = t.to_ascii_lowercase();
@@ -75,13 +78,18 @@ impl SourceSpec {
             })?;
             return Ok(SourceSpec::Blackbody { temp_k: k });
         }
+        if let (Some(prefix), Some(rest)) = (t.get(..9), t.get(9..)) {
+            if prefix.eq_ignore_ascii_case("clearsky:") {
+                return place::ClearSkySpec::parse(rest).map(SourceSpec::ClearSky);
+            }
+        }
         if let (Some(prefix), Some(path)) = (t.get(..5), t.get(5..)) {
             if prefix.eq_ignore_ascii_case("file:") && !path.is_empty() {
                 return Ok(SourceSpec::File { path: path.to_string() });
             }
         }
         Err(format!(
-            "unknown spectrum '{text}'; use am1.5g, am1.5d, am0, blackbody:K (e.g. blackbody:5772) or file:PATH"
+            "unknown spectrum '{text}'; use am1.5g, am1.5d, am0, blackbody:K (e.g. blackbody:5772), file:PATH or clearsky:lat=DEG,lon=DEG,time=ISO8601"
         ))
     }
 
@@ -94,6 +102,7 @@ impl SourceSpec {
             SourceSpec::Blackbody { temp_k } => format!("blackbody:{temp_k}"),
             SourceSpec::File { path } => format!("file:{path}"),
             SourceSpec::Table(t) => format!("table:{}", t.name),
+            SourceSpec::ClearSky(c) => format!("clearsky:{}", c.label()),
         }
     }
 
@@ -120,6 +129,7 @@ impl SourceSpec {
                 .map_err(|e| format!("the spectrum '{}' is not usable: {e}", t.name))?;
                 Ok(Source::user(s))
             }
+            SourceSpec::ClearSky(c) => c.to_source(),
         }
     }
 }

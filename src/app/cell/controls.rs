@@ -35,6 +35,7 @@ fn source_key(s: &SourceSpec) -> &'static str {
         SourceSpec::Am0 => "am0",
         SourceSpec::Blackbody { .. } => "blackbody",
         SourceSpec::File { .. } | SourceSpec::Table(_) => "table",
+        SourceSpec::ClearSky(_) => "place",
     }
 }
 

@@ -24,6 +24,12 @@ pub fn source_label(spec: &SourceSpec) -> String {
         SourceSpec::Blackbody { temp_k } => format!("{} K blackbody sun", field(*temp_k, 6)),
         SourceSpec::File { path } => format!("file {path}"),
         SourceSpec::Table(t) => format!("spectrum '{}'", t.name),
+        SourceSpec::ClearSky(c) => format!(
+            "clear sky at {} deg, {} deg, {} (no clouds)",
+            field(c.place.lat_deg, 6),
+            field(c.place.lon_deg, 6),
+            c.time
+        ),
     }
 }
 
