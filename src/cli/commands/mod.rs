@@ -8,6 +8,7 @@ mod absorber;
 mod blackbody;
 mod cell;
 mod cool;
+mod energy;
 mod eval;
 mod film;
 mod losses;
@@ -35,6 +36,7 @@ pub const ALL: &[&Command] = &[
     &tpv::COMMAND,
     &absorber::COMMAND,
     &film::COMMAND,
+    &energy::COMMAND,
 ];
 
 /// The command called `name`.
