@@ -125,7 +125,7 @@ mod tests {
                 assert!(says.iter().any(|w| text.contains(w)), "glowgap {} --{name}: {text}", c.spec.command);
             }
         }
-        for d in SHARED_DOCS {
+        for d in SHARED_DOCS.iter().chain(place_options()) {
             assert!(ALL.iter().any(|c| c.spec.options().any(|o| o == d.name)), "--{} is used by no command", d.name);
         }
     }

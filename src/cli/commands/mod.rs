@@ -15,6 +15,7 @@ mod map;
 mod mismatch;
 mod optimize;
 mod stack;
+mod sun;
 mod sweep;
 mod tpv;
 
@@ -35,6 +36,7 @@ pub const ALL: &[&Command] = &[
     &tpv::COMMAND,
     &absorber::COMMAND,
     &film::COMMAND,
+    &sun::COMMAND,
 ];
 
 /// The command called `name`.

@@ -8,8 +8,6 @@
 //! never by range checks of their own; this module only words the scenario's messages as
 //! this command line's options.
 
-#![allow(dead_code)] // used by `glowgap sun` (next commit) and `glowgap yield`
-
 use crate::cli::args::{OptionDoc, Parsed};
 use crate::scenario::place::PlaceSpec;
 
@@ -30,6 +28,26 @@ pub const PLACE_KEYS: &[&str] = &[
     "albedo",
     "sky-model",
 ];
+
+/// A command's valued options: `lat`, `lon`, then `extra`, then the other place keys
+/// (`M` must be `N + PLACE_KEYS.len()`), e.g.
+/// `const VALUED: [&str; PLACE_KEYS.len() + 1] = place_keys_with(["time"]);`.
+pub const fn place_keys_with<const N: usize, const M: usize>(extra: [&'static str; N]) -> [&'static str; M] {
+    assert!(M == N + PLACE_KEYS.len(), "M must be N + PLACE_KEYS.len()");
+    let mut out = [""; M];
+    let (mut i, mut k) = (0, 0);
+    while i < PLACE_KEYS.len() {
+        if i == 2 {
+            while k < N {
+                out[2 + k] = extra[k];
+                k += 1;
+            }
+        }
+        out[if i < 2 { i } else { i + N }] = PLACE_KEYS[i];
+        i += 1;
+    }
+    out
+}
 
 const PLACE_DOCS: &[OptionDoc] = &[
     OptionDoc { name: "lat", arg: "DEG", text: "latitude in degrees, north positive, -90 to 90, required" },
@@ -169,5 +187,8 @@ mod tests {
             assert!(PLACE_KEYS.contains(&d.name), "{}", d.name);
         }
         assert_eq!(place_options().len(), PLACE_KEYS.len());
+        let keys: [&str; 16] = place_keys_with(["time", "date"]);
+        assert_eq!(&keys[..4], &["lat", "lon", "time", "date"]);
+        assert_eq!(&keys[4..], &PLACE_KEYS[2..]);
     }
 }
