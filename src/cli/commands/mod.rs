@@ -16,6 +16,7 @@ mod map;
 mod mismatch;
 mod optimize;
 mod stack;
+mod sun;
 mod sweep;
 mod tpv;
 
@@ -36,6 +37,7 @@ pub const ALL: &[&Command] = &[
     &tpv::COMMAND,
     &absorber::COMMAND,
     &film::COMMAND,
+    &sun::COMMAND,
     &energy::COMMAND,
 ];
 
