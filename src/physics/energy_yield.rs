@@ -26,7 +26,7 @@ use super::clear_sky::{clear_sky_source, ClearSkySpectra};
 use super::constants::CHARGE;
 use super::junction::{sweep, Cell, Illumination};
 use super::search::{nelder_mead, Objective};
-use super::site::{civil_from_days, day_steps, days_from_civil, moment, Site};
+use super::site::{civil_from_days, day_steps, days_from_civil, PreparedSite, Site};
 use super::solar_position::{CivilTime, SunPosition};
 use super::stack::{stack_efficiency, Connection};
 
@@ -74,10 +74,10 @@ impl Series for ClearSkySeries<'_> {
         if !(step_s.is_finite() && (1.0..=3600.0).contains(&step_s)) {
             return Err(format!("the time step {step_s} s is out of range; give 1 to 3600 s (e.g. 300)"));
         }
-        self.site.check()?;
+        let prepared = PreparedSite::new(self.site)?;
         for (i, &(y, m, d)) in self.days.iter().enumerate() {
             for when in day_steps(y, m, d, self.site.observer.longitude_deg, step_s) {
-                let mo = moment(self.site, &when)?;
+                let mo = prepared.moment(&when)?;
                 f(&sun_step(when, step_s, mo.position, &mo.spectra)?);
             }
             progress(i + 1, self.days.len());
