@@ -718,19 +718,20 @@ fn sun_position(rounds: usize) {
     println!("bench solar_position_one_moment    {:>10.3} us   (goal: with the spectrum < 200 us)", t * 1e6);
 }
 
-/// Median wall time [s] of `rounds` runs of `f` (no warm-up: for runs long enough that one
-/// run is its own warm-up, or whose tables an earlier bench has loaded), with the last
-/// run's result.
+/// Median wall time [s] of `rounds` runs of `f` (at least one), with the last run's result;
+/// no warm-up: for runs long enough to be their own warm-up, after a bench that has loaded
+/// the tables they use.
 fn median_of_runs<T>(rounds: usize, mut f: impl FnMut() -> T) -> (f64, T) {
-    let mut out = f();
-    let mut t = Vec::with_capacity(rounds);
-    for _ in 0..rounds {
+    let start = Instant::now();
+    let mut out = black_box(f());
+    let mut t = vec![start.elapsed().as_secs_f64()];
+    for _ in 1..rounds {
         let start = Instant::now();
         out = black_box(f());
         t.push(start.elapsed().as_secs_f64());
     }
     t.sort_by(f64::total_cmp);
-    (t[rounds / 2], out)
+    (t[t.len() / 2], out)
 }
 
 /// The example place of the energy benches: 38 N, 15 W at sea level, a plane tilted 30 deg
