@@ -24,6 +24,14 @@
 //! * place and time: one solar position (zenith, azimuth, incidence, equation of time) well
 //!   inside the 0.2 ms that one moment's position and spectrum may take together.
 //!
+//! * energy over a clear day or year at an example place (38 N, 15 W, plane tilted 30 deg
+//!   facing south): one moment's position and spectrum under 0.2 ms; a 2025 year at
+//!   15-minute steps (35,040) for one 1.34 eV cell under 1 s and its best single gap
+//!   (201 gaps, 0.50-2.50 eV) under 3 s; the same two for one day of 288 five-minute steps
+//!   (what the page recomputes when the date changes; goals scaled from the year's: 10 ms
+//!   and 30 ms); the year beside benches/yield_numpy.py for the same work in this same run,
+//!   with the ratio and both years' electric energy (expected within 2 % of each other).
+//!
 //! Whole-process figures are the median of 5 runs of target/release/glowgap; the machine
 //! may be shared, so read medians and ratios of one run, not single numbers.
 
@@ -94,6 +102,7 @@ fn main() {
     hot_emitters(rounds, quick);
     films(rounds, quick);
     silicon(rounds, quick);
+    energy_yield(rounds, quick);
 }
 
 /// One clear-sky spectrum (122 wavelengths, Hay-Davies plane of array) and its source.
@@ -707,4 +716,135 @@ fn sun_position(rounds: usize) {
         black_box(sun_at(black_box(&when), black_box(&place), black_box(&surface), black_box(dt)).ok());
     });
     println!("bench solar_position_one_moment    {:>10.3} us   (goal: with the spectrum < 200 us)", t * 1e6);
+}
+
+/// Median wall time [s] of `rounds` runs of `f` (at least one), with the last run's result;
+/// no warm-up: for runs long enough to be their own warm-up, after a bench that has loaded
+/// the tables they use.
+fn median_of_runs<T>(rounds: usize, mut f: impl FnMut() -> T) -> (f64, T) {
+    let start = Instant::now();
+    let mut out = black_box(f());
+    let mut t = vec![start.elapsed().as_secs_f64()];
+    for _ in 1..rounds {
+        let start = Instant::now();
+        out = black_box(f());
+        t.push(start.elapsed().as_secs_f64());
+    }
+    t.sort_by(f64::total_cmp);
+    (t[t.len() / 2], out)
+}
+
+/// The example place of the energy benches: 38 N, 15 W at sea level, a plane tilted 30 deg
+/// facing south, the clear-sky air of benches/yield_numpy.py (1.4 cm water, 0.3 atm-cm
+/// ozone, aerosol depth 0.1 at 500 nm, Angstrom exponent 1.14, albedo 0.2), and a fixed
+/// TT - UT1 of 69 s so that both sides place the sun with the same clock.
+fn example_site() -> glowgap::physics::site::Site {
+    use glowgap::physics::clear_sky::SkyModel;
+    use glowgap::physics::site::{Atmosphere, Site};
+    use glowgap::physics::solar_position::{Observer, Surface};
+    Site {
+        observer: Observer {
+            latitude_deg: 38.0,
+            longitude_deg: -15.0,
+            elevation_m: 0.0,
+            pressure_hpa: 1013.25,
+            temperature_c: 12.0,
+        },
+        surface: Surface { tilt_deg: 30.0, azimuth_deg: 180.0 },
+        atmosphere: Atmosphere {
+            precipitable_water_cm: 1.4,
+            ozone_atm_cm: 0.3,
+            aod_500nm: 0.1,
+            angstrom_exponent: 1.14,
+            ground_albedo: 0.2,
+            sky: SkyModel::HayDavies,
+        },
+        delta_t_s: Some(69.0),
+    }
+}
+
+/// Energy over a clear day or year at [`example_site`]: one moment's position and spectrum
+/// (goal < 0.2 ms); a day of 288 five-minute steps (what the page recomputes when the date
+/// changes) and a year of 365 x 96 fifteen-minute steps (2025), each for one 1.34 eV ideal
+/// cell (goals: year < 1 s, day < 10 ms) and for the best single gap of the 201-gap grid
+/// 0.50-2.50 eV (goals: year < 3 s, day < 30 ms); the year beside benches/yield_numpy.py
+/// (the same year in vectorized numpy) in this same run, with both energies. Printed only.
+fn energy_yield(rounds: usize, quick: bool) {
+    use glowgap::physics::constants::CHARGE;
+    use glowgap::physics::energy_yield::{device_energy, gap_curve, year_days, ClearSkySeries, Device, Energy};
+    use glowgap::physics::site::moment;
+    use glowgap::physics::solar_position::CivilTime;
+    use glowgap::physics::stack::Connection;
+    const KWH: f64 = 3.6e6; // J per kWh
+    let site = example_site();
+    let when = CivilTime { year: 2025, month: 6, day: 21, hour: 14, minute: 15, second: 0.0, utc_offset_h: -1.0 };
+    let one = median_per_call(rounds, 500, || {
+        black_box(moment(black_box(&site), black_box(&when)).ok());
+    });
+    println!(
+        "bench yield_moment                   {:>10.3} ms   (goal < 0.2 ms; position and 122-wavelength spectra)",
+        one * 1e3
+    );
+
+    let device = Device { template: Cell::ideal(ev(1.34)), gaps_j: vec![ev(1.34)], connection: Connection::Series };
+    let gaps: Vec<f64> = (0..201).map(|i| ev(0.5 + 0.01 * i as f64)).collect();
+    let year = year_days(2025);
+    let summer = [(2025, 6, 21)];
+    let long_rounds = if quick { 1 } else { 3 };
+    let none = &mut |_: usize, _: usize| {};
+    let mut year_one_cell = (f64::NAN, Energy::default());
+    for (name, days, step_s, runs, goals) in [
+        ("day", &summer[..], 300.0, rounds, ("10 ms", "30 ms")),
+        ("year", &year[..], 900.0, long_rounds, ("1 s", "3 s")),
+    ] {
+        let series = ClearSkySeries { site: &site, days, step_s };
+        let (cell_s, energy) = median_of_runs(runs, || device_energy(&series, &device, none, &mut |_, _, _| {}));
+        let (best_s, curve) = median_of_runs(runs, || gap_curve(&series, &device.template, &gaps, none));
+        let (energy, curve) = match (energy, curve) {
+            (Ok(e), Ok(c)) => (e, c),
+            (Err(e), _) | (_, Err(e)) => {
+                println!("bench yield_{name:<25} failed: {e}");
+                continue;
+            }
+        };
+        let steps = days.len() * (86_400.0 / step_s) as usize;
+        let unit = |s: f64| if name == "day" { format!("{:>10.3} ms", s * 1e3) } else { format!("{s:>10.3} s ") };
+        println!(
+            "bench {:<31}{}   (goal < {}; {steps} steps, 1.34 eV: {:.4} kWh/m2 of {:.4} incident, {:.4} %)",
+            format!("yield_{name}_one_cell"),
+            unit(cell_s),
+            goals.0,
+            energy.electric_j_m2 / KWH,
+            energy.incident_j_m2 / KWH,
+            energy.efficiency() * 100.0,
+        );
+        let (g, e) = curve.best().unwrap_or((f64::NAN, f64::NAN));
+        println!(
+            "bench {:<31}{}   (goal < {}; 201 gaps 0.50-2.50 eV: best {:.4} eV, {:.4} kWh/m2)",
+            format!("yield_{name}_best_gap"),
+            unit(best_s),
+            goals.1,
+            g / CHARGE,
+            e / KWH,
+        );
+        if name == "year" {
+            year_one_cell = (cell_s, energy);
+        }
+    }
+    let Some(out) = run_numpy_script("yield_numpy.py", "numpy_yield_year", Some(if quick { "1" } else { "3" })) else {
+        return;
+    };
+    let (ours_s, ours) = year_one_cell;
+    match (number_after(&out, "numpy_yield_seconds="), number_after(&out, "numpy_yield_kwh_m2=")) {
+        (Some(np_s), Some(np_kwh)) => {
+            let ours_kwh = ours.electric_j_m2 / KWH;
+            println!(
+                "bench numpy_yield_year_one_cell      {:>10.3} s    ({np_kwh:.4} kWh/m2 against ours {ours_kwh:.4}: relative difference {:+.1e}, goal < 2e-2: same algorithms coded twice)",
+                np_s,
+                np_kwh / ours_kwh - 1.0
+            );
+            println!("bench ratio numpy/glowgap yield_year {:>10.2} x    (compute only on both sides)", np_s / ours_s);
+        }
+        _ => println!("bench numpy_yield_year_one_cell      skipped (no timing line in the script's output)"),
+    }
 }
