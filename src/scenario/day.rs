@@ -1,0 +1,245 @@
+//! A radiator through one clear day at a place: the text form of `glowgap cool --day`
+//! (`lat=DEG,lon=DEG,date=YYYY-MM-DD[,tmin=C,tmax=C][,place keys]`), its checks, and the
+//! day run: at each 5-minute step from local mean-time midnight, the sun's clear-sky light on
+//! the radiator's plane (none with the sun down), the air temperature of the two-piece
+//! cosine day ([`DailyAir`]), and the radiator's balance at that air temperature.
+//!
+//! Architecture invariant: every accepted range lives here, in [`PlaceSpec::to_site`] and in
+//! the radiator's own `to_physics` (called at every step with that step's air temperature);
+//! front ends only parse text into these fields.
+
+use crate::physics::air_temperature::DailyAir;
+use crate::physics::batch::map_indexed;
+use crate::physics::clear_sky::clear_sky_source;
+use crate::physics::radiator::balance::Balance;
+use crate::physics::radiator::solar::Sun;
+use crate::physics::site::{day_steps, moment};
+use crate::physics::solar_position::{delta_t_estimate, sun_day, CivilTime, SunDay};
+use crate::scenario::place::{parse_date, PlaceSpec};
+use crate::scenario::radiator::RadiatorScenario;
+
+/// The time step of a day [s] (5 minutes).
+pub const DAY_STEP_S: f64 = 300.0;
+
+/// The air temperatures taken for a day [deg C].
+pub const DAY_AIR_RANGE_C: (f64, f64) = (-90.0, 60.0);
+
+/// Where the absorptance is read when the sun's beam is behind the plane and only sky light
+/// reaches it [deg from the normal]: about 60 deg, the effective direction of isotropic sky
+/// light on a plane (common practice).
+pub const SKY_LIGHT_DIRECTION_DEG: f64 = 60.0;
+
+/// One day at one place, as typed.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DaySpec {
+    /// the place and the radiator's plane (tilt 0 unless given) and air
+    pub place: PlaceSpec,
+    /// `YYYY-MM-DD`
+    pub date: (i32, u32, u32),
+    /// the day's lowest and highest air temperature [deg C]
+    pub tmin_c: f64,
+    pub tmax_c: f64,
+}
+
+/// One step of a day.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DayStep {
+    pub when: CivilTime,
+    /// global irradiance on the radiator's plane, 300-4000 nm [W m^-2]
+    pub sun_w_m2: f64,
+    /// net cooling power with the surface at the air temperature [W m^-2]
+    pub net_w_m2: f64,
+    /// the steady surface temperature [K], if the balance has one in its search range
+    pub steady_k: Option<f64>,
+    /// the air temperature [K]
+    pub ambient_k: f64,
+}
+
+/// A day's run.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DayRun {
+    pub steps: Vec<DayStep>,
+    /// the step [s]
+    pub step_s: f64,
+    /// the clock's UTC offset [h] (local mean time, whole hours)
+    pub utc_offset_h: f64,
+    /// the sun's day on that clock
+    pub sun_day: SunDay,
+    /// the air model used
+    pub air: DailyAir,
+    /// the radiator's warnings, each once
+    pub warnings: Vec<String>,
+}
+
+impl DaySpec {
+    /// Parse the text of `--day`. Place messages are the scenario's own; the front end
+    /// names its option.
+    pub fn parse(text: &str) -> Result<DaySpec, String> {
+        let mut place = PlaceSpec::default();
+        let (mut lat, mut lon, mut date) = (false, false, None);
+        let (mut tmin_c, mut tmax_c) = (15.0, 25.0);
+        for part in text.split(',').map(str::trim).filter(|p| !p.is_empty()) {
+            let (k, v) = part.split_once('=').ok_or_else(|| {
+                format!("'{part}' is not key=value; write e.g. lat=45,lon=7,date=2024-07-15,tmin=15,tmax=25")
+            })?;
+            let k = k.trim().to_ascii_lowercase();
+            lat |= k == "lat";
+            lon |= k == "lon";
+            match k.as_str() {
+                "date" => date = Some(parse_date(v)?),
+                "tmin" | "tmax" => {
+                    let t: f64 =
+                        v.trim().parse().ok().filter(|t: &f64| t.is_finite()).ok_or_else(|| {
+                            format!("{k}='{}' is not a temperature; give deg C, e.g. {k}=20", v.trim())
+                        })?;
+                    if k == "tmin" {
+                        tmin_c = t;
+                    } else {
+                        tmax_c = t;
+                    }
+                }
+                _ => {
+                    if !place.set(&k, v)? {
+                        return Err(format!(
+                            "unknown key '{k}'; use lat, lon, date, tmin, tmax, tilt, azimuth, elevation, pressure, \
+                             air-temp, pwv, ozone, aod500, angstrom, albedo, delta-t or sky-model"
+                        ));
+                    }
+                }
+            }
+        }
+        let Some(date) = date.filter(|_| lat && lon) else {
+            return Err("needs lat, lon and date, e.g. lat=45,lon=7,date=2024-07-15".into());
+        };
+        let spec = DaySpec { place, date, tmin_c, tmax_c };
+        spec.check()?;
+        Ok(spec)
+    }
+
+    /// Check the place and the air temperatures.
+    #[allow(clippy::neg_cmp_op_on_partial_ord)] // !(a <= b) on purpose: it also refuses NaN
+    pub fn check(&self) -> Result<(), String> {
+        self.place.to_site()?;
+        for (k, t) in [("tmin", self.tmin_c), ("tmax", self.tmax_c)] {
+            if !(t >= DAY_AIR_RANGE_C.0 && t <= DAY_AIR_RANGE_C.1) {
+                return Err(format!(
+                    "{k}={t} C is out of range; give {} to {} C",
+                    DAY_AIR_RANGE_C.0, DAY_AIR_RANGE_C.1
+                ));
+            }
+        }
+        if !(self.tmin_c <= self.tmax_c) {
+            return Err(format!(
+                "tmin={} C is above tmax={} C; give the day's lowest air temperature as tmin",
+                self.tmin_c, self.tmax_c
+            ));
+        }
+        Ok(())
+    }
+
+    /// The radiator `radiator` (its sun and air temperature are the day's) through the day.
+    pub fn run(&self, radiator: &RadiatorScenario) -> Result<DayRun, String> {
+        self.check()?;
+        let site = self.place.to_site()?;
+        let (y, m, d) = self.date;
+        let times = day_steps(y, m, d, self.place.lon_deg, DAY_STEP_S);
+        let first = *times.first().ok_or("no time steps")?;
+        let delta_t = |w: &CivilTime| site.delta_t_s.unwrap_or_else(|| delta_t_estimate(w.decimal_year()));
+        let day = sun_day(&first, &site.observer, delta_t(&first))?;
+        let (sunrise, noon) = match day {
+            SunDay::RiseAndSet { sunrise_h, transit_h, .. } => (Some(sunrise_h), transit_h),
+            SunDay::PolarDay { transit_h } | SunDay::PolarNight { transit_h } => (None, transit_h),
+        };
+        let air = DailyAir::new(self.tmin_c + 273.15, self.tmax_c + 273.15, sunrise, noon);
+        let mut sc = radiator.clone();
+        sc.sun = None;
+        sc.surface_k = None;
+        // every step on its own (natively on every core): the radiator checked at the
+        // step's air temperature, the sun's light, the balance
+        let one = |when: &CivilTime| -> Result<(DayStep, Vec<String>), String> {
+            let hour = when.hour as f64 + (when.minute as f64 + when.second / 60.0) / 60.0;
+            let ambient_k = air.at(hour);
+            let mut setup = RadiatorScenario { ambient_k, ..sc.clone() }.to_physics()?;
+            let now = moment(&site, when)?;
+            let sun_w_m2 = if now.position.zenith_deg < 90.0 { now.spectra.plane_global_total() } else { 0.0 };
+            if sun_w_m2 > 0.0 {
+                let source = clear_sky_source(&now.spectra, "clear sky")?;
+                let incidence = now.position.incidence_deg;
+                let direction = if incidence < 90.0 { incidence } else { SKY_LIGHT_DIRECTION_DEG };
+                setup.surroundings.sun = Some(Sun { source, zenith_rad: direction.to_radians(), scale: 1.0 });
+            }
+            let balance = Balance::new(&setup.emitter, &setup.surroundings);
+            let step = DayStep {
+                when: *when,
+                sun_w_m2,
+                net_w_m2: balance.net(ambient_k),
+                steady_k: balance.steady().temperature(),
+                ambient_k,
+            };
+            Ok((step, setup.warnings))
+        };
+        let done = map_indexed(times.len(), |i| Some(one(&times[i])));
+        // the radiator's warnings, each kind once (the same words with other numbers are one
+        // kind): its first text, the step's time and how many steps had it
+        let mut warnings: Vec<(String, String, String, usize)> = Vec::new();
+        let mut steps = Vec::with_capacity(times.len());
+        for result in done {
+            let (step, step_warnings) = result.ok_or("a time step was not computed")??;
+            for w in step_warnings {
+                let kind: String = w.chars().filter(|c| !c.is_ascii_digit() && *c != '.').collect();
+                match warnings.iter_mut().find(|(k, ..)| *k == kind) {
+                    Some(seen) => seen.3 += 1,
+                    None => {
+                        let at = format!("{:02}:{:02}", step.when.hour, step.when.minute);
+                        warnings.push((kind, w, at, 1));
+                    }
+                }
+            }
+            steps.push(step);
+        }
+        let n = steps.len();
+        let warnings = warnings
+            .into_iter()
+            .map(|(_, w, at, count)| match count {
+                1 => format!("at {at}: {w}"),
+                _ => format!("from {at}, at {count} of the day's {n} steps: {w}"),
+            })
+            .collect();
+        Ok(DayRun { steps, step_s: DAY_STEP_S, utc_offset_h: first.utc_offset_h, sun_day: day, air, warnings })
+    }
+}
+
+impl DayRun {
+    /// The integral of the net cooling power at the air temperature over the day
+    /// [kWh m^-2]: each step's power times its length, heating steps negative.
+    pub fn cooling_kwh_m2(&self) -> f64 {
+        self.steps.iter().map(|s| s.net_w_m2 * self.step_s).sum::<f64>() / 3.6e6
+    }
+
+    /// Hours in which the steady surface temperature is below the air's.
+    pub fn hours_below_ambient(&self) -> f64 {
+        let n = self.steps.iter().filter(|s| s.steady_k.is_some_and(|t| t < s.ambient_k)).count();
+        n as f64 * self.step_s / 3600.0
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_text_form_and_its_checks() {
+        let d = DaySpec::parse("lat=35,lon=-106,date=2024-07-15,tmin=12,tmax=30,pwv=0.8,tilt=10").unwrap();
+        assert_eq!((d.date, d.tmin_c, d.tmax_c), ((2024, 7, 15), 12.0, 30.0));
+        assert_eq!((d.place.pwv_cm, d.place.tilt_deg), (0.8, 10.0));
+        let d = DaySpec::parse("lat=35,lon=-106,date=2024-07-15").unwrap();
+        assert_eq!((d.tmin_c, d.tmax_c, d.place.tilt_deg), (15.0, 25.0, 0.0));
+        let err = |t: &str| DaySpec::parse(t).unwrap_err();
+        assert!(err("lat=95,lon=0,date=2024-07-15").contains("latitude 95"));
+        assert!(err("lat=45,lon=0,date=2023-02-29").contains("does not exist"));
+        assert!(err("lat=45,lon=0,date=2024-07-15,tmin=30,tmax=20").contains("above tmax"));
+        assert!(err("lat=45,lon=0,date=2024-07-15,fog=1").contains("unknown key 'fog'"));
+        assert!(err("lat=45,lon=0").contains("needs lat, lon and date"));
+        assert!(err("lat=45,lon=0,date=2024-07-15,tmin=x").contains("tmin='x'"));
+    }
+}
