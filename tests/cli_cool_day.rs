@@ -158,6 +158,34 @@ fn bad_days_fail_with_one_line() {
 }
 
 #[test]
+fn an_hourly_air_file_is_joined_by_straight_lines() {
+    let dir = std::env::temp_dir().join(format!("glowgap-day-air-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let path = dir.join("air.csv");
+    // an example of our own: four values, one given as an ISO time one hour east of the
+    // day's clock (14:00 at UTC-6 is 13:00 at UTC-7)
+    std::fs::write(&path, "# air by the roof\nhour,air_c\n0,18\n5,14\n2024-07-15T14:00-06:00,31\n18,27\n").unwrap();
+    let p = path.to_str().unwrap();
+    let v = json(&["cool", "--day", "lat=35,lon=-106,date=2024-07-15", "--day-ambient", p, "--json"]);
+    assert_eq!(v["air_model"], "hourly table");
+    assert_eq!((f(&v, "tmin_c"), f(&v, "tmax_c")), (14.0, 31.0));
+    // linear interpolation between the values, round the clock (the contract), in deg C
+    let knots = [(0.0, 18.0), (5.0, 14.0), (13.0, 31.0), (18.0, 27.0), (24.0, 18.0)];
+    for x in steps(&v) {
+        let h = minutes(&x["time"].as_str().unwrap()[11..16]) / 60.0;
+        let k = knots.windows(2).find(|w| h >= w[0].0 && h < w[1].0).unwrap();
+        let want = k[0].1 + (k[1].1 - k[0].1) * (h - k[0].0) / (k[1].0 - k[0].0) + 273.15;
+        assert!((f(x, "ambient_k") - want).abs() < 1e-9, "{x}: {want}");
+    }
+    std::fs::write(&path, "0,20\n1,warm\n").unwrap();
+    expect_usage_error(&["cool", "--day", "lat=35,lon=-106,date=2024-07-15", "--day-ambient", p], "line 2");
+    expect_usage_error(&["cool", "--day", "lat=35,lon=-106,date=2024-07-15,tmin=10", "--day-ambient", p], "tmin");
+    expect_usage_error(&["cool", "--day", DAY, "--day-ambient", "/no/such/file"], "--day-ambient");
+    expect_usage_error(&["cool", "--day-ambient", p], "--day");
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
 fn a_day_takes_well_under_a_second_of_work() {
     // 288 balances with the spectral clear sky; the bound is loose because the machine
     // is shared (measured about 0.4-0.8 s of processor time here)

@@ -5,6 +5,7 @@
 //! `physics::radiator` and `physics::site`); this module only converts units, names the keys
 //! and writes times.
 
+use crate::physics::air_temperature::AirModel;
 use crate::physics::solar_position::CivilTime;
 use crate::report::sun::day_events;
 use crate::scenario::day::{DayRun, DaySpec};
@@ -53,6 +54,8 @@ pub struct DayReport {
     pub sunrise: Option<String>,
     pub solar_noon: String,
     pub sunset: Option<String>,
+    /// `two-piece cosine` (tmin, tmax) or `hourly table` (tmin and tmax its extremes)
+    pub air_model: &'static str,
     /// when the air model puts its minimum (sunrise, or solar noon - 6 h on polar day or
     /// night) and its maximum (14:00 solar time)
     pub air_min_at: String,
@@ -101,8 +104,12 @@ impl DayReport {
             sunrise,
             solar_noon: noon,
             sunset,
-            air_min_at: clock(run.air.sunrise_h),
-            air_max_at: clock(run.air.peak_h),
+            air_model: match run.air {
+                AirModel::Cosine(_) => "two-piece cosine",
+                AirModel::Hourly(_) => "hourly table",
+            },
+            air_min_at: clock(run.air.extremes_at().0),
+            air_max_at: clock(run.air.extremes_at().1),
             cooling_kwh_m2: run.cooling_kwh_m2(),
             hours_below_ambient: run.hours_below_ambient(),
             steps: run

@@ -8,14 +8,14 @@
 //! the radiator's own `to_physics` (called at every step with that step's air temperature);
 //! front ends only parse text into these fields.
 
-use crate::physics::air_temperature::DailyAir;
+use crate::physics::air_temperature::{AirModel, DailyAir, HourlyAir};
 use crate::physics::batch::map_indexed;
 use crate::physics::clear_sky::clear_sky_source;
 use crate::physics::radiator::balance::Balance;
 use crate::physics::radiator::solar::Sun;
 use crate::physics::site::{day_steps, moment};
 use crate::physics::solar_position::{delta_t_estimate, sun_day, CivilTime, SunDay};
-use crate::scenario::place::{parse_date, PlaceSpec};
+use crate::scenario::place::{parse_date, parse_time, PlaceSpec};
 use crate::scenario::radiator::RadiatorScenario;
 
 /// The time step of a day [s] (5 minutes).
@@ -39,6 +39,11 @@ pub struct DaySpec {
     /// the day's lowest and highest air temperature [deg C]
     pub tmin_c: f64,
     pub tmax_c: f64,
+    /// whether tmin or tmax was given
+    pub extremes_given: bool,
+    /// air temperatures [deg C] at clock hours [h] of the steps' clock (local mean time),
+    /// instead of the two-piece cosine
+    pub hourly_c: Option<Vec<(f64, f64)>>,
 }
 
 /// One step of a day.
@@ -66,7 +71,7 @@ pub struct DayRun {
     /// the sun's day on that clock
     pub sun_day: SunDay,
     /// the air model used
-    pub air: DailyAir,
+    pub air: AirModel,
     /// the radiator's warnings, each once
     pub warnings: Vec<String>,
 }
@@ -77,7 +82,7 @@ impl DaySpec {
     pub fn parse(text: &str) -> Result<DaySpec, String> {
         let mut place = PlaceSpec::default();
         let (mut lat, mut lon, mut date) = (false, false, None);
-        let (mut tmin_c, mut tmax_c) = (15.0, 25.0);
+        let (mut tmin_c, mut tmax_c, mut extremes_given) = (15.0, 25.0, false);
         for part in text.split(',').map(str::trim).filter(|p| !p.is_empty()) {
             let (k, v) = part.split_once('=').ok_or_else(|| {
                 format!("'{part}' is not key=value; write e.g. lat=45,lon=7,date=2024-07-15,tmin=15,tmax=25")
@@ -88,6 +93,7 @@ impl DaySpec {
             match k.as_str() {
                 "date" => date = Some(parse_date(v)?),
                 "tmin" | "tmax" => {
+                    extremes_given = true;
                     let t: f64 =
                         v.trim().parse().ok().filter(|t: &f64| t.is_finite()).ok_or_else(|| {
                             format!("{k}='{}' is not a temperature; give deg C, e.g. {k}=20", v.trim())
@@ -111,9 +117,75 @@ impl DaySpec {
         let Some(date) = date.filter(|_| lat && lon) else {
             return Err("needs lat, lon and date, e.g. lat=45,lon=7,date=2024-07-15".into());
         };
-        let spec = DaySpec { place, date, tmin_c, tmax_c };
+        let spec = DaySpec { place, date, tmin_c, tmax_c, extremes_given, hourly_c: None };
         spec.check()?;
         Ok(spec)
+    }
+
+    /// Take the air temperature from a table of values at hours of the day instead of the
+    /// two-piece cosine. `text`: one `hour,temperature` pair per line (separated by a comma,
+    /// semicolon, tab or spaces), the hour a clock hour 0 to below 24 on the steps' clock
+    /// (local mean time, UTC + round(lon/15) h) or an ISO 8601 time with its offset (only its
+    /// time of day counts, moved onto that clock), the temperature in deg C; `#` comments
+    /// and one header line are skipped.
+    pub fn set_hourly_air(&mut self, text: &str) -> Result<(), String> {
+        if self.extremes_given {
+            return Err("tmin and tmax do not go with a table of hourly air temperatures; give one or the other".into());
+        }
+        let offset = crate::physics::site::mean_time_offset_h(self.place.lon_deg);
+        let mut points = Vec::new();
+        let mut header_seen = false;
+        for (i, line) in text.lines().enumerate() {
+            let line = line.trim();
+            if line.is_empty() || line.starts_with('#') {
+                continue;
+            }
+            let cells: Vec<&str> = line.split([',', ';', '\t', ' ']).map(str::trim).filter(|c| !c.is_empty()).collect();
+            let bad = |what: &str| {
+                format!(
+                    "line {}: '{line}' {what}; write hour,temperature in deg C, e.g. 14,27.5 or \
+                     2024-07-15T14:00-07:00,27.5",
+                    i + 1
+                )
+            };
+            let [first, second] = cells.as_slice() else {
+                return Err(bad("is not two values"));
+            };
+            let hour = match first.parse::<f64>() {
+                Ok(h) if (0.0..24.0).contains(&h) => h,
+                Ok(_) => return Err(bad("has an hour outside 0 to below 24")),
+                Err(_) => match parse_time(first) {
+                    Ok(t) => {
+                        let h = t.hour as f64 + (t.minute as f64 + t.second / 60.0) / 60.0;
+                        (h - t.utc_offset_h + offset).rem_euclid(24.0)
+                    }
+                    Err(_) if !header_seen && points.is_empty() && second.parse::<f64>().is_err() => {
+                        header_seen = true;
+                        continue;
+                    }
+                    Err(e) => return Err(format!("line {}: {e}", i + 1)),
+                },
+            };
+            let t: f64 = second.parse().map_err(|_| bad("has a temperature that is not a number"))?;
+            if !(DAY_AIR_RANGE_C.0..=DAY_AIR_RANGE_C.1).contains(&t) {
+                return Err(bad(&format!(
+                    "has a temperature outside {} to {} C",
+                    DAY_AIR_RANGE_C.0, DAY_AIR_RANGE_C.1
+                )));
+            }
+            if points.iter().any(|(h, _)| (h - hour).abs() < 1e-9) {
+                return Err(bad("repeats an hour of the day"));
+            }
+            points.push((hour, t));
+        }
+        if points.len() < 2 {
+            return Err("needs at least two hour,temperature lines (e.g. one per hour, 0 to 23)".into());
+        }
+        let (lo, hi) = points.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), p| (a.min(p.1), b.max(p.1)));
+        self.tmin_c = lo;
+        self.tmax_c = hi;
+        self.hourly_c = Some(points);
+        Ok(())
     }
 
     /// Check the place and the air temperatures.
@@ -150,7 +222,13 @@ impl DaySpec {
             SunDay::RiseAndSet { sunrise_h, transit_h, .. } => (Some(sunrise_h), transit_h),
             SunDay::PolarDay { transit_h } | SunDay::PolarNight { transit_h } => (None, transit_h),
         };
-        let air = DailyAir::new(self.tmin_c + 273.15, self.tmax_c + 273.15, sunrise, noon);
+        let air = match &self.hourly_c {
+            None => AirModel::Cosine(DailyAir::new(self.tmin_c + 273.15, self.tmax_c + 273.15, sunrise, noon)),
+            Some(points) => {
+                let kelvin: Vec<(f64, f64)> = points.iter().map(|&(h, t)| (h, t + 273.15)).collect();
+                AirModel::Hourly(HourlyAir::new(&kelvin).ok_or("the hourly air temperatures are not usable")?)
+            }
+        };
         let mut sc = radiator.clone();
         sc.sun = None;
         sc.surface_k = None;
@@ -241,5 +319,21 @@ mod tests {
         assert!(err("lat=45,lon=0,date=2024-07-15,fog=1").contains("unknown key 'fog'"));
         assert!(err("lat=45,lon=0").contains("needs lat, lon and date"));
         assert!(err("lat=45,lon=0,date=2024-07-15,tmin=x").contains("tmin='x'"));
+    }
+
+    #[test]
+    fn hourly_air_tables() {
+        let mut d = DaySpec::parse("lat=35,lon=-106,date=2024-07-15").unwrap();
+        d.set_hourly_air("# measured\nhour,temp_c\n0,20\n6;15\n2024-07-15T14:00-06:00 30\n").unwrap();
+        // 14:00 at UTC-6 is 13:00 on the steps' clock (UTC-7)
+        assert_eq!(d.hourly_c.as_deref(), Some(&[(0.0, 20.0), (6.0, 15.0), (13.0, 30.0)][..]));
+        assert_eq!((d.tmin_c, d.tmax_c), (15.0, 30.0));
+        let mut e = DaySpec::parse("lat=35,lon=-106,date=2024-07-15").unwrap();
+        assert!(e.set_hourly_air("0,20\n25,20\n").unwrap_err().contains("line 2"));
+        assert!(e.set_hourly_air("0,20\n1,x\n").unwrap_err().contains("not a number"));
+        assert!(e.set_hourly_air("0,20\n").unwrap_err().contains("at least two"));
+        assert!(e.set_hourly_air("0,20\n0,21\n").unwrap_err().contains("repeats"));
+        let mut f = DaySpec::parse("lat=35,lon=-106,date=2024-07-15,tmin=10").unwrap();
+        assert!(f.set_hourly_air("0,20\n1,21\n").unwrap_err().contains("tmin and tmax"));
     }
 }

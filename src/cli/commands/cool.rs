@@ -7,7 +7,7 @@
 //! Architecture invariant: imports only `cli::args` and `cli::shared` of the cli.
 
 use crate::cli::args::{OptionDoc, Parsed, Spec};
-use crate::cli::shared::files::{film_error, resolve_radiator_files};
+use crate::cli::shared::files::{film_error, read_small_text, resolve_radiator_files};
 use crate::cli::shared::options::radiator_options;
 use crate::cli::shared::output::{print_json, print_radiator, warn};
 use crate::cli::shared::{Command, Failure, Out};
@@ -45,6 +45,7 @@ pub const COMMAND: Command = Command {
             "spectrum-values",
             "spectrum-column",
             "day",
+            "day-ambient",
         ],
         flags: &["json", "link", "csv"],
         max_positional: 0,
@@ -167,7 +168,15 @@ pub const COMMAND: Command = Command {
                    sky defaults to clear:pwv= of the place. Prints each step's sun_w_m2, net_w_m2 (at\n\
                    the air temperature), steady_temp_k, ambient_k; cooling_kwh_m2 integrates net_w_m2\n\
                    (heating steps count negative), hours_below_ambient counts steady < air.\n\
-                   No hourly air-temperature file yet. (default: no day, one moment)",
+                   (default: no day, one moment)",
+        },
+        OptionDoc {
+            name: "day-ambient",
+            arg: "PATH",
+            text: "with --day: the air temperature from a file instead of tmin/tmax, one line per\n\
+                   value, hour,temperature in C: the hour 0 to below 24 on the day's clock (local mean\n\
+                   time) or an ISO 8601 time with its offset; straight lines between the values,\n\
+                   round the clock (default: the two-piece cosine)",
         },
         OptionDoc {
             name: "csv",
@@ -191,6 +200,11 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     let p = COMMAND.spec.parse(args)?;
     if let Some(day) = p.text("day") {
         return run_day(&p, day, out);
+    }
+    if p.text("day-ambient").is_some() {
+        return Err(Failure::Usage(
+            "--day-ambient gives the air of a day: add --day lat=DEG,lon=DEG,date=YYYY-MM-DD, or drop it".into(),
+        ));
     }
     if p.flag("csv") {
         return Err(Failure::Usage(
@@ -252,7 +266,11 @@ fn run_day(p: &Parsed, day: &str, out: Out) -> Result<(), Failure> {
     if p.flag("json") && p.flag("csv") {
         return Err(Failure::Usage("'glowgap cool --day': choose one of --json and --csv".into()));
     }
-    let spec = DaySpec::parse(day).map_err(|e| format!("--day: {e}"))?;
+    let mut spec = DaySpec::parse(day).map_err(|e| format!("--day: {e}"))?;
+    if let Some(path) = p.text("day-ambient") {
+        let text = read_small_text(path, "the air temperature file").map_err(|e| format!("--day-ambient: {e}"))?;
+        spec.set_hourly_air(&text).map_err(|e| format!("--day-ambient '{path}': {e}"))?;
+    }
     let mut sc = RadiatorScenario::default();
     radiator_options(p, &mut sc)?;
     read_files(&mut sc, p)?;
@@ -301,8 +319,8 @@ fn run_day(p: &Parsed, day: &str, out: Out) -> Result<(), Failure> {
     };
     writeln!(
         out,
-        "Clock UTC{:+} (local mean time); {events}; air {} C at {} to {} C at {}",
-        r.utc_offset_h, r.tmin_c, r.air_min_at, r.tmax_c, r.air_max_at
+        "Clock UTC{:+} (local mean time); {events}; air ({}) {} C at {} to {} C at {}",
+        r.utc_offset_h, r.air_model, r.tmin_c, r.air_min_at, r.tmax_c, r.air_max_at
     )?;
     writeln!(out)?;
     writeln!(

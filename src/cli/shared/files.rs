@@ -161,6 +161,13 @@ fn read_text(path: &str, what: &str, kind: TableKind) -> Result<(String, String)
     read_text_within(path, what, MAX_DATA_FILE_BYTES, &fix)
 }
 
+/// The text of a small table of values typed by hand (e.g. hourly air temperatures), at most
+/// 1 MB.
+pub fn read_small_text(path: &str, what: &str) -> Result<String, String> {
+    let fix = "give a short text table, one line per value";
+    read_text_within(path, what, 1_000_000, fix).map(|(text, _)| text)
+}
+
 /// [`read_text`] with a size limit of `max` bytes; `fix` says what to give instead of a file
 /// that is too large or not text.
 fn read_text_within(path: &str, what: &str, max: u64, fix: &str) -> Result<(String, String), String> {
