@@ -141,9 +141,11 @@ impl DaySpec {
                 continue;
             }
             let cells: Vec<&str> = line.split([',', ';', '\t', ' ']).map(str::trim).filter(|c| !c.is_empty()).collect();
+            let shown: String = line.chars().take(40).collect();
+            let more = if shown.len() < line.len() { "..." } else { "" };
             let bad = |what: &str| {
                 format!(
-                    "line {}: '{line}' {what}; write hour,temperature in deg C, e.g. 14,27.5 or \
+                    "line {}: '{shown}{more}' {what}; write hour,temperature in deg C, e.g. 14,27.5 or \
                      2024-07-15T14:00-07:00,27.5",
                     i + 1
                 )
