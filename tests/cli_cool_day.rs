@@ -139,6 +139,21 @@ fn a_tilted_plane_and_other_place_keys_are_taken() {
 }
 
 #[test]
+fn the_day_sun_is_the_sun_command_light_on_the_same_plane() {
+    // the same place, plane and moment through `glowgap sun` (whose light is checked in
+    // tests/cli_sun.rs against the trapezoid of its spectra and the reference example)
+    let v = json(&["cool", "--day", "lat=35,lon=-106,date=2024-07-15,tilt=20,pwv=0.9", "--sky", "box", "--json"]);
+    for (i, time) in [(120, "2024-07-15T10:00-07:00"), (180, "2024-07-15T15:00-07:00")] {
+        let step = &steps(&v)[i];
+        assert_eq!(step["time"], time);
+        let sun =
+            json(&["sun", "--lat", "35", "--lon", "-106", "--time", time, "--tilt", "20", "--pwv", "0.9", "--json"]);
+        let (a, b) = (f(step, "sun_w_m2"), f(&sun, "plane_of_array_w_m2"));
+        assert!((a - b).abs() <= 1e-12 * b, "{time}: {a} against {b}");
+    }
+}
+
+#[test]
 fn bad_days_fail_with_one_line() {
     for (day, needle) in [
         ("lat=45,lon=0,date=2023-02-29", "does not exist"),
@@ -188,7 +203,7 @@ fn an_hourly_air_file_is_joined_by_straight_lines() {
 #[test]
 fn a_day_takes_well_under_a_second_of_work() {
     // 288 balances with the spectral clear sky; the bound is loose because the machine
-    // is shared (measured about 0.4-0.8 s of processor time here)
+    // is shared (measured about 0.45-0.5 s of processor time here)
     let start = std::time::Instant::now();
     let out = glowgap(&["cool", "--day", DAY, "--emitter", "window:8-13", "--json"]);
     assert!(out.status.success());

@@ -11,7 +11,7 @@
 use crate::physics::air_temperature::{AirModel, DailyAir, HourlyAir};
 use crate::physics::batch::map_indexed;
 use crate::physics::clear_sky::clear_sky_source;
-use crate::physics::radiator::balance::Balance;
+use crate::physics::radiator::balance::{Balance, Steady, STEADY_SEARCH_K};
 use crate::physics::radiator::solar::Sun;
 use crate::physics::site::{day_steps, moment};
 use crate::physics::solar_position::{delta_t_estimate, sun_day, CivilTime, SunDay};
@@ -253,7 +253,7 @@ impl DaySpec {
                 when: *when,
                 sun_w_m2,
                 net_w_m2: balance.net(ambient_k),
-                steady_k: balance.steady().temperature(),
+                steady_k: steady_near(&balance, ambient_k),
                 ambient_k,
             };
             Ok((step, setup.warnings))
@@ -286,6 +286,17 @@ impl DaySpec {
             })
             .collect();
         Ok(DayRun { steps, step_s: DAY_STEP_S, utc_offset_h: first.utc_offset_h, sun_day: day, air, warnings })
+    }
+}
+
+/// The steady temperature [K]: searched first within 150 K below to 250 K above the air
+/// (where a sunlit or night-sky surface settles; a narrower bracket needs fewer balance
+/// evaluations), then over the whole search range.
+fn steady_near(balance: &Balance, ambient_k: f64) -> Option<f64> {
+    let (lo, hi) = ((ambient_k - 150.0).max(STEADY_SEARCH_K.0), (ambient_k + 250.0).min(STEADY_SEARCH_K.1));
+    match balance.steady_between(lo, hi) {
+        Steady::At(t) => Some(t),
+        _ => balance.steady().temperature(),
     }
 }
 
