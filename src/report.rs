@@ -8,6 +8,7 @@ use crate::physics::junction::CellResult;
 use serde::{Deserialize, Serialize};
 
 pub mod blackbody;
+pub mod day;
 pub mod hot;
 pub mod radiator;
 pub mod real;

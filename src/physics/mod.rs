@@ -2,6 +2,7 @@
 //! in the hot paths beyond the result vectors.
 
 pub mod absorber;
+pub mod air_temperature;
 pub mod batch;
 pub mod clear_sky;
 pub mod constants;

@@ -76,13 +76,7 @@ impl SunReport {
         let direct = if up { integrate_nm(&s.direct_normal) } else { 0.0 };
         let diffuse = if up { integrate_nm(&s.diffuse_horizontal) } else { 0.0 };
         let plane = if up { integrate_nm(&s.plane_global) } else { 0.0 };
-        let (daylight, sunrise, solar_noon, sunset) = match *day {
-            SunDay::RiseAndSet { sunrise_h, transit_h, sunset_h } => {
-                ("rises-and-sets", Some(clock(sunrise_h)), clock(transit_h), Some(clock(sunset_h)))
-            }
-            SunDay::PolarDay { transit_h } => ("polar-day", None, clock(transit_h), None),
-            SunDay::PolarNight { transit_h } => ("polar-night", None, clock(transit_h), None),
-        };
+        let (daylight, sunrise, solar_noon, sunset) = day_events(day);
         SunReport {
             time: time.trim().to_string(),
             lat_deg: place.lat_deg,
@@ -144,6 +138,18 @@ impl SunReport {
             ("Equation of time".into(), format!("{:.3} min", self.equation_of_time_min)),
             ("Delta T".into(), format!("{:.1} s", self.delta_t_s)),
         ]
+    }
+}
+
+/// The words of a sun's day: `rises-and-sets`, `polar-day` or `polar-night`, then sunrise,
+/// solar noon and sunset as `hh:mm` (sunrise and sunset `None` on polar day or night).
+pub fn day_events(day: &SunDay) -> (&'static str, Option<String>, String, Option<String>) {
+    match *day {
+        SunDay::RiseAndSet { sunrise_h, transit_h, sunset_h } => {
+            ("rises-and-sets", Some(clock(sunrise_h)), clock(transit_h), Some(clock(sunset_h)))
+        }
+        SunDay::PolarDay { transit_h } => ("polar-day", None, clock(transit_h), None),
+        SunDay::PolarNight { transit_h } => ("polar-night", None, clock(transit_h), None),
     }
 }
 

@@ -1,17 +1,20 @@
 //! `glowgap cool`: the radiative balance of a surface facing the sky, by day or by night.
 //! Builds a radiator scenario from the options, reads any data files into it, lets it check
 //! itself, evaluates the balance and prints the parts, the steady temperature and the
-//! figures of merit.
+//! figures of merit; or, with `--day`, the radiator through a clear day at a place
+//! (`scenario::day`: each 5-minute step's clear-sky sun, air temperature and balance).
 //!
 //! Architecture invariant: imports only `cli::args` and `cli::shared` of the cli.
 
-use crate::cli::args::{OptionDoc, Spec};
-use crate::cli::shared::files::{film_error, resolve_radiator_files};
+use crate::cli::args::{OptionDoc, Parsed, Spec};
+use crate::cli::shared::files::{film_error, read_small_text, resolve_radiator_files};
 use crate::cli::shared::options::radiator_options;
-use crate::cli::shared::output::print_radiator;
+use crate::cli::shared::output::{print_json, print_radiator, warn};
 use crate::cli::shared::{Command, Failure, Out};
+use crate::report::day::{DayReport, DAY_COLUMNS, DAY_NOTE};
+use crate::scenario::day::DaySpec;
 use crate::scenario::film::{film_inputs, MaterialSpec};
-use crate::scenario::radiator::{EmitterSpec, RadiatorScenario};
+use crate::scenario::radiator::{EmitterSpec, RadiatorScenario, SkySpec};
 use crate::scenario::Scenario;
 
 pub const COMMAND: Command = Command {
@@ -41,12 +44,16 @@ pub const COMMAND: Command = Command {
             "spectrum-axis",
             "spectrum-values",
             "spectrum-column",
+            "day",
+            "day-ambient",
         ],
-        flags: &["json", "link"],
+        flags: &["json", "link", "csv"],
         max_positional: 0,
     },
     about: "radiative cooling balance of a surface facing the sky: net power, steady temperature",
-    usage: "cool [RADIATOR OPTIONS] [--json | --link]",
+    usage: "cool [RADIATOR OPTIONS] [--json | --link]\n\
+            or: glowgap cool --day lat=DEG,lon=DEG,date=YYYY-MM-DD[,tmin=C,tmax=C] [RADIATOR OPTIONS]\n\
+            [--json | --csv]",
     docs: &[
         OptionDoc {
             name: "emitter",
@@ -150,6 +157,33 @@ pub const COMMAND: Command = Command {
             text: "value unit of a --sun file, e.g. W/m2/nm (default: the unit the header names)",
         },
         OptionDoc {
+            name: "day",
+            arg: "KEY=VALUE,...",
+            text: "the radiator through a clear day, every 5 min from local mean-time midnight (UTC\n\
+                   offset round(lon/15) h): lat=DEG,lon=DEG,date=YYYY-MM-DD required; tmin=C,tmax=C\n\
+                   the air's daily extremes, default 15 and 25 (a two-piece cosine: tmin at sunrise,\n\
+                   tmax at 14:00 solar time; solar noon -6 h stands in for sunrise on polar day or\n\
+                   night); any key of 'glowgap sun' (tilt=, azimuth=, pwv=, aod500=, elevation= ...),\n\
+                   tilt default 0 (facing up). The sun is the clear-sky global light on the plane; the\n\
+                   sky defaults to clear:pwv= of the place. Prints each step's sun_w_m2, net_w_m2 (at\n\
+                   the air temperature), steady_temp_k, ambient_k; cooling_kwh_m2 integrates net_w_m2\n\
+                   (heating steps count negative), hours_below_ambient counts steady < air.\n\
+                   (default: no day, one moment)",
+        },
+        OptionDoc {
+            name: "day-ambient",
+            arg: "PATH",
+            text: "with --day: the air temperature from a file instead of tmin/tmax, one line per\n\
+                   value, hour,temperature in C: the hour 0 to below 24 on the day's clock (local mean\n\
+                   time) or an ISO 8601 time with its offset; straight lines between the values,\n\
+                   round the clock (default: the two-piece cosine)",
+        },
+        OptionDoc {
+            name: "csv",
+            arg: "",
+            text: "with --day: print time,sun_w_m2,net_w_m2,steady_temp_k,ambient_k, one line per step",
+        },
+        OptionDoc {
             name: "spectrum-column",
             arg: "N",
             text: "value column of a --sun file, 1 (default) = the first after the axis",
@@ -164,6 +198,19 @@ const MAX_CURVE_POINTS: usize = 100_001;
 /// `glowgap cool [options]`.
 fn run(args: &[String], out: Out) -> Result<(), Failure> {
     let p = COMMAND.spec.parse(args)?;
+    if let Some(day) = p.text("day") {
+        return run_day(&p, day, out);
+    }
+    if p.text("day-ambient").is_some() {
+        return Err(Failure::Usage(
+            "--day-ambient gives the air of a day: add --day lat=DEG,lon=DEG,date=YYYY-MM-DD, or drop it".into(),
+        ));
+    }
+    if p.flag("csv") {
+        return Err(Failure::Usage(
+            "--csv prints the steps of a day: add --day lat=DEG,lon=DEG,date=YYYY-MM-DD, or drop --csv".into(),
+        ));
+    }
     if p.flag("json") && p.flag("link") {
         return Err(Failure::Usage("'glowgap cool': choose one of --json and --link".into()));
     }
@@ -178,10 +225,7 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
         }
         None => None,
     };
-    resolve_radiator_files(&mut sc, &p)?;
-    if let EmitterSpec::Film { layers, substrate } = &sc.emitter {
-        film_inputs(&MaterialSpec::Index { n: 1.0, k: 0.0 }, layers, substrate).map_err(film_error)?;
-    }
+    read_files(&mut sc, &p)?;
     if p.flag("link") {
         sc.to_physics()?; // refuse to link a scenario that cannot be computed
         let scenario = Scenario { radiator: sc, ..Default::default() };
@@ -190,6 +234,131 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     }
     print_radiator(&sc, p.flag("json"), curve, out)
 }
+
+/// Read the radiator's data files into `sc` and check a film's layers.
+fn read_files(sc: &mut RadiatorScenario, p: &Parsed) -> Result<(), Failure> {
+    resolve_radiator_files(sc, p)?;
+    if let EmitterSpec::Film { layers, substrate } = &sc.emitter {
+        film_inputs(&MaterialSpec::Index { n: 1.0, k: 0.0 }, layers, substrate).map_err(film_error)?;
+    }
+    Ok(())
+}
+
+/// `glowgap cool --day ... [radiator options] [--json | --csv]`: the radiator through a
+/// clear day (`scenario::day`).
+fn run_day(p: &Parsed, day: &str, out: Out) -> Result<(), Failure> {
+    for (flag, why) in [
+        ("sun", "the day's sun comes from the place and time"),
+        ("sun-zenith", "the day's sun comes from the place and time"),
+        ("ambient", "the day's air follows tmin= and tmax= in --day"),
+        ("surface", "the day gives the balance at the air temperature and the steady temperature"),
+        ("curve", "a day prints its steps, not a curve"),
+    ] {
+        if p.text(flag).is_some() {
+            return Err(Failure::Usage(format!("--{flag} does not go with --day: {why}; remove --{flag}")));
+        }
+    }
+    if p.flag("link") {
+        return Err(Failure::Usage(
+            "--link does not go with --day: a share link holds one moment; remove --link".into(),
+        ));
+    }
+    if p.flag("json") && p.flag("csv") {
+        return Err(Failure::Usage("'glowgap cool --day': choose one of --json and --csv".into()));
+    }
+    let mut spec = DaySpec::parse(day).map_err(|e| format!("--day: {e}"))?;
+    if let Some(path) = p.text("day-ambient") {
+        let text = read_small_text(path, "the air temperature file").map_err(|e| format!("--day-ambient: {e}"))?;
+        spec.set_hourly_air(&text).map_err(|e| format!("--day-ambient '{path}': {e}"))?;
+    }
+    let mut sc = RadiatorScenario::default();
+    radiator_options(p, &mut sc)?;
+    read_files(&mut sc, p)?;
+    if p.text("sky").is_none() {
+        sc.sky = SkySpec::Clear { pwv_cm: spec.place.pwv_cm };
+    }
+    let run = spec.run(&sc).map_err(|e| match e.contains("ambient") {
+        true => format!("--day tmin/tmax: {e}"),
+        false => e,
+    })?;
+    warn(&run.warnings);
+    let report = DayReport::new(&spec, &run);
+    if p.flag("json") {
+        return print_json(out, &report);
+    }
+    if p.flag("csv") {
+        writeln!(
+            out,
+            "# Glowgap: radiator through {} at {} deg N, {} deg E (UTC{:+})",
+            report.date, report.lat_deg, report.lon_deg, report.utc_offset_h
+        )?;
+        writeln!(out, "# {DAY_NOTE}")?;
+        writeln!(out, "# sun and net in W/m2, temperatures in K; {DAY_CAUTION}")?;
+        writeln!(out, "{DAY_COLUMNS}")?;
+        for s in &report.steps {
+            let steady = s.steady_temp_k.map(|t| t.to_string()).unwrap_or_default();
+            writeln!(out, "{},{},{},{},{}", s.time, s.sun_w_m2, s.net_w_m2, steady, s.ambient_k)?;
+        }
+        return Ok(());
+    }
+    let r = &report;
+    writeln!(
+        out,
+        "{} at {} deg N, {} deg E, plane tilt {} deg facing {} deg; sky: {}",
+        r.date,
+        r.lat_deg,
+        r.lon_deg,
+        r.tilt_deg,
+        r.azimuth_deg,
+        sc.sky.label()
+    )?;
+    writeln!(out, "Emitter: {}", sc.emitter.label())?;
+    let events = match (&r.sunrise, &r.sunset) {
+        (Some(a), Some(b)) => format!("sunrise {a}, solar noon {}, sunset {b}", r.solar_noon),
+        _ => format!("{} all day, solar noon {}", r.daylight, r.solar_noon),
+    };
+    writeln!(
+        out,
+        "Clock UTC{:+} (local mean time); {events}; air ({}) {} C at {} to {} C at {}",
+        r.utc_offset_h, r.air_model, r.tmin_c, r.air_min_at, r.tmax_c, r.air_max_at
+    )?;
+    writeln!(out)?;
+    writeln!(
+        out,
+        "{:>6} {:>11} {:>9} {:>14} {:>12} {:>14}",
+        "time", "sun (W/m²)", "air (K)", "net (W/m²)", "steady (K)", "steady-air (K)"
+    )?;
+    for s in r.steps.iter().step_by((30.0 / r.step_minutes).round().max(1.0) as usize) {
+        let (steady, below) = match s.steady_temp_k {
+            Some(t) => (format!("{t:.2}"), format!("{:+.2}", t - s.ambient_k)),
+            None => ("-".into(), "-".into()),
+        };
+        writeln!(
+            out,
+            "{:>6} {:>11.1} {:>9.2} {:>14.2} {:>12} {:>14}",
+            &s.time[11..16],
+            s.sun_w_m2,
+            s.ambient_k,
+            s.net_w_m2,
+            steady,
+            below
+        )?;
+    }
+    writeln!(out)?;
+    writeln!(
+        out,
+        "{:<40} {:.4} kWh/m² (heating steps count negative)",
+        "Net cooling at air temperature, day", r.cooling_kwh_m2
+    )?;
+    writeln!(out, "{:<40} {:.2} h", "Hours with steady temperature below air", r.hours_below_ambient)?;
+    writeln!(out, "{DAY_NOTE}.")?;
+    writeln!(out, "Caution: {DAY_CAUTION}")?;
+    Ok(())
+}
+
+/// The caution printed with a day.
+const DAY_CAUTION: &str = "a surface in sun can get hot enough to burn; roof work follows local codes and licensed \
+                           practice.";
 
 /// `--curve FROM:TO:STEP` in K.
 #[allow(clippy::neg_cmp_op_on_partial_ord)] // NaN-rejecting checks: `!(x > 0.0)` also refuses NaN

@@ -168,6 +168,13 @@ pub fn read_series_file(path: &str) -> Result<String, String> {
     read_text_within(path, "--spectra", MAX_DATA_FILE_BYTES, fix).map(|(text, _)| text)
 }
 
+/// The text of a small table of values typed by hand (e.g. hourly air temperatures), at most
+/// 1 MB.
+pub fn read_small_text(path: &str, what: &str) -> Result<String, String> {
+    let fix = "give a short text table, one line per value";
+    read_text_within(path, what, 1_000_000, fix).map(|(text, _)| text)
+}
+
 /// [`read_text`] with a size limit of `max` bytes; `fix` says what to give instead of a file
 /// that is too large or not text.
 fn read_text_within(path: &str, what: &str, max: u64, fix: &str) -> Result<(String, String), String> {
