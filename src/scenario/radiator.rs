@@ -628,7 +628,7 @@ impl RadiatorScenario {
                         "{} cm of water at {} K implies a dew point {:.0} K below the air (Reitan's relation), \
                          far from the clear-sky model's calibration (0-12 K); treat the sky figures as rough",
                         water_cm(*pwv_cm),
-                        self.ambient_k,
+                        (self.ambient_k * 10.0).round() / 10.0,
                         depression
                     ));
                 }
