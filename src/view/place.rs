@@ -1,0 +1,467 @@
+//! Place and time on the page: the clear-sky light source's shared controls turned into text
+//! and numbers (the time slider's clock minutes, the date, the example sites), the sun's
+//! figures at the slider's time (sunrise, solar noon, sunset, zenith, azimuth, plane-of-array
+//! irradiance), the night notice, and the day's series for the day charts (the plane's
+//! irradiance and the cell's electric power at 5-minute steps, with the day's totals).
+//!
+//! A day series depends on the place, the date and the cell, never on the time of day, so
+//! [`DayCache`] keeps it while the time slider moves; the slider costs one [`sun_figures`].
+//!
+//! Architecture invariant: native code over `scenario` and `physics`; every range check of a
+//! place stays in [`PlaceSpec::to_site`], this module only re-expresses the time.
+
+use std::sync::Arc;
+
+use crate::physics::clear_sky::clear_sky_source;
+use crate::physics::constants::ev;
+use crate::physics::junction::{solve_cell, Illumination};
+use crate::physics::site::{moment, Site};
+use crate::physics::solar_position::{delta_t_estimate, sun_day, CivilTime, SunDay};
+use crate::scenario::place::{clock, parse_date, ClearSkySpec, PlaceSpec};
+use crate::scenario::CellScenario;
+
+/// Step of the day charts [min] (288 steps a day).
+pub const DAY_STEP_MIN: u32 = 5;
+/// Last position of the time slider [min from local midnight].
+pub const SLIDER_MAX_MIN: u32 = 1435;
+
+/// An example site of our own (a climate and its coordinates, not a real town).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ExampleSite {
+    pub key: &'static str,
+    pub label: &'static str,
+    pub lat_deg: f64,
+    pub lon_deg: f64,
+    pub elevation_m: f64,
+    /// precipitable water typical of the climate [cm] (rough, from memory)
+    pub pwv_cm: f64,
+}
+
+/// The example sites offered beside the latitude and longitude fields.
+pub const EXAMPLES: [ExampleSite; 4] = [
+    ExampleSite {
+        key: "high-desert",
+        label: "Example: high desert, 35 N 115 W, 1000 m",
+        lat_deg: 35.0,
+        lon_deg: -115.0,
+        elevation_m: 1000.0,
+        pwv_cm: 0.8,
+    },
+    ExampleSite {
+        key: "northern-city",
+        label: "Example: northern city, 60 N 25 E",
+        lat_deg: 60.0,
+        lon_deg: 25.0,
+        elevation_m: 0.0,
+        pwv_cm: 1.2,
+    },
+    ExampleSite {
+        key: "tropical-coast",
+        label: "Example: tropical coast, 1 N 104 E",
+        lat_deg: 1.0,
+        lon_deg: 104.0,
+        elevation_m: 0.0,
+        pwv_cm: 4.5,
+    },
+    ExampleSite {
+        key: "southern-plateau",
+        label: "Example: southern plateau, 23 S 47 W, 800 m",
+        lat_deg: -23.0,
+        lon_deg: -47.0,
+        elevation_m: 800.0,
+        pwv_cm: 2.5,
+    },
+];
+
+impl ExampleSite {
+    /// `place` moved to this site (its plane and other air values kept).
+    pub fn apply(&self, place: &PlaceSpec) -> PlaceSpec {
+        PlaceSpec {
+            lat_deg: self.lat_deg,
+            lon_deg: self.lon_deg,
+            elevation_m: self.elevation_m,
+            pressure_hpa: None,
+            pwv_cm: self.pwv_cm,
+            ..place.clone()
+        }
+    }
+}
+
+/// `+HH:MM` of a UTC offset [h] (`Z` is never used, so the text reads the same everywhere).
+pub fn offset_text(offset_h: f64) -> String {
+    let minutes = (offset_h * 60.0).round() as i64;
+    let sign = if minutes < 0 { '-' } else { '+' };
+    let m = minutes.abs();
+    format!("{sign}{:02}:{:02}", m / 60, m % 60)
+}
+
+/// ISO 8601 text of a date, a clock time [min from midnight] and a UTC offset [h].
+pub fn time_text(year: i32, month: u32, day: u32, minutes: u32, offset_h: f64) -> String {
+    let m = minutes.min(24 * 60 - 1);
+    format!("{year:04}-{month:02}-{day:02}T{:02}:{:02}{}", m / 60, m % 60, offset_text(offset_h))
+}
+
+/// The source first offered on a page: the default place at 12:00 local mean time (offset
+/// round(longitude / 15) h) on the given date (today's, from the browser).
+pub fn default_spec(year: i32, month: u32, day: u32) -> ClearSkySpec {
+    let place = PlaceSpec::default();
+    let offset = crate::physics::site::mean_time_offset_h(place.lon_deg);
+    ClearSkySpec { place, time: time_text(year, month, day, 12 * 60, offset) }
+}
+
+/// The clock time of `spec` in minutes from its local midnight (seconds dropped).
+pub fn clock_minutes(spec: &ClearSkySpec) -> Result<u32, String> {
+    let t = spec.when()?;
+    Ok((t.hour * 60 + t.minute).min(24 * 60 - 1))
+}
+
+/// `YYYY-MM-DD` of `spec`'s date.
+pub fn date_text(spec: &ClearSkySpec) -> Result<String, String> {
+    let t = spec.when()?;
+    Ok(format!("{:04}-{:02}-{:02}", t.year, t.month, t.day))
+}
+
+/// `spec` at another clock time of the same date and offset.
+pub fn with_minutes(spec: &ClearSkySpec, minutes: u32) -> Result<ClearSkySpec, String> {
+    let t = spec.when()?;
+    Ok(ClearSkySpec { time: time_text(t.year, t.month, t.day, minutes, t.utc_offset_h), ..spec.clone() })
+}
+
+/// `spec` on another date (typed `YYYY-MM-DD`), same clock time and offset.
+pub fn with_date(spec: &ClearSkySpec, date: &str) -> Result<ClearSkySpec, String> {
+    let (y, m, d) = parse_date(date)?;
+    let t = spec.when()?;
+    Ok(ClearSkySpec { time: time_text(y, m, d, t.hour * 60 + t.minute, t.utc_offset_h), ..spec.clone() })
+}
+
+/// `spec` with a new place: the date and clock time stay, the clock's offset becomes the new
+/// longitude's local mean time, round(lon / 15) h, so the slider keeps meaning local time.
+pub fn with_place(spec: &ClearSkySpec, place: PlaceSpec) -> Result<ClearSkySpec, String> {
+    let t = spec.when()?;
+    let offset = if place.lon_deg.is_finite() {
+        crate::physics::site::mean_time_offset_h(place.lon_deg.clamp(-180.0, 180.0))
+    } else {
+        t.utc_offset_h
+    };
+    Ok(ClearSkySpec { place, time: time_text(t.year, t.month, t.day, t.hour * 60 + t.minute, offset) })
+}
+
+/// Sunrise, solar noon and sunset of a day, as clock text in the time's own offset.
+#[derive(Debug, Clone, PartialEq)]
+pub enum DayText {
+    RiseAndSet { sunrise: String, noon: String, sunset: String, sunrise_h: f64, noon_h: f64, sunset_h: f64 },
+    PolarDay { noon: String },
+    PolarNight { noon: String },
+}
+
+/// The sun at the slider's time, for the figures beside the controls.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SunFigures {
+    pub day: DayText,
+    /// clock text of the moment, `hh:mm`
+    pub at: String,
+    pub zenith_deg: f64,
+    pub azimuth_deg: f64,
+    pub incidence_deg: f64,
+    /// plane-of-array global irradiance [W/m2] (300-4000 nm)
+    pub plane_w_m2: f64,
+}
+
+impl SunFigures {
+    /// Whether the plane receives clear-sky light at this moment.
+    pub fn lit(&self) -> bool {
+        self.plane_w_m2 > 0.0
+    }
+
+    /// The notice for a moment without light, or `None` when the plane is lit.
+    pub fn dark_notice(&self) -> Option<String> {
+        if self.lit() {
+            return None;
+        }
+        let what = if self.zenith_deg >= 90.0 {
+            "The sun is below the horizon"
+        } else {
+            "The sun is behind the plane (tilt and azimuth)"
+        };
+        let next = match &self.day {
+            DayText::RiseAndSet { sunrise, sunset, .. } => {
+                format!("; sunrise is {sunrise} and sunset {sunset} — move the time slider.")
+            }
+            DayText::PolarNight { .. } => "; the sun does not rise that day — pick another date.".to_string(),
+            DayText::PolarDay { .. } => " — move the time slider or turn the plane toward the sun.".to_string(),
+        };
+        Some(format!("{what} at {}{next} The figures shown are from the last lit time.", self.at))
+    }
+}
+
+/// The sun's day and its position and light at `spec`'s moment.
+pub fn sun_figures(spec: &ClearSkySpec) -> Result<SunFigures, String> {
+    let site = spec.place.to_site()?;
+    let when = spec.when()?;
+    let m = moment(&site, &when)?;
+    let dt = site.delta_t_s.unwrap_or_else(|| delta_t_estimate(when.decimal_year()));
+    let day = match sun_day(&when, &site.observer, dt)? {
+        SunDay::RiseAndSet { sunrise_h, transit_h, sunset_h } => DayText::RiseAndSet {
+            sunrise: clock(sunrise_h),
+            noon: clock(transit_h),
+            sunset: clock(sunset_h),
+            sunrise_h,
+            noon_h: transit_h,
+            sunset_h,
+        },
+        SunDay::PolarDay { transit_h } => DayText::PolarDay { noon: clock(transit_h) },
+        SunDay::PolarNight { transit_h } => DayText::PolarNight { noon: clock(transit_h) },
+    };
+    Ok(SunFigures {
+        day,
+        at: format!("{:02}:{:02}", when.hour, when.minute),
+        zenith_deg: m.position.zenith_deg,
+        azimuth_deg: m.position.azimuth_deg,
+        incidence_deg: m.position.incidence_deg,
+        plane_w_m2: m.spectra.plane_global_total(),
+    })
+}
+
+/// One day at 5-minute steps: the plane's clear-sky irradiance and a device's electric power.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DaySeries {
+    /// local clock hours of the steps' starts (0, 1/12, ... 23 11/12)
+    pub hours: Vec<f64>,
+    /// plane-of-array global irradiance [W/m2]
+    pub plane_w_m2: Vec<f64>,
+    /// the cell's maximum power [W/m2] under each step's spectrum
+    pub power_w_m2: Vec<f64>,
+    /// the day's incident energy on the plane [kWh/m2]
+    pub incident_kwh_m2: f64,
+    /// the day's electric energy [kWh/m2]
+    pub electric_kwh_m2: f64,
+}
+
+impl DaySeries {
+    /// Electric over incident energy of the day (0 for a dark day).
+    pub fn energy_efficiency(&self) -> f64 {
+        if self.incident_kwh_m2 > 0.0 {
+            self.electric_kwh_m2 / self.incident_kwh_m2
+        } else {
+            0.0
+        }
+    }
+
+    /// The step at a clock time [min], clamped to the day.
+    pub fn index_at(&self, minutes: u32) -> usize {
+        ((minutes / DAY_STEP_MIN) as usize).min(self.hours.len().saturating_sub(1))
+    }
+}
+
+/// The clear-sky plane-of-array spectra of a day (night steps empty), one per 5 minutes from
+/// local midnight in the clock of `spec`'s time. Depends on the place and the date only.
+pub struct DayLight {
+    pub hours: Vec<f64>,
+    /// per step: total [W/m2] and, when lit, the light source
+    pub steps: Vec<(f64, Option<crate::physics::sources::Source>)>,
+}
+
+/// Every step of `spec`'s day.
+pub fn day_light(spec: &ClearSkySpec) -> Result<DayLight, String> {
+    let site: Site = spec.place.to_site()?;
+    let t = spec.when()?;
+    let n = (24 * 60 / DAY_STEP_MIN) as usize;
+    let mut hours = Vec::with_capacity(n);
+    let mut steps = Vec::with_capacity(n);
+    for k in 0..n as u32 {
+        let min = k * DAY_STEP_MIN;
+        let when = CivilTime { hour: min / 60, minute: min % 60, second: 0.0, ..t };
+        let m = moment(&site, &when)?;
+        let total = m.spectra.plane_global_total();
+        let source = if total > 0.0 { Some(clear_sky_source(&m.spectra, "clear sky")?) } else { None };
+        hours.push(min as f64 / 60.0);
+        steps.push((total, source));
+    }
+    Ok(DayLight { hours, steps })
+}
+
+/// The cell's day: each lit step's detailed-balance maximum power (the cell's gap,
+/// temperature, ERE, emission, J-V model and concentration) and the day's energies
+/// (each step stands for its 5 minutes).
+pub fn cell_day(light: &DayLight, cell: &CellScenario) -> Result<DaySeries, String> {
+    let probe = CellScenario { spectrum: crate::scenario::SourceSpec::Am15g, ..cell.clone() };
+    let setup = probe.to_physics()?;
+    let mut c = setup.cell;
+    c.gap_j = ev(cell.gap_now());
+    let x = cell.concentration;
+    let mut plane = Vec::with_capacity(light.steps.len());
+    let mut power = Vec::with_capacity(light.steps.len());
+    for (total, source) in &light.steps {
+        let p = match source {
+            Some(src) => {
+                let l = Illumination { source: src.clone(), concentration: x };
+                solve_cell(&l, &c).pmax.max(0.0)
+            }
+            None => 0.0,
+        };
+        plane.push(*total);
+        power.push(p);
+    }
+    let step_h = DAY_STEP_MIN as f64 / 60.0;
+    let incident_kwh_m2 = plane.iter().sum::<f64>() * x * step_h / 1000.0;
+    let electric_kwh_m2 = power.iter().sum::<f64>() * step_h / 1000.0;
+    Ok(DaySeries { hours: light.hours.clone(), plane_w_m2: plane, power_w_m2: power, incident_kwh_m2, electric_kwh_m2 })
+}
+
+/// The place and date of a spec (its clock time ignored): what a day's light depends on.
+fn day_key(spec: &ClearSkySpec) -> Option<(PlaceSpec, i32, u32, u32, u64)> {
+    let t = spec.when().ok()?;
+    Some((spec.place.clone(), t.year, t.month, t.day, t.utc_offset_h.to_bits()))
+}
+
+/// The day's light and the cell's day, kept while only the time of day changes.
+#[derive(Default)]
+pub struct DayCache {
+    light: Option<((PlaceSpec, i32, u32, u32, u64), Arc<DayLight>)>,
+    series: Option<(CellScenario, Arc<DaySeries>)>,
+    /// how many times a day's light was computed (tests check the slider costs none)
+    pub light_runs: u64,
+}
+
+impl DayCache {
+    /// The cell's day under `spec` (computed only when the place, the date or the cell
+    /// other than its source's clock time changed).
+    pub fn cell(&mut self, spec: &ClearSkySpec, cell: &CellScenario) -> Result<Arc<DaySeries>, String> {
+        let key = day_key(spec).ok_or_else(|| format!("the time '{}' cannot be read", spec.time))?;
+        let light = match &self.light {
+            Some((k, l)) if *k == key => l.clone(),
+            _ => {
+                let l = Arc::new(day_light(spec)?);
+                self.light_runs += 1;
+                self.light = Some((key, l.clone()));
+                self.series = None;
+                l
+            }
+        };
+        let cell_key = CellScenario { spectrum: crate::scenario::SourceSpec::Am15g, ..cell.clone() };
+        if let Some((k, s)) = &self.series {
+            if *k == cell_key {
+                return Ok(s.clone());
+            }
+        }
+        let s = Arc::new(cell_day(&light, cell)?);
+        self.series = Some((cell_key, s.clone()));
+        Ok(s)
+    }
+}
+
+/// The typical value and meaning of each atmosphere field, for its hint (values are typical
+/// clear-sky inputs, common practice).
+pub const ATMOSPHERE_HINTS: [(&str, &str); 7] = [
+    ("elevation", "Height above sea level; sets the air pressure (standard atmosphere). Typical 0-2000 m."),
+    ("pwv", "Precipitable water: the water vapour above the place as a liquid depth. Typical 0.5 (dry) to 5 cm (humid)."),
+    ("ozone", "Total ozone column. Typical 0.25-0.45 atm-cm (0.3 = 300 Dobson units)."),
+    ("aod500", "Aerosol optical depth at 500 nm: haze and dust. Typical 0.05 (very clean) to 0.5 (hazy)."),
+    ("angstrom", "Angstrom exponent: how fast aerosol extinction falls with wavelength. Typical 1-1.4; near 0 for dust."),
+    ("albedo", "Ground albedo: the fraction of light the ground reflects onto a tilted plane. Typical 0.2; fresh snow 0.8."),
+    ("sky-model", "How diffuse sky light reaches a tilted plane: isotropic (the same from every part of the sky) or Hay-Davies (brighter around the sun)."),
+];
+
+/// The hint of an atmosphere field by key.
+pub fn atmosphere_hint(key: &str) -> &'static str {
+    ATMOSPHERE_HINTS.iter().find(|(k, _)| *k == key).map(|(_, h)| *h).unwrap_or("")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn spec(lat: f64, lon: f64, time: &str) -> ClearSkySpec {
+        ClearSkySpec { place: PlaceSpec { lat_deg: lat, lon_deg: lon, ..PlaceSpec::default() }, time: time.into() }
+    }
+
+    #[test]
+    fn default_is_noon_local_mean_time() {
+        // round(lon / 15) h is the brief's own rule; 7 E rounds to +00:00
+        let s = default_spec(2026, 12, 3);
+        assert_eq!(s.time, "2026-12-03T12:00+00:00");
+        assert_eq!(s.place, PlaceSpec::default());
+        assert_eq!(offset_text(-7.0), "-07:00");
+        assert_eq!(offset_text(5.5), "+05:30");
+        assert_eq!(time_text(2024, 6, 21, 1435, 2.0), "2024-06-21T23:55+02:00");
+    }
+
+    #[test]
+    fn slider_date_and_place_reexpress_the_time() {
+        let s = spec(45.0, 7.0, "2024-06-21T12:00+02:00");
+        assert_eq!(clock_minutes(&s).unwrap(), 720);
+        let s2 = with_minutes(&s, 310).unwrap();
+        assert_eq!(s2.time, "2024-06-21T05:10+02:00");
+        assert_eq!(with_date(&s2, "2024-12-21").unwrap().time, "2024-12-21T05:10+02:00");
+        assert!(with_date(&s2, "2024-02-30").unwrap_err().contains("does not exist"));
+        let moved = with_place(&s2, EXAMPLES[0].apply(&s2.place)).unwrap();
+        // 115 W: round(-115 / 15) = round(-7.67) = -8
+        assert_eq!(moved.time, "2024-06-21T05:10-08:00");
+        assert_eq!(moved.place.elevation_m, 1000.0);
+        assert_eq!(date_text(&moved).unwrap(), "2024-06-21");
+    }
+
+    #[test]
+    fn solar_noon_follows_the_equation_of_time() {
+        // common practice: solar noon = 12 h - EoT - (lon - 15 * offset) / 15 h. Near
+        // 3 November the equation of time is about +16.4 min (from memory; almanac tables).
+        let s = spec(40.0, -105.0, "2024-11-03T12:00-07:00");
+        let f = sun_figures(&s).unwrap();
+        let DayText::RiseAndSet { noon_h, sunrise_h, sunset_h, .. } = f.day else { panic!("the sun rises at 40 N") };
+        let expected = 12.0 - 16.4 / 60.0;
+        assert!((noon_h - expected).abs() < 1.0 / 60.0, "noon {noon_h} h");
+        // a day is symmetric about solar noon to within a few minutes
+        assert!(((sunrise_h + sunset_h) / 2.0 - noon_h).abs() < 3.0 / 60.0);
+        assert!(f.lit());
+        assert!(f.zenith_deg > 40.0 && f.zenith_deg < 60.0);
+    }
+
+    #[test]
+    fn night_gives_a_notice_with_sunrise() {
+        let s = spec(45.0, 7.0, "2024-06-21T02:10+00:00");
+        let f = sun_figures(&s).unwrap();
+        let n = f.dark_notice().unwrap();
+        assert!(n.starts_with("The sun is below the horizon at 02:10; sunrise is 0"), "{n}");
+        assert!(n.contains("move the time slider"));
+        // polar night (common practice: no sunrise at 80 N in December)
+        let p = sun_figures(&spec(80.0, 0.0, "2024-12-21T12:00+00:00")).unwrap();
+        assert!(p.dark_notice().unwrap().contains("does not rise"));
+    }
+
+    #[test]
+    fn a_cells_day_adds_up_and_is_cached() {
+        let s = spec(35.0, -115.0, "2024-06-21T12:00-08:00");
+        let cell = CellScenario::default();
+        let mut cache = DayCache::default();
+        let d = cache.cell(&s, &cell).unwrap();
+        assert_eq!(d.hours.len(), 288);
+        // night has neither light nor power
+        assert_eq!(d.plane_w_m2[0], 0.0);
+        assert_eq!(d.power_w_m2[0], 0.0);
+        // the slider's moment agrees with the day's step at that time
+        let noon = sun_figures(&s).unwrap();
+        let k = d.index_at(720);
+        assert!((d.plane_w_m2[k] - noon.plane_w_m2).abs() < 1e-9 * noon.plane_w_m2);
+        // a step's power is the same cell solved under that moment's source
+        let mut one = cell.clone();
+        one.spectrum = crate::scenario::SourceSpec::ClearSky(s.clone());
+        let setup = one.to_physics().unwrap();
+        let direct = solve_cell(&setup.light, &setup.cell).pmax;
+        assert!((d.power_w_m2[k] - direct).abs() < 1e-9 * direct);
+        // Shockley-Queisser (1961): an ideal 1.34 eV cell converts about a third of
+        // sunlight; over a clear day the energy efficiency stays near that.
+        let eta = d.energy_efficiency();
+        assert!(eta > 0.28 && eta < 0.36, "{eta}");
+        // a clear June day in a high desert brings roughly 7-9 kWh/m2 to a horizontal
+        // plane (from memory; clear-sky solar-resource tables)
+        assert!(d.incident_kwh_m2 > 6.5 && d.incident_kwh_m2 < 9.5, "{}", d.incident_kwh_m2);
+        // moving the slider does not recompute the day
+        let later = with_minutes(&s, 905).unwrap();
+        let d2 = cache.cell(&later, &cell).unwrap();
+        assert!(Arc::ptr_eq(&d, &d2));
+        assert_eq!(cache.light_runs, 1);
+        // another date does
+        cache.cell(&with_date(&s, "2024-12-21").unwrap(), &cell).unwrap();
+        assert_eq!(cache.light_runs, 2);
+    }
+}
