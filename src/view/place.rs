@@ -309,7 +309,9 @@ pub fn cell_day(light: &DayLight, cell: &CellScenario) -> Result<DaySeries, Stri
 }
 
 /// The place and date of a spec (its clock time ignored): what a day's light depends on.
-fn day_key(spec: &ClearSkySpec) -> Option<(PlaceSpec, i32, u32, u32, u64)> {
+type DayKey = (PlaceSpec, i32, u32, u32, u64);
+
+fn day_key(spec: &ClearSkySpec) -> Option<DayKey> {
     let t = spec.when().ok()?;
     Some((spec.place.clone(), t.year, t.month, t.day, t.utc_offset_h.to_bits()))
 }
@@ -317,7 +319,7 @@ fn day_key(spec: &ClearSkySpec) -> Option<(PlaceSpec, i32, u32, u32, u64)> {
 /// The day's light and the cell's day, kept while only the time of day changes.
 #[derive(Default)]
 pub struct DayCache {
-    light: Option<((PlaceSpec, i32, u32, u32, u64), Arc<DayLight>)>,
+    light: Option<(DayKey, Arc<DayLight>)>,
     series: Option<(CellScenario, Arc<DaySeries>)>,
     /// how many times a day's light was computed (tests check the slider costs none)
     pub light_runs: u64,

@@ -16,7 +16,13 @@ pub mod silicon;
 pub mod state;
 
 use crate::view::controls::Control;
+use std::cell::RefCell;
+use std::rc::Rc;
 use std::sync::Arc;
+
+use super::widgets::place::{day_chart, PlaceUi};
+use crate::scenario::SourceSpec;
+use crate::view::place::{DayCache, DaySeries};
 
 use leptos::html;
 use leptos::prelude::*;
@@ -116,22 +122,39 @@ fn render_effect(cs: CellState, canvases: [NodeRef<html::Canvas>; PLOTS]) {
     watch_sizes(ctx, canvases.to_vec());
 }
 
+/// The cell's day under its clear-sky source (cached: the time slider does not recompute
+/// it), `None` for any other source.
+pub fn cell_day_series(cs: CellState) -> Signal<Option<Result<Arc<DaySeries>, String>>> {
+    let ctx = cs.ctx;
+    let cache = StoredValue::new_local(Rc::new(RefCell::new(DayCache::default())));
+    let memo = Memo::new(move |_| {
+        ctx.scenario.with(|s| match &s.cell.spectrum {
+            SourceSpec::ClearSky(c) => Some(cache.get_value().borrow_mut().cell(c, &s.cell)),
+            _ => None,
+        })
+    });
+    memo.into()
+}
+
 /// The Solar cell tab's content.
 #[component]
 pub fn CellPanel() -> impl IntoView {
     let cs = expect_context::<CellState>();
     let canvases: [NodeRef<html::Canvas>; PLOTS] = std::array::from_fn(|_| NodeRef::new());
     render_effect(cs, canvases);
+    let place = PlaceUi::new(cs.ctx, controls::CELL_PLACE);
+    let day = cell_day_series(cs);
     view! {
         <main class="layout">
             <aside class="panel" aria-label="Settings">
-                {controls::source_panel(cs)}
+                {controls::source_panel(cs, place)}
                 {controls::cell_panel(cs)}
                 {absorptance::absorptance_section(cs, canvases[ABSORPTANCE])}
             </aside>
             <section class="results" aria-label="Results">
                 {figures::figures(cs)}
                 <div class="plots">
+                    <div class="day-slot" hidden=move || day.with(Option::is_none)>{day_chart(place, day, "Cell's electric power")}</div>
                     {silicon::silicon_cards(cs, canvases[SI_THICKNESS], canvases[SI_ABSORPTANCE])}
                     {cards::cell_plot_card(cs, PlotKind::Spectrum, canvases[0])}
                     {cards::cell_plot_card(cs, PlotKind::Efficiency, canvases[1])}

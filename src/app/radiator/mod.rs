@@ -120,7 +120,7 @@ pub fn RadiatorPanel() -> impl IntoView {
             <aside class="panel" aria-label="Radiator settings">
                 {controls::surface_section(rad)}
                 {controls::environment_section(rad)}
-                {controls::sun_section(rad)}
+                {controls::sun_section(rad, crate::app::widgets::place::PlaceUi::new(rad.ctx, controls::RADIATOR_PLACE))}
             </aside>
             <section class="results" aria-label="Radiator results">
                 {figures::figures(rad)}
