@@ -25,6 +25,42 @@ pub const DAY_STEP_MIN: u32 = 5;
 /// Last position of the time slider [min from local midnight].
 pub const SLIDER_MAX_MIN: u32 = 1435;
 
+/// How a tab reads and writes its clear-sky source in the scenario.
+#[derive(Clone, Copy)]
+pub struct PlaceSlot {
+    /// the tab's clear-sky source, if that is the source in use
+    pub get: fn(&crate::scenario::Scenario) -> Option<ClearSkySpec>,
+    /// put a clear-sky source in the tab's place
+    pub set: fn(&mut crate::scenario::Scenario, ClearSkySpec),
+}
+
+/// The Solar cell's light (the Stack tab's too).
+pub const CELL_LIGHT: PlaceSlot = PlaceSlot {
+    get: |s| match &s.cell.spectrum {
+        crate::scenario::SourceSpec::ClearSky(c) => Some(c.clone()),
+        _ => None,
+    },
+    set: |s, c| s.cell.spectrum = crate::scenario::SourceSpec::ClearSky(c),
+};
+
+/// The radiator's sun.
+pub const RADIATOR_SUN: PlaceSlot = PlaceSlot {
+    get: |s| match &s.radiator.sun {
+        Some(crate::scenario::SourceSpec::ClearSky(c)) => Some(c.clone()),
+        _ => None,
+    },
+    set: |s, c| s.radiator.sun = Some(crate::scenario::SourceSpec::ClearSky(c)),
+};
+
+/// The solar-thermal absorber's sun (Hot emitters tab).
+pub const ABSORBER_SUN: PlaceSlot = PlaceSlot {
+    get: |s| match &s.hot.absorber.source {
+        crate::scenario::SourceSpec::ClearSky(c) => Some(c.clone()),
+        _ => None,
+    },
+    set: |s, c| s.hot.absorber.source = crate::scenario::SourceSpec::ClearSky(c),
+};
+
 /// An example site of our own (a climate and its coordinates, not a real town).
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct ExampleSite {
@@ -308,6 +344,48 @@ pub fn cell_day(light: &DayLight, cell: &CellScenario) -> Result<DaySeries, Stri
     Ok(DaySeries { hours: light.hours.clone(), plane_w_m2: plane, power_w_m2: power, incident_kwh_m2, electric_kwh_m2 })
 }
 
+/// The stack's day: each lit step's maximum power of the stack of `s` (its gaps,
+/// connection, real bottom cell and luminescent coupling, the cell's temperature, ERE,
+/// emission and concentration) under that step's spectrum.
+pub fn stack_day(light: &DayLight, s: &crate::scenario::Scenario) -> Result<DaySeries, String> {
+    use crate::scenario::stack::{check_gaps_over, StackSetup};
+    let gaps_j = check_gaps_over(&s.stack.gaps_ev, s.stack.bottom.is_some())?;
+    s.stack.check_extras()?;
+    let probe = CellScenario { spectrum: crate::scenario::SourceSpec::Am15g, ..s.cell.clone() };
+    let cell = probe.to_physics()?.cell;
+    let x = s.cell.concentration;
+    let mut plane = Vec::with_capacity(light.steps.len());
+    let mut power = Vec::with_capacity(light.steps.len());
+    for (total, source) in &light.steps {
+        let p = match source {
+            Some(src) => {
+                let l = Illumination { source: src.clone(), concentration: x };
+                let extras = s.stack.extras(&l, s.cell.cell_temp_k)?;
+                let setup = StackSetup {
+                    light: l,
+                    cell,
+                    gaps_j: gaps_j.clone(),
+                    connection: s.stack.connection.to_physics(),
+                    extras,
+                    warnings: Vec::new(),
+                };
+                setup.solve().pmax.max(0.0)
+            }
+            None => 0.0,
+        };
+        plane.push(*total);
+        power.push(p);
+    }
+    let step_h = DAY_STEP_MIN as f64 / 60.0;
+    Ok(DaySeries {
+        hours: light.hours.clone(),
+        incident_kwh_m2: plane.iter().sum::<f64>() * x * step_h / 1000.0,
+        electric_kwh_m2: power.iter().sum::<f64>() * step_h / 1000.0,
+        plane_w_m2: plane,
+        power_w_m2: power,
+    })
+}
+
 /// The place and date of a spec (its clock time ignored): what a day's light depends on.
 type DayKey = (PlaceSpec, i32, u32, u32, u64);
 
@@ -321,6 +399,7 @@ fn day_key(spec: &ClearSkySpec) -> Option<DayKey> {
 pub struct DayCache {
     light: Option<(DayKey, Arc<DayLight>)>,
     series: Option<(CellScenario, Arc<DaySeries>)>,
+    stack: Option<((CellScenario, crate::scenario::stack::StackScenario), Arc<DaySeries>)>,
     /// how many times a day's light was computed (tests check the slider costs none)
     pub light_runs: u64,
 }
@@ -329,17 +408,7 @@ impl DayCache {
     /// The cell's day under `spec` (computed only when the place, the date or the cell
     /// other than its source's clock time changed).
     pub fn cell(&mut self, spec: &ClearSkySpec, cell: &CellScenario) -> Result<Arc<DaySeries>, String> {
-        let key = day_key(spec).ok_or_else(|| format!("the time '{}' cannot be read", spec.time))?;
-        let light = match &self.light {
-            Some((k, l)) if *k == key => l.clone(),
-            _ => {
-                let l = Arc::new(day_light(spec)?);
-                self.light_runs += 1;
-                self.light = Some((key, l.clone()));
-                self.series = None;
-                l
-            }
-        };
+        let light = self.light(spec)?;
         let cell_key = CellScenario { spectrum: crate::scenario::SourceSpec::Am15g, ..cell.clone() };
         if let Some((k, s)) = &self.series {
             if *k == cell_key {
@@ -349,6 +418,236 @@ impl DayCache {
         let s = Arc::new(cell_day(&light, cell)?);
         self.series = Some((cell_key, s.clone()));
         Ok(s)
+    }
+
+    /// The day's light of `spec` (kept while only the time of day changes).
+    fn light(&mut self, spec: &ClearSkySpec) -> Result<Arc<DayLight>, String> {
+        let key = day_key(spec).ok_or_else(|| format!("the time '{}' cannot be read", spec.time))?;
+        if let Some((k, l)) = &self.light {
+            if *k == key {
+                return Ok(l.clone());
+            }
+        }
+        let l = Arc::new(day_light(spec)?);
+        self.light_runs += 1;
+        self.light = Some((key, l.clone()));
+        self.series = None;
+        self.stack = None;
+        Ok(l)
+    }
+
+    /// The stack's day under `spec` (computed only when the place, the date, the cell or
+    /// the stack changed).
+    pub fn stack(&mut self, spec: &ClearSkySpec, s: &crate::scenario::Scenario) -> Result<Arc<DaySeries>, String> {
+        let light = self.light(spec)?;
+        let key = (CellScenario { spectrum: crate::scenario::SourceSpec::Am15g, ..s.cell.clone() }, s.stack.clone());
+        if let Some((k, d)) = &self.stack {
+            if *k == key {
+                return Ok(d.clone());
+            }
+        }
+        let d = Arc::new(stack_day(&light, s)?);
+        self.stack = Some((key, d.clone()));
+        Ok(d)
+    }
+}
+
+/// One line of a day chart.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DayLine {
+    /// legend text, with its unit
+    pub label: String,
+    /// the `data-line` hook and CSS class suffix
+    pub key: &'static str,
+    pub values: Vec<f64>,
+    /// drawn against the right-hand axis (another unit)
+    pub right: bool,
+}
+
+/// What a day chart draws: lines over local clock hours, the axes' units and the day's
+/// totals as a sentence.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DayPlot {
+    pub hours: Vec<f64>,
+    pub lines: Vec<DayLine>,
+    pub left_unit: &'static str,
+    pub right_unit: &'static str,
+    pub totals: String,
+}
+
+impl DayPlot {
+    /// The read-out of step `i`: clock time and each line's value.
+    pub fn readout(&self, i: usize) -> Option<String> {
+        let h = *self.hours.get(i)?;
+        let m = (h * 60.0).round() as u32;
+        let mut parts = vec![format!("{:02}:{:02}", m / 60, m % 60)];
+        for l in &self.lines {
+            let v = l.values.get(i).copied().unwrap_or(f64::NAN);
+            let text = if v.is_finite() { crate::view::format::fixed(v, 1) } else { "—".to_string() };
+            parts.push(format!("{} {text}", l.label));
+        }
+        Some(parts.join(" · "))
+    }
+}
+
+impl DaySeries {
+    /// The cell's (or stack's) day chart; `device` names the device ("cell", "stack").
+    pub fn plot(&self, device: &str) -> DayPlot {
+        let f = |v: f64, d: usize| crate::view::format::fixed(v, d);
+        DayPlot {
+            hours: self.hours.clone(),
+            lines: vec![
+                DayLine { label: "on the plane (W/m²)".into(), key: "plane", values: self.plane_w_m2.clone(), right: false },
+                DayLine {
+                    label: format!("{device}'s electric power (W/m²)"),
+                    key: "power",
+                    values: self.power_w_m2.clone(),
+                    right: false,
+                },
+            ],
+            left_unit: "W/m²",
+            right_unit: "",
+            totals: format!(
+                "The day (clear sky, no clouds): incident {} kWh/m² on the plane, electric {} kWh/m², energy efficiency {} %.",
+                f(self.incident_kwh_m2, 2),
+                f(self.electric_kwh_m2, 2),
+                f(100.0 * self.energy_efficiency(), 1)
+            ),
+        }
+    }
+}
+
+/// Step of the radiator's day [min] (96 steps a day: each one is a whole radiative balance
+/// with its steady-temperature search).
+pub const RADIATOR_STEP_MIN: u32 = 15;
+
+/// A radiator through a clear day at a constant ambient temperature (the radiator's own
+/// setting): net cooling power with the surface at ambient, and the steady temperature.
+#[derive(Debug, Clone, PartialEq)]
+pub struct RadiatorDay {
+    pub hours: Vec<f64>,
+    /// net cooling power at ambient [W/m2] (positive: the surface cools)
+    pub net_w_m2: Vec<f64>,
+    /// steady surface temperature [K] (NaN where the search found none in range)
+    pub steady_k: Vec<f64>,
+    /// the plane-of-array irradiance of each step [W/m2]
+    pub plane_w_m2: Vec<f64>,
+    pub ambient_k: f64,
+}
+
+/// The radiator's day under `spec`: at each 15-minute step the radiator scenario with its
+/// sun the clear sky of that moment (no sun while the plane is dark) and its surface at
+/// ambient. The sun's direction for a directional surface stays the radiator's own setting.
+pub fn radiator_day(
+    spec: &ClearSkySpec,
+    sc: &crate::scenario::radiator::RadiatorScenario,
+) -> Result<RadiatorDay, String> {
+    use crate::physics::radiator::{evaluate, Steady};
+    use crate::scenario::SourceSpec;
+    let site = spec.place.to_site()?;
+    let t = spec.when()?;
+    let n = (24 * 60 / RADIATOR_STEP_MIN) as usize;
+    let mut out = RadiatorDay {
+        hours: Vec::with_capacity(n),
+        net_w_m2: Vec::with_capacity(n),
+        steady_k: Vec::with_capacity(n),
+        plane_w_m2: Vec::with_capacity(n),
+        ambient_k: sc.ambient_k,
+    };
+    for k in 0..n as u32 {
+        let min = k * RADIATOR_STEP_MIN;
+        let when = CivilTime { hour: min / 60, minute: min % 60, second: 0.0, ..t };
+        let plane = moment(&site, &when)?.spectra.plane_global_total();
+        let mut step = sc.clone();
+        step.surface_k = None;
+        step.sun = (plane > 0.0).then(|| {
+            SourceSpec::ClearSky(ClearSkySpec {
+                place: spec.place.clone(),
+                time: time_text(t.year, t.month, t.day, min, t.utc_offset_h),
+            })
+        });
+        let setup = step.to_physics()?;
+        let e = evaluate(&setup.emitter, &setup.surroundings, setup.surface_k);
+        out.hours.push(min as f64 / 60.0);
+        out.net_w_m2.push(e.at_surface.net);
+        out.steady_k.push(match e.steady {
+            Steady::At(k) => k,
+            _ => f64::NAN,
+        });
+        out.plane_w_m2.push(plane);
+    }
+    Ok(out)
+}
+
+impl RadiatorDay {
+    /// The day's cooling energy at ambient [kWh/m2] (net power summed where positive and
+    /// where negative together).
+    pub fn net_kwh_m2(&self) -> f64 {
+        self.net_w_m2.iter().sum::<f64>() * RADIATOR_STEP_MIN as f64 / 60.0 / 1000.0
+    }
+
+    pub fn plot(&self) -> DayPlot {
+        let f = |v: f64, d: usize| crate::view::format::fixed(v, d);
+        let finite = self.steady_k.iter().copied().filter(|v| v.is_finite());
+        let (lo, hi) = finite.fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| (a.min(v), b.max(v)));
+        let span = if lo.is_finite() {
+            format!("; steady temperature {}-{} K against {} K ambient", f(lo, 1), f(hi, 1), f(self.ambient_k, 1))
+        } else {
+            String::new()
+        };
+        DayPlot {
+            hours: self.hours.clone(),
+            lines: vec![
+                DayLine {
+                    label: "net cooling at ambient (W/m²)".into(),
+                    key: "net",
+                    values: self.net_w_m2.clone(),
+                    right: false,
+                },
+                DayLine {
+                    label: "steady − ambient (K)".into(),
+                    key: "steady",
+                    values: self.steady_k.iter().map(|t| t - self.ambient_k).collect(),
+                    right: true,
+                },
+            ],
+            left_unit: "W/m²",
+            right_unit: "K",
+            totals: format!(
+                "The day (clear sky, no clouds, constant ambient {} K): net cooling {} kWh/m² at ambient{span}.",
+                f(self.ambient_k, 1),
+                f(self.net_kwh_m2(), 2)
+            ),
+        }
+    }
+}
+
+/// The radiator's day, kept while only the time of day (or the surface temperature, which
+/// the day does not use) changes.
+#[derive(Default)]
+pub struct RadiatorDayCache {
+    day: Option<((crate::scenario::radiator::RadiatorScenario, DayKey), Arc<RadiatorDay>)>,
+    /// how many days were computed
+    pub runs: u64,
+}
+
+impl RadiatorDayCache {
+    pub fn day(
+        &mut self,
+        spec: &ClearSkySpec,
+        sc: &crate::scenario::radiator::RadiatorScenario,
+    ) -> Result<Arc<RadiatorDay>, String> {
+        let day = day_key(spec).ok_or_else(|| format!("the time '{}' cannot be read", spec.time))?;
+        let key = (crate::scenario::radiator::RadiatorScenario { sun: None, surface_k: None, ..sc.clone() }, day);
+        if let Some((k, d)) = &self.day {
+            if *k == key {
+                return Ok(d.clone());
+            }
+        }
+        let d = Arc::new(radiator_day(spec, sc)?);
+        self.runs += 1;
+        self.day = Some((key, d.clone()));
+        Ok(d)
     }
 }
 
@@ -465,5 +764,47 @@ mod tests {
         // another date does
         cache.cell(&with_date(&s, "2024-12-21").unwrap(), &cell).unwrap();
         assert_eq!(cache.light_runs, 2);
+    }
+
+    #[test]
+    fn a_radiators_day_cools_less_in_the_sun() {
+        use crate::scenario::radiator::RadiatorScenario;
+        let s = spec(35.0, -115.0, "2024-06-21T12:00-08:00");
+        let sc = RadiatorScenario::default();
+        let t0 = std::time::Instant::now();
+        let d = radiator_day(&s, &sc).unwrap();
+        eprintln!("radiator day: {:?}", t0.elapsed());
+        assert_eq!(d.hours.len(), 96);
+        // at night the sun adds nothing; at noon it adds absorbed sunlight, so the net
+        // cooling at ambient is lower (energy balance, common practice)
+        let midnight = d.net_w_m2[0];
+        let noon = d.net_w_m2[48];
+        assert!(noon < midnight, "noon {noon} W/m2, midnight {midnight} W/m2");
+        assert_eq!(d.plane_w_m2[0], 0.0);
+        assert!(d.plane_w_m2[48] > 800.0);
+        // a surface that cools at ambient settles below ambient (steady state with positive
+        // net power at ambient, common practice)
+        if midnight > 0.0 {
+            assert!(d.steady_k[0] < d.ambient_k);
+        }
+        let p = d.plot();
+        assert!(p.totals.contains("constant ambient"));
+        assert_eq!(p.lines.len(), 2);
+    }
+
+    #[test]
+    fn a_stacks_day_beats_its_single_cell() {
+        let s = spec(35.0, -115.0, "2024-06-21T12:00-08:00");
+        let mut sc = crate::scenario::Scenario::default();
+        sc.cell.spectrum = crate::scenario::SourceSpec::ClearSky(s.clone());
+        let mut cache = DayCache::default();
+        let stack = cache.stack(&s, &sc).unwrap();
+        let one = cache.cell(&s, &sc.cell).unwrap();
+        assert_eq!(cache.light_runs, 1);
+        assert_eq!(stack.incident_kwh_m2, one.incident_kwh_m2);
+        // De Vos (1980): two junctions beat one under sunlight (about 42-46 % against 31-34 %
+        // in the radiative limit)
+        assert!(stack.energy_efficiency() > one.energy_efficiency() + 0.05, "{}", stack.energy_efficiency());
+        assert!(stack.energy_efficiency() < 0.50);
     }
 }

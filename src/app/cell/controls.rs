@@ -15,7 +15,7 @@ use leptos::prelude::*;
 use super::state::CellState;
 use crate::app::state::Ctx;
 use crate::app::widgets::fields::{drop_zone, gap_keys, number_field, plain_parse, Field};
-use crate::app::widgets::place::{place_controls, PlaceSlot, PlaceUi};
+use crate::app::widgets::place::{place_controls, PlaceUi};
 use crate::physics::constants::MAX_CONCENTRATION;
 use crate::physics::varshni::{gap_material, GAP_MATERIALS};
 use crate::scenario::{Emission, JvModel};
@@ -39,15 +39,6 @@ fn source_key(s: &SourceSpec) -> &'static str {
         SourceSpec::ClearSky(_) => "place",
     }
 }
-
-/// How the cell (and the stack, which shares its light) reads and writes a clear-sky source.
-pub const CELL_PLACE: PlaceSlot = PlaceSlot {
-    get: |s| match &s.cell.spectrum {
-        SourceSpec::ClearSky(c) => Some(c.clone()),
-        _ => None,
-    },
-    set: |s, c| s.cell.spectrum = SourceSpec::ClearSky(c),
-};
 
 pub fn source_panel(cs: CellState, place: PlaceUi) -> impl IntoView {
     let ctx = cs.ctx;

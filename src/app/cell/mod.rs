@@ -22,7 +22,7 @@ use std::sync::Arc;
 
 use super::widgets::place::{day_chart, PlaceUi};
 use crate::scenario::SourceSpec;
-use crate::view::place::{DayCache, DaySeries};
+use crate::view::place::{DayCache, DayPlot};
 
 use leptos::html;
 use leptos::prelude::*;
@@ -124,12 +124,14 @@ fn render_effect(cs: CellState, canvases: [NodeRef<html::Canvas>; PLOTS]) {
 
 /// The cell's day under its clear-sky source (cached: the time slider does not recompute
 /// it), `None` for any other source.
-pub fn cell_day_series(cs: CellState) -> Signal<Option<Result<Arc<DaySeries>, String>>> {
+pub fn cell_day_series(cs: CellState) -> Signal<Option<Result<Arc<DayPlot>, String>>> {
     let ctx = cs.ctx;
     let cache = StoredValue::new_local(Rc::new(RefCell::new(DayCache::default())));
     let memo = Memo::new(move |_| {
         ctx.scenario.with(|s| match &s.cell.spectrum {
-            SourceSpec::ClearSky(c) => Some(cache.get_value().borrow_mut().cell(c, &s.cell)),
+            SourceSpec::ClearSky(c) => {
+                Some(cache.get_value().borrow_mut().cell(c, &s.cell).map(|d| Arc::new(d.plot("cell"))))
+            }
             _ => None,
         })
     });
@@ -142,7 +144,7 @@ pub fn CellPanel() -> impl IntoView {
     let cs = expect_context::<CellState>();
     let canvases: [NodeRef<html::Canvas>; PLOTS] = std::array::from_fn(|_| NodeRef::new());
     render_effect(cs, canvases);
-    let place = PlaceUi::new(cs.ctx, controls::CELL_PLACE);
+    let place = PlaceUi::new(cs.ctx, crate::view::place::CELL_LIGHT);
     let day = cell_day_series(cs);
     view! {
         <main class="layout">
@@ -154,7 +156,7 @@ pub fn CellPanel() -> impl IntoView {
             <section class="results" aria-label="Results">
                 {figures::figures(cs)}
                 <div class="plots">
-                    <div class="day-slot" hidden=move || day.with(Option::is_none)>{day_chart(place, day, "Cell's electric power")}</div>
+                    <div class="day-slot" hidden=move || day.with(Option::is_none)>{day_chart(place, day, "The cell through the day")}</div>
                     {silicon::silicon_cards(cs, canvases[SI_THICKNESS], canvases[SI_ABSORPTANCE])}
                     {cards::cell_plot_card(cs, PlotKind::Spectrum, canvases[0])}
                     {cards::cell_plot_card(cs, PlotKind::Efficiency, canvases[1])}

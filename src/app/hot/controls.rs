@@ -12,7 +12,7 @@ use leptos::prelude::*;
 use crate::app::hot::state::HotState;
 use crate::app::state::{mark, sentence, Ctx};
 use crate::app::widgets::fields::{number_field, plain_parse, Field};
-use crate::app::widgets::place::{place_controls, PlaceSlot, PlaceUi};
+use crate::app::widgets::place::{place_controls, PlaceUi};
 use crate::physics::constants::MAX_CONCENTRATION;
 use crate::scenario::hot::{
     ReflectanceSpec, SurfaceSpec, ABSORBER_TEMP_RANGE_K, BLACKBODY_TEMP_RANGE_K, EMITTER_TEMP_RANGE_K, HC_RANGE,
@@ -418,14 +418,6 @@ const SOURCES: &[(&str, &str)] = &[
     ("place", "Place and time (clear sky)"),
 ];
 
-/// How the solar-thermal absorber reads and writes a clear-sky sun.
-pub const ABSORBER_PLACE: PlaceSlot = PlaceSlot {
-    get: |s| match &s.hot.absorber.source {
-        SourceSpec::ClearSky(c) => Some(c.clone()),
-        _ => None,
-    },
-    set: |s, c| s.hot.absorber.source = SourceSpec::ClearSky(c),
-};
 const SURFACES: &[(&str, &str)] =
     &[("black", "Black"), ("step", "Step at a cutoff wavelength"), ("profile", "Emissivity profile")];
 
@@ -574,7 +566,7 @@ pub fn absorber_controls(hot: HotState) -> impl IntoView {
         </div>
         {source}
         <div hidden=move || !is_bb.get()>{sun_t}</div>
-        <div class="sub-field" hidden=move || src_key.get() != "place">{place_controls(PlaceUi::new(ctx, ABSORBER_PLACE))}</div>
+        <div class="sub-field" hidden=move || src_key.get() != "place">{place_controls(PlaceUi::new(ctx, crate::view::place::ABSORBER_SUN))}</div>
         {ambient}
         {hc}
         <p class="warning" hidden=move || warnings().is_empty()>{warnings}</p>

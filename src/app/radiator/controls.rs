@@ -14,7 +14,7 @@ use super::import::{open_emissivity, open_sky};
 use crate::app::radiator::state::RadiatorState;
 use crate::app::state::Ctx;
 use crate::app::widgets::fields::{drop_zone, number_field, Field};
-use crate::app::widgets::place::{place_controls, PlaceSlot, PlaceUi};
+use crate::app::widgets::place::{place_controls, PlaceUi};
 use crate::scenario::radiator::{
     pwv_from_dew_point, reitan_dew_point_c, AngularSpec, EmitterSpec, SkySpec, AMBIENT_RANGE_K, CLEAR_SKY_AMBIENT_K,
     DEW_POINT_RANGE_C, HC_RANGE, PWV_RANGE_CM, SUN_SCALE_RANGE,
@@ -262,15 +262,6 @@ fn sun_key(s: &SourceSpec) -> &'static str {
         _ => "other",
     }
 }
-
-/// How the radiator reads and writes a clear-sky sun.
-pub const RADIATOR_PLACE: PlaceSlot = PlaceSlot {
-    get: |s| match &s.radiator.sun {
-        Some(SourceSpec::ClearSky(c)) => Some(c.clone()),
-        _ => None,
-    },
-    set: |s, c| s.radiator.sun = Some(SourceSpec::ClearSky(c)),
-};
 
 /// The sun: on or off, its spectrum, angle and scale.
 pub fn sun_section(rad: RadiatorState, place: PlaceUi) -> impl IntoView {

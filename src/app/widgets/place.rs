@@ -17,22 +17,12 @@ use leptos::prelude::*;
 use crate::app::state::{mark, sentence, Ctx};
 use crate::app::widgets::fields::{number_field, plain_parse, Field};
 use crate::scenario::place::{ClearSkySpec, PlaceSpec, SkyChoice};
-use crate::scenario::Scenario;
 use crate::view::controls::Control;
 use crate::view::format as fmt;
 use crate::view::place::{
-    atmosphere_hint, clock_minutes, date_text, sun_figures, with_date, with_minutes, with_place, DaySeries, DayText,
-    DAY_STEP_MIN, EXAMPLES, SLIDER_MAX_MIN,
+    atmosphere_hint, clock_minutes, date_text, sun_figures, with_date, with_minutes, with_place, DayPlot, DayText,
+    PlaceSlot, DAY_STEP_MIN, EXAMPLES, SLIDER_MAX_MIN,
 };
-
-/// How a tab reads and writes its clear-sky source.
-#[derive(Clone, Copy)]
-pub struct PlaceSlot {
-    /// the tab's clear-sky source, if that is the source in use
-    pub get: fn(&Scenario) -> Option<ClearSkySpec>,
-    /// put a clear-sky source in the tab's place
-    pub set: fn(&mut Scenario, ClearSkySpec),
-}
 
 /// The place controls' own state beside the scenario: where the time slider is (it may rest
 /// at a night time that the scenario refused).
@@ -429,7 +419,7 @@ pub fn place_controls(ui: PlaceUi) -> impl IntoView {
 const W: f64 = 640.0;
 const H: f64 = 260.0;
 const LEFT: f64 = 52.0;
-const RIGHT: f64 = 14.0;
+const RIGHT: f64 = 46.0;
 const TOP: f64 = 12.0;
 const BOTTOM: f64 = 34.0;
 
@@ -437,58 +427,123 @@ fn x_of(h: f64) -> f64 {
     LEFT + (W - LEFT - RIGHT) * h / 24.0
 }
 
-/// A rounded top of the power axis [W/m2].
-fn nice_top(v: f64) -> f64 {
-    let v = v.max(1.0);
-    let step = 10f64.powf(v.log10().floor());
-    for k in [1.0, 1.2, 1.5, 2.0, 2.5, 3.0, 4.0, 5.0, 6.0, 8.0, 10.0] {
-        if k * step >= v {
-            return k * step;
-        }
-    }
-    10.0 * step
+/// A rounded axis range holding `lo`..`hi` and 0, in four steps: (from, to, step).
+fn nice_range(lo: f64, hi: f64) -> (f64, f64, f64) {
+    let (lo, hi) = (lo.min(0.0), hi.max(0.0));
+    let span = (hi - lo).max(1e-9);
+    let raw = span / 4.0;
+    let mag = 10f64.powf(raw.log10().floor());
+    let step = [1.0, 2.0, 2.5, 5.0, 10.0].iter().map(|k| k * mag).find(|s| *s >= raw).unwrap_or(10.0 * mag);
+    let from = (lo / step).floor() * step;
+    let to = (hi / step).ceil() * step;
+    (from, to.max(from + step), step)
 }
 
-fn path(hours: &[f64], ys: &[f64], top: f64) -> String {
-    let y_of = |v: f64| TOP + (H - TOP - BOTTOM) * (1.0 - (v / top).clamp(0.0, 1.0));
+fn y_of(v: f64, r: (f64, f64, f64)) -> f64 {
+    TOP + (H - TOP - BOTTOM) * (1.0 - ((v - r.0) / (r.1 - r.0)).clamp(0.0, 1.0))
+}
+
+fn path(hours: &[f64], ys: &[f64], r: (f64, f64, f64)) -> String {
     let mut d = String::with_capacity(hours.len() * 14);
-    for (i, (h, v)) in hours.iter().zip(ys).enumerate() {
-        d.push_str(&format!("{}{:.1},{:.1}", if i == 0 { "M" } else { "L" }, x_of(*h), y_of(*v)));
+    let mut pen = false;
+    for (h, v) in hours.iter().zip(ys) {
+        if !v.is_finite() {
+            pen = false;
+            continue;
+        }
+        d.push_str(&format!("{}{:.1},{:.1}", if pen { "L" } else { "M" }, x_of(*h), y_of(*v, r)));
+        pen = true;
     }
     d
 }
 
-/// The day chart: the plane's irradiance and `power_label` through the day, a marker at the
-/// slider's time, a read-out under the pointer and the day's totals.
+/// What the chart draws, worked out once per day plot.
+#[derive(Clone, PartialEq)]
+struct Geometry {
+    paths: Vec<(String, &'static str)>,
+    left: (f64, f64, f64),
+    right: Option<(f64, f64, f64)>,
+    left_unit: &'static str,
+    right_unit: &'static str,
+}
+
+fn geometry(p: &DayPlot) -> Geometry {
+    let span = |right: bool| {
+        p.lines
+            .iter()
+            .filter(|l| l.right == right)
+            .flat_map(|l| l.values.iter().copied())
+            .filter(|v| v.is_finite())
+            .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| (a.min(v), b.max(v)))
+    };
+    let range = |(lo, hi): (f64, f64)| if lo.is_finite() { nice_range(lo, hi) } else { nice_range(0.0, 1.0) };
+    let left = range(span(false));
+    let right = p.lines.iter().any(|l| l.right).then(|| range(span(true)));
+    let paths = p
+        .lines
+        .iter()
+        .map(|l| (path(&p.hours, &l.values, if l.right { right.unwrap_or(left) } else { left }), l.key))
+        .collect();
+    Geometry { paths, left, right, left_unit: p.left_unit, right_unit: p.right_unit }
+}
+
+fn ticks(r: (f64, f64, f64), x: f64, anchor: &'static str, grid: bool) -> impl IntoView {
+    let n = ((r.1 - r.0) / r.2).round() as usize;
+    (0..=n)
+        .map(|k| {
+            let v = r.0 + r.2 * k as f64;
+            let y = y_of(v, r);
+            let decimals = if r.2 < 1.0 { 1 } else { 0 };
+            view! {
+                <g>
+                    {grid.then(|| view! { <line x1=LEFT x2=W - RIGHT y1=y y2=y class=if v == 0.0 { "grid zero" } else { "grid" } /> })}
+                    <text x=x y=y + 4.0 text-anchor=anchor>{fmt::fixed(v, decimals)}</text>
+                </g>
+            }
+        })
+        .collect_view()
+}
+
+/// The day chart: `plot`'s lines through the day, a marker at the slider's time, a read-out
+/// under the pointer (and otherwise at the marker) and the day's totals.
 pub fn day_chart(
     ui: PlaceUi,
-    series: Signal<Option<Result<Arc<DaySeries>, String>>>,
-    power_label: &'static str,
+    plot: Signal<Option<Result<Arc<DayPlot>, String>>>,
+    title: &'static str,
 ) -> impl IntoView {
     let hover = RwSignal::new(None::<usize>);
-    let geometry = Memo::new(move |_| {
-        series.with(|s| {
-            s.as_ref().and_then(|r| r.as_ref().ok()).map(|d| {
-                let top = nice_top(d.plane_w_m2.iter().cloned().fold(0.0, f64::max));
-                (path(&d.hours, &d.plane_w_m2, top), path(&d.hours, &d.power_w_m2, top), top)
-            })
+    let geo = Memo::new(move |_| plot.with(|p| p.as_ref().and_then(|r| r.as_ref().ok()).map(|p| geometry(p))));
+    let step_h = Memo::new(move |_| {
+        plot.with(|p| {
+            p.as_ref()
+                .and_then(|r| r.as_ref().ok())
+                .and_then(|p| (p.hours.len() > 1).then(|| p.hours[1] - p.hours[0]))
+                .unwrap_or(DAY_STEP_MIN as f64 / 60.0)
         })
     });
-    let y_ticks = move || {
-        geometry.with(|g| {
-            let top = g.as_ref().map(|g| g.2).unwrap_or(1000.0);
-            (0..=4)
-                .map(|k| {
-                    let v = top * k as f64 / 4.0;
-                    let y = TOP + (H - TOP - BOTTOM) * (1.0 - k as f64 / 4.0);
-                    view! {
-                        <g>
-                            <line x1=LEFT x2=W - RIGHT y1=y y2=y class="grid" />
-                            <text x=LEFT - 6.0 y=y + 4.0 text-anchor="end">{fmt::fixed(v, 0)}</text>
-                        </g>
-                    }
-                })
-                .collect_view()
+    let axes = move || {
+        geo.with(|g| {
+            g.as_ref().map(|g| {
+                let right = g.right.map(|r| ticks(r, W - RIGHT + 6.0, "start", false));
+                let mid = (TOP + H - BOTTOM) / 2.0;
+                view! {
+                    {ticks(g.left, LEFT - 6.0, "end", true)}
+                    {right}
+                    <text x=12 y=mid text-anchor="middle" transform=format!("rotate(-90 12 {mid})")>{g.left_unit}</text>
+                    <text x=W - 8.0 y=mid text-anchor="middle" transform=format!("rotate(90 {} {mid})", W - 8.0)>{g.right_unit}</text>
+                    {g.paths.iter().map(|(d, key)| view! { <path class=format!("day-{key}") data-line=*key d=d.clone() /> }).collect_view()}
+                }
+            })
+        })
+    };
+    let legend = move || {
+        plot.with(|p| {
+            p.as_ref().and_then(|r| r.as_ref().ok()).map(|p| {
+                p.lines
+                    .iter()
+                    .map(|l| view! { <span class="key"><i class=format!("k-line k-day-{}", l.key)></i>{l.label.clone()}</span> })
+                    .collect_view()
+            })
         })
     };
     let x_ticks = (0..=8)
@@ -503,25 +558,13 @@ pub fn day_chart(
         })
         .collect_view();
     let marker_x = move || x_of(ui.slider.get() as f64 / 60.0);
-    let at = move |i: usize| {
-        series.with(|s| {
-            s.as_ref().and_then(|r| r.as_ref().ok()).map(|d| {
-                let i = i.min(d.hours.len().saturating_sub(1));
-                let m = (d.hours[i] * 60.0).round() as u32;
-                format!(
-                    "{:02}:{:02} · on the plane {} W/m² · {} {} W/m²",
-                    m / 60,
-                    m % 60,
-                    fmt::fixed(d.plane_w_m2[i], 0),
-                    power_label,
-                    fmt::fixed(d.power_w_m2[i], 1)
-                )
-            })
-        })
-    };
+    let readout_at = move |i: usize| plot.with(|p| p.as_ref().and_then(|r| r.as_ref().ok()).and_then(|p| p.readout(i)));
     let readout = move || match hover.get() {
-        Some(i) => at(i),
-        None => at((ui.slider.get() / DAY_STEP_MIN) as usize).map(|t| format!("Marker: {t}")),
+        Some(i) => readout_at(i),
+        None => {
+            let i = (ui.slider.get() as f64 / 60.0 / step_h.get()).floor() as usize;
+            readout_at(i).map(|t| format!("Marker: {t}"))
+        }
     };
     let on_move = move |ev: ev::MouseEvent| {
         use wasm_bindgen::JsCast;
@@ -532,49 +575,34 @@ pub fn day_chart(
         }
         let x = (ev.client_x() as f64 - r.left()) / r.width() * W;
         let h = (x - LEFT) / (W - LEFT - RIGHT) * 24.0;
-        if (0.0..24.0).contains(&h) {
-            hover.set(Some((h * 60.0 / DAY_STEP_MIN as f64).floor() as usize));
-        } else {
-            hover.set(None);
-        }
+        hover.set((0.0..24.0).contains(&h).then(|| (h / step_h.get_untracked()).floor() as usize));
     };
+    let hover_x = move || hover.get().map(|i| x_of(i as f64 * step_h.get())).unwrap_or(-10.0);
     let totals = move || {
-        series.with(|s| match s {
-            Some(Ok(d)) => format!(
-                "The day (clear sky, no clouds): incident {} kWh/m² on the plane, electric {} kWh/m², energy efficiency {} %.",
-                fmt::fixed(d.incident_kwh_m2, 2),
-                fmt::fixed(d.electric_kwh_m2, 2),
-                fmt::fixed(100.0 * d.energy_efficiency(), 1)
-            ),
+        plot.with(|p| match p {
+            Some(Ok(p)) => p.totals.clone(),
             Some(Err(e)) => sentence(e),
             None => String::new(),
         })
     };
     view! {
         <section class="plot-card day-card" data-card="day" aria-labelledby="day-h">
-            <div class="plot-head"><h3 id="day-h">"Through the day"</h3><span class="muted">"clear sky, no clouds · local clock time"</span></div>
-            <div class="legend">
-                <span class="key"><i class="k-line k-day-plane"></i>"On the plane (W/m²)"</span>
-                <span class="key"><i class="k-line k-day-power"></i>{format!("{power_label} (W/m²)")}</span>
-                <span class="key"><i class="k-line k-day-marker"></i>"Time slider"</span>
-            </div>
+            <div class="plot-head"><h3 id="day-h">{title}</h3><span class="muted">"clear sky, no clouds · local clock time"</span></div>
+            <div class="legend">{legend}<span class="key"><i class="k-line k-day-marker"></i>"time slider"</span></div>
             <svg
                 class="day-chart"
                 data-plot="day"
                 viewBox=format!("0 0 {W} {H}")
                 role="img"
-                aria-label=format!("Irradiance on the plane and {power_label} through the day")
+                aria-label=title
                 on:mousemove=on_move
                 on:mouseleave=move |_| hover.set(None)
             >
-                {y_ticks}
                 {x_ticks}
-                <text x=14 y=(TOP + H - BOTTOM) / 2.0 text-anchor="middle" transform=format!("rotate(-90 14 {})", (TOP + H - BOTTOM) / 2.0)>"W/m²"</text>
+                {axes}
                 <text x=(LEFT + W - RIGHT) / 2.0 y=H - 4.0 text-anchor="middle">"local clock time (h)"</text>
-                <path class="day-plane" d=move || geometry.with(|g| g.as_ref().map(|g| g.0.clone()).unwrap_or_default()) />
-                <path class="day-power" d=move || geometry.with(|g| g.as_ref().map(|g| g.1.clone()).unwrap_or_default()) />
                 <line class="day-marker" data-marker="time" x1=marker_x x2=marker_x y1=TOP y2=H - BOTTOM />
-                <line class="day-hover" x1=move || hover.get().map(|i| x_of(i as f64 * DAY_STEP_MIN as f64 / 60.0)).unwrap_or(-10.0) x2=move || hover.get().map(|i| x_of(i as f64 * DAY_STEP_MIN as f64 / 60.0)).unwrap_or(-10.0) y1=TOP y2=H - BOTTOM />
+                <line class="day-hover" x1=hover_x x2=hover_x y1=TOP y2=H - BOTTOM />
             </svg>
             <p class="day-readout" data-readout="day">{readout}</p>
             <p class="day-totals" data-readout="day-totals">{totals}</p>
