@@ -321,27 +321,9 @@ pub fn day_light(spec: &ClearSkySpec) -> Result<DayLight, String> {
 /// (each step stands for its 5 minutes).
 pub fn cell_day(light: &DayLight, cell: &CellScenario) -> Result<DaySeries, String> {
     let probe = CellScenario { spectrum: crate::scenario::SourceSpec::Am15g, ..cell.clone() };
-    let setup = probe.to_physics()?;
-    let mut c = setup.cell;
+    let mut c = probe.to_physics()?.cell;
     c.gap_j = ev(cell.gap_now());
-    let x = cell.concentration;
-    let mut plane = Vec::with_capacity(light.steps.len());
-    let mut power = Vec::with_capacity(light.steps.len());
-    for (total, source) in &light.steps {
-        let p = match source {
-            Some(src) => {
-                let l = Illumination { source: src.clone(), concentration: x };
-                solve_cell(&l, &c).pmax.max(0.0)
-            }
-            None => 0.0,
-        };
-        plane.push(*total);
-        power.push(p);
-    }
-    let step_h = DAY_STEP_MIN as f64 / 60.0;
-    let incident_kwh_m2 = plane.iter().sum::<f64>() * x * step_h / 1000.0;
-    let electric_kwh_m2 = power.iter().sum::<f64>() * step_h / 1000.0;
-    Ok(DaySeries { hours: light.hours.clone(), plane_w_m2: plane, power_w_m2: power, incident_kwh_m2, electric_kwh_m2 })
+    series_of(light, cell.concentration, |l| Ok(solve_cell(l, &c).pmax))
 }
 
 /// The stack's day: each lit step's maximum power of the stack of `s` (its gaps,
@@ -353,29 +335,35 @@ pub fn stack_day(light: &DayLight, s: &crate::scenario::Scenario) -> Result<DayS
     s.stack.check_extras()?;
     let probe = CellScenario { spectrum: crate::scenario::SourceSpec::Am15g, ..s.cell.clone() };
     let cell = probe.to_physics()?.cell;
-    let x = s.cell.concentration;
-    let mut plane = Vec::with_capacity(light.steps.len());
-    let mut power = Vec::with_capacity(light.steps.len());
-    for (total, source) in &light.steps {
-        let p = match source {
-            Some(src) => {
-                let l = Illumination { source: src.clone(), concentration: x };
-                let extras = s.stack.extras(&l, s.cell.cell_temp_k)?;
-                let setup = StackSetup {
-                    light: l,
-                    cell,
-                    gaps_j: gaps_j.clone(),
-                    connection: s.stack.connection.to_physics(),
-                    extras,
-                    warnings: Vec::new(),
-                };
-                setup.solve().pmax.max(0.0)
-            }
-            None => 0.0,
+    series_of(light, s.cell.concentration, |l| {
+        let extras = s.stack.extras(l, s.cell.cell_temp_k)?;
+        let setup = StackSetup {
+            light: l.clone(),
+            cell,
+            gaps_j: gaps_j.clone(),
+            connection: s.stack.connection.to_physics(),
+            extras,
+            warnings: Vec::new(),
         };
-        plane.push(*total);
-        power.push(p);
+        Ok(setup.solve().pmax)
+    })
+}
+
+/// A device's day: `pmax` of each lit step's light at concentration `x` (0 at night), and
+/// the day's energies (each step stands for its 5 minutes).
+fn series_of(
+    light: &DayLight,
+    x: f64,
+    mut pmax: impl FnMut(&Illumination) -> Result<f64, String>,
+) -> Result<DaySeries, String> {
+    let mut power = Vec::with_capacity(light.steps.len());
+    for (_, source) in &light.steps {
+        power.push(match source {
+            Some(src) => pmax(&Illumination { source: src.clone(), concentration: x })?.max(0.0),
+            None => 0.0,
+        });
     }
+    let plane: Vec<f64> = light.steps.iter().map(|(total, _)| *total).collect();
     let step_h = DAY_STEP_MIN as f64 / 60.0;
     Ok(DaySeries {
         hours: light.hours.clone(),
