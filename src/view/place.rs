@@ -443,8 +443,9 @@ impl DayCache {
 /// One line of a day chart.
 #[derive(Debug, Clone, PartialEq)]
 pub struct DayLine {
-    /// legend text, with its unit
+    /// legend text, without its unit
     pub label: String,
+    pub unit: &'static str,
     /// the `data-line` hook and CSS class suffix
     pub key: &'static str,
     pub values: Vec<f64>,
@@ -472,7 +473,7 @@ impl DayPlot {
         for l in &self.lines {
             let v = l.values.get(i).copied().unwrap_or(f64::NAN);
             let text = if v.is_finite() { crate::view::format::fixed(v, 1) } else { "—".to_string() };
-            parts.push(format!("{} {text}", l.label));
+            parts.push(format!("{} {text} {}", l.label, l.unit));
         }
         Some(parts.join(" · "))
     }
@@ -485,9 +486,10 @@ impl DaySeries {
         DayPlot {
             hours: self.hours.clone(),
             lines: vec![
-                DayLine { label: "on the plane (W/m²)".into(), key: "plane", values: self.plane_w_m2.clone(), right: false },
+                DayLine { label: "on the plane".into(), unit: "W/m²", key: "plane", values: self.plane_w_m2.clone(), right: false },
                 DayLine {
-                    label: format!("{device}'s electric power (W/m²)"),
+                    label: format!("{device}'s electric power"),
+                    unit: "W/m²",
                     key: "power",
                     values: self.power_w_m2.clone(),
                     right: false,
@@ -587,13 +589,15 @@ impl RadiatorDay {
             hours: self.hours.clone(),
             lines: vec![
                 DayLine {
-                    label: "net cooling at ambient (W/m²)".into(),
+                    label: "net cooling at ambient".into(),
+                    unit: "W/m²",
                     key: "net",
                     values: self.net_w_m2.clone(),
                     right: false,
                 },
                 DayLine {
-                    label: "steady − ambient (K)".into(),
+                    label: "steady temperature − ambient".into(),
+                    unit: "K",
                     key: "steady",
                     values: self.steady_k.iter().map(|t| t - self.ambient_k).collect(),
                     right: true,

@@ -541,7 +541,7 @@ pub fn day_chart(
             p.as_ref().and_then(|r| r.as_ref().ok()).map(|p| {
                 p.lines
                     .iter()
-                    .map(|l| view! { <span class="key"><i class=format!("k-line k-day-{}", l.key)></i>{l.label.clone()}</span> })
+                    .map(|l| view! { <span class="key"><i class=format!("k-line k-day-{}", l.key)></i>{format!("{} ({})", l.label, l.unit)}</span> })
                     .collect_view()
             })
         })
