@@ -507,6 +507,146 @@ impl DaySeries {
     }
 }
 
+/// Day chart geometry (SVG user units): width, height and the plot area's margins.
+pub const W: f64 = 640.0;
+pub const H: f64 = 260.0;
+pub const LEFT: f64 = 52.0;
+pub const RIGHT: f64 = 46.0;
+pub const TOP: f64 = 12.0;
+pub const BOTTOM: f64 = 34.0;
+
+/// The x of a clock hour (0-24) on the day chart.
+pub fn x_of(h: f64) -> f64 {
+    LEFT + (W - LEFT - RIGHT) * h / 24.0
+}
+
+/// An axis: (from, to, step).
+type AxisRange = (f64, f64, f64);
+
+/// A rounded axis range holding `lo`..`hi` and 0 in steps of 1, 2, 2.5 or 5 times a power
+/// of ten, about four of them.
+pub fn nice_range(lo: f64, hi: f64) -> AxisRange {
+    let (lo, hi) = (lo.min(0.0), hi.max(0.0));
+    let span = (hi - lo).max(1e-9);
+    let raw = span / 4.0;
+    let mag = 10f64.powf(raw.log10().floor());
+    let step = [1.0, 2.0, 2.5, 5.0, 10.0].iter().map(|k| k * mag).find(|s| *s >= raw).unwrap_or(10.0 * mag);
+    let from = (lo / step).floor() * step;
+    let to = (hi / step).ceil() * step;
+    (from, to.max(from + step), step)
+}
+
+fn y_of(v: f64, r: AxisRange) -> f64 {
+    TOP + (H - TOP - BOTTOM) * (1.0 - ((v - r.0) / (r.1 - r.0)).clamp(0.0, 1.0))
+}
+
+fn svg_path(hours: &[f64], ys: &[f64], r: AxisRange) -> String {
+    let mut d = String::with_capacity(hours.len() * 14);
+    let mut pen = false;
+    for (h, v) in hours.iter().zip(ys) {
+        if !v.is_finite() {
+            pen = false;
+            continue;
+        }
+        d.push_str(&format!("{}{:.1},{:.1}", if pen { "L" } else { "M" }, x_of(*h), y_of(*v, r)));
+        pen = true;
+    }
+    d
+}
+
+/// The left and right axes of a day plot; with a right axis both put zero at one height.
+pub fn day_axes(p: &DayPlot) -> (AxisRange, Option<AxisRange>) {
+    let span = |right: bool| {
+        p.lines
+            .iter()
+            .filter(|l| l.right == right)
+            .flat_map(|l| l.values.iter().copied())
+            .filter(|v| v.is_finite())
+            .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| (a.min(v), b.max(v)))
+    };
+    let range = |(lo, hi): (f64, f64)| if lo.is_finite() { nice_range(lo, hi) } else { nice_range(0.0, 1.0) };
+    let mut left = range(span(false));
+    let mut right = p.lines.iter().any(|l| l.right).then(|| range(span(true)));
+    if let Some(r) = right.as_mut() {
+        let below = (-left.0 / left.2).round().max((-r.0 / r.2).round());
+        let above = (left.1 / left.2).round().max((r.1 / r.2).round());
+        left = (-below * left.2, above * left.2, left.2);
+        *r = (-below * r.2, above * r.2, r.2);
+    }
+    (left, right)
+}
+
+fn escape(t: &str) -> String {
+    t.replace('&', "&amp;").replace('<', "&lt;").replace('>', "&gt;").replace('"', "&quot;")
+}
+
+/// The day chart's fixed layers as SVG markup: grid, tick labels, axis titles and one path
+/// per line (`class="day-KEY"`, `data-line="KEY"`). The page adds the marker and the pointer
+/// line over it.
+pub fn svg_body(p: &DayPlot) -> String {
+    use std::fmt::Write;
+    let (left, right) = day_axes(p);
+    let mut out = String::with_capacity(16_000);
+    for k in 0..=8 {
+        let x = x_of(3.0 * k as f64);
+        let _ = write!(
+            out,
+            r#"<line class="grid" x1="{x:.1}" x2="{x:.1}" y1="{TOP}" y2="{}"/><text x="{x:.1}" y="{}" text-anchor="middle">{:02}:00</text>"#,
+            H - BOTTOM,
+            H - BOTTOM + 15.0,
+            3 * k
+        );
+    }
+    let mut axis = |r: AxisRange, x: f64, anchor: &str, grid: bool| {
+        let n = ((r.1 - r.0) / r.2).round() as usize;
+        for k in 0..=n {
+            let v = r.0 + r.2 * k as f64;
+            let y = y_of(v, r);
+            if grid {
+                let class = if v.abs() < 1e-9 * r.2 { "grid zero" } else { "grid" };
+                let _ =
+                    write!(out, r#"<line class="{class}" x1="{LEFT}" x2="{}" y1="{y:.1}" y2="{y:.1}"/>"#, W - RIGHT);
+            }
+            let text = crate::view::format::fixed(v, if r.2 < 1.0 { 1 } else { 0 });
+            let _ = write!(out, r#"<text x="{x}" y="{:.1}" text-anchor="{anchor}">{text}</text>"#, y + 4.0);
+        }
+    };
+    axis(left, LEFT - 6.0, "end", true);
+    if let Some(r) = right {
+        axis(r, W - RIGHT + 6.0, "start", false);
+    }
+    let mid = (TOP + H - BOTTOM) / 2.0;
+    let _ = write!(
+        out,
+        r#"<text x="12" y="{mid}" text-anchor="middle" transform="rotate(-90 12 {mid})">{}</text>"#,
+        escape(p.left_unit)
+    );
+    if right.is_some() {
+        let _ = write!(
+            out,
+            r#"<text x="{x}" y="{mid}" text-anchor="middle" transform="rotate(90 {x} {mid})">{}</text>"#,
+            escape(p.right_unit),
+            x = W - 8.0
+        );
+    }
+    let _ = write!(
+        out,
+        r#"<text x="{}" y="{}" text-anchor="middle">local clock time (h)</text>"#,
+        (LEFT + W - RIGHT) / 2.0,
+        H - 4.0
+    );
+    for l in &p.lines {
+        let r = if l.right { right.unwrap_or(left) } else { left };
+        let _ = write!(
+            out,
+            r#"<path class="day-{k}" data-line="{k}" d="{}"/>"#,
+            svg_path(&p.hours, &l.values, r),
+            k = escape(l.key)
+        );
+    }
+    out
+}
+
 /// Step of the radiator's day [min] (96 steps a day: each one is a whole radiative balance
 /// with its steady-temperature search).
 pub const RADIATOR_STEP_MIN: u32 = 15;
@@ -798,5 +938,31 @@ mod tests {
         // in the radiative limit)
         assert!(stack.energy_efficiency() > one.energy_efficiency() + 0.05, "{}", stack.energy_efficiency());
         assert!(stack.energy_efficiency() < 0.50);
+    }
+
+    #[test]
+    fn chart_axes_are_round_and_share_zero() {
+        // common practice: ticks at 1, 2, 2.5 or 5 times a power of ten
+        assert_eq!(nice_range(0.0, 1071.0), (0.0, 1500.0, 500.0));
+        assert_eq!(nice_range(-922.0, 150.0), (-1000.0, 500.0, 500.0));
+        let p = DayPlot {
+            hours: vec![0.0, 12.0],
+            lines: vec![
+                DayLine { label: "a".into(), unit: "W/m²", key: "net", values: vec![150.0, -922.0], right: false },
+                DayLine { label: "b".into(), unit: "K", key: "steady", values: vec![-28.0, 95.0], right: true },
+            ],
+            left_unit: "W/m²",
+            right_unit: "K",
+            totals: String::new(),
+        };
+        let (l, r) = day_axes(&p);
+        let r = r.unwrap();
+        // zero sits at the same height on both axes
+        assert!((y_of(0.0, l) - y_of(0.0, r)).abs() < 1e-9);
+        assert!(l.0 <= -922.0 && l.1 >= 150.0 && r.0 <= -28.0 && r.1 >= 95.0);
+        let svg = svg_body(&p);
+        assert!(svg.contains(r#"data-line="net""#) && svg.contains(r#"data-line="steady""#));
+        assert!(svg.contains("local clock time (h)"));
+        assert_eq!(svg.matches("<path").count(), 2);
     }
 }

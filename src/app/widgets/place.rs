@@ -20,8 +20,8 @@ use crate::scenario::place::{ClearSkySpec, PlaceSpec, SkyChoice};
 use crate::view::controls::Control;
 use crate::view::format as fmt;
 use crate::view::place::{
-    atmosphere_hint, clock_minutes, date_text, sun_figures, with_date, with_minutes, with_place, DayPlot, DayText,
-    PlaceSlot, DAY_STEP_MIN, EXAMPLES, SLIDER_MAX_MIN,
+    atmosphere_hint, clock_minutes, date_text, sun_figures, svg_body, with_date, with_minutes, with_place, x_of,
+    DayPlot, DayText, PlaceSlot, BOTTOM, DAY_STEP_MIN, EXAMPLES, H, LEFT, RIGHT, SLIDER_MAX_MIN, TOP, W,
 };
 
 /// The place controls' own state beside the scenario: where the time slider is (it may rest
@@ -415,95 +415,6 @@ pub fn place_controls(ui: PlaceUi) -> impl IntoView {
     }
 }
 
-/// Chart geometry (SVG user units).
-const W: f64 = 640.0;
-const H: f64 = 260.0;
-const LEFT: f64 = 52.0;
-const RIGHT: f64 = 46.0;
-const TOP: f64 = 12.0;
-const BOTTOM: f64 = 34.0;
-
-fn x_of(h: f64) -> f64 {
-    LEFT + (W - LEFT - RIGHT) * h / 24.0
-}
-
-/// A rounded axis range holding `lo`..`hi` and 0, in four steps: (from, to, step).
-fn nice_range(lo: f64, hi: f64) -> (f64, f64, f64) {
-    let (lo, hi) = (lo.min(0.0), hi.max(0.0));
-    let span = (hi - lo).max(1e-9);
-    let raw = span / 4.0;
-    let mag = 10f64.powf(raw.log10().floor());
-    let step = [1.0, 2.0, 2.5, 5.0, 10.0].iter().map(|k| k * mag).find(|s| *s >= raw).unwrap_or(10.0 * mag);
-    let from = (lo / step).floor() * step;
-    let to = (hi / step).ceil() * step;
-    (from, to.max(from + step), step)
-}
-
-fn y_of(v: f64, r: (f64, f64, f64)) -> f64 {
-    TOP + (H - TOP - BOTTOM) * (1.0 - ((v - r.0) / (r.1 - r.0)).clamp(0.0, 1.0))
-}
-
-fn path(hours: &[f64], ys: &[f64], r: (f64, f64, f64)) -> String {
-    let mut d = String::with_capacity(hours.len() * 14);
-    let mut pen = false;
-    for (h, v) in hours.iter().zip(ys) {
-        if !v.is_finite() {
-            pen = false;
-            continue;
-        }
-        d.push_str(&format!("{}{:.1},{:.1}", if pen { "L" } else { "M" }, x_of(*h), y_of(*v, r)));
-        pen = true;
-    }
-    d
-}
-
-/// What the chart draws, worked out once per day plot.
-#[derive(Clone, PartialEq)]
-struct Geometry {
-    paths: Vec<(String, &'static str)>,
-    left: (f64, f64, f64),
-    right: Option<(f64, f64, f64)>,
-    left_unit: &'static str,
-    right_unit: &'static str,
-}
-
-fn geometry(p: &DayPlot) -> Geometry {
-    let span = |right: bool| {
-        p.lines
-            .iter()
-            .filter(|l| l.right == right)
-            .flat_map(|l| l.values.iter().copied())
-            .filter(|v| v.is_finite())
-            .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| (a.min(v), b.max(v)))
-    };
-    let range = |(lo, hi): (f64, f64)| if lo.is_finite() { nice_range(lo, hi) } else { nice_range(0.0, 1.0) };
-    let left = range(span(false));
-    let right = p.lines.iter().any(|l| l.right).then(|| range(span(true)));
-    let paths = p
-        .lines
-        .iter()
-        .map(|l| (path(&p.hours, &l.values, if l.right { right.unwrap_or(left) } else { left }), l.key))
-        .collect();
-    Geometry { paths, left, right, left_unit: p.left_unit, right_unit: p.right_unit }
-}
-
-fn ticks(r: (f64, f64, f64), x: f64, anchor: &'static str, grid: bool) -> impl IntoView {
-    let n = ((r.1 - r.0) / r.2).round() as usize;
-    (0..=n)
-        .map(|k| {
-            let v = r.0 + r.2 * k as f64;
-            let y = y_of(v, r);
-            let decimals = if r.2 < 1.0 { 1 } else { 0 };
-            view! {
-                <g>
-                    {grid.then(|| view! { <line x1=LEFT x2=W - RIGHT y1=y y2=y class=if v == 0.0 { "grid zero" } else { "grid" } /> })}
-                    <text x=x y=y + 4.0 text-anchor=anchor>{fmt::fixed(v, decimals)}</text>
-                </g>
-            }
-        })
-        .collect_view()
-}
-
 /// The day chart: `plot`'s lines through the day, a marker at the slider's time, a read-out
 /// under the pointer (and otherwise at the marker) and the day's totals.
 pub fn day_chart(
@@ -512,7 +423,7 @@ pub fn day_chart(
     title: &'static str,
 ) -> impl IntoView {
     let hover = RwSignal::new(None::<usize>);
-    let geo = Memo::new(move |_| plot.with(|p| p.as_ref().and_then(|r| r.as_ref().ok()).map(|p| geometry(p))));
+    let body = Memo::new(move |_| plot.with(|p| p.as_ref().and_then(|r| r.as_ref().ok()).map(|p| svg_body(p))));
     let step_h = Memo::new(move |_| {
         plot.with(|p| {
             p.as_ref()
@@ -521,21 +432,6 @@ pub fn day_chart(
                 .unwrap_or(DAY_STEP_MIN as f64 / 60.0)
         })
     });
-    let axes = move || {
-        geo.with(|g| {
-            g.as_ref().map(|g| {
-                let right = g.right.map(|r| ticks(r, W - RIGHT + 6.0, "start", false));
-                let mid = (TOP + H - BOTTOM) / 2.0;
-                view! {
-                    {ticks(g.left, LEFT - 6.0, "end", true)}
-                    {right}
-                    <text x=12 y=mid text-anchor="middle" transform=format!("rotate(-90 12 {mid})")>{g.left_unit}</text>
-                    <text x=W - 8.0 y=mid text-anchor="middle" transform=format!("rotate(90 {} {mid})", W - 8.0)>{g.right_unit}</text>
-                    {g.paths.iter().map(|(d, key)| view! { <path class=format!("day-{key}") data-line=*key d=d.clone() /> }).collect_view()}
-                }
-            })
-        })
-    };
     let legend = move || {
         plot.with(|p| {
             p.as_ref().and_then(|r| r.as_ref().ok()).map(|p| {
@@ -546,17 +442,6 @@ pub fn day_chart(
             })
         })
     };
-    let x_ticks = (0..=8)
-        .map(|k| {
-            let h = 3.0 * k as f64;
-            view! {
-                <g>
-                    <line x1=x_of(h) x2=x_of(h) y1=TOP y2=H - BOTTOM class="grid" />
-                    <text x=x_of(h) y=H - BOTTOM + 15.0 text-anchor="middle">{format!("{:02}:00", 3 * k)}</text>
-                </g>
-            }
-        })
-        .collect_view();
     let marker_x = move || x_of(ui.slider.get() as f64 / 60.0);
     let readout_at = move |i: usize| plot.with(|p| p.as_ref().and_then(|r| r.as_ref().ok()).and_then(|p| p.readout(i)));
     let readout = move || match hover.get() {
@@ -598,9 +483,7 @@ pub fn day_chart(
                 on:mousemove=on_move
                 on:mouseleave=move |_| hover.set(None)
             >
-                {x_ticks}
-                {axes}
-                <text x=(LEFT + W - RIGHT) / 2.0 y=H - 4.0 text-anchor="middle">"local clock time (h)"</text>
+                <g inner_html=move || body.get().unwrap_or_default()></g>
                 <line class="day-marker" data-marker="time" x1=marker_x x2=marker_x y1=TOP y2=H - BOTTOM />
                 <line class="day-hover" x1=hover_x x2=hover_x y1=TOP y2=H - BOTTOM />
             </svg>
