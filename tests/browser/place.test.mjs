@@ -223,3 +223,25 @@ test('an old link without a place opens unchanged', async () => {
   assert.deepEqual(page.errors, []);
   await context.close();
 });
+
+test('the Stack tab shows the stack through the clear day under the cell tab light', async () => {
+  const { context, page } = await env.fresh();
+  await desertAt(page);
+  const cellTotals = await page.locator('[data-readout="day-totals"]').innerText();
+  await andRender(page, () => page.locator('[data-panel="stack"]').click());
+  const totals = page.locator('[data-card="day"] [data-readout="day-totals"]');
+  await totals.waitFor({ state: 'visible' });
+  const text = await totals.innerText();
+  const eff = (t) => Number(/energy efficiency ([\d.]+) %/.exec(t)[1]);
+  const incident = (t) => Number(/incident ([\d.]+) kWh/.exec(t)[1]);
+  // the same light: the same incident energy
+  assert.equal(incident(text), incident(cellTotals));
+  // De Vos (1980): two junctions (the default 1.7/1.1 eV stack) beat one in the radiative limit
+  assert.ok(eff(text) > eff(cellTotals) + 5, `${text} against ${cellTotals}`);
+  assert.match(await page.locator('[data-readout="day"]').innerText(), /stack's electric power/);
+  // its place controls are the cell's: moving the time here moves the cell's light
+  assert.equal(await page.inputValue('[data-control="place-lat"]'), '35');
+  await page.locator('[data-card="day"]').screenshot({ path: artifact('place-stack-day.png') });
+  assert.deepEqual(page.errors, []);
+  await context.close();
+});
