@@ -12,6 +12,7 @@ pub mod hot;
 pub mod radiator;
 pub mod real;
 pub mod stack;
+pub mod sun;
 
 /// `x` with `decimals` decimals, without the minus sign of a value that rounds to zero
 /// ("0.0000", never "-0.0000").

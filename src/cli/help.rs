@@ -4,11 +4,13 @@
 //!
 //! Architecture invariant: every help text is assembled here from `Command` descriptions and
 //! option docs written once (a command's own in its module, shared ones in
-//! `shared::options::SHARED_DOCS`); no option's text is written twice.
+//! `shared::options::SHARED_DOCS`, a place's in `shared::place::place_options`); no option's
+//! text is written twice.
 
 use super::args::OptionDoc;
 use super::commands::ALL;
 use super::shared::options::SHARED_DOCS;
+use super::shared::place::place_options;
 use super::shared::Command;
 
 const TITLE: &str = "glowgap: detailed-balance limits of solar cells, stacks and radiators";
@@ -62,7 +64,7 @@ pub fn command_help(c: &Command) -> String {
 
 /// The doc of option `name` of `c`: the command's own, else the shared one.
 pub fn option_doc(c: &Command, name: &str) -> Option<&'static OptionDoc> {
-    c.docs.iter().chain(SHARED_DOCS).find(|d| d.name == name)
+    c.docs.iter().chain(SHARED_DOCS).chain(place_options()).find(|d| d.name == name)
 }
 
 fn push_usage(s: &mut String, c: &Command) {
@@ -123,7 +125,7 @@ mod tests {
                 assert!(says.iter().any(|w| text.contains(w)), "glowgap {} --{name}: {text}", c.spec.command);
             }
         }
-        for d in SHARED_DOCS {
+        for d in SHARED_DOCS.iter().chain(place_options()) {
             assert!(ALL.iter().any(|c| c.spec.options().any(|o| o == d.name)), "--{} is used by no command", d.name);
         }
     }

@@ -263,122 +263,162 @@ pub fn relative_air_mass(zenith_rad: f64) -> f64 {
     1.0 / (zenith_rad.cos() + 0.50572 * (6.07995 + (90.0 - z_deg)).powf(-1.6364))
 }
 
-/// Transmittances at one wavelength for air mass `m` (and M' = m p / p_ref).
-struct Transmittances {
-    rayleigh: f64,
-    aerosol: f64,
-    water: f64,
-    ozone: f64,
-    mixed: f64,
-    aerosol_scattering: f64,
-    aerosol_absorption: f64,
-}
-
-/// Per-wavelength constants that do not depend on the air mass.
+/// Per-wavelength values of the model that depend on the air but not on the sun's position
+/// or the day: built once per place by [`ClearSkyColumns::new`] and reused for every moment.
+#[derive(Debug, Clone)]
 struct Column {
-    lambda_um: f64,
+    /// 1 / (lambda^4 (115.6406 - 1.3366 / lambda^2)), lambda in um (Eq. 2-4)
+    rayleigh: f64,
+    /// aerosol optical depth at this wavelength (Eq. 2-7)
     tau: f64,
+    /// aerosol single-scattering albedo (Eq. 3-16)
     omega: f64,
+    /// a_w W (Eq. 2-8)
     water: f64,
+    /// a_o O3 (Eq. 2-9)
     ozone: f64,
+    /// a_u (Eq. 2-11)
     mixed: f64,
+    /// short-wave correction C_s (Eq. 3-17)
+    cs: f64,
+    /// sky reflectivity r_s (Eq. 3-8, from the transmittances at M = 1.8)
+    rs: f64,
 }
 
-fn transmittances(col: &Column, m: f64, pressure_ratio: f64, w_cm: f64, o3: f64, ozone_mass: f64) -> Transmittances {
-    let m_p = m * pressure_ratio;
-    let l = col.lambda_um;
-    let rayleigh = (-m_p / (l.powf(4.0) * (115.6406 - 1.3366 / l.powf(2.0)))).exp(); // Eq. 2-4
-    let aerosol = (-col.tau * m).exp(); // Eq. 2-6
-    let aw = col.water * w_cm * m;
-    let water = (-0.2385 * aw / (1.0 + 20.07 * aw).powf(0.45)).exp(); // Eq. 2-8
-    let ozone = (-col.ozone * o3 * ozone_mass).exp(); // Eq. 2-9
-    let au = col.mixed * m_p;
-    let mixed = (-1.41 * au / (1.0 + 118.3 * au).powf(0.45)).exp(); // Eq. 2-11
-    let aerosol_scattering = (-col.omega * col.tau * m).exp(); // Eq. 3-9
-    let aerosol_absorption = (-(1.0 - col.omega) * col.tau * m).exp(); // Eq. 3-10
-    Transmittances { rayleigh, aerosol, water, ozone, mixed, aerosol_scattering, aerosol_absorption }
+/// The model's per-wavelength constants for one atmosphere (pressure, water, ozone,
+/// aerosol, albedo and sky model of a [`ClearSkyInput`]), ready for any sun position.
+#[derive(Debug, Clone)]
+pub struct ClearSkyColumns {
+    input: ClearSkyInput,
+    columns: Vec<Column>,
+}
+
+/// Mixed-gas transmittance for a_u M' (Eq. 2-11).
+fn mixed_gas(au: f64) -> f64 {
+    (-1.41 * au / (1.0 + 118.3 * au).powf(0.45)).exp()
+}
+
+/// Water-vapour transmittance for a_w W M (Eq. 2-8).
+fn water_vapour(aw: f64) -> f64 {
+    (-0.2385 * aw / (1.0 + 20.07 * aw).powf(0.45)).exp()
+}
+
+/// Aerosol forward-scattering fraction at cos Z = `cos_z` (Eqs. 3-11 to 3-15, asymmetry
+/// factor 0.65).
+fn forward_scattering(cos_z: f64) -> f64 {
+    let alg = (1.0f64 - 0.65).ln();
+    let bfs = alg * (0.0783 + alg * (-0.3824 - alg * 0.5874));
+    let afs = alg * (1.459 + alg * (0.1595 + alg * 0.4129));
+    1.0 - 0.5 * ((afs + bfs * cos_z) * cos_z).exp()
+}
+
+impl ClearSkyColumns {
+    /// The constants of `input`'s atmosphere (its geometry and day are ignored). Inputs
+    /// outside [`ClearSkyInput::check`]'s ranges are pulled to the nearest accepted value.
+    pub fn new(input: &ClearSkyInput) -> ClearSkyColumns {
+        let i = input.clamped();
+        let t = clear_sky_table();
+        let pressure_ratio = i.pressure_pa / REFERENCE_PRESSURE_PA;
+        let fs_primed = forward_scattering(1.0 / 1.8);
+        let columns = (0..CLEAR_SKY_POINTS)
+            .map(|k| {
+                let wl = t.wavelength_nm[k];
+                let l = wl / 1000.0;
+                let rayleigh = 1.0 / (l.powf(4.0) * (115.6406 - 1.3366 / l.powf(2.0)));
+                let tau = i.aod_500nm * (wl / 500.0).powf(-i.angstrom_exponent);
+                let omega = 0.945 * (-0.095 * (wl / 400.0).ln().powi(2)).exp();
+                // Eq. 3-8 at M = 1.8 with T_u' (see the module notes)
+                let m = 1.8;
+                let tr = (-m * pressure_ratio * rayleigh).exp();
+                let rs = mixed_gas(t.mixed[k] * m * pressure_ratio)
+                    * water_vapour(t.water[k] * i.precipitable_water_cm * m)
+                    * (-(1.0 - omega) * tau * m).exp()
+                    * (0.5 * (1.0 - tr) + (1.0 - fs_primed) * tr * (1.0 - (-omega * tau * m).exp()));
+                Column {
+                    rayleigh,
+                    tau,
+                    omega,
+                    water: t.water[k] * i.precipitable_water_cm,
+                    ozone: t.ozone[k] * i.ozone_atm_cm,
+                    mixed: t.mixed[k],
+                    cs: if wl <= 450.0 { ((wl + 550.0) / 1000.0).powf(1.8) } else { 1.0 },
+                    rs,
+                }
+            })
+            .collect();
+        ClearSkyColumns { input: i, columns }
+    }
+
+    /// The spectra with the sun at apparent zenith `zenith_rad`, at `incidence_rad` to the
+    /// plane's normal, on day of year `day` (the plane's tilt is the input's).
+    pub fn spectra(&self, zenith_rad: f64, incidence_rad: f64, day: f64) -> ClearSkySpectra {
+        let mut out = ClearSkySpectra {
+            direct_normal: [0.0; CLEAR_SKY_POINTS],
+            diffuse_horizontal: [0.0; CLEAR_SKY_POINTS],
+            plane_global: [0.0; CLEAR_SKY_POINTS],
+        };
+        let zenith = zenith_rad.abs();
+        if zenith.is_nan() || zenith >= std::f64::consts::FRAC_PI_2 || zenith.to_degrees() >= 90.0 {
+            return out;
+        }
+        let i = &self.input;
+        let t = clear_sky_table();
+        let cos_z = zenith.cos();
+        let m = relative_air_mass(zenith);
+        let d = distance_factor(if day.is_nan() { 1.0 } else { day.clamp(1.0, 367.0) });
+        let m_p = m * i.pressure_pa / REFERENCE_PRESSURE_PA;
+        let h0 = 22.0 / 6370.0;
+        let ozone_mass = (1.0 + h0) / (cos_z * cos_z + 2.0 * h0).sqrt(); // Eq. 2-10
+        let fs = forward_scattering(cos_z);
+
+        let cos_aoi = if incidence_rad.is_nan() { 0.0 } else { incidence_rad.cos().max(0.0) };
+        let cos_tilt = i.tilt_rad.cos();
+        let sky_view = 0.5 * (1.0 + cos_tilt);
+        let ground_view = 0.5 * (1.0 - cos_tilt);
+        let beam_ratio = cos_aoi / cos_z.max(MIN_COS_ZENITH);
+        let rg = i.ground_albedo;
+
+        for (k, c) in self.columns.iter().enumerate() {
+            let rayleigh_depth = m_p * c.rayleigh;
+            let tr = (-rayleigh_depth).exp(); // Eq. 2-4
+            let ta = (-c.tau * m).exp(); // Eq. 2-6
+            let tw = water_vapour(c.water * m); // Eq. 2-8
+            let to = (-c.ozone * ozone_mass).exp(); // Eq. 2-9
+            let tu = mixed_gas(c.mixed * m_p); // Eq. 2-11
+            let tas = (-c.omega * c.tau * m).exp(); // Eq. 3-9
+            let taa = (-(1.0 - c.omega) * c.tau * m).exp(); // Eq. 3-10
+
+            let h0d = t.extraterrestrial[k] * d;
+            let direct = h0d * tr * ta * tw * to * tu; // Eq. 2-1
+            let common = h0d * cos_z * to * tu * tw * taa;
+            let ir = common * (1.0 - (-0.95 * rayleigh_depth).exp()) * 0.5; // Eq. 3-5, T_r^0.95
+            let ia = common * (-1.5 * rayleigh_depth).exp() * (1.0 - tas) * fs; // Eq. 3-6, T_r^1.5
+            let ig = (direct * cos_z + ir + ia) * c.rs * rg / (1.0 - c.rs * rg); // Eq. 3-7
+            let diffuse = (ir + ia + ig) * c.cs; // Eq. 3-1, C_s once
+
+            let sky = match i.sky {
+                SkyModel::Isotropic => diffuse * sky_view,
+                SkyModel::HayDavies => {
+                    let a = if h0d > 0.0 { direct / h0d } else { 0.0 };
+                    (diffuse * (1.0 - a) * sky_view).max(0.0) + (diffuse * a * beam_ratio).max(0.0)
+                }
+            };
+            let ground = (direct * cos_z + diffuse) * rg * ground_view;
+            out.direct_normal[k] = direct;
+            out.diffuse_horizontal[k] = diffuse;
+            out.plane_global[k] = direct * cos_aoi + sky + ground;
+        }
+        out
+    }
 }
 
 /// Clear-sky spectra for `input` (see the module notes for the model). Inputs outside
 /// [`ClearSkyInput::check`]'s ranges are pulled to the nearest accepted value; the sun at or
-/// below the horizon gives zeros.
+/// below the horizon gives zeros. For many moments under one atmosphere, build
+/// [`ClearSkyColumns`] once instead.
 pub fn clear_sky_spectra(input: &ClearSkyInput) -> ClearSkySpectra {
-    let zeros = ClearSkySpectra {
-        direct_normal: [0.0; CLEAR_SKY_POINTS],
-        diffuse_horizontal: [0.0; CLEAR_SKY_POINTS],
-        plane_global: [0.0; CLEAR_SKY_POINTS],
-    };
-    let zenith = input.apparent_zenith_rad.abs();
-    if zenith.is_nan() || zenith >= std::f64::consts::FRAC_PI_2 || zenith.to_degrees() >= 90.0 {
-        return zeros;
-    }
     let i = input.clamped();
-    let t = clear_sky_table();
-    let mut out = zeros;
-
-    let cos_z = zenith.cos();
-    let m = relative_air_mass(zenith);
-    let d = distance_factor(i.day_of_year);
-    let pressure_ratio = i.pressure_pa / REFERENCE_PRESSURE_PA;
-    let h0 = 22.0 / 6370.0;
-    let ozone_mass = (1.0 + h0) / (cos_z * cos_z + 2.0 * h0).sqrt(); // Eq. 2-10
-    let ozone_mass_primed = ozone_mass; // the zenith, not the air mass, sets it
-
-    // aerosol forward-scattering fractions, Eqs. 3-11 to 3-15, asymmetry 0.65
-    let alg = (1.0f64 - 0.65).ln();
-    let bfs = alg * (0.0783 + alg * (-0.3824 - alg * 0.5874));
-    let afs = alg * (1.459 + alg * (0.1595 + alg * 0.4129));
-    let fs = 1.0 - 0.5 * ((afs + bfs * cos_z) * cos_z).exp();
-    let fs_primed = 1.0 - 0.5 * ((afs + bfs / 1.8) / 1.8).exp();
-
-    let cos_aoi = i.incidence_rad.cos().max(0.0);
-    let cos_tilt = i.tilt_rad.cos();
-    let sky_view = 0.5 * (1.0 + cos_tilt);
-    let ground_view = 0.5 * (1.0 - cos_tilt);
-    let beam_ratio = cos_aoi / cos_z.max(MIN_COS_ZENITH);
-    let rg = i.ground_albedo;
-
-    for k in 0..CLEAR_SKY_POINTS {
-        let wl = t.wavelength_nm[k];
-        let col = Column {
-            lambda_um: wl / 1000.0,
-            tau: i.aod_500nm * (wl / 500.0).powf(-i.angstrom_exponent), // Eq. 2-7
-            omega: 0.945 * (-0.095 * (wl / 400.0).ln().powi(2)).exp(),  // Eq. 3-16
-            water: t.water[k],
-            ozone: t.ozone[k],
-            mixed: t.mixed[k],
-        };
-        let w = i.precipitable_water_cm;
-        let tr = transmittances(&col, m, pressure_ratio, w, i.ozone_atm_cm, ozone_mass);
-        let tp = transmittances(&col, 1.8, pressure_ratio, w, i.ozone_atm_cm, ozone_mass_primed);
-
-        let h0d = t.extraterrestrial[k] * d;
-        let direct = h0d * tr.rayleigh * tr.aerosol * tr.water * tr.ozone * tr.mixed; // Eq. 2-1
-        let cs = if wl <= 450.0 { ((wl + 550.0) / 1000.0).powf(1.8) } else { 1.0 }; // Eq. 3-17
-                                                                                    // Eq. 3-8 with T_u' (see the module notes)
-        let rs = tp.mixed
-            * tp.water
-            * tp.aerosol_absorption
-            * (0.5 * (1.0 - tp.rayleigh) + (1.0 - fs_primed) * tp.rayleigh * (1.0 - tp.aerosol_scattering));
-        let common = h0d * cos_z * tr.ozone * tr.mixed * tr.water * tr.aerosol_absorption;
-        let ir = common * (1.0 - tr.rayleigh.powf(0.95)) * 0.5; // Eq. 3-5
-        let ia = common * tr.rayleigh.powf(1.5) * (1.0 - tr.aerosol_scattering) * fs; // Eq. 3-6
-        let ig = (direct * cos_z + ir + ia) * rs * rg / (1.0 - rs * rg); // Eq. 3-7
-        let diffuse = (ir + ia + ig) * cs; // Eq. 3-1, C_s once
-
-        let sky = match i.sky {
-            SkyModel::Isotropic => diffuse * sky_view,
-            SkyModel::HayDavies => {
-                let a = direct / h0d;
-                (diffuse * (1.0 - a) * sky_view).max(0.0) + (diffuse * a * beam_ratio).max(0.0)
-            }
-        };
-        let ground = (direct * cos_z + diffuse) * rg * ground_view;
-        out.direct_normal[k] = direct;
-        out.diffuse_horizontal[k] = diffuse;
-        out.plane_global[k] = direct * cos_aoi + sky + ground;
-    }
-    out
+    ClearSkyColumns::new(&i).spectra(input.apparent_zenith_rad, i.incidence_rad, i.day_of_year)
 }
 
 /// The plane-of-array global spectrum as a light source on the wavelength axis (SI: [m],

@@ -6,6 +6,7 @@ pub mod batch;
 pub mod clear_sky;
 pub mod constants;
 pub mod data;
+pub mod energy_yield;
 pub mod film;
 pub mod junction;
 pub mod losses;

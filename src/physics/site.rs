@@ -13,7 +13,7 @@
 //!
 //! Architecture invariant: pure functions of numbers; bad input is a message, never a panic.
 
-use super::clear_sky::{clear_sky_spectra, relative_air_mass, ClearSkyInput, ClearSkySpectra, SkyModel};
+use super::clear_sky::{relative_air_mass, ClearSkyColumns, ClearSkyInput, ClearSkySpectra, SkyModel};
 use super::solar_position::{delta_t_estimate, sun_at, CivilTime, Observer, SunPosition, Surface};
 
 /// The air above the place (the clear-sky model's inputs other than geometry).
@@ -102,16 +102,39 @@ impl Site {
     }
 }
 
-/// The sun's position and the clear-sky light at `when`.
+/// The sun's position and the clear-sky light at `when` (for many moments at one site,
+/// [`PreparedSite`] builds the model's per-wavelength constants once).
 pub fn moment(site: &Site, when: &CivilTime) -> Result<Moment, String> {
-    site.check()?;
-    let dt = site.delta_t_s.unwrap_or_else(|| delta_t_estimate(when.decimal_year()));
-    let position = sun_at(when, &site.observer, &site.surface, dt)?;
-    let up = position.zenith_deg < 90.0;
-    let air_mass = up.then(|| relative_air_mass(position.zenith_deg.to_radians()));
-    let input =
-        site.clear_sky_input(position.zenith_deg.clamp(0.0, 180.0), position.incidence_deg, day_of_year_utc(when));
-    Ok(Moment { position, air_mass, spectra: clear_sky_spectra(&input) })
+    PreparedSite::new(site)?.moment(when)
+}
+
+/// A checked site with the clear-sky model's constants for its air.
+#[derive(Debug, Clone)]
+pub struct PreparedSite {
+    pub site: Site,
+    columns: ClearSkyColumns,
+}
+
+impl PreparedSite {
+    pub fn new(site: &Site) -> Result<PreparedSite, String> {
+        site.check()?;
+        Ok(PreparedSite { site: *site, columns: ClearSkyColumns::new(&site.clear_sky_input(0.0, 0.0, 1.0)) })
+    }
+
+    /// The sun's position and the clear-sky light at `when`.
+    pub fn moment(&self, when: &CivilTime) -> Result<Moment, String> {
+        let site = &self.site;
+        let dt = site.delta_t_s.unwrap_or_else(|| delta_t_estimate(when.decimal_year()));
+        let position = sun_at(when, &site.observer, &site.surface, dt)?;
+        let up = position.zenith_deg < 90.0;
+        let air_mass = up.then(|| relative_air_mass(position.zenith_deg.to_radians()));
+        let spectra = self.columns.spectra(
+            position.zenith_deg.clamp(0.0, 180.0).to_radians(),
+            position.incidence_deg.to_radians(),
+            day_of_year_utc(when),
+        );
+        Ok(Moment { position, air_mass, spectra })
+    }
 }
 
 /// Days since 1970-01-01 of a proleptic Gregorian date (H. Hinnant's days_from_civil,

@@ -17,6 +17,7 @@ use crate::physics::varshni::{gap_material, GapMaterial, GAP_MATERIALS};
 use serde::{Deserialize, Serialize};
 
 mod choices;
+pub mod energy;
 pub mod film;
 pub mod hot;
 pub mod place;

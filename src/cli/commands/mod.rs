@@ -8,6 +8,7 @@ mod absorber;
 mod blackbody;
 mod cell;
 mod cool;
+mod energy;
 mod eval;
 mod film;
 mod losses;
@@ -15,6 +16,7 @@ mod map;
 mod mismatch;
 mod optimize;
 mod stack;
+mod sun;
 mod sweep;
 mod tpv;
 
@@ -35,6 +37,8 @@ pub const ALL: &[&Command] = &[
     &tpv::COMMAND,
     &absorber::COMMAND,
     &film::COMMAND,
+    &sun::COMMAND,
+    &energy::COMMAND,
 ];
 
 /// The command called `name`.

@@ -161,6 +161,13 @@ fn read_text(path: &str, what: &str, kind: TableKind) -> Result<(String, String)
     read_text_within(path, what, MAX_DATA_FILE_BYTES, &fix)
 }
 
+/// The text of a measured series of spectra (`glowgap yield --spectra`), at most
+/// [`MAX_DATA_FILE_BYTES`].
+pub fn read_series_file(path: &str) -> Result<String, String> {
+    let fix = "give a CSV of timestamped spectra (header time,WL_NM,WL_NM,...), thinned if need be";
+    read_text_within(path, "--spectra", MAX_DATA_FILE_BYTES, fix).map(|(text, _)| text)
+}
+
 /// [`read_text`] with a size limit of `max` bytes; `fix` says what to give instead of a file
 /// that is too large or not text.
 fn read_text_within(path: &str, what: &str, max: u64, fix: &str) -> Result<(String, String), String> {

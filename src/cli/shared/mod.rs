@@ -1,7 +1,7 @@
 //! What the commands share: the options of the light and the cell applied onto a scenario
-//! (`options`), data files and scenarios read from disk (`files`), and the writers of tables
-//! and JSON (`output`), with the failure every command returns and the description of a
-//! command.
+//! (`options`), a place under a clear sky (`place`), data files and scenarios read from disk
+//! (`files`), and the writers of tables and JSON (`output`), with the failure every command
+//! returns and the description of a command.
 //!
 //! Architecture invariant: helpers import no command (`cli::commands`) and no help text
 //! renderer; commands import helpers and never each other.
@@ -9,6 +9,7 @@
 pub mod files;
 pub mod options;
 pub mod output;
+pub mod place;
 
 use super::args::{OptionDoc, Spec};
 

@@ -27,7 +27,14 @@ pub(crate) use with_light_and_cell_options;
 
 /// Help of the options more than one command accepts, in one place.
 pub const SHARED_DOCS: &[OptionDoc] = &[
-    OptionDoc { name: "spectrum", arg: "SPEC", text: "am1.5g (default) | am1.5d | am0 | blackbody:K | file:PATH" },
+    OptionDoc {
+        name: "spectrum",
+        arg: "SPEC",
+        text: "am1.5g (default) | am1.5d | am0 | blackbody:K | file:PATH\n\
+               | clearsky:lat=DEG,lon=DEG,time=ISO8601[,tilt=DEG,azimuth=DEG,pwv=CM,...]\n\
+               (the keys are the options of glowgap sun: the clear-sky plane-of-array spectrum\n\
+               at that place and moment)",
+    },
     OptionDoc {
         name: "spectrum-axis",
         arg: "UNIT",
