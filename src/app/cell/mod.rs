@@ -14,6 +14,7 @@ pub mod losses;
 pub mod plots;
 pub mod silicon;
 pub mod state;
+pub mod year;
 
 use crate::view::controls::Control;
 use std::cell::RefCell;
@@ -157,6 +158,7 @@ pub fn CellPanel() -> impl IntoView {
                 {figures::figures(cs)}
                 <div class="plots">
                     <div class="day-slot" hidden=move || day.with(Option::is_none)>{day_chart(place, day, "The cell through the day")}</div>
+                    <div class="day-slot" hidden=move || day.with(Option::is_none)>{year::year_card(cs.ctx)}</div>
                     {silicon::silicon_cards(cs, canvases[SI_THICKNESS], canvases[SI_ABSORPTANCE])}
                     {cards::cell_plot_card(cs, PlotKind::Spectrum, canvases[0])}
                     {cards::cell_plot_card(cs, PlotKind::Efficiency, canvases[1])}
