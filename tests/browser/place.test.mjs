@@ -245,3 +245,29 @@ test('the Stack tab shows the stack through the clear day under the cell tab lig
   assert.deepEqual(page.errors, []);
   await context.close();
 });
+
+test('the year view runs in the background with progress and marks the two optimum gaps', async () => {
+  const { context, page } = await env.fresh();
+  await desertAt(page);
+  const status = page.locator('[data-readout="year-status"]');
+  await page.locator('[data-action="year"]').click();
+  // progress while it runs, the page still answering
+  await page.waitForFunction(() => /day \d+ of the year/.test(document.querySelector('[data-readout="year-status"]').textContent), null, { timeout: 30000 });
+  await page.waitForFunction(() => /The year 2024/.test(document.querySelector('[data-readout="year"]').textContent), null, { timeout: 120000 });
+  const text = await page.locator('[data-readout="year"]').innerText();
+  const m = /incident (\d+) kWh\/m².*electric (\d+) kWh\/m² at 1\.340 eV, energy efficiency ([\d.]+) %.*most energy comes at ([\d.]+) eV.*AM1\.5G optimum, ([\d.]+) eV/.exec(text);
+  assert.ok(m, text);
+  // a clear year in a high desert: roughly 2300-2700 kWh/m2 on a horizontal plane (from
+  // memory; clear-sky resource tables); Shockley-Queisser's AM1.5G optimum near 1.34 eV
+  // (Ruhle 2016); the yield-optimal gap within about 0.15 eV of it (common practice)
+  assert.ok(Number(m[1]) > 2000 && Number(m[1]) < 3000, text);
+  assert.ok(Number(m[3]) > 28 && Number(m[3]) < 36, text);
+  assert.ok(Math.abs(Number(m[5]) - 1.34) < 0.03, text);
+  assert.ok(Math.abs(Number(m[4]) - Number(m[5])) < 0.15, text);
+  assert.equal(await page.locator('[data-plot="year"] [data-gap="best"]').count(), 1);
+  assert.equal(await page.locator('[data-plot="year"] [data-gap="am15"]').count(), 1);
+  assert.equal(await status.innerText(), '');
+  await page.locator('[data-card="year"]').screenshot({ path: artifact('place-year.png') });
+  assert.deepEqual(page.errors, []);
+  await context.close();
+});
