@@ -276,11 +276,11 @@ pub struct DaySeries {
 impl DaySeries {
     /// Electric over incident energy of the day (0 for a dark day).
     pub fn energy_efficiency(&self) -> f64 {
-        if self.incident_kwh_m2 > 0.0 {
-            self.electric_kwh_m2 / self.incident_kwh_m2
-        } else {
-            0.0
+        crate::physics::energy_yield::Energy {
+            incident_j_m2: self.incident_kwh_m2,
+            electric_j_m2: self.electric_kwh_m2,
         }
+        .efficiency()
     }
 
     /// The step at a clock time [min], clamped to the day.
@@ -812,11 +812,11 @@ pub struct YearView {
 
 impl YearView {
     pub fn energy_efficiency(&self) -> f64 {
-        if self.incident_kwh_m2 > 0.0 {
-            self.electric_kwh_m2 / self.incident_kwh_m2
-        } else {
-            0.0
+        crate::physics::energy_yield::Energy {
+            incident_j_m2: self.incident_kwh_m2,
+            electric_j_m2: self.electric_kwh_m2,
         }
+        .efficiency()
     }
 }
 
