@@ -913,7 +913,7 @@ pub fn year_svg(y: &YearView) -> String {
     }
     let _ = write!(out, r#"<path class="day-power" data-line="year" d="{d}"/>"#);
     for (g, class, key) in
-        [(y.best_gap_ev, "year-best", "best"), (y.am15_gap_ev, "year-am15", "am15"), (y.gap_ev, "day-marker", "cell")]
+        [(y.gap_ev, "day-marker", "cell"), (y.am15_gap_ev, "year-am15", "am15"), (y.best_gap_ev, "year-best", "best")]
     {
         let x = xg(g.clamp(g0, g1));
         let _ = write!(
