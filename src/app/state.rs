@@ -75,6 +75,8 @@ pub struct Ctx {
     pub layout: RwSignal<u32>,
     /// a line of status beside the link and file buttons
     pub status: RwSignal<Option<String>>,
+    /// the last place and time used by any tab's clear-sky source (one per page)
+    pub place: RwSignal<crate::scenario::place::ClearSkySpec>,
 }
 
 /// A message for people: first letter upper case, ends with a full stop.
@@ -93,6 +95,7 @@ pub fn sentence(msg: &str) -> String {
 
 impl Ctx {
     pub fn new(initial: Scenario) -> Ctx {
+        let place = first_place(&initial);
         let user_table = match &initial.cell.spectrum {
             crate::scenario::SourceSpec::Table(t) => Some(t.clone()),
             _ => None,
@@ -109,6 +112,7 @@ impl Ctx {
             bb_temp: RwSignal::new(bb),
             layout: RwSignal::new(0),
             status: RwSignal::new(None),
+            place: RwSignal::new(place),
         }
     }
 
@@ -220,6 +224,23 @@ impl Ctx {
     pub fn dismiss(&self, kind: NoticeKind) {
         self.notices.update(|v| v.retain(|o| o.kind != kind));
     }
+}
+
+/// The place of the first clear-sky source in `s` (cell, radiator's sun, hot absorber), or
+/// the default place at noon local mean time today.
+fn first_place(s: &Scenario) -> crate::scenario::place::ClearSkySpec {
+    use crate::scenario::SourceSpec;
+    let found = [Some(&s.cell.spectrum), s.radiator.sun.as_ref(), Some(&s.hot.absorber.source)]
+        .into_iter()
+        .flatten()
+        .find_map(|src| match src {
+            SourceSpec::ClearSky(c) => Some(c.clone()),
+            _ => None,
+        });
+    found.unwrap_or_else(|| {
+        let d = js_sys::Date::new_0();
+        crate::view::place::default_spec(d.get_full_year() as i32, d.get_month() + 1, d.get_date())
+    })
 }
 
 thread_local! {

@@ -116,6 +116,20 @@ controls! {
     BottomTrapping => "bottom-trapping",
     BottomDoping => "bottom-doping",
     Coupling => "luminescent-coupling",
+    PlaceLat => "place-lat",
+    PlaceLon => "place-lon",
+    PlaceExample => "place-example",
+    PlaceDate => "place-date",
+    PlaceTime => "place-time",
+    PlaceTilt => "place-tilt",
+    PlaceAzimuth => "place-azimuth",
+    PlaceElevation => "place-elevation",
+    PlacePwv => "place-pwv",
+    PlaceOzone => "place-ozone",
+    PlaceAod => "place-aod500",
+    PlaceAngstrom => "place-angstrom",
+    PlaceAlbedo => "place-albedo",
+    PlaceSky => "place-sky-model",
 }
 
 impl std::fmt::Display for Control {

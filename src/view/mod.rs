@@ -13,6 +13,7 @@ pub mod format;
 pub mod hints;
 pub mod hot;
 pub mod input;
+pub mod place;
 pub mod radiator;
 pub mod resample;
 pub mod spectrum;

@@ -15,6 +15,7 @@ use leptos::prelude::*;
 use super::state::CellState;
 use crate::app::state::Ctx;
 use crate::app::widgets::fields::{drop_zone, gap_keys, number_field, plain_parse, Field};
+use crate::app::widgets::place::{place_controls, PlaceUi};
 use crate::physics::constants::MAX_CONCENTRATION;
 use crate::physics::varshni::{gap_material, GAP_MATERIALS};
 use crate::scenario::{Emission, JvModel};
@@ -39,7 +40,7 @@ fn source_key(s: &SourceSpec) -> &'static str {
     }
 }
 
-pub fn source_panel(cs: CellState) -> impl IntoView {
+pub fn source_panel(cs: CellState, place: PlaceUi) -> impl IntoView {
     let ctx = cs.ctx;
     let key = Memo::new(move |_| ctx.scenario.with(|s| source_key(&s.cell.spectrum)));
     let on_select = move |ev: ev::Event| {
@@ -50,6 +51,7 @@ pub fn source_panel(cs: CellState) -> impl IntoView {
             "am0" => Some(SourceSpec::Am0),
             "blackbody" => Some(SourceSpec::Blackbody { temp_k: ctx.bb_temp.get_untracked() }),
             "table" => ctx.user_table.get_untracked().map(SourceSpec::Table),
+            "place" => Some(SourceSpec::ClearSky(ctx.place.get_untracked())),
             _ => None,
         };
         ctx.choose(
@@ -144,6 +146,7 @@ pub fn source_panel(cs: CellState) -> impl IntoView {
                     <option value="am1.5d" prop:selected=move || key.get() == "am1.5d">"AM1.5D (direct + circumsolar)"</option>
                     <option value="am0" prop:selected=move || key.get() == "am0">"AM0 (above the atmosphere)"</option>
                     <option value="blackbody" prop:selected=move || key.get() == "blackbody">"Blackbody sun"</option>
+                    <option value="place" prop:selected=move || key.get() == "place">"Place and time (clear sky)"</option>
                     <option value="table" prop:selected=move || key.get() == "table" disabled=move || ctx.user_table.with(|t| t.is_none())>
                         {table_label}
                     </option>
@@ -151,6 +154,7 @@ pub fn source_panel(cs: CellState) -> impl IntoView {
                 <p class="hint">{info}</p>
             </div>
             <div class="sub-field" hidden=move || key.get() != "blackbody">{bb_view}</div>
+            <div class="sub-field" hidden=move || key.get() != "place">{place_controls(place)}</div>
             {drop}
             <p class="field-error" id="e-spectrum" data-error=Control::Spectrum.as_str() aria-live="polite">{move || ctx.error_of(Control::Spectrum)}</p>
         </section>

@@ -14,9 +14,16 @@ pub mod losses;
 pub mod plots;
 pub mod silicon;
 pub mod state;
+pub mod year;
 
 use crate::view::controls::Control;
+use std::cell::RefCell;
+use std::rc::Rc;
 use std::sync::Arc;
+
+use super::widgets::place::{day_chart, PlaceUi};
+use crate::scenario::SourceSpec;
+use crate::view::place::{DayCache, DayPlot};
 
 use leptos::html;
 use leptos::prelude::*;
@@ -116,22 +123,42 @@ fn render_effect(cs: CellState, canvases: [NodeRef<html::Canvas>; PLOTS]) {
     watch_sizes(ctx, canvases.to_vec());
 }
 
+/// The cell's day under its clear-sky source (cached: the time slider does not recompute
+/// it), `None` for any other source.
+pub fn cell_day_series(cs: CellState) -> Signal<Option<Result<Arc<DayPlot>, String>>> {
+    let ctx = cs.ctx;
+    let cache = StoredValue::new_local(Rc::new(RefCell::new(DayCache::default())));
+    let memo = Memo::new(move |_| {
+        ctx.scenario.with(|s| match &s.cell.spectrum {
+            SourceSpec::ClearSky(c) => {
+                Some(cache.get_value().borrow_mut().cell(c, &s.cell).map(|d| Arc::new(d.plot("cell"))))
+            }
+            _ => None,
+        })
+    });
+    memo.into()
+}
+
 /// The Solar cell tab's content.
 #[component]
 pub fn CellPanel() -> impl IntoView {
     let cs = expect_context::<CellState>();
     let canvases: [NodeRef<html::Canvas>; PLOTS] = std::array::from_fn(|_| NodeRef::new());
     render_effect(cs, canvases);
+    let place = PlaceUi::new(cs.ctx, crate::view::place::CELL_LIGHT);
+    let day = cell_day_series(cs);
     view! {
         <main class="layout">
             <aside class="panel" aria-label="Settings">
-                {controls::source_panel(cs)}
+                {controls::source_panel(cs, place)}
                 {controls::cell_panel(cs)}
                 {absorptance::absorptance_section(cs, canvases[ABSORPTANCE])}
             </aside>
             <section class="results" aria-label="Results">
                 {figures::figures(cs)}
                 <div class="plots">
+                    <div class="day-slot" hidden=move || day.with(Option::is_none)>{day_chart(place, day, "The cell through the day")}</div>
+                    <div class="day-slot" hidden=move || day.with(Option::is_none)>{year::year_card(cs.ctx)}</div>
                     {silicon::silicon_cards(cs, canvases[SI_THICKNESS], canvases[SI_ABSORPTANCE])}
                     {cards::cell_plot_card(cs, PlotKind::Spectrum, canvases[0])}
                     {cards::cell_plot_card(cs, PlotKind::Efficiency, canvases[1])}

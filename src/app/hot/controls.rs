@@ -12,6 +12,7 @@ use leptos::prelude::*;
 use crate::app::hot::state::HotState;
 use crate::app::state::{mark, sentence, Ctx};
 use crate::app::widgets::fields::{number_field, plain_parse, Field};
+use crate::app::widgets::place::{place_controls, PlaceUi};
 use crate::physics::constants::MAX_CONCENTRATION;
 use crate::scenario::hot::{
     ReflectanceSpec, SurfaceSpec, ABSORBER_TEMP_RANGE_K, BLACKBODY_TEMP_RANGE_K, EMITTER_TEMP_RANGE_K, HC_RANGE,
@@ -414,7 +415,9 @@ const SOURCES: &[(&str, &str)] = &[
     ("am1.5g", "AM1.5G (global tilt)"),
     ("am0", "AM0 (outside the air)"),
     ("blackbody", "Blackbody sun"),
+    ("place", "Place and time (clear sky)"),
 ];
+
 const SURFACES: &[(&str, &str)] =
     &[("black", "Black"), ("step", "Step at a cutoff wavelength"), ("profile", "Emissivity profile")];
 
@@ -495,6 +498,7 @@ pub fn absorber_controls(hot: HotState) -> impl IntoView {
             SourceSpec::Am15d => "am1.5d",
             SourceSpec::Am15g => "am1.5g",
             SourceSpec::Am0 => "am0",
+            SourceSpec::ClearSky(_) => "place",
             _ => "blackbody",
         })
     });
@@ -503,6 +507,7 @@ pub fn absorber_controls(hot: HotState) -> impl IntoView {
             "am1.5d" => SourceSpec::Am15d,
             "am1.5g" => SourceSpec::Am15g,
             "am0" => SourceSpec::Am0,
+            "place" => SourceSpec::ClearSky(ctx.place.get_untracked()),
             _ => SourceSpec::Blackbody { temp_k: crate::physics::constants::SUN_EFFECTIVE_TEMPERATURE },
         };
         ctx.edit(Control::AbsSource, |s| s.hot.absorber.source = spec);
@@ -561,6 +566,7 @@ pub fn absorber_controls(hot: HotState) -> impl IntoView {
         </div>
         {source}
         <div hidden=move || !is_bb.get()>{sun_t}</div>
+        <div class="sub-field" hidden=move || src_key.get() != "place">{place_controls(PlaceUi::new(ctx, crate::view::place::ABSORBER_SUN))}</div>
         {ambient}
         {hc}
         <p class="warning" hidden=move || warnings().is_empty()>{warnings}</p>

@@ -14,6 +14,7 @@ use super::import::{open_emissivity, open_sky};
 use crate::app::radiator::state::RadiatorState;
 use crate::app::state::Ctx;
 use crate::app::widgets::fields::{drop_zone, number_field, Field};
+use crate::app::widgets::place::{place_controls, PlaceUi};
 use crate::scenario::radiator::{
     pwv_from_dew_point, reitan_dew_point_c, AngularSpec, EmitterSpec, SkySpec, AMBIENT_RANGE_K, CLEAR_SKY_AMBIENT_K,
     DEW_POINT_RANGE_C, HC_RANGE, PWV_RANGE_CM, SUN_SCALE_RANGE,
@@ -257,12 +258,13 @@ fn sun_key(s: &SourceSpec) -> &'static str {
         SourceSpec::Am15g => "am1.5g",
         SourceSpec::Am15d => "am1.5d",
         SourceSpec::Am0 => "am0",
+        SourceSpec::ClearSky(_) => "place",
         _ => "other",
     }
 }
 
 /// The sun: on or off, its spectrum, angle and scale.
-pub fn sun_section(rad: RadiatorState) -> impl IntoView {
+pub fn sun_section(rad: RadiatorState, place: PlaceUi) -> impl IntoView {
     let ctx = rad.ctx;
     let on = Memo::new(move |_| ctx.scenario.with(|s| s.radiator.sun.is_some()));
     let on_toggle = move |ev: ev::Event| {
@@ -277,6 +279,7 @@ pub fn sun_section(rad: RadiatorState) -> impl IntoView {
         ("am1.5g", fixed_text("AM1.5G (global, tilted)"), always()),
         ("am1.5d", fixed_text("AM1.5D (direct + circumsolar)"), always()),
         ("am0", fixed_text("AM0 (above the atmosphere)"), always()),
+        ("place", fixed_text("Place and time (clear sky)"), always()),
         ("other", other, Signal::derive(move || sun_key(&rad.last_sun.get()) == "other")),
     ];
     let choose = move |v: &str| {
@@ -284,6 +287,7 @@ pub fn sun_section(rad: RadiatorState) -> impl IntoView {
             "am1.5g" => SourceSpec::Am15g,
             "am1.5d" => SourceSpec::Am15d,
             "am0" => SourceSpec::Am0,
+            "place" => SourceSpec::ClearSky(ctx.place.get_untracked()),
             _ => return,
         };
         rad.last_sun.set(spec.clone());
@@ -327,6 +331,7 @@ pub fn sun_section(rad: RadiatorState) -> impl IntoView {
                     {select(Control::SunSpectrum, "Sun's spectrum", key, options, choose)}
                     {error_line(ctx, Control::SunSpectrum)}
                 </div>
+                <div class="sub-field" hidden=move || key.get() != "place">{place_controls(place)}</div>
                 {zenith}
                 {scale}
                 <p class="safety">"Sunlit surfaces, dark ones above all, can get hot enough to burn. Take care on roofs and defer to local codes and licensed practice."</p>

@@ -106,6 +106,23 @@ fn render_effect(rad: RadiatorState, canvases: [NodeRef<html::Canvas>; 3]) {
     });
 }
 
+/// The radiator's day under a clear-sky sun (cached: the time slider does not recompute
+/// it), `None` for any other sun or none.
+fn radiator_day_plot(ctx: Ctx) -> Signal<Option<Result<Arc<crate::view::place::DayPlot>, String>>> {
+    use std::cell::RefCell;
+    use std::rc::Rc;
+    let cache = StoredValue::new_local(Rc::new(RefCell::new(crate::view::place::RadiatorDayCache::default())));
+    let memo = Memo::new(move |_| {
+        ctx.scenario.with(|s| match &s.radiator.sun {
+            Some(crate::scenario::SourceSpec::ClearSky(c)) => {
+                Some(cache.get_value().borrow_mut().day(c, &s.radiator).map(|d| Arc::new(d.plot())))
+            }
+            _ => None,
+        })
+    });
+    memo.into()
+}
+
 /// The Radiator tab's content.
 #[component]
 pub fn RadiatorPanel() -> impl IntoView {
@@ -115,16 +132,21 @@ pub fn RadiatorPanel() -> impl IntoView {
     render_effect(rad, canvases);
     layers::film_effect(rad, film_canvases);
     watch_sizes(rad.ctx, canvases.iter().chain(film_canvases.iter()).copied().collect());
+    let place = crate::app::widgets::place::PlaceUi::new(rad.ctx, crate::view::place::RADIATOR_SUN);
+    let day = radiator_day_plot(rad.ctx);
     view! {
         <main class="layout rad-layout">
             <aside class="panel" aria-label="Radiator settings">
                 {controls::surface_section(rad)}
                 {controls::environment_section(rad)}
-                {controls::sun_section(rad)}
+                {controls::sun_section(rad, place)}
             </aside>
             <section class="results" aria-label="Radiator results">
                 {figures::figures(rad)}
                 <div class="plots rad-plots">
+                    <div class="day-slot" hidden=move || day.with(Option::is_none)>
+                        {crate::app::widgets::place::day_chart(place, day, "The radiator through the day")}
+                    </div>
                     {layers::film_cards(rad, film_canvases)}
                     {editor::editor_card(rad, canvases[0])}
                     {cards::balance_card(rad, canvases[1])}

@@ -87,6 +87,23 @@ pub fn save_plot(
 }
 
 /// The Stack tab's content.
+/// The stack's day under the cell's clear-sky light (cached: the time slider does not
+/// recompute it), `None` for any other light.
+fn stack_day_plot(ctx: Ctx) -> Signal<Option<Result<Arc<crate::view::place::DayPlot>, String>>> {
+    use std::cell::RefCell;
+    use std::rc::Rc;
+    let cache = StoredValue::new_local(Rc::new(RefCell::new(crate::view::place::DayCache::default())));
+    let memo = Memo::new(move |_| {
+        ctx.scenario.with(|s| match &s.cell.spectrum {
+            crate::scenario::SourceSpec::ClearSky(c) => {
+                Some(cache.get_value().borrow_mut().stack(c, s).map(|d| Arc::new(d.plot("stack"))))
+            }
+            _ => None,
+        })
+    });
+    memo.into()
+}
+
 #[component]
 pub fn StackPanel() -> impl IntoView {
     let ctx = expect_context::<Ctx>();
@@ -157,17 +174,29 @@ pub fn StackPanel() -> impl IntoView {
         search::detach();
     });
 
+    // the stack shares the cell's light: its place and time, when that is the clear sky
+    let place = crate::app::widgets::place::PlaceUi::new(ctx, crate::view::place::CELL_LIGHT);
+    let day = stack_day_plot(ctx);
+    let clear = move || day.with(Option::is_some);
     view! {
         <main class="layout stack-layout">
             <aside class="panel" aria-label="Stack settings">
                 {controls::editor_section(stack)}
                 {search::search_section(stack)}
                 {controls::conditions(stack)}
+                <section class="panel-section" aria-labelledby="stack-place-h" hidden=move || !clear()>
+                    <h2 id="stack-place-h">"Light: place and time"</h2>
+                    <p class="hint">"The stack takes the Solar cell tab's light; these are its controls."</p>
+                    {crate::app::widgets::place::place_controls(place)}
+                </section>
             </aside>
             <section class="results" aria-label="Stack results">
                 {figures::figures(stack)}
                 {figures::subcell_table(stack)}
                 <div class="plots stack-plots">
+                    <div class="day-slot" hidden=move || !clear()>
+                        {crate::app::widgets::place::day_chart(place, day, "The stack through the day")}
+                    </div>
                     {cards::spectrum_card(stack, canvases[SPECTRUM])}
                     {cards::map_card(stack, canvases[MAP])}
                 </div>

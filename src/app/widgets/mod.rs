@@ -9,6 +9,7 @@ pub mod card;
 pub mod export;
 pub mod fields;
 pub mod notices;
+pub mod place;
 pub mod plot;
 pub mod real_fields;
 pub mod worker;
