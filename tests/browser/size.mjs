@@ -8,7 +8,7 @@ import path from 'node:path';
 import zlib from 'node:zlib';
 
 /** Budgets in KB (1024 bytes), gzipped; see DEVELOPERS.md, "The web build". */
-export const BUDGET_KB = { wasm: 850, js: 16, css: 10, total: 870 };
+export const BUDGET_KB = { wasm: 925, js: 16, css: 10, total: 945 };
 
 /** Sizes in bytes of the first visit's files in `dist`, by kind, raw and gzipped. */
 export function firstVisit(dist) {
