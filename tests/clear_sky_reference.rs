@@ -1,7 +1,7 @@
 //! Clear-sky spectra against an independent implementation of the same model form:
 //! tests/fixtures/clear_sky_spectra.csv, written by tests/reference/gen_clear_sky.py with
-//! pvlib 0.16.1 `spectrum.spectrl2` (Bird & Riordan, SERI/TR-215-2436 (1984), in the form of
-//! the laboratory's C code) and Kasten & Young (1989) air mass; and the no-NaN property.
+//! pvlib 0.16.1 `spectrum.spectrl2` (Bird & Riordan, SERI/TR-215-2436 (1984), with the
+//! constants and forms listed in physics::clear_sky) and Kasten & Young (1989) air mass; and the no-NaN property.
 
 use glowgap::physics::clear_sky::*;
 use proptest::prelude::*;

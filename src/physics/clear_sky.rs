@@ -24,16 +24,14 @@
 //! zenith, M = 1 / (cos Z + 0.50572 (96.07995 deg - Z)^-1.6364). A zenith of 90 deg or more
 //! (the sun at or below the horizon) gives zero irradiance.
 //!
-//! Which form of the model. The report's text, its appendix code and the model's later C
-//! code differ in five places; this module takes, in each, the form of the C code:
+//! The forms used, where the report's printed text reads otherwise (its value in brackets):
 //!
-//! * Rayleigh constant 1.3366 (the report prints 1.335);
-//! * mixed-gas constant 118.3 (the report prints 118.93);
-//! * the sky reflectivity (Eq. 3-8) begins with the mixed-gas T_u' (the appendix and C
-//!   code), not the ozone T_o' of the report's text;
-//! * C_s is applied once, to the total scattered irradiance I_r + I_a + I_g (the appendix
-//!   and C code), not to I_r and I_a and again to their sum (the report's text);
-//! * air mass of Kasten & Young (1989), not Kasten (1966).
+//! * Rayleigh constant 1.3366 (1.335);
+//! * mixed-gas constant 118.3 (118.93);
+//! * the sky reflectivity (Eq. 3-8) begins with the mixed-gas T_u' (the ozone T_o');
+//! * C_s is applied once, to the total scattered irradiance I_r + I_a + I_g (to I_r and I_a
+//!   and again to their sum);
+//! * air mass of Kasten & Young (1989) (Kasten 1966).
 //!
 //! Plane of array: beam I_d max(cos theta, 0) for angle of incidence theta, ground
 //! reflection (I_d cos Z + I_s) rho_g (1 - cos beta) / 2 for tilt beta, and the sky by

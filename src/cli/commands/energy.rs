@@ -8,7 +8,7 @@ use crate::cli::args::{OptionDoc, Parsed, Spec};
 use crate::cli::shared::files::read_series_file;
 use crate::cli::shared::options::{apply_common, connection};
 use crate::cli::shared::output::{connection_words, print_json};
-use crate::cli::shared::place::place_from_args;
+use crate::cli::shared::place::{place_from_args, place_keys_with, PLACE_KEYS};
 use crate::cli::shared::{Command, Failure, Out};
 use crate::physics::constants::{ev, to_ev};
 use crate::physics::energy_yield::{best_stack_gaps, device_energy, gap_curve, Device, Series};
@@ -16,48 +16,32 @@ use crate::physics::junction::{best_gap, sweep, Cell, Illumination};
 use crate::physics::sources::Source;
 use crate::physics::stack::optimize::{optimize, Problem};
 use crate::physics::stack::Connection as PhysConnection;
+use crate::report::day::iso_time;
 use crate::scenario::energy::{read_measured_series, Period, YieldSetup, YieldSpec};
-use crate::scenario::place::clock;
 use crate::scenario::stack::check_gaps;
 use crate::scenario::{check_gap_ev, check_gap_range, CellScenario, Connection};
 use serde::Serialize;
 
+/// The place's options, then the period, the series file, the device and the cell.
+const VALUED: [&str; PLACE_KEYS.len() + 14] = place_keys_with([
+    "date",
+    "year",
+    "step",
+    "spectra",
+    "gap",
+    "gaps",
+    "junctions",
+    "connection",
+    "from",
+    "to",
+    "cell-temp",
+    "ere",
+    "emission",
+    "approx",
+]);
+
 pub const COMMAND: Command = Command {
-    spec: Spec {
-        command: "yield",
-        valued: &[
-            "lat",
-            "lon",
-            "elevation",
-            "pressure",
-            "air-temp",
-            "delta-t",
-            "tilt",
-            "azimuth",
-            "pwv",
-            "ozone",
-            "aod500",
-            "angstrom",
-            "albedo",
-            "sky-model",
-            "date",
-            "year",
-            "step",
-            "spectra",
-            "gap",
-            "gaps",
-            "junctions",
-            "connection",
-            "from",
-            "to",
-            "cell-temp",
-            "ere",
-            "emission",
-            "approx",
-        ],
-        flags: &["best", "json"],
-        max_positional: 0,
-    },
+    spec: Spec { command: "yield", valued: &VALUED, flags: &["best", "json"], max_positional: 0 },
     about: "electric energy over a clear day or year at a place, and the gaps that give the most",
     usage: "yield --lat DEG --lon DEG (--date YYYY-MM-DD | --year YYYY) [--tilt DEG --azimuth DEG]\n\
             [--gap EV | --gaps EV,EV,... | --best [--junctions N]] [ATMOSPHERE OPTIONS] [--json]\n\
@@ -291,7 +275,7 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
     let mut steps = Vec::new();
     let energy = device_energy(series, &device, &mut none, &mut |s, inc, el| {
         if per_step {
-            steps.push(StepRow { time: iso(&s.when), plane_w_m2: inc, electric_w_m2: el });
+            steps.push(StepRow { time: iso_time(&s.when), plane_w_m2: inc, electric_w_m2: el });
         }
     })?;
     let am15g_optimum = match am {
@@ -328,22 +312,6 @@ fn run(args: &[String], out: Out) -> Result<(), Failure> {
         return print_json(out, &report);
     }
     write_text(out, &report, conn)
-}
-
-fn iso(t: &crate::physics::solar_position::CivilTime) -> String {
-    let off = (t.utc_offset_h * 60.0).round() as i32;
-    let sign = if off < 0 { '-' } else { '+' };
-    format!(
-        "{:04}-{:02}-{:02}T{}:{:02}{}{:02}:{:02}",
-        t.year,
-        t.month,
-        t.day,
-        clock(t.hour as f64 + t.minute as f64 / 60.0),
-        t.second.floor() as u32,
-        sign,
-        off.abs() / 60,
-        off.abs() % 60
-    )
 }
 
 fn write_text(out: Out, r: &YieldReport, conn: Connection) -> Result<(), Failure> {
